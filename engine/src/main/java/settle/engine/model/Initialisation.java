@@ -1,0 +1,13 @@
+package settle.engine.model;
+
+/** How a replicate's parameters start (plan key {@code model.init}). */
+public enum Initialisation {
+    /** every parameter 0 (the logistic default) */
+    ZEROS,
+    /** the reference minimiser θ* (convex models only; filled in by the caller, not by the model) */
+    REFERENCE,
+    /** Glorot/Xavier uniform weights, U(−a, a) with a = sqrt(6 / (fan_in + fan_out)); biases 0 */
+    GLOROT,
+    /** He/Kaiming normal weights, N(0, 2 / fan_in); biases 0 (the MLP default) */
+    HE
+}
