@@ -179,7 +179,7 @@ final class KeyReader {
 
     private void finish() {
         for (String key : map.keySet()) {
-            if (!accepted.contains(key)) {
+            if (!accepted.contains(key) && !(prefix.isEmpty() && key.equals("kind"))) {
                 String hint = Suggest.nearest(key, accepted);
                 String p = path(key);
                 List<String> keys = new ArrayList<>();
