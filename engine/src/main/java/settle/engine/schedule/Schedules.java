@@ -15,6 +15,13 @@ public final class Schedules {
         KINDS.put(Reciprocal.KIND, Reciprocal::parse);
         KINDS.put(PowerLaw.KIND, PowerLaw::parse);
         KINDS.put(Exponential.KIND, Exponential::parse);
+        KINDS.put(Stepped.KIND, Stepped::parse);
+        KINDS.put(Piecewise.KIND, Piecewise::parse);
+        KINDS.put(Plateau.KIND, Plateau::parse);
+        KINDS.put(Cosine.KIND, Cosine::parse);
+        KINDS.put(Anneal.KIND, Anneal::parse);
+        KINDS.put(WarmupStableDecay.KIND, WarmupStableDecay::parse);
+        KINDS.put(Formula.KIND, Formula::parse);
     }
 
     private Schedules() {
