@@ -1,0 +1,139 @@
+package settle.experiments.cli;
+
+import java.io.IOException;
+import java.io.PrintStream;
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import settle.engine.minimum.NoMinimiserException;
+import settle.experiments.plan.ParsedPlan;
+import settle.experiments.plan.PlanParser;
+import settle.experiments.run.LocalExecutor;
+import settle.experiments.run.Progress;
+import settle.experiments.study.StudyContext;
+import settle.experiments.study.StudyLock;
+import settle.experiments.study.StudyRunner;
+
+/**
+ * {@code settle run PLAN}: trains every arm × replicate of a plan into its study directory, resuming what a
+ * killed run left. Exit 0 when every replicate finished, 3 when some diverged, 1 when all diverged or the
+ * work failed, 2 for bad input.
+ */
+@Command(name = "run", mixinStandardHelpOptions = true,
+        description = "Run a plan: every arm over the same seeds, into a study directory.")
+public final class RunCommand implements Callable<Integer> {
+
+    @Parameters(index = "0", paramLabel = "PLAN", description = "the plan YAML file")
+    Path planFile;
+
+    @Option(names = "--out", paramLabel = "DIR", description = "the study directory (default: studies/<study>)")
+    Path out;
+
+    @Option(names = "--threads", paramLabel = "N", description = "replicates trained at once (default: the core count, ${DEFAULT-VALUE})")
+    int threads = Runtime.getRuntime().availableProcessors();
+
+    @Option(names = "--fresh", description = "discard the results of an existing study in the directory first")
+    boolean fresh;
+
+    @Option(names = "--quiet", description = "no progress display")
+    boolean quiet;
+
+    @Option(names = "--json", description = "print a machine-readable summary on stdout")
+    boolean json;
+
+    @Spec
+    CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        List<String> command = new ArrayList<>();
+        command.add("settle");
+        command.addAll(spec.commandLine().getParseResult().originalArgs());
+        return execute(spec, () -> PlanParser.read(planFile), out, threads, fresh, quiet, json, command);
+    }
+
+    /** Supplies the parsed plan (from a file, or the bundled demo). */
+    @FunctionalInterface
+    interface PlanSource {
+        ParsedPlan read();
+    }
+
+    /** Shared by {@code run} and {@code demo}. */
+    static int execute(CommandSpec spec, PlanSource source, Path out, int threads, boolean fresh, boolean quiet,
+            boolean json, List<String> command) {
+        PrintWriter stdout = spec.commandLine().getOut();
+        PrintWriter stderr = spec.commandLine().getErr();
+        if (threads < 1) {
+            stderr.println("--threads must be at least 1: " + threads);
+            return Main.BAD_INPUT;
+        }
+        StudyRunner.Outcome outcome;
+        try {
+            ParsedPlan parsed = source.read();
+            for (String w : parsed.warnings()) {
+                stderr.println("warning: " + w);
+            }
+            StudyContext context = StudyContext.build(parsed);
+            for (String w : context.data().warnings()) {
+                stderr.println("warning: " + w);
+            }
+            Path directory = out != null ? out : Path.of("studies", parsed.plan().study());
+            stderr.flush();
+            PrintStream progressStream = System.err;
+            StudyRunner runner = new StudyRunner(context, directory, new LocalExecutor(threads), command,
+                    progressStream, Progress.choose(quiet));
+            outcome = runner.run(fresh);
+        } catch (NoMinimiserException | StudyLock.LockHeldException e) {
+            stderr.println("settle run: " + e.getMessage());
+            return Main.FAILED;
+        } catch (IllegalArgumentException e) {
+            stderr.println(e.getMessage());
+            return Main.BAD_INPUT;
+        } catch (IOException e) {
+            stderr.println("settle run: " + e.getMessage());
+            return Main.FAILED;
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            stderr.println("settle run: interrupted; finished replicates are kept, run the same command again to finish");
+            return Main.INTERRUPTED;
+        } catch (Exception e) {
+            stderr.println("settle run: " + e);
+            return Main.FAILED;
+        }
+        int code = outcome.exitCode();
+        String where = outcome.directory().toString();
+        if (json) {
+            stdout.printf(java.util.Locale.ROOT,
+                    "{\"study\": \"%s\", \"replicates\": %d, \"finished\": %d, \"diverged\": %d, \"missing\": %d, "
+                            + "\"trained_now\": %d, \"exit_code\": %d}%n",
+                    jsonEscape(where), outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
+                    outcome.ranNow(), code);
+        } else if (!quiet) {
+            stderr.printf("settle: %d of %d replicates finished, %d diverged; study directory %s%n",
+                    outcome.finished(), outcome.total(), outcome.diverged(), where);
+        }
+        return code;
+    }
+
+    static String jsonEscape(String s) {
+        StringBuilder b = new StringBuilder();
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            if (c == '"' || c == '\\') {
+                b.append('\\').append(c);
+            } else if (c < 0x20) {
+                b.append(String.format("\\u%04x", (int) c));
+            } else {
+                b.append(c);
+            }
+        }
+        return b.toString();
+    }
+}

@@ -1,0 +1,139 @@
+package settle.experiments.study;
+
+import com.fasterxml.jackson.core.JsonGenerator;
+import java.io.IOException;
+import java.util.List;
+import settle.engine.train.EpochRecord;
+import settle.engine.train.ReplicateResult;
+import settle.engine.train.ReplicateSeeds;
+import settle.engine.train.TailPlan;
+import settle.engine.train.Wander;
+import settle.experiments.run.ReplicateKey;
+
+/**
+ * The replicate file {@code arms/<arm>/<replicate>.json} (study directory format 1; every field is
+ * described in the README's study-directory schema). It holds no wall-clock time, so the same plan and
+ * seeds give the same bytes on any machine, thread count or executor.
+ */
+public final class ReplicateFile {
+
+    /** The study directory format these files belong to. */
+    public static final int FORMAT = 1;
+
+    private ReplicateFile() {
+    }
+
+    /** @return the path of a replicate's file relative to the study directory */
+    public static String relativePath(ReplicateKey key) {
+        return "arms/" + key.arm() + "/" + key.replicate() + ".json";
+    }
+
+    /**
+     * @param key which replicate
+     * @param armName the arm's name
+     * @param classes K, the number of classes (the columns of the test probabilities)
+     * @param result what the replicate recorded
+     * @return the file's bytes
+     */
+    public static byte[] toJson(ReplicateKey key, String armName, int classes, ReplicateResult result) {
+        return Json.document(g -> write(g, key, armName, classes, result));
+    }
+
+    private static void write(JsonGenerator g, ReplicateKey key, String armName, int classes, ReplicateResult r)
+            throws IOException {
+        g.writeStartObject();
+        g.writeNumberField("format", FORMAT);
+        g.writeNumberField("arm", key.arm());
+        g.writeStringField("arm_name", armName);
+        g.writeNumberField("replicate", key.replicate());
+        ReplicateSeeds s = r.seeds();
+        g.writeObjectFieldStart("seeds");
+        g.writeStringField("algorithm", s.algorithm());
+        g.writeNumberField("root", s.rootSeed());
+        g.writeNumberField("initialisation", s.initialisationSeed());
+        g.writeNumberField("sampling", s.samplingSeed());
+        g.writeEndObject();
+        g.writeStringField("status", r.status().key());
+        g.writeNumberField("diverged_at_update", r.divergedAt());
+        g.writeNumberField("total_updates", r.totalUpdates());
+        g.writeNumberField("updates_run", r.rates().length);
+        g.writeStringField("average", r.averageTail() ? "tail" : "none");
+        Json.number(g, "initial_objective", r.initialObjective());
+
+        Wander w = r.wander();
+        g.writeObjectFieldStart("metrics");
+        Json.number(g, "final_objective", w == null ? Double.NaN : w.finalObjective());
+        Json.number(g, "final_gap", w == null ? Double.NaN : w.finalGap());
+        Json.number(g, "final_distance", w == null ? Double.NaN : w.finalDistance());
+        Json.number(g, "tail_radius", w == null ? Double.NaN : w.tailRadius());
+        Json.number(g, "tail_distance", w == null ? Double.NaN : w.tailDistance());
+        Json.number(g, "tail_loss_spread", w == null ? Double.NaN : w.tailLossSpread());
+        Json.number(g, "averaged_objective", w == null ? Double.NaN : w.averagedObjective());
+        Json.number(g, "averaged_gap", w == null ? Double.NaN : w.averagedGap());
+        Json.number(g, "test_loss", w == null ? Double.NaN : w.testLoss());
+        Json.number(g, "test_accuracy", w == null ? Double.NaN : w.testAccuracy());
+        g.writeEndObject();
+
+        g.writeFieldName("tail");
+        if (w == null) {
+            g.writeNull();
+        } else {
+            TailPlan tail = w.tail();
+            g.writeStartObject();
+            g.writeNumberField("first_update", tail.firstUpdate());
+            g.writeNumberField("length", tail.length());
+            g.writeNumberField("snapshots", tail.snapshots());
+            Json.array(g, "snapshot_updates", w.snapshotUpdates());
+            Json.array(g, "snapshot_objectives", w.snapshotObjectives());
+            g.writeEndObject();
+        }
+
+        List<EpochRecord> epochs = r.epochs();
+        int n = epochs.size();
+        long[] epoch = new long[n];
+        long[] lastUpdate = new long[n];
+        double[] rate = new double[n];
+        double[] objective = new double[n];
+        double[] holdout = new double[n];
+        double[] testLoss = new double[n];
+        double[] testAccuracy = new double[n];
+        double[] distance = new double[n];
+        for (int i = 0; i < n; i++) {
+            EpochRecord e = epochs.get(i);
+            epoch[i] = e.epoch();
+            lastUpdate[i] = e.lastUpdate();
+            rate[i] = e.rate();
+            objective[i] = e.objective();
+            holdout[i] = e.holdoutLoss();
+            testLoss[i] = e.testLoss();
+            testAccuracy[i] = e.testAccuracy();
+            distance[i] = e.distance();
+        }
+        g.writeObjectFieldStart("epochs");
+        Json.array(g, "epoch", epoch);
+        Json.array(g, "last_update", lastUpdate);
+        Json.array(g, "rate", rate);
+        Json.array(g, "objective", objective);
+        Json.array(g, "holdout_loss", holdout);
+        Json.array(g, "test_loss", testLoss);
+        Json.array(g, "test_accuracy", testAccuracy);
+        Json.array(g, "distance", distance);
+        g.writeEndObject();
+
+        Json.array(g, "rates", r.rates());
+        Json.array(g, "start", r.start());
+        Json.array(g, "last", r.last());
+        Json.array(g, "tail_mean", r.tailMean());
+        int p = r.last().length;
+        if (w == null) {
+            g.writeNullField("snapshots");
+            g.writeNullField("test_probabilities");
+        } else {
+            Json.matrix(g, "snapshots", w.snapshots() == null ? 0 : w.snapshots().length / p, p, w.snapshots());
+            double[] probabilities = w.testProbabilities();
+            Json.matrix(g, "test_probabilities", probabilities == null ? 0 : probabilities.length / classes, classes,
+                    probabilities);
+        }
+        g.writeEndObject();
+    }
+}
