@@ -113,6 +113,23 @@ public final class NoiseBallTheory {
     }
 
     /**
+     * @param hessian H at θ*, P×P, symmetric. Not modified.
+     * @param covariance C at θ* (divisor N), P×P. Not modified.
+     * @param examples N
+     * @return the theory, with H decomposed by EJML and its eigenvalues sorted
+     */
+    public static NoiseBallTheory of(DMatrixRMaj hessian, DMatrixRMaj covariance, int examples) {
+        int n = hessian.getNumRows();
+        if (hessian.getNumCols() != n || covariance.getNumRows() != n || covariance.getNumCols() != n) {
+            throw new IllegalArgumentException("H and C must both be square and of the same size: H is "
+                    + hessian.getNumRows() + "×" + hessian.getNumCols() + ", C " + covariance.getNumRows() + "×"
+                    + covariance.getNumCols());
+        }
+        return of(n, java.util.Arrays.copyOf(hessian.getData(), n * n),
+                java.util.Arrays.copyOf(covariance.getData(), n * n), examples);
+    }
+
+    /**
      * @param basis H's eigen-decomposition, already computed
      * @param covariance C, row-major P×P. Not modified.
      * @param examples N

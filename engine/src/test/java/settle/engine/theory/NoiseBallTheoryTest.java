@@ -127,6 +127,11 @@ class NoiseBallTheoryTest {
         assertRelative(359.0 / 1368.0, fp.excessLoss(), "fixed-point excess loss");
         assertEquals(0.5, theory.stabilityBound(), 1e-12, "2/λmax = 2/4");
         assertEquals(0.4, p.largestRateTimesCurvature(), 1e-12, "α λmax = 0.1·4");
+        // The same through EJML matrices.
+        NoiseBallTheory viaEjml = NoiseBallTheory.of(new org.ejml.data.DMatrixRMaj(3, 3, true, H3),
+                new org.ejml.data.DMatrixRMaj(3, 3, true, 9, 0, 0, 0, 0, 0, 0, 0, 0), 10);
+        assertRelative(3.1867, viaEjml.predict(two, new double[] {3, 0, 0}, 2, ObjectiveKind.QUADRATIC)
+                .finalExcessLoss(), "excess loss after update 2, EJML input");
     }
 
     @Test
