@@ -8,6 +8,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
 import java.nio.file.StandardOpenOption;
+import java.util.concurrent.atomic.AtomicLong;
 
 /**
  * Writes files so that a reader, or a run killed at any moment, sees either the old content or the whole
@@ -19,6 +20,8 @@ public final class AtomicFiles {
     /** Suffix of the temporary files; a killed run may leave some behind, which the next run removes. */
     public static final String TEMP_SUFFIX = ".partial";
 
+    private static final AtomicLong COUNTER = new AtomicLong();
+
     private AtomicFiles() {
     }
 
@@ -26,9 +29,11 @@ public final class AtomicFiles {
     public static void write(Path target, byte[] bytes) throws IOException {
         Path dir = target.toAbsolutePath().getParent();
         Files.createDirectories(dir);
-        Path temp = Files.createTempFile(dir, "." + target.getFileName() + ".", TEMP_SUFFIX);
+        // a name no other writer uses; created with the default permissions (createTempFile would make it 0600)
+        Path temp = dir.resolve("." + target.getFileName() + "." + ProcessHandle.current().pid() + "."
+                + Thread.currentThread().getId() + "." + COUNTER.incrementAndGet() + TEMP_SUFFIX);
         try {
-            try (FileChannel ch = FileChannel.open(temp, StandardOpenOption.WRITE, StandardOpenOption.TRUNCATE_EXISTING)) {
+            try (FileChannel ch = FileChannel.open(temp, StandardOpenOption.WRITE, StandardOpenOption.CREATE_NEW)) {
                 java.nio.ByteBuffer buffer = java.nio.ByteBuffer.wrap(bytes);
                 while (buffer.hasRemaining()) {
                     ch.write(buffer);

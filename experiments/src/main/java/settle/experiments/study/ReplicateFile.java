@@ -3,6 +3,9 @@ package settle.experiments.study;
 import com.fasterxml.jackson.core.JsonGenerator;
 import java.io.IOException;
 import java.util.List;
+import java.util.Locale;
+import settle.engine.theory.FixedPoint;
+import settle.engine.theory.NoiseBallPrediction;
 import settle.engine.train.EpochRecord;
 import settle.engine.train.ReplicateResult;
 import settle.engine.train.ReplicateSeeds;
@@ -33,14 +36,16 @@ public final class ReplicateFile {
      * @param armName the arm's name
      * @param classes K, the number of classes (the columns of the test probabilities)
      * @param result what the replicate recorded
+     * @param prediction its predicted noise ball, or a skipped one
      * @return the file's bytes
      */
-    public static byte[] toJson(ReplicateKey key, String armName, int classes, ReplicateResult result) {
-        return Json.document(g -> write(g, key, armName, classes, result));
+    public static byte[] toJson(ReplicateKey key, String armName, int classes, ReplicateResult result,
+            NoiseBallPrediction prediction) {
+        return Json.document(g -> write(g, key, armName, classes, result, prediction));
     }
 
-    private static void write(JsonGenerator g, ReplicateKey key, String armName, int classes, ReplicateResult r)
-            throws IOException {
+    private static void write(JsonGenerator g, ReplicateKey key, String armName, int classes, ReplicateResult r,
+            NoiseBallPrediction prediction) throws IOException {
         g.writeStartObject();
         g.writeNumberField("format", FORMAT);
         g.writeNumberField("arm", key.arm());
@@ -134,6 +139,38 @@ public final class ReplicateFile {
             Json.matrix(g, "test_probabilities", probabilities == null ? 0 : probabilities.length / classes, classes,
                     probabilities);
         }
+        writePrediction(g, prediction);
+        g.writeEndObject();
+    }
+
+    private static void writePrediction(JsonGenerator g, NoiseBallPrediction p) throws IOException {
+        g.writeObjectFieldStart("prediction");
+        g.writeBooleanField("predicted", p.predicted());
+        if (!p.predicted()) {
+            g.writeStringField("skipped", p.skipReason());
+            g.writeEndObject();
+            return;
+        }
+        g.writeStringField("kind", p.kind().name().toLowerCase(Locale.ROOT).replace('_', '-'));
+        g.writeStringField("label", p.label());
+        Json.array(g, "epoch_distance_sq", p.epochDistanceSq());
+        Json.array(g, "epoch_excess_loss", p.epochExcessLoss());
+        g.writeNumberField("tail_updates", p.tailUpdates());
+        Json.number(g, "tail_distance_sq", p.tailDistanceSq());
+        Json.number(g, "tail_excess_loss", p.tailExcessLoss());
+        Json.number(g, "final_distance_sq", p.finalDistanceSq());
+        Json.number(g, "final_excess_loss", p.finalExcessLoss());
+        FixedPoint f = p.fixedPoint();
+        g.writeObjectFieldStart("fixed_point");
+        Json.number(g, "rate", f.rate());
+        g.writeNumberField("batch", f.batch());
+        g.writeBooleanField("exists", f.exists());
+        Json.number(g, "distance_sq", f.distanceSq());
+        Json.number(g, "excess_loss", f.excessLoss());
+        g.writeStringField("note", f.note());
+        g.writeEndObject();
+        Json.number(g, "stability_bound", p.stabilityBound());
+        Json.number(g, "largest_rate_times_curvature", p.largestRateTimesCurvature());
         g.writeEndObject();
     }
 }

@@ -2,10 +2,18 @@ package settle.experiments.study;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Optional;
+import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
 import settle.engine.minimum.NoMinimiserException;
 import settle.engine.model.Model;
+import settle.engine.theory.BatchSampling;
+import settle.engine.theory.NoiseBallPrediction;
+import settle.engine.theory.NoiseBallTheory;
+import settle.engine.theory.ObjectiveKind;
+import settle.engine.theory.UpdateSequence;
+import settle.engine.train.Sampling;
 import settle.engine.train.ReferencePoint;
 import settle.engine.train.ReplicateResult;
 import settle.engine.train.ReplicateSeeds;
@@ -29,13 +37,20 @@ public final class StudyContext {
     private final PlanData data;
     private final Model model;
     private final Minimum minimum;
+    private final Curvature curvature;
+    private final NoiseBallTheory theory;
+    private final String theorySkipped;
     private final List<Trainer> trainers;
 
-    private StudyContext(ParsedPlan parsed, PlanData data, Model model, Minimum minimum, List<Trainer> trainers) {
+    private StudyContext(ParsedPlan parsed, PlanData data, Model model, Minimum minimum, Curvature curvature,
+            NoiseBallTheory theory, String theorySkipped, List<Trainer> trainers) {
         this.parsed = parsed;
         this.data = data;
         this.model = model;
         this.minimum = minimum;
+        this.curvature = curvature;
+        this.theory = theory;
+        this.theorySkipped = theorySkipped;
         this.trainers = List.copyOf(trainers);
     }
 
@@ -56,13 +71,29 @@ public final class StudyContext {
         }
         Minimum minimum = model.convex() ? new Minimiser().minimise(model, data.train()) : null;
         ReferencePoint reference = minimum == null ? null : new ReferencePoint(minimum.theta(), minimum.objective());
+        Curvature curvature = null;
+        NoiseBallTheory theory = null;
+        String theorySkipped;
+        if (minimum == null) {
+            theorySkipped = "no prediction: " + model.describe() + " is not convex, so there is no reference minimiser";
+        } else {
+            Optional<String> skip = Curvature.skipReason(model)
+                    .or(() -> NoiseBallTheory.skipReason(model.parameterCount(), plan.training().momentum()));
+            if (skip.isPresent()) {
+                theorySkipped = skip.get();
+            } else {
+                curvature = Curvature.at(model, data.train(), minimum.theta());
+                theory = NoiseBallTheory.of(curvature.hessian(), curvature.covariance(), data.train().rows());
+                theorySkipped = "";
+            }
+        }
         List<Trainer> trainers = new ArrayList<>();
         TrainingPlan t = plan.training();
         for (int i = 0; i < plan.arms().size(); i++) {
             ArmPlan arm = plan.arms().get(i);
             TrainingSettings settings;
             try {
-                settings = new TrainingSettings(t.epochs(), t.batch(), t.sampling(), t.momentum(), t.tail(),
+                settings = new TrainingSettings(t.epochs(), t.batch(), settle.engine.train.Sampling.parse(t.sampling().yamlName()), t.momentum(), t.tail(),
                         t.snapshots(), arm.average() == ArmPlan.Averaging.TAIL);
             } catch (IllegalArgumentException e) {
                 throw parsed.error("training", e.getMessage());
@@ -82,7 +113,7 @@ public final class StudyContext {
                 throw parsed.error("arms[" + i + "]", e.getMessage());
             }
         }
-        return new StudyContext(parsed, data, model, minimum, trainers);
+        return new StudyContext(parsed, data, model, minimum, curvature, theory, theorySkipped, trainers);
     }
 
     /** @return the plan with its key positions */
@@ -108,6 +139,39 @@ public final class StudyContext {
     /** @return θ* and F(θ*) for a convex model, null otherwise */
     public Minimum minimum() {
         return minimum;
+    }
+
+    /** @return H and C at θ* when they were computed (convex models within the dense limit), else null */
+    public Curvature curvature() {
+        return curvature;
+    }
+
+    /**
+     * The predicted noise ball of one replicate for its actual rate sequence (DESIGN.md "Theory").
+     *
+     * @return the prediction, or a skipped one with the reason (not convex, momentum, too many parameters,
+     *     or a replicate that diverged)
+     */
+    public NoiseBallPrediction predict(ReplicateResult result) {
+        if (theory == null) {
+            return NoiseBallPrediction.skipped(theorySkipped);
+        }
+        if (result.diverged()) {
+            return NoiseBallPrediction.skipped("no prediction: the replicate diverged at update " + result.divergedAt());
+        }
+        TrainingPlan t = plan().training();
+        int n = data.train().rows();
+        BatchSampling sampling = t.sampling().yamlName().equals(Sampling.SHUFFLE.key()) ? BatchSampling.SHUFFLE
+                : BatchSampling.REPLACEMENT;
+        UpdateSequence updates = UpdateSequence.of(result.rates(), n, Math.min(t.batch(), n), sampling);
+        double[] offset = result.start().clone();
+        model.removeGauge(offset);
+        double[] star = minimum.theta();
+        for (int i = 0; i < offset.length; i++) {
+            offset[i] -= star[i];
+        }
+        int tail = (int) Math.min(result.rates().length, (long) Math.ceil(t.tail() * result.rates().length - 1e-9));
+        return theory.predict(updates, offset, Math.max(1, tail), ObjectiveKind.LOGISTIC);
     }
 
     /** @return the trainer of the arm with 1-based index {@code arm} */

@@ -152,7 +152,7 @@ public final class StudyRunner {
     public static ReplicateOutcome outcome(StudyContext context, ReplicateKey key) {
         ReplicateResult result = context.train(key);
         ArmPlan arm = context.plan().arms().get(key.arm() - 1);
-        byte[] file = ReplicateFile.toJson(key, arm.name(), context.model().classes(), result);
+        byte[] file = ReplicateFile.toJson(key, arm.name(), context.model().classes(), result, context.predict(result));
         return new ReplicateOutcome(key, file, result.diverged(), result.rates().length);
     }
 
@@ -212,7 +212,8 @@ public final class StudyRunner {
     private byte[] referenceJson() {
         Minimum m = context.minimum();
         Optional<String> skip = Curvature.skipReason(context.model());
-        Curvature c = skip.isEmpty() ? Curvature.at(context.model(), context.data().train(), m.theta()) : null;
+        Curvature c = context.curvature() != null ? context.curvature()
+                : skip.isEmpty() ? Curvature.at(context.model(), context.data().train(), m.theta()) : null;
         return Json.document(g -> {
             g.writeStartObject();
             g.writeNumberField("format", ReplicateFile.FORMAT);
