@@ -1,0 +1,120 @@
+package settle.experiments.study;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+
+/**
+ * Checks a study directory against the written schema of format 1 (README, "Study directory"): every file
+ * present, every field there with its type, sizes consistent across files.
+ */
+final class StudySchema {
+
+    private static final ObjectMapper MAPPER = new ObjectMapper();
+
+    private StudySchema() {
+    }
+
+    static void validate(Path dir) throws Exception {
+        for (String file : List.of("plan.yaml", "manifest.json", "epochs.csv")) {
+            assertTrue(Files.isRegularFile(dir.resolve(file)), dir + " lacks " + file);
+        }
+        JsonNode m = MAPPER.readTree(dir.resolve("manifest.json").toFile());
+        assertEquals(1, m.path("format").asInt(), "manifest format");
+        for (String key : List.of("plan_sha256", "data_sha256", "split_sha256")) {
+            assertTrue(m.path(key).asText().matches("[0-9a-f]{64}"), key);
+        }
+        for (String key : List.of("generator", "started", "ended", "executor", "model", "baseline")) {
+            assertTrue(m.path(key).isTextual(), "manifest." + key);
+        }
+        for (String key : List.of("threads", "root_seed", "parameters")) {
+            assertTrue(m.path(key).isIntegralNumber(), "manifest." + key);
+        }
+        assertTrue(m.path("tool").path("version").isTextual() && m.path("tool").path("git_commit").isTextual());
+        assertTrue(m.path("jvm").path("version").isTextual() && m.path("cpu").path("cores").isInt());
+        assertTrue(m.path("command").isArray() && m.path("command").size() > 0);
+        JsonNode data = m.path("data");
+        for (String key : List.of("rows", "features", "train_rows", "test_rows", "holdout_rows", "updates_per_epoch")) {
+            assertTrue(data.path(key).isInt(), "manifest.data." + key);
+        }
+        assertEquals(data.path("features").asInt(), data.path("feature_names").size());
+        int classes = data.path("class_names").size();
+        assertTrue(classes >= 2);
+        assertTrue(m.path("standardisation").isNull() || m.path("standardisation").path("means").size()
+                == data.path("features").asInt());
+        int arms = m.path("arms").size();
+        assertTrue(arms >= 1);
+        for (int a = 0; a < arms; a++) {
+            JsonNode arm = m.path("arms").get(a);
+            assertEquals(a + 1, arm.path("index").asInt());
+            assertEquals("arms/" + (a + 1), arm.path("directory").asText());
+            assertTrue(arm.path("name").isTextual());
+        }
+        boolean convex = m.path("reference").asText().equals("reference.json");
+        int parameters = m.path("parameters").asInt();
+        if (convex) {
+            JsonNode ref = MAPPER.readTree(dir.resolve("reference.json").toFile());
+            assertEquals(parameters, ref.path("theta").size());
+            assertTrue(ref.path("objective").isNumber() && ref.path("gradient_norm").isNumber());
+        }
+        int epochRows = 0;
+        for (JsonNode rep : m.path("replicates")) {
+            String status = rep.path("status").asText();
+            assertTrue(List.of("finished", "diverged", "missing").contains(status), status);
+            if (status.equals("missing")) {
+                continue;
+            }
+            Path file = dir.resolve("arms/" + rep.path("arm").asInt() + "/" + rep.path("replicate").asInt() + ".json");
+            JsonNode r = MAPPER.readTree(file.toFile());
+            assertEquals(1, r.path("format").asInt());
+            assertEquals(rep.path("arm").asInt(), r.path("arm").asInt());
+            assertEquals(m.path("arms").get(r.path("arm").asInt() - 1).path("name").asText(), r.path("arm_name").asText());
+            assertEquals(status, r.path("status").asText());
+            assertTrue(r.path("seeds").path("algorithm").isTextual() && r.path("seeds").path("root").isIntegralNumber());
+            long updates = r.path("updates_run").asLong();
+            assertEquals(updates, r.path("rates").size());
+            assertEquals(parameters, r.path("start").size());
+            assertEquals(parameters, r.path("last").size());
+            JsonNode epochs = r.path("epochs");
+            int e = epochs.path("epoch").size();
+            epochRows += e;
+            for (String series : List.of("last_update", "rate", "objective", "holdout_loss", "test_loss",
+                    "test_accuracy", "distance")) {
+                assertEquals(e, epochs.path(series).size(), "epochs." + series);
+            }
+            assertTrue(r.path("prediction").path("predicted").isBoolean());
+            if (status.equals("finished")) {
+                assertEquals(r.path("total_updates").asLong(), updates);
+                assertEquals(parameters, r.path("tail_mean").size());
+                JsonNode metrics = r.path("metrics");
+                assertTrue(metrics.path("tail_radius").isNumber(), "tail radius");
+                assertTrue(metrics.path("test_accuracy").isNumber(), "test accuracy");
+                assertEquals(convex, metrics.path("final_gap").isNumber(), "final gap iff convex");
+                JsonNode tail = r.path("tail");
+                assertEquals(tail.path("snapshots").asInt(), tail.path("snapshot_updates").size());
+                assertEquals(tail.path("snapshots").asInt(), tail.path("snapshot_objectives").size());
+                JsonNode probabilities = r.path("test_probabilities");
+                assertEquals(classes, probabilities.path("columns").asInt());
+                assertEquals(data.path("test_rows").asInt(), probabilities.path("rows").asInt());
+                assertEquals(probabilities.path("rows").asInt() * classes, probabilities.path("values").size());
+                if (!r.path("snapshots").isNull()) {
+                    assertEquals(parameters, r.path("snapshots").path("columns").asInt());
+                }
+                if (r.path("prediction").path("predicted").asBoolean()) {
+                    assertEquals(e, r.path("prediction").path("epoch_distance_sq").size());
+                } else {
+                    assertTrue(r.path("prediction").path("skipped").asText().length() > 10);
+                }
+            }
+        }
+        List<String> lines = Files.readAllLines(dir.resolve("epochs.csv"), StandardCharsets.UTF_8);
+        assertEquals(EpochsTable.HEADER, lines.get(0));
+        assertEquals(epochRows, lines.size() - 1, "one epochs.csv row per recorded epoch");
+    }
+}
