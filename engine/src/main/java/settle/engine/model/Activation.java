@@ -1,0 +1,29 @@
+package settle.engine.model;
+
+/** The nonlinearity of an MLP's hidden layers (plan key {@code model.activation}). */
+public enum Activation {
+    /** max(z, 0); its derivative is taken as 0 at z = 0 */
+    RELU,
+    /** tanh z */
+    TANH;
+
+    /** @return the plan spelling: {@code relu} or {@code tanh} */
+    public String key() {
+        return name().toLowerCase(java.util.Locale.ROOT);
+    }
+
+    /**
+     * @param text {@code relu} or {@code tanh} (case-insensitive)
+     * @throws IllegalArgumentException naming {@code model.activation} and the accepted values
+     */
+    public static Activation parse(String text) {
+        if (text != null) {
+            for (Activation a : values()) {
+                if (a.key().equalsIgnoreCase(text.strip())) {
+                    return a;
+                }
+            }
+        }
+        throw new IllegalArgumentException("model.activation must be relu or tanh: '" + text + "'");
+    }
+}
