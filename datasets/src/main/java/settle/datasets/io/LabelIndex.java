@@ -1,0 +1,98 @@
+package settle.datasets.io;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Collects the label of each row while a file streams by, then numbers the classes as DESIGN.md says: the
+ * distinct labels in sorted order, numerically when every label is a number (so {@code 1} and {@code 1.0}
+ * are one class), lexically (by UTF-16 code units) otherwise.
+ */
+public final class LabelIndex {
+
+    private final Map<String, Integer> codes = new HashMap<>();
+    private final List<String> spellings = new ArrayList<>();
+    private int[] rowCodes = new int[1024];
+    private int rows;
+
+    private List<String> classNames;
+    private int[] labels;
+
+    /** Records the (already stripped) label of the next row. */
+    public void add(String label) {
+        Integer code = codes.get(label);
+        if (code == null) {
+            code = spellings.size();
+            codes.put(label, code);
+            spellings.add(label);
+        }
+        if (rows == rowCodes.length) {
+            rowCodes = Arrays.copyOf(rowCodes, Math.max(16, rows * 2));
+        }
+        rowCodes[rows++] = code;
+    }
+
+    /** @return the number of rows recorded */
+    public int rows() {
+        return rows;
+    }
+
+    /** Numbers the classes; call once, after the last {@link #add}. */
+    public void finish() {
+        int distinct = spellings.size();
+        boolean numeric = true;
+        double[] values = new double[distinct];
+        for (int i = 0; i < distinct && numeric; i++) {
+            String s = spellings.get(i);
+            if (Numbers.classify(s) == Numbers.OK) {
+                values[i] = Numbers.parse(s) + 0.0; // -0.0 and 0.0 are one class
+            } else {
+                numeric = false;
+            }
+        }
+        int[] remap = new int[distinct];
+        List<String> names = new ArrayList<>();
+        if (numeric) {
+            double[] sorted = values.clone();
+            Arrays.sort(sorted);
+            int k = 0;
+            double[] uniq = new double[distinct];
+            for (int i = 0; i < distinct; i++) {
+                if (i == 0 || sorted[i] != sorted[i - 1]) {
+                    uniq[k++] = sorted[i];
+                    names.add(Numbers.labelName(sorted[i]));
+                }
+            }
+            for (int i = 0; i < distinct; i++) {
+                remap[i] = Arrays.binarySearch(uniq, 0, k, values[i]);
+            }
+        } else {
+            String[] sorted = spellings.toArray(new String[0]);
+            Arrays.sort(sorted);
+            names.addAll(Arrays.asList(sorted));
+            for (int i = 0; i < distinct; i++) {
+                remap[i] = Arrays.binarySearch(sorted, spellings.get(i));
+            }
+        }
+        int[] out = new int[rows];
+        for (int r = 0; r < rows; r++) {
+            out[r] = remap[rowCodes[r]];
+        }
+        classNames = List.copyOf(names);
+        labels = out;
+        rowCodes = null;
+    }
+
+    /** @return the class names, class 0 first (after {@link #finish}) */
+    public List<String> classNames() {
+        return classNames;
+    }
+
+    /** @return the label of each row in 0..K−1 (after {@link #finish}); the array is handed over */
+    public int[] labels() {
+        return labels;
+    }
+}
