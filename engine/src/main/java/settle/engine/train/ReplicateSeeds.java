@@ -30,6 +30,9 @@ public record ReplicateSeeds(String algorithm, long rootSeed, int replicate, lon
     /** The generator algorithm of every stream. */
     public static final String ALGORITHM = "L64X128MixRandom";
 
+    /** The factory of {@value #ALGORITHM} generators (immutable; looked up once). */
+    private static final RandomGeneratorFactory<RandomGenerator> FACTORY = RandomGeneratorFactory.of(ALGORITHM);
+
     private static final long GOLDEN_GAMMA = 0x9E3779B97F4A7C15L;
     private static final long INIT_TAG = 0x696E6974L;         // "init"
     private static final long SAMPLING_TAG = 0x73616D706CL;   // "sampl"
@@ -67,7 +70,7 @@ public record ReplicateSeeds(String algorithm, long rootSeed, int replicate, lon
     }
 
     private static RandomGenerator generator(long seed) {
-        return RandomGeneratorFactory.of(ALGORITHM).create(seed);
+        return FACTORY.create(seed);
     }
 
     private static long mix(long root, int replicate, long tag) {

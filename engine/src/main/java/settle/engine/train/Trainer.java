@@ -7,6 +7,7 @@ import java.util.Objects;
 import java.util.function.Consumer;
 import settle.datasets.Dataset;
 import settle.engine.model.Initialisation;
+import settle.engine.model.FullBatch;
 import settle.engine.model.Model;
 import settle.engine.schedule.RateDriver;
 import settle.engine.schedule.RunShape;
@@ -157,8 +158,10 @@ public final class Trainer {
         private final int d = model.inputs();
         private final int batch = settings.batch();
         private final int batchCapacity = settings.sampling() == Sampling.SHUFFLE ? Math.min(batch, n) : batch;
-        private final Model.Workspace workspace = model.workspace(Math.max(batchCapacity, Evaluation.CHUNK));
-        private final Evaluation evaluation = new Evaluation(model, workspace);
+        private final Model.Workspace workspace = model.workspace(batchCapacity);
+        private final FullBatch onTrain = new FullBatch(model, train);
+        private final FullBatch onTest = test == null ? null : new FullBatch(model, test);
+        private final FullBatch onHoldout = holdout == null ? null : new FullBatch(model, holdout);
         private final double[] theta = new double[p];
         private final double[] gradient = new double[p];
         private final double[] velocity = settings.momentum() != 0 ? new double[p] : null;
@@ -243,12 +246,12 @@ public final class Trainer {
                     }
                 }
                 double objective = objectiveAt(t);
-                double holdoutLoss = holdout == null ? Double.NaN : evaluation.meanLoss(theta, holdout);
+                double holdoutLoss = onHoldout == null ? Double.NaN : onHoldout.meanLoss(theta);
                 double testLoss = Double.NaN;
                 double testAccuracy = Double.NaN;
-                if (test != null) {
-                    testLoss = evaluation.meanLoss(theta, test);
-                    testAccuracy = evaluation.accuracy(theta, test, null);
+                if (onTest != null) {
+                    testLoss = onTest.meanLoss(theta);
+                    testAccuracy = onTest.accuracy(theta);
                 }
                 double distance = reference == null ? Double.NaN : distanceToReference(theta);
                 EpochRecord record = new EpochRecord(epoch, t, rate, objective, holdoutLoss, testLoss, testAccuracy, distance);
@@ -274,7 +277,7 @@ public final class Trainer {
         /** @return F(θ) for the iterate after {@code update} updates, evaluated once per update number */
         private double objectiveAt(long update) {
             if (evaluatedAt != update) {
-                evaluatedObjective = evaluation.objective(theta, train);
+                evaluatedObjective = onTrain.objective(theta);
                 evaluatedAt = update;
             }
             return evaluatedObjective;
@@ -289,7 +292,7 @@ public final class Trainer {
 
         private Wander wander(double[] tailMean) {
             double tailRadius = tail.radius(scratch);
-            double averagedObjective = evaluation.objective(tailMean, train);
+            double averagedObjective = onTrain.objective(tailMean);
             double[] finalTheta = settings.averageTail() ? tailMean : theta;
             double finalObjective = settings.averageTail() ? averagedObjective : objectiveAt(total);
             double finalGap = Double.NaN;
@@ -303,10 +306,11 @@ public final class Trainer {
             double testLoss = Double.NaN;
             double testAccuracy = Double.NaN;
             double[] probabilities = null;
-            if (test != null) {
+            if (onTest != null) {
                 probabilities = new double[test.rows() * model.classes()];
-                testLoss = evaluation.meanLoss(finalTheta, test);
-                testAccuracy = evaluation.accuracy(finalTheta, test, probabilities);
+                testLoss = onTest.meanLoss(finalTheta);
+                testAccuracy = onTest.accuracy(finalTheta);
+                onTest.probabilities(finalTheta, probabilities);
             }
             double[] stored = tail.stored();
             return new Wander(tailPlan, tail.tailCount(), tailPlan.snapshotUpdates(), tail.objectives().clone(),

@@ -45,11 +45,12 @@ class ReplayAgainstTorchTest {
         int classes = data.equals("binary") ? 2 : 3;
         Dataset train = TrainSupport.csv(DIR + data + ".csv", classes);
         Model model = classes == 2 ? new BinaryLogistic(3, L2) : new SoftmaxRegression(3, classes, L2);
-        // the same formulas as make_fixture.py's rate(): epoch and update counted from 1
+        // settle's schedules for make_fixture.py's rate(): 0.1; 0.2/(1 + 0.5·epoch); 0.2/(1 + 0.05·update),
+        // epoch and update counted from 1 on both sides
         Schedule schedule = switch (kind) {
-            case "constant" -> TrainSupport.schedule(kind, (e, u) -> 0.1);
-            case "epoch-decay" -> TrainSupport.schedule(kind, (e, u) -> 0.2 / (1 + 0.5 * e));
-            case "update-decay" -> TrainSupport.schedule(kind, (e, u) -> 0.2 / (1 + 0.05 * u));
+            case "constant" -> TrainSupport.schedule("kind", "constant", "rate", 0.1);
+            case "epoch-decay" -> TrainSupport.schedule("kind", "reciprocal", "rate", 0.2, "decay", 0.5, "per", "epoch");
+            case "update-decay" -> TrainSupport.schedule("kind", "reciprocal", "rate", 0.2, "decay", 0.05, "per", "update");
             default -> throw new IllegalArgumentException(kind);
         };
         TrainingSettings settings = TrainingSettings.of(EPOCHS, BATCH).withMomentum(Double.parseDouble(momentum));

@@ -5,13 +5,18 @@ import java.io.InputStream;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
 import java.util.random.RandomGenerator;
 import java.util.random.RandomGeneratorFactory;
 import settle.datasets.Dataset;
 import settle.engine.schedule.RateDriver;
 import settle.engine.schedule.RunShape;
+import settle.engine.schedule.Asymptotics;
 import settle.engine.schedule.Schedule;
+import settle.engine.schedule.Schedules;
+import settle.engine.schedule.Warmup;
 
 /** Data and schedules the trainer tests share. */
 final class TrainSupport {
@@ -19,24 +24,67 @@ final class TrainSupport {
     private TrainSupport() {
     }
 
-    /** A rate as a function of the 1-based epoch and update counters. */
-    interface RateFunction {
-        double rate(int epoch, long update);
+    /** @return the schedule of a map given as alternating keys and values, e.g. ("kind", "constant", "rate", 0.1) */
+    static Schedule schedule(Object... keysAndValues) {
+        Map<String, Object> map = new LinkedHashMap<>();
+        for (int i = 0; i < keysAndValues.length; i += 2) {
+            map.put((String) keysAndValues[i], keysAndValues[i + 1]);
+        }
+        return Schedules.parse(map);
     }
 
-    /** A schedule given by a closed-form rate function (no state, so every replicate's driver is the same). */
-    static Schedule schedule(String kind, RateFunction function) {
-        return new Schedule() {
-            @Override
-            public String kind() {
-                return kind;
-            }
+    /** Wraps a real schedule and records what its driver is told at each epoch end: (epoch, objective, holdout). */
+    static final class Recording implements Schedule {
+        private final Schedule schedule;
+        final List<double[]> reported = new ArrayList<>();
+        final List<RunShape> shapes = new ArrayList<>();
 
-            @Override
-            public RateDriver start(RunShape shape) {
-                return function::rate;
-            }
-        };
+        Recording(Schedule schedule) {
+            this.schedule = schedule;
+        }
+
+        @Override
+        public RateDriver start(RunShape shape) {
+            shapes.add(shape);
+            RateDriver driver = schedule.start(shape);
+            return new RateDriver() {
+                @Override
+                public double rate(int epoch, long update) {
+                    return driver.rate(epoch, update);
+                }
+
+                @Override
+                public void epochEnded(int epoch, double trainObjective, double holdoutLoss) {
+                    reported.add(new double[] {epoch, trainObjective, holdoutLoss});
+                    driver.epochEnded(epoch, trainObjective, holdoutLoss);
+                }
+            };
+        }
+
+        @Override
+        public String kind() {
+            return schedule.kind();
+        }
+
+        @Override
+        public Warmup warmup() {
+            return schedule.warmup();
+        }
+
+        @Override
+        public Asymptotics asymptotics() {
+            return schedule.asymptotics();
+        }
+
+        @Override
+        public String describe() {
+            return schedule.describe();
+        }
+
+        @Override
+        public Map<String, Object> resolved() {
+            return schedule.resolved();
+        }
     }
 
     /** @return Gaussian classes: row i has class i mod K, centre c_k = 1.5·(k-th unit pattern), unit noise */

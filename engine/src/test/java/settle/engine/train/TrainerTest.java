@@ -13,11 +13,13 @@ import java.util.Arrays;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import settle.datasets.Dataset;
+import settle.engine.model.Activation;
 import settle.engine.model.BinaryLogistic;
+import settle.engine.model.FullBatch;
 import settle.engine.model.Initialisation;
+import settle.engine.model.Mlp;
 import settle.engine.model.Model;
 import settle.engine.model.SoftmaxRegression;
-import settle.engine.schedule.RateDriver;
 import settle.engine.schedule.RunShape;
 import settle.engine.schedule.Schedule;
 
@@ -28,8 +30,9 @@ class TrainerTest {
     /** Algebraic identities evaluated in floating point over a few dozen terms. */
     private static final double IDENTITY_TOLERANCE = 1e-12;
 
-    private static final Schedule CONSTANT = TrainSupport.schedule("constant", (e, u) -> 0.1);
-    private static final Schedule DECAY = TrainSupport.schedule("reciprocal", (e, u) -> 0.5 / (1 + 0.1 * u));
+    private static final Schedule CONSTANT = TrainSupport.schedule("kind", "constant", "rate", 0.1);
+    private static final Schedule DECAY = TrainSupport.schedule("kind", "reciprocal", "rate", 0.5, "decay", 0.1,
+            "per", "update");
 
     private final Dataset binary = TrainSupport.gaussianClasses(45, 3, 2, 11);
     private final Dataset threeClasses = TrainSupport.gaussianClasses(60, 4, 3, 12);
@@ -136,7 +139,7 @@ class TrainerTest {
     @Test
     void momentumMatchesTheHeavyBallFormulaByHand() {
         Dataset one = new Dataset("one row", new double[] {1.0}, new int[] {1}, List.of("x"), List.of("0", "1"));
-        Schedule unit = TrainSupport.schedule("constant", (e, u) -> 1.0);
+        Schedule unit = TrainSupport.schedule("kind", "constant", "rate", 1.0);
         double sigmoidOne = 1 / (1 + Math.exp(-1));
         ReplicateResult plain = Trainer.builder(new BinaryLogistic(1, 0), one, unit, TrainingSettings.of(2, 1))
                 .build().run(ReplicateSeeds.derive(1, 1));
@@ -155,7 +158,7 @@ class TrainerTest {
     @Test
     void divergenceStopsTheReplicate() {
         TrainingSettings settings = TrainingSettings.of(20, 8);
-        Schedule large = TrainSupport.schedule("constant", (e, u) -> 3.0);
+        Schedule large = TrainSupport.schedule("kind", "constant", "rate", 3.0);
         ReplicateResult r = Trainer.builder(new BinaryLogistic(3, 1.0), binary, large, settings).build()
                 .run(ReplicateSeeds.derive(3, 1));
         assertTrue(r.diverged());
@@ -168,12 +171,31 @@ class TrainerTest {
         for (EpochRecord e : r.epochs().subList(0, r.epochs().size() - 1)) {
             assertTrue(e.objective() <= Trainer.DIVERGENCE_FACTOR * r.initialObjective());
         }
-        Schedule stable = TrainSupport.schedule("constant", (e, u) -> 1.9);
+        Schedule stable = TrainSupport.schedule("kind", "constant", "rate", 1.9);
         ReplicateResult s = Trainer.builder(new BinaryLogistic(3, 1.0), binary, stable, settings).build()
                 .run(ReplicateSeeds.derive(3, 1));
         assertFalse(s.diverged());
         assertEquals(0, s.divergedAt());
         assertEquals(120, s.rates().length);
+    }
+
+    @Test
+    void mlpAtALargeRateDiverges() {
+        // ReLU MLP, He start: at rate 50 the first updates blow the logits up, so the cross-entropy of a batch
+        // passes 1e6·F(θ₀) (≈ 0.7·1e6) or overflows; the same net at rate 0.05 trains to the end
+        Model mlp = new Mlp(3, new int[] {16}, Activation.RELU, 2, 0.0);
+        TrainingSettings settings = TrainingSettings.of(30, 5);
+        ReplicateResult r = Trainer.builder(mlp, binary, TrainSupport.schedule("kind", "constant", "rate", 50.0),
+                settings).build().run(ReplicateSeeds.derive(4, 1));
+        assertTrue(r.diverged(), "status " + r.status());
+        assertTrue(r.divergedAt() < r.totalUpdates());
+        assertNull(r.wander());
+        ReplicateResult calm = Trainer.builder(mlp, binary, TrainSupport.schedule("kind", "constant", "rate", 0.05),
+                settings).build().run(ReplicateSeeds.derive(4, 1));
+        assertFalse(calm.diverged());
+        assertArrayEquals(r.start(), calm.start(), "same replicate, same He start");
+        assertTrue(calm.wander().tailRadius() > 0);
+        assertTrue(Double.isNaN(calm.wander().finalGap()), "no reference for an MLP");
     }
 
     @Test
@@ -183,7 +205,7 @@ class TrainerTest {
         double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainingSettings.of(30, 60)).build()
                 .run(ReplicateSeeds.derive(1, 9)).last();
         model.removeGauge(point);
-        double objective = new Evaluation(model, model.workspace(Evaluation.CHUNK)).objective(point, threeClasses);
+        double objective = new FullBatch(model, threeClasses).objective(point);
         ReferencePoint reference = new ReferencePoint(point, objective);
         TrainingSettings settings = TrainingSettings.of(10, 6).withTail(0.3, 7);
         ReplicateResult r = Trainer.builder(model, threeClasses, CONSTANT, settings).reference(reference).build()
@@ -255,15 +277,17 @@ class TrainerTest {
         TrainingSettings settings = TrainingSettings.of(6, 10).withTail(0.5, 5).withAverageTail(true);
         ReplicateResult r = Trainer.builder(spy, threeClasses, CONSTANT, settings).test(test).build()
                 .run(ReplicateSeeds.derive(8, 1));
-        Evaluation evaluation = new Evaluation(model, model.workspace(Evaluation.CHUNK));
+        FullBatch onTrain = new FullBatch(model, threeClasses);
+        FullBatch onTest = new FullBatch(model, test);
         Wander w = r.wander();
         assertTrue(r.averageTail());
         assertEquals(r.tailMean(), r.finalParameters());
         assertEquals(w.averagedObjective(), w.finalObjective());
-        assertEquals(evaluation.objective(r.tailMean(), threeClasses), w.averagedObjective());
-        assertEquals(evaluation.meanLoss(r.tailMean(), test), w.testLoss());
+        assertEquals(onTrain.objective(r.tailMean()), w.averagedObjective());
+        assertEquals(onTest.meanLoss(r.tailMean()), w.testLoss());
+        assertEquals(onTest.accuracy(r.tailMean()), w.testAccuracy());
         double[] probabilities = new double[30 * 3];
-        assertEquals(evaluation.accuracy(r.tailMean(), test, probabilities), w.testAccuracy());
+        onTest.probabilities(r.tailMean(), probabilities);
         assertArrayEquals(probabilities, w.testProbabilities());
         assertFalse(Arrays.equals(r.tailMean(), r.last()));
         // T = 6 · ⌈60/10⌉ = 36, L = ⌈0.5 · 36⌉ = 18: θ̄ is the plain mean of θ_19 … θ_36
@@ -281,34 +305,15 @@ class TrainerTest {
 
     @Test
     void epochRecordsFeedTheDriverAndKeepEveryRate() {
-        List<double[]> reported = new ArrayList<>();
-        Schedule recording = new Schedule() {
-            @Override
-            public String kind() {
-                return "recording";
-            }
-
-            @Override
-            public RateDriver start(RunShape shape) {
-                assertEquals(new RunShape(4, 6), shape);
-                return new RateDriver() {
-                    @Override
-                    public double rate(int epoch, long update) {
-                        return 0.1 * epoch + 0.001 * update;
-                    }
-
-                    @Override
-                    public void epochEnded(int epoch, double trainObjective, double holdoutLoss) {
-                        reported.add(new double[] {epoch, trainObjective, holdoutLoss});
-                    }
-                };
-            }
-        };
+        TrainSupport.Recording recording = new TrainSupport.Recording(
+                TrainSupport.schedule("kind", "formula", "expr", "0.1 * epoch + 0.001 * update"));
         Dataset holdout = TrainSupport.gaussianClasses(20, 3, 2, 15);
         List<EpochRecord> streamed = new ArrayList<>();
         ReplicateResult r = Trainer.builder(new BinaryLogistic(3, 0.01), binary, recording, TrainingSettings.of(4, 8))
                 .holdout(holdout).build().run(ReplicateSeeds.derive(1, 1), streamed::add);
         assertEquals(r.epochs(), streamed);
+        assertEquals(List.of(new RunShape(4, 6)), recording.shapes);
+        List<double[]> reported = recording.reported;
         assertEquals(4, reported.size());
         for (int e = 0; e < 4; e++) {
             EpochRecord record = r.epochs().get(e);
@@ -322,7 +327,7 @@ class TrainerTest {
         }
         for (int t = 1; t <= 24; t++) {
             int epoch = (t - 1) / 6 + 1;
-            assertEquals(0.1 * epoch + 0.001 * t, r.rates()[t - 1]);
+            assertEquals(0.1 * epoch + 0.001 * t, r.rates()[t - 1], HAND_TOLERANCE);
         }
     }
 

@@ -18,7 +18,7 @@ import picocli.CommandLine.Spec;
         versionProvider = Main.Version.class,
         description = "Does learning-rate decay shrink the SGD noise ball on your data? "
                 + "Seed-paired studies of learning-rate schedules.",
-        subcommands = {RunCommand.class, DemoCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {DemoCommand.class, RunCommand.class, RatesCommand.class, TraceCommand.class, MinimumCommand.class, DatasetsCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Callable<Integer> {
 
     /** Exit code: success, warnings included. */
@@ -45,7 +45,21 @@ public final class Main implements Callable<Integer> {
     public static CommandLine commandLine() {
         CommandLine cl = new CommandLine(new Main());
         applyExitCodes(cl);
+        cl.setParameterExceptionHandler(Main::oneLineUsageError);
         return cl;
+    }
+
+    /**
+     * Bad options get one line on stderr, naming the option and what is accepted, and a pointer to the
+     * command's help; never the whole usage text, never a stack trace.
+     */
+    private static int oneLineUsageError(CommandLine.ParameterException e, String[] args) {
+        CommandLine cl = e.getCommandLine();
+        PrintWriter err = cl.getErr();
+        String command = cl.getCommandSpec().qualifiedName();
+        err.println(command + ": " + e.getMessage() + " (see '" + command + " --help')");
+        err.flush();
+        return BAD_INPUT;
     }
 
     private static void applyExitCodes(CommandLine cl) {
