@@ -62,7 +62,16 @@ public final class TraceCommand implements Callable<Integer> {
     @Spec
     private CommandSpec spec;
 
-    @Option(names = "--data", required = true, paramLabel = "SOURCE",
+    @Option(names = "--plan", paramLabel = "PLAN", description = "rerun one replicate of a plan's study (with --arm and --replicate)")
+    private Path plan;
+
+    @Option(names = "--arm", paramLabel = "NAME", description = "with --plan: the arm's name")
+    private String arm;
+
+    @Option(names = "--replicate", paramLabel = "K", description = "with --plan: the replicate, numbered from 1")
+    private Integer replicate;
+
+    @Option(names = "--data", paramLabel = "SOURCE",
             description = "csv:PATH, libsvm:PATH, bundled:NAME or synthetic:GENERATOR[?key=value&...]")
     private String data;
 
@@ -85,15 +94,15 @@ public final class TraceCommand implements Callable<Integer> {
             description = "λ, the penalty (λ/2)‖weights‖² on weights, not biases (default: ${DEFAULT-VALUE})")
     private double l2;
 
-    @Option(names = "--schedule", required = true, paramLabel = "SCHEDULE",
+    @Option(names = "--schedule", paramLabel = "SCHEDULE",
             description = "the schedule as a YAML map, e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'")
     private String schedule;
 
-    @Option(names = "--epochs", required = true, paramLabel = "E", description = "passes over the training rows (≥ 1)")
-    private int epochs;
+    @Option(names = "--epochs", paramLabel = "E", description = "passes over the training rows (≥ 1)")
+    private Integer epochs;
 
-    @Option(names = "--batch", required = true, paramLabel = "B", description = "rows per mini-batch (≥ 1)")
-    private int batch;
+    @Option(names = "--batch", paramLabel = "B", description = "rows per mini-batch (≥ 1)")
+    private Integer batch;
 
     @Option(names = "--sampling", paramLabel = "shuffle|replacement", defaultValue = "shuffle",
             description = "shuffle (a fresh permutation per epoch) or replacement (default: ${DEFAULT-VALUE})")
@@ -128,6 +137,29 @@ public final class TraceCommand implements Callable<Integer> {
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
+        if (plan != null) {
+            return tracePlan(out, err);
+        }
+        if (arm != null || replicate != null) {
+            return bad(err, "--arm and --replicate go with --plan");
+        }
+        List<String> missing = new ArrayList<>();
+        if (data == null) {
+            missing.add("--data=SOURCE");
+        }
+        if (schedule == null) {
+            missing.add("--schedule=SCHEDULE");
+        }
+        if (epochs == null) {
+            missing.add("--epochs=E");
+        }
+        if (batch == null) {
+            missing.add("--batch=B");
+        }
+        if (!missing.isEmpty()) {
+            return bad(err, "missing " + String.join(", ", missing)
+                    + " (or give --plan PLAN --arm NAME --replicate K to rerun one replicate of a study)");
+        }
         Prepared prepared;
         try {
             prepared = prepare(err);
