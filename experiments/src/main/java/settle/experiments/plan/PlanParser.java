@@ -104,6 +104,7 @@ public final class PlanParser {
     private final String defaultStudy;
     private final Map<String, int[]> positions = new HashMap<>();
     private final List<String> warnings = new ArrayList<>();
+    private final List<String> armPaths = new ArrayList<>();
 
     private PlanParser(String file, Path baseDirectory, String defaultStudy) {
         this.file = file;
@@ -163,7 +164,7 @@ public final class PlanParser {
         PlanParser p = new PlanParser(fileName, baseDirectory, stem);
         YamlNode root = YamlReader.read(text, fileName);
         Plan plan = p.resolve(root);
-        return new ParsedPlan(plan, fileName, p.positions, p.warnings);
+        return new ParsedPlan(plan, fileName, p.positions, p.warnings, p.armPaths);
     }
 
     // ---------------------------------------------------------------- the plan
@@ -189,7 +190,7 @@ public final class PlanParser {
             study = defaultStudy;
         }
         long seed = present(top, "seed")
-                ? integer(top, "", "seed", Long.MIN_VALUE, Long.MAX_VALUE, "any 64-bit integer")
+                ? integer(top, "", "seed", Long.MIN_VALUE, Long.MAX_VALUE, "an integer (any 64-bit value)")
                 : DEFAULT_SEED;
         int replicates = present(top, "replicates")
                 ? (int) integer(top, "", "replicates", 1, Plan.MAX_REPLICATES, null)
@@ -281,7 +282,7 @@ public final class PlanParser {
             init = choice(m, "model", "init", Initialisation.class);
             if (init == Initialisation.REFERENCE && kind != ModelSpec.Kind.LOGISTIC) {
                 throw error(value(m, "init"), "model.init", "'reference' starts at the exact minimiser, which "
-                        + "exists for convex (logistic) models only; an mlp accepts zeros, glorot or he");
+                        + "exists for convex (logistic) models only; accepted for an mlp: zeros, glorot, he");
             }
         } else {
             init = kind == ModelSpec.Kind.LOGISTIC ? Initialisation.ZEROS : Initialisation.HE;
@@ -453,6 +454,7 @@ public final class PlanParser {
                     throw node == null ? positioned(at, detail) : error(node, at, detail);
                 }
                 arms.add(a);
+                armPaths.add(t.path());
             }
         }
         return arms;
