@@ -47,9 +47,10 @@ public final class Formula implements Schedule {
         }
         Expression e;
         try {
-            e = new ExpressionBuilder(expr).variables(VARIABLES.toArray(new String[0])).build();
+            e = new ExpressionBuilder(expr).implicitMultiplication(false)
+                    .variables(VARIABLES.toArray(new String[0])).build();
         } catch (UnknownFunctionOrVariableException u) {
-            String token = u.getToken();
+            String token = identifierAt(expr, u.getPosition(), u.getToken());
             String hint = Suggest.nearest(token, VARIABLES);
             throw new ScheduleException("expr", KIND + ": expr = '" + expr + "' uses the unknown variable or function '"
                     + token + "'" + (hint == null ? "" : "; did you mean '" + hint + "'?")
@@ -62,6 +63,29 @@ public final class Formula implements Schedule {
             throw Check.bad(KIND, "expr", "'" + expr + "'", "a well-formed expression (" + String.join("; ", v.getErrors()) + ")");
         }
         return e;
+    }
+
+    /**
+     * exp4j reports the unknown rest of a name after a known prefix ("pok" in "epok", after the constant e):
+     * widen it to the whole identifier around the reported position.
+     */
+    private static String identifierAt(String expr, int position, String token) {
+        if (position < 0 || position >= expr.length()) {
+            return token;
+        }
+        int start = position;
+        while (start > 0 && isNamePart(expr.charAt(start - 1))) {
+            start--;
+        }
+        int end = position;
+        while (end < expr.length() && isNamePart(expr.charAt(end))) {
+            end++;
+        }
+        return end > start ? expr.substring(start, end) : token;
+    }
+
+    private static boolean isNamePart(char c) {
+        return Character.isLetterOrDigit(c) || c == '_';
     }
 
     static Formula parse(KeyReader r) {

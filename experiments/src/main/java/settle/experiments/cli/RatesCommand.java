@@ -1,0 +1,149 @@
+package settle.experiments.cli;
+
+import com.fasterxml.jackson.core.JacksonException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
+import java.io.PrintWriter;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import settle.engine.schedule.Asymptotics;
+import settle.engine.schedule.RateSums;
+import settle.engine.schedule.RunShape;
+import settle.engine.schedule.Schedule;
+import settle.engine.schedule.Schedules;
+
+/**
+ * {@code settle rates SCHEDULE --epochs E --updates-per-epoch U [--format csv|table]}: previews a schedule
+ * without data, one row per update (epoch, update, rate). Bad input prints one line to stderr and exits 2.
+ */
+@Command(
+        name = "rates",
+        mixinStandardHelpOptions = true,
+        description = {
+            "Preview a schedule without data: one row per update (epoch, update, rate).",
+            "Counters: epoch = 1 for the first pass, update = 1 for the first update; "
+                    + "progress = (update - 1) / total updates. A plateau schedule shows its no-cut envelope."
+        })
+public final class RatesCommand implements Callable<Integer> {
+
+    /** Output formats. */
+    enum Format { csv, table }
+
+    @Spec
+    private CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "SCHEDULE",
+            description = "the schedule as a YAML map, e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'")
+    private String schedule;
+
+    @Option(names = "--epochs", required = true, paramLabel = "E", description = "epochs in the run (≥ 1)")
+    private int epochs;
+
+    @Option(names = "--updates-per-epoch", required = true, paramLabel = "U",
+            description = "updates in each epoch (≥ 1)")
+    private int updatesPerEpoch;
+
+    @Option(names = "--format", paramLabel = "csv|table", defaultValue = "table",
+            description = "csv or table (default: ${DEFAULT-VALUE})")
+    private Format format;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        if (epochs < 1) {
+            return bad(err, "--epochs = " + epochs + " is not accepted; expected an integer ≥ 1");
+        }
+        if (updatesPerEpoch < 1) {
+            return bad(err, "--updates-per-epoch = " + updatesPerEpoch + " is not accepted; expected an integer ≥ 1");
+        }
+        Map<String, Object> map;
+        try {
+            map = readMap(schedule);
+        } catch (IllegalArgumentException e) {
+            return bad(err, e.getMessage());
+        }
+        RunShape shape = new RunShape(epochs, updatesPerEpoch);
+        Schedule s;
+        double[] rates;
+        try {
+            s = Schedules.parse(map);
+            rates = s.plannedRates(shape);
+        } catch (IllegalArgumentException e) {
+            return bad(err, "schedule: " + e.getMessage());
+        }
+        if (format == Format.csv) {
+            out.println("epoch,update,rate");
+            long u = 1;
+            for (int e = 1; e <= epochs; e++) {
+                for (int i = 0; i < updatesPerEpoch; i++, u++) {
+                    out.println(e + "," + u + "," + rates[(int) (u - 1)]);
+                }
+            }
+        } else {
+            table(out, s, shape, rates);
+        }
+        out.flush();
+        return Main.OK;
+    }
+
+    private static void table(PrintWriter out, Schedule s, RunShape shape, double[] rates) {
+        RateSums sums = RateSums.of(rates);
+        Asymptotics a = s.asymptotics();
+        out.println(s.describe());
+        out.println("counters: epoch = 1 for the first pass, update = 1 for the first update, progress = (update - 1) / "
+                + shape.totalUpdates() + " (" + shape.epochs() + " epochs x " + shape.updatesPerEpoch() + " updates)");
+        if (s.kind().equals("plateau")) {
+            out.println("plateau: the no-cut envelope (cuts depend on the losses of a real run)");
+        }
+        int epochWidth = Math.max(5, Integer.toString(shape.epochs()).length());
+        int updateWidth = Math.max(6, Long.toString(shape.totalUpdates()).length());
+        String row = "%" + epochWidth + "s  %" + updateWidth + "s  %s%n";
+        out.printf(Locale.ROOT, row, "epoch", "update", "rate");
+        long u = 1;
+        for (int e = 1; e <= shape.epochs(); e++) {
+            for (int i = 0; i < shape.updatesPerEpoch(); i++, u++) {
+                out.printf(Locale.ROOT, row, e, u, String.format(Locale.ROOT, "%.6g", rates[(int) (u - 1)]));
+            }
+        }
+        out.printf(Locale.ROOT, "sum of rates %.6g, sum of squares %.6g over %d updates%n", sums.sum(),
+                sums.sumOfSquares(), shape.totalUpdates());
+        out.println("as the run grows: " + a.description());
+    }
+
+    /**
+     * Reads a YAML flow map such as {@code {kind: constant, rate: 0.1}}.
+     *
+     * @throws IllegalArgumentException with a one-line message when the text is not a YAML map
+     */
+    static Map<String, Object> readMap(String text) {
+        Object value;
+        try {
+            value = new ObjectMapper(new YAMLFactory()).readValue(text, Object.class);
+        } catch (JacksonException e) {
+            String msg = e.getOriginalMessage();
+            int nl = msg == null ? -1 : msg.indexOf('\n');
+            throw new IllegalArgumentException("schedule: not a YAML map (" + (nl < 0 ? msg : msg.substring(0, nl))
+                    + "); expected e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'");
+        }
+        if (!(value instanceof Map<?, ?> m)) {
+            throw new IllegalArgumentException("schedule: '" + text + "' is not a YAML map; expected e.g. "
+                    + "'{kind: reciprocal, rate: 0.2, decay: 1}'");
+        }
+        @SuppressWarnings("unchecked")
+        Map<String, Object> typed = (Map<String, Object>) m;
+        return typed;
+    }
+
+    private static int bad(PrintWriter err, String message) {
+        err.println("settle rates: " + message);
+        err.flush();
+        return Main.BAD_INPUT;
+    }
+}
