@@ -109,9 +109,10 @@ class MlpTest {
     @Test
     void gradientMatchesFiniteDifferences() {
         // ReLU is not differentiable at 0: each random point is redrawn (from the same seeded stream, so the
-        // test is deterministic) until every hidden pre-activation of the batch is ≥ 1e-3 from 0, a hundred
-        // times the largest change a 1e-5 perturbation of one parameter causes here; the sign pattern is then
-        // checked unchanged under every perturbation the difference quotient makes.
+        // test is deterministic) until every hidden pre-activation of the batch is ≥ 1e-3 from 0, well beyond
+        // what a 1e-5 perturbation of one parameter moves it (about 1e-5 times an input of order 1); and, so
+        // that this is not an assumption, the sign pattern of every hidden pre-activation is checked unchanged
+        // under each of the 2P perturbations the difference quotient makes.
         SplittableRandom rng = new SplittableRandom(21);
         int[][] shapes = {{3, 5, 2}, {4, 6, 5, 3}};
         for (Activation act : Activation.values()) {
