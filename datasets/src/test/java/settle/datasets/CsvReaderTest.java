@@ -101,4 +101,40 @@ class CsvReaderTest {
         assertEquals("t.csv: line 1, column 3: duplicate column name 'a' (also column 1); expected unique column names",
                 error("a,b,a,y\n1,2,3,p\n", "y"));
     }
+
+    @Test
+    void wideAndLongFilesInOneStreamingPass() {
+        // 3 000 columns × 50 rows, then 100 000 rows × 3 columns, read from a character stream
+        StringBuilder wide = new StringBuilder();
+        for (int c = 0; c < 3000; c++) {
+            wide.append('c').append(c).append(',');
+        }
+        wide.append("y\n");
+        for (int r = 0; r < 50; r++) {
+            for (int c = 0; c < 3000; c++) {
+                wide.append(r + c).append(',');
+            }
+            wide.append(r % 2).append('\n');
+        }
+        Dataset w = read(wide.toString(), "y");
+        assertEquals(3000, w.features());
+        assertEquals(49.0 + 2999.0, w.feature(49, 2999));
+        StringBuilder tall = new StringBuilder("a,b,y\n");
+        for (int r = 0; r < 100_000; r++) {
+            tall.append(r).append(",0.5,").append(r % 3 == 0 ? "yes" : "no").append('\n');
+        }
+        Dataset t = read(tall.toString(), "y");
+        assertEquals(100_000, t.rows());
+        assertEquals(99_999.0, t.feature(99_999, 0));
+        assertArrayEquals(new int[] {66_666, 33_334}, t.classCounts());
+        assertEquals(List.of("feature 'b' is constant in t.csv; it carries nothing after standardisation"),
+                Standardiser.constantFeatureWarnings(t, "t.csv"));
+    }
+
+    @Test
+    void quotedLineBreakCountsTowardLaterLineNumbers() {
+        // the record on line 2 spans lines 2-3, so the bad cell is on line 4
+        assertEquals("t.csv: line 4, column 1 ('a'): expected a number, found 'x'",
+                error("a,y\n1,\"p\nq\"\nx,r\n", "y"));
+    }
 }

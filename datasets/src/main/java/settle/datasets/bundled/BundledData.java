@@ -27,7 +27,7 @@ import settle.datasets.io.CsvReader;
 public final class BundledData {
 
     /** The repository credit shown with every bundled dataset. */
-    public static final String REPOSITORY = "UCI Machine Learning Repository (Kelly, Longjohn, Nottingham), "
+    public static final String REPOSITORY = "UCI Machine Learning Repository, "
             + "https://archive.ics.uci.edu";
 
     private static final String LICENCE = "CC BY 4.0 (Creative Commons Attribution 4.0 International), "

@@ -5,7 +5,6 @@ import java.io.IOException;
 import java.io.InputStream;
 import java.io.InputStreamReader;
 import java.io.Reader;
-import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -67,9 +66,10 @@ public final class CsvReader {
 
     /** As {@link #read(Path, String, String, char)}, from a UTF-8 byte stream (not closed). */
     public static Dataset read(InputStream in, String shownAs, String labelColumn, char delimiter) {
+        // malformed bytes become U+FFFD, which the tokenizer reports with its line
         Reader reader = new InputStreamReader(in, StandardCharsets.UTF_8.newDecoder()
-                .onMalformedInput(CodingErrorAction.REPORT)
-                .onUnmappableCharacter(CodingErrorAction.REPORT));
+                .onMalformedInput(CodingErrorAction.REPLACE)
+                .onUnmappableCharacter(CodingErrorAction.REPLACE));
         return read(reader, shownAs, labelColumn, delimiter);
     }
 
@@ -82,8 +82,6 @@ public final class CsvReader {
         Tokenizer t = new Tokenizer(in instanceof BufferedReader ? in : new BufferedReader(in, 1 << 16), shownAs);
         try {
             return parse(t, shownAs, labelColumn, delimiter);
-        } catch (CharacterCodingException e) {
-            throw DataException.atLine(shownAs, t.line, "not valid UTF-8 text; expected a UTF-8 encoded file");
         } catch (IOException e) {
             throw new DataException(shownAs + ": cannot read: " + e.getMessage(), e);
         }
@@ -213,10 +211,12 @@ public final class CsvReader {
                 peeked = -2;
                 return c;
             }
-            if (lookaheadPos < lookahead.length()) {
-                return lookahead.charAt(lookaheadPos++);
+            int c = lookaheadPos < lookahead.length() ? lookahead.charAt(lookaheadPos++) : in.read();
+            if (c == '\uFFFD') {
+                throw DataException.atLine(src, line, "not valid UTF-8 text (a byte sequence that UTF-8 does not "
+                        + "allow, or U+FFFD); expected a UTF-8 encoded file");
             }
-            return in.read();
+            return c;
         }
 
         private int peek() throws IOException {

@@ -4,7 +4,6 @@ import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.InputStreamReader;
-import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -60,13 +59,11 @@ public final class LibsvmReader {
     /** As {@link #read(Path, String)}, from a UTF-8 byte stream (not closed). */
     public static Dataset read(InputStream in, String shownAs) {
         BufferedReader reader = new BufferedReader(new InputStreamReader(in, StandardCharsets.UTF_8.newDecoder()
-                .onMalformedInput(CodingErrorAction.REPORT)
-                .onUnmappableCharacter(CodingErrorAction.REPORT)), 1 << 16);
+                .onMalformedInput(CodingErrorAction.REPLACE)
+                .onUnmappableCharacter(CodingErrorAction.REPLACE)), 1 << 16);
         long[] lineNo = {0};
         try {
             return parse(reader, shownAs, lineNo);
-        } catch (CharacterCodingException e) {
-            throw DataException.atLine(shownAs, lineNo[0] + 1, "not valid UTF-8 text; expected a UTF-8 encoded file");
         } catch (IOException e) {
             throw new DataException(shownAs + ": cannot read: " + e.getMessage(), e);
         }
@@ -88,6 +85,11 @@ public final class LibsvmReader {
             int end = text.indexOf('#');
             if (end < 0) {
                 end = text.length();
+            }
+            int bad = text.indexOf('\uFFFD');
+            if (bad >= 0 && bad < end) {
+                throw DataException.at(src, line, bad + 1, null, "not valid UTF-8 text (a byte sequence that UTF-8 "
+                        + "does not allow, or U+FFFD); expected a UTF-8 encoded file");
             }
             int pos = skipBlanks(text, 0, end);
             if (pos == end) {

@@ -1,0 +1,51 @@
+package settle.experiments.cli;
+
+import java.io.PrintWriter;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Spec;
+import settle.datasets.DataException;
+import settle.datasets.Dataset;
+import settle.datasets.bundled.BundledData;
+import settle.datasets.bundled.BundledDataset;
+
+/** {@code settle datasets}: the bundled datasets with their provenance, each checked against its SHA-256. */
+@Command(name = "datasets", mixinStandardHelpOptions = true,
+        description = "List the bundled datasets (use them as bundled:NAME) with rows, features, classes, "
+                + "source, licence and citation.")
+public final class DatasetsCommand implements Callable<Integer> {
+
+    @Spec
+    private CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        out.println("Bundled datasets: use them as --data bundled:NAME or data.source: bundled:NAME.");
+        out.println("All four come from the " + BundledData.REPOSITORY + ",");
+        out.println("licensed CC BY 4.0: credit UCI and the original creators named below when you publish results.");
+        for (BundledDataset d : BundledData.all()) {
+            Dataset loaded;
+            try {
+                loaded = BundledData.load(d.name(), null);
+            } catch (DataException e) {
+                spec.commandLine().getErr().println(e.getMessage());
+                return Main.FAILED;
+            }
+            out.println();
+            out.println(d.name() + "  " + d.title());
+            out.println("  rows      " + loaded.rows() + ", features " + loaded.features() + ", label column '"
+                    + d.labelColumn() + "'");
+            out.println("  classes   " + loaded.classes() + ": " + d.classSummary()
+                    + (loaded.classes() == 2 ? " (class 1, the positive class: " + d.classNames().get(1) + ")" : ""));
+            out.println("  source    " + d.source());
+            out.println("  licence   " + d.licence());
+            out.println("  creators  " + d.credit());
+            out.println("  citation  " + d.citation());
+            out.println("  sha256    " + d.sha256() + " (verified)");
+        }
+        out.flush();
+        return Main.OK;
+    }
+}
