@@ -19,7 +19,9 @@ import settle.engine.model.Model;
  * ‖∇F‖∞ instead. When no step does, the iterates stop and the result says it did not converge.
  *
  * <p>With λ = 0 the objective has no minimiser on separable data; an iterate that classifies every row
- * strictly correctly proves it (scaling it up drives F to 0), and {@link NoMinimiserException} is thrown.
+ * strictly correctly proves it (scaling it up drives F to 0), and {@link NoMinimiserException} is thrown. On
+ * quasi-separable data (separable but for rows on the boundary) the gradient vanishes only as the weights
+ * diverge; a last iterate with large logits that misclassifies no row is taken as that case and throws too.
  * Instances are immutable and hold no per-run state.
  */
 public final class Minimiser {
@@ -37,8 +39,10 @@ public final class Minimiser {
     private static final double ARMIJO = 1e-4;
     /** |predicted decrease| / |F| below which F's rounding hides the decrease (a few hundred ulps). */
     private static final double RESOLUTION = 1e-12;
-    /** Largest |logit| at the iteration limit that still counts as a bounded iterate when λ = 0. */
-    private static final double SATURATED_LOGIT = 30.0;
+    /** With λ = 0, a final |logit| above this on a (quasi-)separating iterate means the weights diverge. */
+    private static final double SATURATED_LOGIT = 20.0;
+    /** Relative margin (see {@link #checkBounded}) down to which a row counts as on the boundary. */
+    private static final double BOUNDARY_MARGIN = 1e-7;
     /** A relative margin above this on every row certifies separation. */
     private static final double SEPARATION_MARGIN = 1e-9;
 
@@ -134,12 +138,25 @@ public final class Minimiser {
         }
     }
 
-    private static Minimum unfinished(Objective objective, double[] theta, double f, double norm, int iterations,
-                                      Minimum.Method method) {
-        if (objective.unpenalised() && objective.largestLogit(theta) > SATURATED_LOGIT) {
-            throw NoMinimiserException.unbounded(objective.largestLogit(theta), iterations);
+    /**
+     * With no penalty, a last iterate that classifies every row correctly or on the boundary (relative margin ≥
+     * −{@value #BOUNDARY_MARGIN}) while some logit is large proves quasi-separation: along the ray tθ, t > 1,
+     * no loss increases, so F cannot have its minimum at θ unless every logit is 0 (hand-derived from the loss
+     * being non-increasing in the margin).
+     */
+    private static void checkBounded(Objective objective, double[] theta, int iterations) {
+        if (objective.unpenalised()) {
+            double largest = objective.largestLogit(theta);
+            if (largest > SATURATED_LOGIT && objective.relativeMargin(theta) >= -BOUNDARY_MARGIN) {
+                throw NoMinimiserException.unbounded(largest, iterations);
+            }
         }
-        return new Minimum(theta, f, norm, iterations, method, false);
+    }
+
+    private static Minimum finish(Objective objective, double[] theta, double f, double norm, int iterations,
+                                  Minimum.Method method) {
+        checkBounded(objective, theta, iterations);
+        return new Minimum(theta, f, norm, iterations, method, norm <= GRADIENT_TOLERANCE);
     }
 
     private Minimum newton(Objective objective, Gauge gauge) {
@@ -161,7 +178,7 @@ public final class Minimiser {
         int iteration = 0;
         while (norm > GRADIENT_TOLERANCE) {
             if (iteration == NEWTON_ITERATIONS) {
-                return unfinished(objective, theta, f, norm, iteration, Minimum.Method.NEWTON);
+                return finish(objective, theta, f, norm, iteration, Minimum.Method.NEWTON);
             }
             checkSeparation(objective, theta);
             DMatrixRMaj h = gauge.reduce(objective.hessian(theta));
@@ -182,14 +199,14 @@ public final class Minimiser {
             double next = lineSearch(objective, gauge, theta, f, norm, direction, slope, trial, trialGradient);
             iteration++;
             if (Double.isNaN(next)) {
-                return unfinished(objective, theta, f, norm, iteration, Minimum.Method.NEWTON);
+                return finish(objective, theta, f, norm, iteration, Minimum.Method.NEWTON);
             }
             System.arraycopy(trial, 0, theta, 0, p);
             System.arraycopy(trialGradient, 0, gradient, 0, p);
             f = next;
             norm = normInf(gradient);
         }
-        return new Minimum(theta, f, norm, iteration, Minimum.Method.NEWTON, true);
+        return finish(objective, theta, f, norm, iteration, Minimum.Method.NEWTON);
     }
 
     /** Solves h·step = rhs by Cholesky, adding a growing multiple of I to h until it is positive definite. */
@@ -271,7 +288,7 @@ public final class Minimiser {
         int iteration = 0;
         while (norm > GRADIENT_TOLERANCE) {
             if (iteration == LBFGS_ITERATIONS) {
-                return unfinished(objective, theta, f, norm, iteration, Minimum.Method.LBFGS);
+                return finish(objective, theta, f, norm, iteration, Minimum.Method.LBFGS);
             }
             checkSeparation(objective, theta);
             // two-loop recursion: direction = −H_k·g
@@ -310,7 +327,7 @@ public final class Minimiser {
             double next = lineSearch(objective, gauge, theta, f, norm, direction, slope, trial, trialGradient);
             iteration++;
             if (Double.isNaN(next)) {
-                return unfinished(objective, theta, f, norm, iteration, Minimum.Method.LBFGS);
+                return finish(objective, theta, f, norm, iteration, Minimum.Method.LBFGS);
             }
             double sy = 0;
             double yy = 0;
@@ -335,7 +352,7 @@ public final class Minimiser {
             f = next;
             norm = normInf(gradient);
         }
-        return new Minimum(theta, f, norm, iteration, Minimum.Method.LBFGS, true);
+        return finish(objective, theta, f, norm, iteration, Minimum.Method.LBFGS);
     }
 
     private static double dotAt(double[] a, int offset, double[] b) {

@@ -113,46 +113,45 @@ final class Objective {
         int units = layout.units;
         int k = layout.classes;
         int e = d + 1;
-        // blocks[uv][j*e + m] accumulates Σ_i A_i[u][v] x̃_ij x̃_im for u ≤ v, j ≤ m
+        // blocks[uv][j*e + m] accumulates Σ_i A_i[u][v] x̃_ij x̃_im for u ≤ v, j ≤ m. The pair loop is outermost
+        // so that one (d+1)² block stays in cache while the rows stream past.
         int pairs = units * (units + 1) / 2;
         double[] blocks = new double[pairs * e * e];
-        double[] a = new double[pairs];
         double[] xt = new double[e];
         xt[d] = 1.0;
-        for (int i = 0; i < rows; i++) {
-            System.arraycopy(x, i * d, xt, 0, d);
-            int offset = i * k;
-            int pair = 0;
-            if (layout.binary) {
-                // p(1 − p) as p0·p1: both are computed without cancellation
-                a[0] = p[offset] * p[offset + 1];
-            } else {
-                for (int u = 0; u < units; u++) {
-                    double pu = p[offset + u];
-                    for (int v = u; v < units; v++) {
-                        a[pair++] = (u == v ? pu : 0.0) - pu * p[offset + v];
-                    }
-                }
-            }
-            for (pair = 0; pair < pairs; pair++) {
-                double coefficient = a[pair];
-                if (coefficient == 0.0) {
-                    continue;
-                }
+        int pair = 0;
+        for (int u = 0; u < units; u++) {
+            for (int v = u; v < units; v++) {
                 int base = pair * e * e;
-                for (int j = 0; j < e; j++) {
-                    double cj = coefficient * xt[j];
-                    int row = base + j * e;
-                    for (int m = j; m < e; m++) {
-                        blocks[row + m] += cj * xt[m];
+                for (int i = 0; i < rows; i++) {
+                    int offset = i * k;
+                    double coefficient;
+                    if (layout.binary) {
+                        // p(1 − p) as p0·p1: both are computed without cancellation
+                        coefficient = p[offset] * p[offset + 1];
+                    } else {
+                        double pu = p[offset + u];
+                        coefficient = (u == v ? pu : 0.0) - pu * p[offset + v];
+                    }
+                    if (coefficient == 0.0) {
+                        continue;
+                    }
+                    System.arraycopy(x, i * d, xt, 0, d);
+                    for (int j = 0; j < e; j++) {
+                        double cj = coefficient * xt[j];
+                        int row = base + j * e;
+                        for (int m = j; m < e; m++) {
+                            blocks[row + m] += cj * xt[m];
+                        }
                     }
                 }
+                pair++;
             }
         }
         int n = layout.parameters;
         DMatrixRMaj h = new DMatrixRMaj(n, n);
         double inverse = 1.0 / rows;
-        int pair = 0;
+        pair = 0;
         for (int u = 0; u < units; u++) {
             for (int v = u; v < units; v++) {
                 int base = pair * e * e;

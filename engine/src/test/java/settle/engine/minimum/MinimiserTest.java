@@ -118,6 +118,31 @@ class MinimiserTest {
 
     @ParameterizedTest
     @CsvSource({"2", "3"})
+    void noMinimiserOnQuasiSeparableDataWithoutPenalty(int classes) {
+        Fixtures.Data apart = separable(classes);
+        // two identical rows with different labels: no θ classifies both strictly, but every other row is
+        // separated, so F decreases along a ray for ever (quasi-complete separation, hand-derived)
+        int d = apart.features();
+        int n = apart.y().length + 2;
+        double[] x = java.util.Arrays.copyOf(apart.x(), n * d);
+        int[] y = java.util.Arrays.copyOf(apart.y(), n);
+        for (int r = n - 2; r < n; r++) {
+            x[r * d] = 1.5;
+            x[r * d + 1] = 0.25;
+            x[r * d + 2] = -0.5;
+        }
+        y[n - 2] = 0;
+        y[n - 1] = 1;
+        Model model = new Fixtures.Data(x, y, d, classes).model(0.0);
+        NoMinimiserException e = assertThrows(NoMinimiserException.class,
+                () -> new Minimiser().minimise(model, x, y));
+        assertTrue(e.getMessage().startsWith("no minimiser exists: with l2 = 0 the weights grow without bound"),
+                e.getMessage());
+        assertTrue(e.getMessage().endsWith("set model.l2 > 0"), e.getMessage());
+    }
+
+    @ParameterizedTest
+    @CsvSource({"2", "3"})
     void separableDataWithPenaltyHaveAMinimiser(int classes) {
         Fixtures.Data data = separable(classes);
         Minimum minimum = new Minimiser().minimise(data.model(0.01), data.x(), data.y());

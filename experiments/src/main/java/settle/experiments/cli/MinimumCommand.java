@@ -1,0 +1,155 @@
+package settle.experiments.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.Writer;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.Optional;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+import settle.datasets.DataSources;
+import settle.datasets.Dataset;
+import settle.datasets.Standardiser;
+import settle.engine.minimum.Curvature;
+import settle.engine.minimum.Minimiser;
+import settle.engine.minimum.Minimum;
+import settle.engine.minimum.NoMinimiserException;
+import settle.engine.model.Model;
+import settle.engine.model.ModelSpec;
+
+/**
+ * {@code settle minimum}: the exact minimiser θ* of the full-batch objective on the whole dataset, F(θ*), the
+ * gradient norm reached, the iterations, and H's extreme eigenvalues on the gauge-free subspace.
+ */
+@Command(
+        name = "minimum",
+        mixinStandardHelpOptions = true,
+        versionProvider = Main.Version.class,
+        description = {
+            "The exact minimiser θ* of F(θ) = (1/N) Σ loss_i + (λ/2)‖weights‖² on the whole dataset (logistic"
+                    + " models), F(θ*), the gradient norm reached and H's extreme eigenvalues on the gauge-free"
+                    + " subspace.",
+            "Exit codes: 0 done; 1 no minimiser exists (λ = 0 on separable data) or the output could not be"
+                    + " written; 2 bad input."})
+public final class MinimumCommand implements Callable<Integer> {
+
+    @Spec
+    private CommandSpec spec;
+
+    @Option(names = "--data", required = true, paramLabel = "SOURCE",
+            description = "csv:PATH, libsvm:PATH, bundled:NAME or synthetic:GENERATOR")
+    private String data;
+
+    @Option(names = "--label", paramLabel = "COL", description = "label column of a CSV file (default: the last)")
+    private String label;
+
+    @Option(names = "--model", paramLabel = "KIND", defaultValue = "logistic",
+            description = "logistic (the only kind with an exact minimiser; default ${DEFAULT-VALUE})")
+    private String model;
+
+    @Option(names = "--l2", paramLabel = "L", defaultValue = "0",
+            description = "λ, the penalty on the weights, not the biases (default ${DEFAULT-VALUE})")
+    private double l2;
+
+    @Option(names = "--standardize",
+            description = "z-score every feature (population standard deviation) fitted on all rows")
+    private boolean standardize;
+
+    @Option(names = "--out", paramLabel = "FILE",
+            description = "write θ* to FILE, one value per line, instead of printing it")
+    private Path out;
+
+    @Override
+    public Integer call() {
+        PrintWriter stdout = spec.commandLine().getOut();
+        PrintWriter stderr = spec.commandLine().getErr();
+        Dataset dataset;
+        Model built;
+        try {
+            ModelSpec.Kind kind = ModelSpec.Kind.parse(model);
+            if (kind != ModelSpec.Kind.LOGISTIC) {
+                throw new IllegalArgumentException("--model " + model + " has no exact minimiser; accepted: logistic");
+            }
+            if (!(l2 >= 0) || Double.isInfinite(l2)) {
+                throw new IllegalArgumentException("--l2 must be a finite number >= 0, got " + l2);
+            }
+            ModelSpec modelSpec = ModelSpec.logistic(l2);
+            dataset = DataSources.load(data, label, null);
+            if (standardize) {
+                Standardiser standardiser = Standardiser.fit(dataset);
+                for (String warning : standardiser.warnings()) {
+                    stderr.println("warning: " + warning);
+                }
+                dataset = standardiser.apply(dataset);
+            }
+            built = modelSpec.build(dataset.features(), dataset.classes());
+        } catch (IllegalArgumentException e) {
+            stderr.println("settle minimum: " + e.getMessage().replace('\n', ' '));
+            return Main.BAD_INPUT;
+        }
+
+        Minimum minimum;
+        try {
+            minimum = new Minimiser().minimise(built, dataset);
+        } catch (NoMinimiserException e) {
+            stderr.println("settle minimum: " + e.getMessage());
+            return Main.FAILED;
+        }
+
+        stdout.println("data: " + dataset + (standardize ? ", standardised on all rows" : ""));
+        stdout.println("model: " + built.describe() + ", l2 " + l2);
+        stdout.println("method: " + minimum.method().name().toLowerCase(Locale.ROOT) + ", " + minimum.iterations()
+                + " iterations, " + (minimum.converged() ? "converged" : "stopped before the tolerance"));
+        stdout.println("F(θ*): " + minimum.objective());
+        stdout.println(String.format(Locale.ROOT, "gradient norm reached (max |∇F|): %.3e (tolerance %.0e)",
+                minimum.gradientNorm(), Minimiser.GRADIENT_TOLERANCE));
+        if (!minimum.converged()) {
+            stderr.println(String.format(Locale.ROOT, "warning: the iterates stopped improving at max |∇F| = %.3e,"
+                    + " above the tolerance %.0e (rounding); θ* is the best point found",
+                    minimum.gradientNorm(), Minimiser.GRADIENT_TOLERANCE));
+        }
+        Optional<String> skip = Curvature.skipReason(built);
+        if (skip.isPresent()) {
+            stdout.println("H: " + skip.get());
+        } else {
+            Curvature curvature = Curvature.at(built, dataset, minimum.theta());
+            stdout.println(String.format(Locale.ROOT,
+                    "H eigenvalues on the gauge-free subspace (%d of %d directions): min %.6e, max %.6e;"
+                            + " stability bound 2/max %.6e",
+                    curvature.eigenvalues().length, curvature.parameterCount(), curvature.lambdaMin(),
+                    curvature.lambdaMax(), curvature.stabilityBound()));
+        }
+
+        double[] theta = minimum.theta();
+        if (out != null) {
+            try (Writer writer = Files.newBufferedWriter(out, StandardCharsets.UTF_8)) {
+                for (double v : theta) {
+                    writer.write(Double.toString(v));
+                    writer.write('\n');
+                }
+            } catch (IOException e) {
+                stderr.println("settle minimum: cannot write " + out + ": " + e.getMessage());
+                return Main.FAILED;
+            }
+            stdout.println("θ*: " + theta.length + " values written to " + out);
+        } else {
+            stdout.println("θ* (" + theta.length + " values, " + order(built) + "):");
+            for (double v : theta) {
+                stdout.println(v);
+            }
+        }
+        return Main.OK;
+    }
+
+    private static String order(Model model) {
+        return model.classes() == 2
+                ? "the " + model.inputs() + " weights, then the bias"
+                : "class 0's " + model.inputs() + " weights, class 1's, …, then the " + model.classes() + " biases";
+    }
+}

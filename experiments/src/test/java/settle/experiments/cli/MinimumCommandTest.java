@@ -1,0 +1,98 @@
+package settle.experiments.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** {@code settle minimum}: output, --out, and the exit codes of DESIGN.md. */
+class MinimumCommandTest {
+
+    /**
+     * F(θ*) on standardised WDBC with λ = 0.01 from scikit-learn 1.2.1 (Debian), the value make_fixture.py in
+     * engine/src/test/resources/settle/engine/minimum wrote to wdbc.reference.
+     */
+    private static final double WDBC_OBJECTIVE = 0.09959137548470548;
+    private static final double OBJECTIVE_TOLERANCE = 1e-8;
+
+    private record Result(int code, String out, String err) {
+    }
+
+    private static Result run(String... args) {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int code = Main.run(new PrintWriter(out), new PrintWriter(err), args);
+        return new Result(code, out.toString(), err.toString());
+    }
+
+    private static double valueAfter(String text, String prefix) {
+        for (String line : text.lines().toList()) {
+            if (line.startsWith(prefix)) {
+                return Double.parseDouble(line.substring(prefix.length()).trim());
+            }
+        }
+        throw new AssertionError("no line starting with '" + prefix + "' in:\n" + text);
+    }
+
+    @Test
+    void printsTheMinimiserOfStandardisedWdbc() {
+        Result r = run("minimum", "--data", "bundled:wdbc", "--standardize", "--model", "logistic", "--l2", "0.01");
+        assertEquals(0, r.code(), r.err());
+        assertEquals(WDBC_OBJECTIVE, valueAfter(r.out(), "F(θ*):"), OBJECTIVE_TOLERANCE * WDBC_OBJECTIVE);
+        assertTrue(r.out().contains("method: newton"), r.out());
+        assertTrue(r.out().contains("H eigenvalues on the gauge-free subspace (31 of 31 directions): min "), r.out());
+        assertTrue(r.out().contains("θ* (31 values, the 30 weights, then the bias):"), r.out());
+    }
+
+    @Test
+    void writesThetaOnePerLine(@TempDir Path dir) throws IOException {
+        Path file = dir.resolve("theta.csv");
+        Result r = run("minimum", "--data", "bundled:iris", "--standardize", "--l2", "0.01", "--out", file.toString());
+        assertEquals(0, r.code(), r.err());
+        List<String> lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+        assertEquals(15, lines.size());
+        double biasSum = 0;
+        for (int k = 12; k < 15; k++) {
+            biasSum += Double.parseDouble(lines.get(k));
+        }
+        assertEquals(0.0, biasSum, 1e-12, "softmax biases centred");
+        assertTrue(r.out().contains("(14 of 15 directions)"), r.out());
+    }
+
+    @Test
+    void separableDataWithoutPenaltyFailWithExitOne(@TempDir Path dir) throws IOException {
+        Path csv = dir.resolve("apart.csv");
+        Files.writeString(csv, "a,b,y\n0,1,no\n0.5,2,no\n1,0.3,no\n3,1,yes\n3.5,0,yes\n4,2,yes\n");
+        Result r = run("minimum", "--data", "csv:" + csv, "--label", "y");
+        assertEquals(1, r.code(), r.out() + r.err());
+        assertEquals("settle minimum: no minimiser exists: the training data are linearly separable and l2 = 0;"
+                + " set model.l2 > 0", r.err().strip());
+    }
+
+    @Test
+    void badInputExitsWithTwo() {
+        Result unknown = run("minimum", "--data", "bundled:nosuch");
+        assertEquals(2, unknown.code());
+        assertEquals(1, unknown.err().strip().lines().count(), unknown.err());
+        assertTrue(unknown.err().startsWith("settle minimum: "), unknown.err());
+
+        Result mlp = run("minimum", "--data", "bundled:iris", "--model", "mlp");
+        assertEquals(2, mlp.code());
+        assertEquals("settle minimum: --model mlp has no exact minimiser; accepted: logistic", mlp.err().strip());
+
+        Result negative = run("minimum", "--data", "bundled:iris", "--l2", "-1");
+        assertEquals(2, negative.code());
+        assertEquals("settle minimum: --l2 must be a finite number >= 0, got -1.0", negative.err().strip());
+
+        assertEquals(2, run("minimum", "--data", "bundled:iris", "--l2", "abc").code());
+        assertEquals(2, run("minimum").code());
+    }
+}
