@@ -18,7 +18,7 @@ import picocli.CommandLine.Spec;
         versionProvider = Main.Version.class,
         description = "Does learning-rate decay shrink the SGD noise ball on your data? "
                 + "Seed-paired studies of learning-rate schedules.",
-        subcommands = {CommandLine.HelpCommand.class, CheckCommand.class, RatesCommand.class, DatasetsCommand.class, MinimumCommand.class})
+        subcommands = {CommandLine.HelpCommand.class, CheckCommand.class, RatesCommand.class, DatasetsCommand.class, MinimumCommand.class, TraceCommand.class})
 public final class Main implements Callable<Integer> {
 
     /** Exit code: success, warnings included. */
