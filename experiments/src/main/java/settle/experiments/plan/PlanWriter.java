@@ -1,7 +1,5 @@
 package settle.experiments.plan;
 
-import settle.engine.model.ModelSpec;
-
 import java.nio.charset.StandardCharsets;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
@@ -9,6 +7,7 @@ import java.util.HexFormat;
 import java.util.List;
 import java.util.Map;
 import java.util.regex.Pattern;
+import settle.engine.model.ModelSpec;
 
 /**
  * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included), in the
@@ -57,7 +56,7 @@ public final class PlanWriter {
         b.append("training:\n");
         b.append("  epochs: ").append(t.epochs()).append('\n');
         b.append("  batch: ").append(t.batch()).append('\n');
-        b.append("  sampling: ").append(t.sampling().yamlName()).append('\n');
+        b.append("  sampling: ").append(t.sampling().key()).append('\n');
         b.append("  momentum: ").append(number(t.momentum())).append('\n');
         b.append("  tail: ").append(number(t.tail())).append('\n');
         b.append("  snapshots: ").append(t.snapshots()).append('\n');

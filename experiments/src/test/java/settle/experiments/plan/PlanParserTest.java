@@ -1,9 +1,5 @@
 package settle.experiments.plan;
 
-import settle.engine.model.Activation;
-
-import settle.engine.model.ModelSpec;
-
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
@@ -18,7 +14,10 @@ import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.engine.model.Activation;
 import settle.engine.model.Initialisation;
+import settle.engine.model.ModelSpec;
+import settle.engine.train.Sampling;
 
 class PlanParserTest {
 
@@ -47,7 +46,7 @@ class PlanParserTest {
         assertEquals(null, plan.model().activation());
         assertEquals(Initialisation.ZEROS, plan.model().init());
         assertEquals(1.0e-3, plan.model().l2());
-        assertEquals(new TrainingPlan(50, 32, TrainingPlan.Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
+        assertEquals(new TrainingPlan(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
         assertEquals("constant", plan.baseline());
         List<String> names = new ArrayList<>();
         for (ArmPlan a : plan.arms()) {
@@ -87,7 +86,7 @@ class PlanParserTest {
         assertEquals(new DataPlan("synthetic:gaussian?rows=200&seed=3", null, 0.2, 0.0, true), plan.data());
         assertEquals(new ModelSpec(ModelSpec.Kind.LOGISTIC, List.of(), null, 1.0e-3, Initialisation.ZEROS),
                 plan.model());
-        assertEquals(new TrainingPlan(50, 32, TrainingPlan.Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
+        assertEquals(new TrainingPlan(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
         assertEquals(1, plan.arms().size());
         ArmPlan arm = plan.arms().get(0);
         assertEquals("constant", arm.name(), "an unnamed arm is named after its schedule kind");
