@@ -1,6 +1,10 @@
 package settle.experiments.plan;
 
+import java.io.IOException;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
 import java.util.HexFormat;
@@ -69,6 +73,23 @@ public final class PlanWriter {
             b.append("    manual: ").append(a.manual()).append('\n');
         }
         return b.toString();
+    }
+
+    /**
+     * Writes {@link #toYaml(Plan)} to {@code file} (a study directory's {@code plan.yaml}) atomically: into a
+     * temporary file beside it, then renamed over it, so a reader never sees half a plan.
+     *
+     * @throws IOException when the file cannot be written
+     */
+    public static void write(Plan plan, Path file) throws IOException {
+        Path dir = file.toAbsolutePath().getParent();
+        Path temp = Files.createTempFile(dir, ".plan-", ".tmp");
+        try {
+            Files.writeString(temp, toYaml(plan), StandardCharsets.UTF_8);
+            Files.move(temp, file, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        } finally {
+            Files.deleteIfExists(temp);
+        }
     }
 
     /** @return the lower-case hexadecimal SHA-256 of the UTF-8 bytes of {@link #toYaml(Plan)} */

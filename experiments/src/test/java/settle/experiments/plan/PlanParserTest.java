@@ -246,4 +246,43 @@ class PlanParserTest {
         assertEquals("plan.yaml:2:11: data.source: cannot read", e.getMessage());
         assertThrows(IllegalArgumentException.class, () -> p.plan().arm("nope"));
     }
+
+    @Test
+    void writtenPlanFileParsesBackFromTheStudyDirectory(@TempDir Path dir) throws Exception {
+        Plan plan = PlanParser.parse(resource("grid.yaml"));
+        Path file = dir.resolve("plan.yaml");
+        PlanWriter.write(plan, file);
+        PlanWriter.write(plan, file); // over an existing file
+        assertEquals(plan, PlanParser.parse(file));
+        try (var s = Files.list(dir)) {
+            assertEquals(1, s.count(), "no temporary file left behind");
+        }
+    }
+
+    @Test
+    void nearMissesCountTranspositionsAndIgnoreCase() {
+        // OSA distance: one substitution, one transposition, one deletion, and a case change counts 0
+        assertEquals(1, NearMiss.distance("exponental", "exponential"));
+        assertEquals(1, NearMiss.distance("lable", "label"));
+        assertEquals(3, NearMiss.distance("kitten", "sitting"), "Levenshtein's classic example: k→s, e→i, +g");
+        assertEquals("epochs", NearMiss.closest("Epoch", List.of("epochs", "batch")));
+        assertEquals(null, NearMiss.closest("zzz", List.of("epochs", "batch")));
+    }
+
+    @Test
+    void gridErrorsPointAtTheOffendingValue() {
+        PlanException e = assertThrows(PlanException.class, () -> text("""
+                data: {source: "synthetic:xor"}
+                arms:
+                  - {name: r, schedule: {kind: reciprocal, rate: 0.2, decay: 1}}
+                grid:
+                  - arm: r
+                    decay: [1, 2, fast]
+                """));
+        assertEquals("plan.yaml:6:19: grid[0].decay[2]: reciprocal: decay = 'fast' is not accepted; expected a number"
+                + " (in arm 'r[decay=fast]')", e.getMessage());
+        assertEquals(6, e.line());
+        assertEquals(19, e.column());
+        assertEquals("grid[0].decay[2]", e.keyPath());
+    }
 }
