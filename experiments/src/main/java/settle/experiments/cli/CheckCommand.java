@@ -246,7 +246,7 @@ public final class CheckCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, "curvature at θ*: λmin(H) = %s, λmax(H) = %s%n", rate(c.lambdaMin()), rate(lambdaMax));
         out.printf(Locale.ROOT, "stability bound of the mean: α < %s%s = %s%n", beta == 0 ? "2" : "2(1 + β)",
                 "/λmax", rate(bound));
-        out.printf(Locale.ROOT, "  %-4s %12s %10s  %s%n", "arm", "max α", "max α·λmax", "");
+        out.printf(Locale.ROOT, "  %-4s %12s %10s%n", "arm", "max α", "max α·λmax");
         for (int i = 0; i < plan.arms().size(); i++) {
             double max = 0;
             for (double r : rates.get(i)) {
@@ -268,7 +268,8 @@ public final class CheckCommand implements Callable<Integer> {
             } else {
                 flag = "";
             }
-            out.printf(Locale.ROOT, "  %-4s %12s %10s  %s%n", "#" + (i + 1), rate(max), rate(product), flag);
+            out.println(String.format(Locale.ROOT, "  %-4s %12s %10s  %s", "#" + (i + 1), rate(max), rate(product),
+                    flag).stripTrailing());
         }
         if (beta != 0) {
             out.println("  (momentum " + beta + ": the noise-ball prediction is skipped for this plan)");
