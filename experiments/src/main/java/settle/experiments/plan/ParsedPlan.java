@@ -1,0 +1,80 @@
+package settle.experiments.plan;
+
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+
+/**
+ * A resolved plan together with where each of its keys was written, so that a later step (loading the
+ * data, checking rates against the curvature) can report a problem at the right line and column.
+ */
+public final class ParsedPlan {
+
+    private final Plan plan;
+    private final String file;
+    private final Map<String, int[]> positions;
+    private final List<String> warnings;
+
+    private final List<String> armPaths;
+
+    ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings, List<String> armPaths) {
+        this.armPaths = List.copyOf(armPaths);
+        this.warnings = List.copyOf(warnings);
+        this.plan = Objects.requireNonNull(plan, "plan");
+        this.file = Objects.requireNonNull(file, "file");
+        this.positions = Map.copyOf(positions);
+    }
+
+    /** @return the resolved plan */
+    public Plan plan() {
+        return plan;
+    }
+
+    /** @return one-line warnings about the plan as written (keys ignored, …), positioned like errors */
+    public List<String> warnings() {
+        return warnings;
+    }
+
+    /**
+     * @param armIndex an index into {@link Plan#arms()}
+     * @return the key path of the arm as written ({@code arms[j]}): a grid-expanded arm reports its template
+     */
+    public String armPath(int armIndex) {
+        return armPaths.get(armIndex);
+    }
+
+    /** @return the plan file as the user named it */
+    public String file() {
+        return file;
+    }
+
+    /**
+     * @param keyPath a key path such as {@code data.source} or {@code arms[2].schedule.rate}
+     * @return {line, column} (1-based) where that key's value was written, or where its closest written
+     *         ancestor was (a defaulted key reports its parent); {0, 0} when nothing is known
+     */
+    public int[] position(String keyPath) {
+        String p = keyPath;
+        while (true) {
+            int[] pos = positions.get(p);
+            if (pos != null) {
+                return pos.clone();
+            }
+            int cut = Math.max(p.lastIndexOf('.'), p.lastIndexOf('['));
+            if (cut <= 0) {
+                return new int[] {0, 0};
+            }
+            p = p.substring(0, cut);
+        }
+    }
+
+    /**
+     * @param keyPath the key the problem concerns
+     * @param detail what is wrong and what is accepted
+     * @return an exception positioned at that key, to throw
+     */
+    public PlanException error(String keyPath, String detail) {
+        int[] pos = position(keyPath);
+        return new PlanException(file, pos[0], pos[1], keyPath, detail);
+    }
+}

@@ -1,0 +1,839 @@
+package settle.experiments.plan;
+
+import java.io.IOException;
+import java.nio.ByteBuffer;
+import java.nio.charset.CharacterCodingException;
+import java.nio.charset.CodingErrorAction;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import settle.engine.model.Activation;
+import settle.engine.model.Initialisation;
+import settle.engine.model.ModelSpec;
+import settle.engine.schedule.Schedule;
+import settle.engine.schedule.ScheduleException;
+import settle.engine.schedule.Schedules;
+import settle.engine.train.Sampling;
+
+/**
+ * Reads a plan file into a resolved {@link Plan}. This class is the one place where defaults are filled in
+ * (see {@link #DEFAULTS_TABLE}). Unknown keys are errors with a near-miss suggestion; every error is a
+ * {@link PlanException} naming the file, line, column and key path and what is accepted.
+ *
+ * <p>Paths in a plan ({@code csv:PATH}, {@code libsvm:PATH}) are relative to the folder of the plan file and
+ * are stored absolute in the resolved plan, so that the resolved plan written into a study directory means
+ * the same data.
+ */
+public final class PlanParser {
+
+    /** Default number of replicates: enough for an exact signed-rank p below 0.05 against a few arms. */
+    public static final int DEFAULT_REPLICATES = 10;
+    /** Default root seed. */
+    public static final long DEFAULT_SEED = 1L;
+    /** Default test fraction. */
+    public static final double DEFAULT_TEST_FRACTION = 0.2;
+    /** Default holdout fraction (no holdout split). */
+    public static final double DEFAULT_HOLDOUT_FRACTION = 0.0;
+    /** Default L2 penalty λ. */
+    public static final double DEFAULT_L2 = 1.0e-3;
+    /** Default width of the single hidden layer of an mlp. */
+    public static final int DEFAULT_HIDDEN = 32;
+    /** Widest hidden layer a plan may ask for. */
+    public static final int MAX_WIDTH = 100_000;
+    /** Default number of epochs. */
+    public static final int DEFAULT_EPOCHS = 50;
+    /** Default batch size. */
+    public static final int DEFAULT_BATCH = 32;
+    /** Default tail fraction τ. */
+    public static final double DEFAULT_TAIL = 0.1;
+    /** Default number of tail snapshots K. */
+    public static final int DEFAULT_SNAPSHOTS = 50;
+
+    /** The plan keys, their defaults and units, as a markdown table (the README prints it). */
+    public static final String DEFAULTS_TABLE = String.join("\n",
+            "| key | default | unit / accepted |",
+            "| --- | --- | --- |",
+            "| `study` | the plan file's name without extension | 1–100 of `A-Z a-z 0-9 . _ -`, not starting with `.` |",
+            "| `seed` | 1 | any 64-bit integer |",
+            "| `replicates` | 10 | integer 1–100000, per arm |",
+            "| `data.source` | required | `bundled:NAME`, `csv:PATH`, `libsvm:PATH`, `synthetic:GENERATOR`; PATH relative to the plan file |",
+            "| `data.label` | none (the reader's default) | a CSV column name |",
+            "| `data.test-fraction` | 0.2 | fraction of rows, in (0, 1), stratified |",
+            "| `data.holdout-fraction` | 0.0 | fraction of the training split, in [0, 1); > 0 needed by `judge: holdout` |",
+            "| `data.standardize` | true | true / false |",
+            "| `model.kind` | logistic | `logistic` / `mlp` |",
+            "| `model.hidden` | [32] (mlp only; ignored with a warning for logistic) | list of layer widths, each 1–100000 |",
+            "| `model.activation` | relu (mlp only; ignored with a warning for logistic) | `relu` / `tanh` |",
+            "| `model.l2` | 1.0e-3 | λ ≥ 0, penalty (λ/2)‖weights‖², biases not penalised |",
+            "| `model.init` | zeros (logistic), he (mlp) | `zeros` / `reference` (logistic only) / `glorot` / `he` |",
+            "| `training.epochs` | 50 | passes over the training split, 1–1000000 |",
+            "| `training.batch` | 32 | examples per update, ≥ 1 |",
+            "| `training.sampling` | shuffle | `shuffle` / `replacement` |",
+            "| `training.momentum` | 0.0 | heavy-ball β in [0, 1) |",
+            "| `training.tail` | 0.1 | fraction of the updates, in (0, 1] |",
+            "| `training.snapshots` | 50 | evenly spaced tail snapshots, ≥ 2 |",
+            "| `baseline` | the first arm | an arm name (after grid expansion) |",
+            "| `arms[].name` | the schedule kind | any text, unique |",
+            "| `arms[].schedule` | required | a schedule map (`kind` and its keys) |",
+            "| `arms[].average` | none | `none` / `tail` |",
+            "| `arms[].manual` | false | true / false (recorded; reserved for manual decay) |",
+            "| `grid[].arm` | required | the name of an arm in `arms` |",
+            "| `grid[].KEY` | — | a non-empty list of values for schedule key KEY |");
+
+    private static final List<String> TOP_KEYS = List.of(
+            "study", "seed", "replicates", "data", "model", "training", "baseline", "arms", "grid");
+    private static final List<String> DATA_KEYS = List.of(
+            "source", "label", "test-fraction", "holdout-fraction", "standardize");
+    private static final List<String> MODEL_KEYS = List.of("kind", "hidden", "activation", "l2", "init");
+    private static final List<String> TRAINING_KEYS = List.of(
+            "epochs", "batch", "sampling", "momentum", "tail", "snapshots");
+    private static final List<String> ARM_KEYS = List.of("name", "schedule", "average", "manual");
+    private static final List<String> SOURCE_KINDS = List.of("bundled", "csv", "libsvm", "synthetic");
+    private static final String SOURCE_FORMS = "bundled:NAME, csv:PATH, libsvm:PATH or synthetic:GENERATOR";
+
+    private final String file;
+    private final Path baseDirectory;
+    private final String defaultStudy;
+    private final Map<String, int[]> positions = new HashMap<>();
+    private final List<String> warnings = new ArrayList<>();
+    private final List<String> armPaths = new ArrayList<>();
+
+    private PlanParser(String file, Path baseDirectory, String defaultStudy) {
+        this.file = file;
+        this.baseDirectory = baseDirectory.toAbsolutePath().normalize();
+        this.defaultStudy = defaultStudy;
+    }
+
+    /**
+     * Reads and resolves a plan file.
+     *
+     * @param planFile the plan; named in messages as given
+     * @return the resolved plan
+     * @throws PlanException when the file cannot be read or the plan is not valid
+     */
+    public static Plan parse(Path planFile) {
+        return read(planFile).plan();
+    }
+
+    /**
+     * Reads and resolves a plan file, keeping the positions of its keys.
+     *
+     * @throws PlanException when the file cannot be read or the plan is not valid
+     */
+    public static ParsedPlan read(Path planFile) {
+        String name = planFile.toString();
+        String text;
+        try {
+            text = StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)
+                    .onUnmappableCharacter(CodingErrorAction.REPORT)
+                    .decode(ByteBuffer.wrap(Files.readAllBytes(planFile))).toString();
+        } catch (NoSuchFileException e) {
+            throw new PlanException(name, 0, 0, "", "no such file; give the path of a plan YAML file");
+        } catch (CharacterCodingException e) {
+            throw new PlanException(name, 0, 0, "", "not UTF-8 text; save the plan as UTF-8");
+        } catch (IOException e) {
+            throw new PlanException(name, 0, 0, "", "cannot read the plan: " + e.getMessage());
+        }
+        Path parent = planFile.toAbsolutePath().getParent();
+        return read(text, name, parent == null ? Path.of("") : parent);
+    }
+
+    /**
+     * Resolves plan text.
+     *
+     * @param text the YAML text
+     * @param fileName the name used in messages; its name without extension is the default study name
+     * @param baseDirectory the folder relative paths in the plan are resolved against
+     * @throws PlanException when the plan is not valid
+     */
+    public static ParsedPlan read(String text, String fileName, Path baseDirectory) {
+        Path leaf = Path.of(fileName).getFileName();
+        String stem = leaf == null ? "" : leaf.toString();
+        int dot = stem.lastIndexOf('.');
+        if (dot > 0) {
+            stem = stem.substring(0, dot);
+        }
+        PlanParser p = new PlanParser(fileName, baseDirectory, stem);
+        YamlNode root = YamlReader.read(text, fileName);
+        Plan plan = p.resolve(root);
+        return new ParsedPlan(plan, fileName, p.positions, p.warnings, p.armPaths);
+    }
+
+    // ---------------------------------------------------------------- the plan
+
+    private Plan resolve(YamlNode root) {
+        if (!(root instanceof YamlNode.MapNode top)) {
+            throw error(root, "", "a plan must be a map of keys (" + String.join(", ", TOP_KEYS)
+                    + "), got " + root.describe());
+        }
+        checkKeys(top, "", "the plan", TOP_KEYS);
+        String study;
+        if (present(top, "study")) {
+            study = string(top, "", "study");
+            if (!Plan.validStudyName(study)) {
+                throw error(value(top, "study"), "study", "must be 1-100 letters, digits, '.', '_' or '-', "
+                        + "not starting with '.' (it names the study directory), got '" + study + "'");
+            }
+        } else {
+            if (!Plan.validStudyName(defaultStudy)) {
+                throw error(top, "study", "missing; the file name '" + defaultStudy + "' cannot name a study "
+                        + "directory, so give 'study:' (letters, digits, '.', '_' or '-')");
+            }
+            study = defaultStudy;
+        }
+        long seed = present(top, "seed")
+                ? integer(top, "", "seed", Long.MIN_VALUE, Long.MAX_VALUE, "an integer (any 64-bit value)")
+                : DEFAULT_SEED;
+        int replicates = present(top, "replicates")
+                ? (int) integer(top, "", "replicates", 1, Plan.MAX_REPLICATES, null)
+                : DEFAULT_REPLICATES;
+        DataPlan data = data(requiredMap(top, "", "data", "source (" + SOURCE_FORMS + ")"));
+        ModelSpec model = model(optionalMap(top, "", "model"));
+        TrainingPlan training = training(optionalMap(top, "", "training"));
+
+        List<Template> templates = arms(top);
+        List<ArmPlan> arms = expand(top, templates, data);
+
+        String baseline = baseline(top, templates, arms);
+        return new Plan(study, seed, replicates, data, model, training, baseline, arms);
+    }
+
+    private DataPlan data(YamlNode.MapNode m) {
+        checkKeys(m, "data", "data", DATA_KEYS);
+        if (!present(m, "source")) {
+            throw error(m, "data.source", "missing; accepted: " + SOURCE_FORMS);
+        }
+        String raw = string(m, "data", "source");
+        YamlNode at = value(m, "source");
+        int colon = raw.indexOf(':');
+        if (colon < 0) {
+            String hint = raw.matches("[A-Za-z0-9_-]+") ? "; did you mean 'bundled:" + raw + "'?"
+                    : raw.toLowerCase(Locale.ROOT).endsWith(".csv") ? "; did you mean 'csv:" + raw + "'?" : "";
+            throw error(at, "data.source", "must be " + SOURCE_FORMS + ", got '" + raw + "'" + hint);
+        }
+        String kind = raw.substring(0, colon);
+        String rest = raw.substring(colon + 1).trim();
+        if (!SOURCE_KINDS.contains(kind)) {
+            throw error(at, "data.source", "unknown data source kind '" + kind + "'"
+                    + NearMiss.suggestion(kind, SOURCE_KINDS) + " (accepted: " + SOURCE_FORMS + ")");
+        }
+        if (rest.isEmpty()) {
+            throw error(at, "data.source", "'" + kind + ":' needs a "
+                    + (kind.equals("csv") || kind.equals("libsvm") ? "file path" : "name") + " after the colon"
+                    + " (accepted: " + SOURCE_FORMS + ")");
+        }
+        String source;
+        if (kind.equals("csv") || kind.equals("libsvm")) {
+            Path path;
+            try {
+                path = Path.of(rest);
+            } catch (java.nio.file.InvalidPathException e) {
+                throw error(at, "data.source", "not a valid file path: '" + rest + "'");
+            }
+            source = kind + ":" + baseDirectory.resolve(path).normalize();
+        } else {
+            source = kind + ":" + rest;
+        }
+        String label = present(m, "label") ? string(m, "data", "label") : null;
+        double test = present(m, "test-fraction")
+                ? number(m, "data", "test-fraction", Range.OPEN_UNIT) : DEFAULT_TEST_FRACTION;
+        double holdout = present(m, "holdout-fraction")
+                ? number(m, "data", "holdout-fraction", Range.HALF_OPEN_UNIT) : DEFAULT_HOLDOUT_FRACTION;
+        boolean standardize = !present(m, "standardize") || bool(m, "data", "standardize");
+        return new DataPlan(source, label, test, holdout, standardize);
+    }
+
+    private ModelSpec model(YamlNode.MapNode m) {
+        if (m == null) {
+            return new ModelSpec(ModelSpec.Kind.LOGISTIC, List.of(), null, DEFAULT_L2, Initialisation.ZEROS);
+        }
+        checkKeys(m, "model", "model", MODEL_KEYS);
+        ModelSpec.Kind kind = present(m, "kind")
+                ? choice(m, "model", "kind", ModelSpec.Kind.class) : ModelSpec.Kind.LOGISTIC;
+        List<Integer> hidden = List.of();
+        Activation activation = null;
+        // validated whatever the kind, so that a misspelt value is caught; a logistic model ignores them
+        List<Integer> widths = present(m, "hidden") ? widths(m) : List.of(DEFAULT_HIDDEN);
+        Activation act = present(m, "activation")
+                ? choice(m, "model", "activation", Activation.class) : Activation.RELU;
+        if (kind == ModelSpec.Kind.LOGISTIC) {
+            for (String k : List.of("hidden", "activation")) {
+                if (present(m, k)) {
+                    YamlNode.Entry e = m.entries.get(k);
+                    warnings.add(new PlanException(file, e.keyLine, e.keyColumn, "model." + k,
+                            "applies to kind: mlp only; ignored for this logistic model").getMessage());
+                }
+            }
+        } else {
+            hidden = widths;
+            activation = act;
+        }
+        double l2 = present(m, "l2") ? number(m, "model", "l2", Range.NON_NEGATIVE) : DEFAULT_L2;
+        Initialisation init;
+        if (present(m, "init")) {
+            init = choice(m, "model", "init", Initialisation.class);
+            if (init == Initialisation.REFERENCE && kind != ModelSpec.Kind.LOGISTIC) {
+                throw error(value(m, "init"), "model.init", "'reference' starts at the exact minimiser, which "
+                        + "exists for convex (logistic) models only; accepted for an mlp: zeros, glorot, he");
+            }
+        } else {
+            init = kind == ModelSpec.Kind.LOGISTIC ? Initialisation.ZEROS : Initialisation.HE;
+        }
+        return new ModelSpec(kind, hidden, activation, l2, init);
+    }
+
+    private List<Integer> widths(YamlNode.MapNode m) {
+        YamlNode v = value(m, "hidden");
+        if (!(v instanceof YamlNode.ListNode list) || list.items.isEmpty()) {
+            throw error(v, "model.hidden", "must be a non-empty list of layer widths such as [32] or [64, 32], "
+                    + "got " + v.describe());
+        }
+        List<Integer> out = new ArrayList<>();
+        for (int i = 0; i < list.items.size(); i++) {
+            out.add((int) integerValue(list.items.get(i), "model.hidden[" + i + "]", 1, MAX_WIDTH, null));
+        }
+        return out;
+    }
+
+    private TrainingPlan training(YamlNode.MapNode m) {
+        if (m == null) {
+            return new TrainingPlan(DEFAULT_EPOCHS, DEFAULT_BATCH, Sampling.SHUFFLE, 0.0,
+                    DEFAULT_TAIL, DEFAULT_SNAPSHOTS);
+        }
+        checkKeys(m, "training", "training", TRAINING_KEYS);
+        int epochs = present(m, "epochs")
+                ? (int) integer(m, "training", "epochs", 1, TrainingPlan.MAX_EPOCHS, null) : DEFAULT_EPOCHS;
+        int batch = present(m, "batch")
+                ? (int) integer(m, "training", "batch", 1, Integer.MAX_VALUE, null) : DEFAULT_BATCH;
+        Sampling sampling = present(m, "sampling")
+                ? choice(m, "training", "sampling", Sampling.class) : Sampling.SHUFFLE;
+        double momentum = present(m, "momentum")
+                ? number(m, "training", "momentum", Range.HALF_OPEN_UNIT) : 0.0;
+        double tail = present(m, "tail") ? number(m, "training", "tail", Range.LEFT_OPEN_UNIT) : DEFAULT_TAIL;
+        int snapshots = present(m, "snapshots")
+                ? (int) integer(m, "training", "snapshots", 2, Integer.MAX_VALUE, null) : DEFAULT_SNAPSHOTS;
+        return new TrainingPlan(epochs, batch, sampling, momentum, tail, snapshots);
+    }
+
+    // ---------------------------------------------------------------- arms and grid
+
+    /** An arm as written, before grid expansion. */
+    private static final class Template {
+        final int index;
+        final String name;
+        final YamlNode.MapNode item;
+        final YamlNode.MapNode schedule;
+        final ArmPlan.Averaging average;
+        final boolean manual;
+        int grid = -1;
+
+        Template(int index, String name, YamlNode.MapNode item, YamlNode.MapNode schedule,
+                ArmPlan.Averaging average, boolean manual) {
+            this.index = index;
+            this.name = name;
+            this.item = item;
+            this.schedule = schedule;
+            this.average = average;
+            this.manual = manual;
+        }
+
+        String path() {
+            return "arms[" + index + "]";
+        }
+    }
+
+    private List<Template> arms(YamlNode.MapNode top) {
+        if (!present(top, "arms")) {
+            throw error(top, "arms", "missing; a plan needs a list of arms, each "
+                    + "{name: NAME, schedule: {kind: KIND, …}}");
+        }
+        YamlNode v = value(top, "arms");
+        if (!(v instanceof YamlNode.ListNode list) || list.items.isEmpty()) {
+            throw error(v, "arms", "must be a non-empty list of arms, each {name: NAME, schedule: {kind: KIND, …}}, "
+                    + "got " + v.describe());
+        }
+        List<Template> out = new ArrayList<>();
+        for (int i = 0; i < list.items.size(); i++) {
+            String path = "arms[" + i + "]";
+            YamlNode item = list.items.get(i);
+            record(path, item);
+            if (!(item instanceof YamlNode.MapNode arm)) {
+                throw error(item, path, "an arm must be a map {name: NAME, schedule: {kind: KIND, …}}, got "
+                        + item.describe());
+            }
+            checkKeys(arm, path, "an arm", ARM_KEYS);
+            if (!present(arm, "schedule")) {
+                throw error(arm, path + ".schedule", "missing; every arm needs a schedule such as "
+                        + "{kind: constant, rate: 0.1} (kinds: " + String.join(", ", Schedules.kinds()) + ")");
+            }
+            YamlNode s = value(arm, "schedule");
+            if (!(s instanceof YamlNode.MapNode schedule)) {
+                throw error(s, path + ".schedule", "must be a map such as {kind: constant, rate: 0.1}, got "
+                        + s.describe());
+            }
+            recordTree(path + ".schedule", schedule);
+            String kind = kind(schedule, path + ".schedule");
+            String name = present(arm, "name") ? string(arm, path, "name") : kind;
+            if (name.isBlank()) {
+                throw error(value(arm, "name"), path + ".name", "must not be blank");
+            }
+            ArmPlan.Averaging average = present(arm, "average")
+                    ? choice(arm, path, "average", ArmPlan.Averaging.class) : ArmPlan.Averaging.NONE;
+            boolean manual = present(arm, "manual") && bool(arm, path, "manual");
+            out.add(new Template(i, name, arm, schedule, average, manual));
+        }
+        return out;
+    }
+
+    private String kind(YamlNode.MapNode schedule, String path) {
+        if (!present(schedule, "kind")) {
+            throw error(schedule, path + ".kind", "missing; accepted kinds: " + String.join(", ", Schedules.kinds()));
+        }
+        YamlNode k = value(schedule, "kind");
+        if (!(k instanceof YamlNode.Scalar sc) || sc.type != YamlNode.ScalarType.STRING) {
+            throw error(k, path + ".kind", "must be a schedule kind (" + String.join(", ", Schedules.kinds())
+                    + "), got " + k.describe());
+        }
+        if (!Schedules.kinds().contains(sc.text)) {
+            throw error(k, path + ".kind", "unknown schedule kind '" + sc.text + "'"
+                    + NearMiss.suggestion(sc.text, Schedules.kinds())
+                    + " (accepted: " + String.join(", ", Schedules.kinds()) + ")");
+        }
+        return sc.text;
+    }
+
+    private List<ArmPlan> expand(YamlNode.MapNode top, List<Template> templates, DataPlan data) {
+        List<List<ArmPlan>> perTemplate = new ArrayList<>();
+        for (Template t : templates) {
+            perTemplate.add(null);
+        }
+        if (present(top, "grid")) {
+            YamlNode g = value(top, "grid");
+            if (!(g instanceof YamlNode.ListNode grid)) {
+                throw error(g, "grid", "must be a list of {arm: NAME, KEY: [values], …}, got " + g.describe());
+            }
+            for (int gi = 0; gi < grid.items.size(); gi++) {
+                String path = "grid[" + gi + "]";
+                YamlNode item = grid.items.get(gi);
+                record(path, item);
+                if (!(item instanceof YamlNode.MapNode entry)) {
+                    throw error(item, path, "a grid entry must be a map {arm: NAME, KEY: [values], …}, got "
+                            + item.describe());
+                }
+                Template t = gridTemplate(entry, path, templates);
+                t.grid = gi;
+                perTemplate.set(t.index, expandOne(entry, path, t, data));
+            }
+        }
+        List<ArmPlan> arms = new ArrayList<>();
+        Map<String, String> seen = new LinkedHashMap<>();
+        for (Template t : templates) {
+            List<ArmPlan> expanded = perTemplate.get(t.index);
+            if (expanded == null) {
+                Map<String, Object> raw = rawSchedule(t.schedule);
+                expanded = List.of(arm(t, t.name, raw, t.path() + ".schedule", null, data));
+            }
+            for (ArmPlan a : expanded) {
+                String where = t.grid >= 0 ? "grid[" + t.grid + "] (expanding " + t.path() + ")" : t.path();
+                String earlier = seen.putIfAbsent(a.name(), where);
+                if (earlier != null) {
+                    String at = t.grid >= 0 ? "grid[" + t.grid + "]" : t.path() + ".name";
+                    YamlNode node = t.grid >= 0 ? null : (present(t.item, "name")
+                            ? value(t.item, "name") : t.item);
+                    String detail = "duplicate arm name '" + a.name() + "' (also from " + earlier
+                            + "); arm names must be unique"
+                            + (present(t.item, "name") ? "" : ": give each arm a 'name'");
+                    throw node == null ? positioned(at, detail) : error(node, at, detail);
+                }
+                arms.add(a);
+                armPaths.add(t.path());
+            }
+        }
+        return arms;
+    }
+
+    private Template gridTemplate(YamlNode.MapNode entry, String path, List<Template> templates) {
+        if (!present(entry, "arm")) {
+            throw error(entry, path + ".arm", "missing; a grid entry names the arm it expands: "
+                    + "{arm: NAME, KEY: [values], …}");
+        }
+        String name = string(entry, path, "arm");
+        List<String> names = new ArrayList<>();
+        for (Template t : templates) {
+            names.add(t.name);
+        }
+        for (Template t : templates) {
+            if (t.name.equals(name)) {
+                if (t.grid >= 0) {
+                    throw error(value(entry, "arm"), path + ".arm", "arm '" + name + "' is already expanded by grid["
+                            + t.grid + "]; put all its keys in one grid entry");
+                }
+                if (entry.entries.size() < 2) {
+                    throw error(entry, path, "names no schedule key to vary; add KEY: [values] for a key of arm '"
+                            + name + "'");
+                }
+                return t;
+            }
+        }
+        throw error(value(entry, "arm"), path + ".arm", "no arm named '" + name + "'"
+                + NearMiss.suggestion(name, names) + " (arms: " + quoted(names) + ")");
+    }
+
+    private List<ArmPlan> expandOne(YamlNode.MapNode entry, String path, Template t, DataPlan data) {
+        List<String> keys = new ArrayList<>();
+        List<YamlNode.ListNode> values = new ArrayList<>();
+        for (YamlNode.Entry e : entry.entries.values()) {
+            if (e.key.equals("arm")) {
+                continue;
+            }
+            String kp = path + "." + e.key;
+            record(kp, e.value);
+            if (!(e.value instanceof YamlNode.ListNode list) || list.items.isEmpty()) {
+                throw error(e.value, kp, "must be a non-empty list of values for schedule key '" + e.key
+                        + "', such as [0.05, 0.1], got " + e.value.describe());
+            }
+            for (int i = 0; i < list.items.size(); i++) {
+                record(kp + "[" + i + "]", list.items.get(i));
+            }
+            keys.add(e.key);
+            values.add(list);
+        }
+        long combinations = 1;
+        for (YamlNode.ListNode l : values) {
+            combinations *= l.items.size();
+            if (combinations > 10_000) {
+                throw error(entry, path, "expands arm '" + t.name + "' into more than 10000 arms; "
+                        + "a grid may expand one arm into at most 10000");
+            }
+        }
+        List<ArmPlan> out = new ArrayList<>();
+        int[] choice = new int[keys.size()];
+        for (long c = 0; c < combinations; c++) {
+            Map<String, Object> raw = rawSchedule(t.schedule);
+            StringBuilder name = new StringBuilder(t.name).append('[');
+            Map<String, String> origin = new HashMap<>();
+            for (int k = 0; k < keys.size(); k++) {
+                YamlNode v = values.get(k).items.get(choice[k]);
+                raw.put(keys.get(k), v.toJava());
+                origin.put(keys.get(k), path + "." + keys.get(k) + "[" + choice[k] + "]");
+                name.append(k == 0 ? "" : ",").append(keys.get(k)).append('=').append(spell(v));
+            }
+            name.append(']');
+            out.add(arm(t, name.toString(), raw, t.path() + ".schedule", origin, data));
+            for (int k = keys.size() - 1; k >= 0; k--) {
+                // the last key varies fastest
+                if (++choice[k] < values.get(k).items.size()) {
+                    break;
+                }
+                choice[k] = 0;
+            }
+        }
+        return out;
+    }
+
+    private ArmPlan arm(Template t, String name, Map<String, Object> raw, String schedulePath,
+            Map<String, String> gridOrigin, DataPlan data) {
+        Schedule schedule;
+        try {
+            schedule = Schedules.parse(raw);
+        } catch (ScheduleException e) {
+            String key = e.key() == null ? "" : e.key();
+            String top = key.split("[.\\[]", 2)[0];
+            String detail = e.getMessage();
+            if (gridOrigin != null && gridOrigin.containsKey(top)) {
+                String at = gridOrigin.get(top) + key.substring(top.length());
+                throw positioned(at, detail + " (in arm '" + name + "')");
+            }
+            throw positioned(key.isEmpty() ? schedulePath : schedulePath + "." + key,
+                    detail + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
+        } catch (IllegalArgumentException e) {
+            throw positioned(schedulePath, e.getMessage() + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
+        }
+        Map<String, Object> resolved = schedule.resolved();
+        if ("plateau".equals(resolved.get("kind")) && "holdout".equals(resolved.get("judge"))
+                && data.holdoutFraction() == 0) {
+            String at = gridOrigin != null && gridOrigin.containsKey("judge") ? gridOrigin.get("judge")
+                    : schedulePath + ".judge";
+            throw positioned(at, "judge: holdout needs a holdout split: set data.holdout-fraction above 0 "
+                    + "(such as 0.2), or judge: train");
+        }
+        return new ArmPlan(name, new ScheduleSpec(resolved, schedule), t.average, t.manual);
+    }
+
+    private String baseline(YamlNode.MapNode top, List<Template> templates, List<ArmPlan> arms) {
+        if (!present(top, "baseline")) {
+            return arms.get(0).name();
+        }
+        String b = string(top, "", "baseline");
+        List<String> names = new ArrayList<>();
+        for (ArmPlan a : arms) {
+            if (a.name().equals(b)) {
+                return b;
+            }
+            names.add(a.name());
+        }
+        for (Template t : templates) {
+            if (t.grid >= 0 && t.name.equals(b)) {
+                throw error(value(top, "baseline"), "baseline", "arm '" + b + "' is expanded by grid[" + t.grid
+                        + "] into several arms; name one of them, such as '" + firstExpanded(arms, b) + "'");
+            }
+        }
+        throw error(value(top, "baseline"), "baseline", "no arm named '" + b + "'"
+                + NearMiss.suggestion(b, names) + " (arms: " + quoted(names) + ")");
+    }
+
+    private static String firstExpanded(List<ArmPlan> arms, String template) {
+        for (ArmPlan a : arms) {
+            if (a.name().startsWith(template + "[")) {
+                return a.name();
+            }
+        }
+        return template;
+    }
+
+    private static String spell(YamlNode v) {
+        if (v instanceof YamlNode.Scalar s) {
+            return s.text;
+        }
+        if (v instanceof YamlNode.ListNode l) {
+            StringBuilder b = new StringBuilder("[");
+            for (int i = 0; i < l.items.size(); i++) {
+                b.append(i == 0 ? "" : ",").append(spell(l.items.get(i)));
+            }
+            return b.append(']').toString();
+        }
+        YamlNode.MapNode m = (YamlNode.MapNode) v;
+        StringBuilder b = new StringBuilder("{");
+        boolean first = true;
+        for (YamlNode.Entry e : m.entries.values()) {
+            b.append(first ? "" : ",").append(e.key).append(':').append(spell(e.value));
+            first = false;
+        }
+        return b.append('}').toString();
+    }
+
+    @SuppressWarnings("unchecked")
+    private static Map<String, Object> rawSchedule(YamlNode.MapNode schedule) {
+        return (Map<String, Object>) schedule.toJava();
+    }
+
+    // ---------------------------------------------------------------- typed values
+
+    /** Numeric ranges with their wording. */
+    private enum Range {
+        OPEN_UNIT("a number in (0, 1)"),
+        HALF_OPEN_UNIT("a number in [0, 1)"),
+        LEFT_OPEN_UNIT("a number in (0, 1]"),
+        NON_NEGATIVE("a number ≥ 0");
+
+        final String wording;
+
+        Range(String wording) {
+            this.wording = wording;
+        }
+
+        boolean contains(double v) {
+            return switch (this) {
+                case OPEN_UNIT -> v > 0 && v < 1;
+                case HALF_OPEN_UNIT -> v >= 0 && v < 1;
+                case LEFT_OPEN_UNIT -> v > 0 && v <= 1;
+                case NON_NEGATIVE -> v >= 0;
+            };
+        }
+    }
+
+    private double number(YamlNode.MapNode m, String parent, String key, Range range) {
+        YamlNode v = value(m, key);
+        String path = join(parent, key);
+        if (v instanceof YamlNode.Scalar s && (s.type == YamlNode.ScalarType.FLOAT || s.type == YamlNode.ScalarType.INTEGER)) {
+            double d = ((Number) s.value).doubleValue();
+            if (Double.isFinite(d) && range.contains(d)) {
+                return d;
+            }
+        }
+        throw error(v, path, "must be " + range.wording + ", got " + v.describe() + quotedNumberHint(v));
+    }
+
+    private long integer(YamlNode.MapNode m, String parent, String key, long min, long max, String wording) {
+        return integerValue(value(m, key), join(parent, key), min, max, wording);
+    }
+
+    private long integerValue(YamlNode v, String path, long min, long max, String wording) {
+        String want = wording != null ? wording
+                : max == Integer.MAX_VALUE || max == Long.MAX_VALUE ? "an integer ≥ " + min
+                : "an integer in " + min + ".." + max;
+        if (v instanceof YamlNode.Scalar s && s.type == YamlNode.ScalarType.INTEGER) {
+            java.math.BigInteger b = (java.math.BigInteger) s.value;
+            if (b.compareTo(java.math.BigInteger.valueOf(min)) >= 0 && b.compareTo(java.math.BigInteger.valueOf(max)) <= 0) {
+                return b.longValue();
+            }
+        }
+        if (v instanceof YamlNode.Scalar s && s.type == YamlNode.ScalarType.FLOAT) {
+            double d = (Double) s.value;
+            if (d == Math.rint(d) && d >= min && d <= max && Math.abs(d) < 1e15) {
+                return (long) d;
+            }
+        }
+        throw error(v, path, "must be " + want + ", got " + v.describe() + quotedNumberHint(v));
+    }
+
+    private boolean bool(YamlNode.MapNode m, String parent, String key) {
+        YamlNode v = value(m, key);
+        if (v instanceof YamlNode.Scalar s && s.type == YamlNode.ScalarType.BOOLEAN) {
+            return (Boolean) s.value;
+        }
+        throw error(v, join(parent, key), "must be true or false, got " + v.describe());
+    }
+
+    private String string(YamlNode.MapNode m, String parent, String key) {
+        YamlNode v = value(m, key);
+        if (v instanceof YamlNode.Scalar s && s.type != YamlNode.ScalarType.NULL) {
+            return s.text;
+        }
+        throw error(v, join(parent, key), "must be a text value, got " + v.describe());
+    }
+
+    private <E extends Enum<E>> E choice(YamlNode.MapNode m, String parent, String key, Class<E> type) {
+        YamlNode v = value(m, key);
+        List<String> accepted = new ArrayList<>();
+        for (E e : type.getEnumConstants()) {
+            accepted.add(e.name().toLowerCase(Locale.ROOT));
+        }
+        if (v instanceof YamlNode.Scalar s && s.type != YamlNode.ScalarType.NULL) {
+            for (E e : type.getEnumConstants()) {
+                if (e.name().toLowerCase(Locale.ROOT).equals(s.text)) {
+                    return e;
+                }
+            }
+            throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got '" + s.text
+                    + "'" + NearMiss.suggestion(s.text, accepted));
+        }
+        throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got " + v.describe());
+    }
+
+    private static String quotedNumberHint(YamlNode v) {
+        if (v instanceof YamlNode.Scalar s && s.type == YamlNode.ScalarType.STRING) {
+            try {
+                Double.parseDouble(s.text);
+                return " (a quoted string; write the number without quotes)";
+            } catch (NumberFormatException e) {
+                return "";
+            }
+        }
+        return "";
+    }
+
+    // ---------------------------------------------------------------- maps, keys, positions
+
+    private YamlNode.MapNode requiredMap(YamlNode.MapNode top, String parent, String key, String needs) {
+        if (!present(top, key)) {
+            throw error(top, join(parent, key), "missing; a plan needs '" + key + ":' with at least " + needs);
+        }
+        return map(top, parent, key);
+    }
+
+    private YamlNode.MapNode optionalMap(YamlNode.MapNode top, String parent, String key) {
+        return present(top, key) ? map(top, parent, key) : null;
+    }
+
+    private YamlNode.MapNode map(YamlNode.MapNode parentMap, String parent, String key) {
+        YamlNode v = value(parentMap, key);
+        if (v instanceof YamlNode.MapNode m) {
+            return m;
+        }
+        List<String> keys = switch (key) {
+            case "data" -> DATA_KEYS;
+            case "model" -> MODEL_KEYS;
+            case "training" -> TRAINING_KEYS;
+            default -> List.of();
+        };
+        throw error(v, join(parent, key), "must be a map of keys (" + String.join(", ", keys) + "), got "
+                + v.describe());
+    }
+
+    private void checkKeys(YamlNode.MapNode m, String path, String where, List<String> accepted) {
+        for (YamlNode.Entry e : m.entries.values()) {
+            String kp = join(path, e.key);
+            record(kp, e.value, e);
+            if (!accepted.contains(e.key)) {
+                throw new PlanException(file, e.keyLine, e.keyColumn, kp, "unknown key '" + e.key + "' in "
+                        + where + NearMiss.suggestion(e.key, accepted) + " (accepted: "
+                        + String.join(", ", accepted) + ")");
+            }
+        }
+    }
+
+    /** @return true when {@code key} is written with a value ({@code key: null} and {@code key:} count as absent) */
+    private static boolean present(YamlNode.MapNode m, String key) {
+        YamlNode.Entry e = m.entries.get(key);
+        return e != null && !(e.value instanceof YamlNode.Scalar s && s.type == YamlNode.ScalarType.NULL);
+    }
+
+    private YamlNode value(YamlNode.MapNode m, String key) {
+        return m.entries.get(key).value;
+    }
+
+    private void record(String path, YamlNode v) {
+        positions.putIfAbsent(path, new int[] {v.line, v.column});
+    }
+
+    private void record(String path, YamlNode v, YamlNode.Entry e) {
+        if (v instanceof YamlNode.Scalar) {
+            positions.putIfAbsent(path, new int[] {v.line, v.column});
+        } else {
+            positions.putIfAbsent(path, new int[] {e.keyLine, e.keyColumn});
+        }
+    }
+
+    private void recordTree(String path, YamlNode node) {
+        if (node instanceof YamlNode.MapNode m) {
+            for (YamlNode.Entry e : m.entries.values()) {
+                record(path + "." + e.key, e.value, e);
+                recordTree(path + "." + e.key, e.value);
+            }
+        } else if (node instanceof YamlNode.ListNode l) {
+            for (int i = 0; i < l.items.size(); i++) {
+                record(path + "[" + i + "]", l.items.get(i));
+                recordTree(path + "[" + i + "]", l.items.get(i));
+            }
+        }
+    }
+
+    private PlanException positioned(String path, String detail) {
+        String p = path;
+        while (true) {
+            int[] pos = positions.get(p);
+            if (pos != null) {
+                return new PlanException(file, pos[0], pos[1], path, detail);
+            }
+            int cut = Math.max(p.lastIndexOf('.'), p.lastIndexOf('['));
+            if (cut <= 0) {
+                return new PlanException(file, 0, 0, path, detail);
+            }
+            p = p.substring(0, cut);
+        }
+    }
+
+    private PlanException error(YamlNode at, String path, String detail) {
+        return new PlanException(file, at.line, at.column, path, detail);
+    }
+
+    private static String join(String parent, String key) {
+        return parent.isEmpty() ? key : parent + "." + key;
+    }
+
+    private static String quoted(List<String> names) {
+        StringBuilder b = new StringBuilder();
+        for (String n : names) {
+            b.append(b.length() == 0 ? "" : ", ").append('\'').append(n).append('\'');
+        }
+        return b.toString();
+    }
+}
