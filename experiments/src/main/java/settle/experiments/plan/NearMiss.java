@@ -3,7 +3,7 @@ package settle.experiments.plan;
 import java.util.Collection;
 import java.util.Locale;
 
-/** Suggestions for misspelt names: the closest accepted name by Levenshtein distance, when it is close. */
+/** Suggestions for misspelt names: the closest accepted name by edit distance, when it is close. */
 final class NearMiss {
 
     private NearMiss() {
@@ -34,23 +34,29 @@ final class NearMiss {
         return c == null ? "" : "; did you mean '" + c + "'?";
     }
 
-    /** @return the Levenshtein distance (insertions, deletions, substitutions of one character each) */
+    /**
+     * @return the optimal-string-alignment distance: insertions, deletions, substitutions and transpositions
+     *         of adjacent characters, one edit each (Levenshtein's distance with Damerau's transposition, so
+     *         that "lable" is one edit from "label")
+     */
     static int distance(String a, String b) {
-        int[] previous = new int[b.length() + 1];
-        int[] current = new int[b.length() + 1];
+        int[][] d = new int[a.length() + 1][b.length() + 1];
+        for (int i = 0; i <= a.length(); i++) {
+            d[i][0] = i;
+        }
         for (int j = 0; j <= b.length(); j++) {
-            previous[j] = j;
+            d[0][j] = j;
         }
         for (int i = 1; i <= a.length(); i++) {
-            current[0] = i;
             for (int j = 1; j <= b.length(); j++) {
                 int cost = a.charAt(i - 1) == b.charAt(j - 1) ? 0 : 1;
-                current[j] = Math.min(Math.min(current[j - 1] + 1, previous[j] + 1), previous[j - 1] + cost);
+                int v = Math.min(Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1), d[i - 1][j - 1] + cost);
+                if (i > 1 && j > 1 && a.charAt(i - 1) == b.charAt(j - 2) && a.charAt(i - 2) == b.charAt(j - 1)) {
+                    v = Math.min(v, d[i - 2][j - 2] + 1);
+                }
+                d[i][j] = v;
             }
-            int[] t = previous;
-            previous = current;
-            current = t;
         }
-        return previous[b.length()];
+        return d[a.length()][b.length()];
     }
 }

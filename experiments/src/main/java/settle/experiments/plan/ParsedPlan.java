@@ -15,7 +15,10 @@ public final class ParsedPlan {
     private final Map<String, int[]> positions;
     private final List<String> warnings;
 
-    ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings) {
+    private final List<String> armPaths;
+
+    ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings, List<String> armPaths) {
+        this.armPaths = List.copyOf(armPaths);
         this.warnings = List.copyOf(warnings);
         this.plan = Objects.requireNonNull(plan, "plan");
         this.file = Objects.requireNonNull(file, "file");
@@ -30,6 +33,14 @@ public final class ParsedPlan {
     /** @return one-line warnings about the plan as written (keys ignored, …), positioned like errors */
     public List<String> warnings() {
         return warnings;
+    }
+
+    /**
+     * @param armIndex an index into {@link Plan#arms()}
+     * @return the key path of the arm as written ({@code arms[j]}): a grid-expanded arm reports its template
+     */
+    public String armPath(int armIndex) {
+        return armPaths.get(armIndex);
     }
 
     /** @return the plan file as the user named it */

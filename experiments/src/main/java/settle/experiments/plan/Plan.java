@@ -1,11 +1,10 @@
 package settle.experiments.plan;
 
-import settle.engine.model.ModelSpec;
-
 import java.util.HashSet;
 import java.util.List;
 import java.util.Objects;
 import java.util.Set;
+import settle.engine.model.ModelSpec;
 
 /**
  * A resolved plan: every default filled in (by {@link PlanParser}, in one place), the grid expanded, and

@@ -1,27 +1,26 @@
 package settle.experiments.plan;
 
-import settle.engine.model.Activation;
-
-import settle.engine.model.ModelSpec;
-
 import java.io.IOException;
+import java.nio.ByteBuffer;
 import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.nio.ByteBuffer;
 import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import settle.engine.model.Activation;
 import settle.engine.model.Initialisation;
+import settle.engine.model.ModelSpec;
 import settle.engine.schedule.Schedule;
 import settle.engine.schedule.ScheduleException;
 import settle.engine.schedule.Schedules;
+import settle.engine.train.Sampling;
 
 /**
  * Reads a plan file into a resolved {@link Plan}. This class is the one place where defaults are filled in
@@ -104,6 +103,7 @@ public final class PlanParser {
     private final String defaultStudy;
     private final Map<String, int[]> positions = new HashMap<>();
     private final List<String> warnings = new ArrayList<>();
+    private final List<String> armPaths = new ArrayList<>();
 
     private PlanParser(String file, Path baseDirectory, String defaultStudy) {
         this.file = file;
@@ -163,7 +163,7 @@ public final class PlanParser {
         PlanParser p = new PlanParser(fileName, baseDirectory, stem);
         YamlNode root = YamlReader.read(text, fileName);
         Plan plan = p.resolve(root);
-        return new ParsedPlan(plan, fileName, p.positions, p.warnings);
+        return new ParsedPlan(plan, fileName, p.positions, p.warnings, p.armPaths);
     }
 
     // ---------------------------------------------------------------- the plan
@@ -189,7 +189,7 @@ public final class PlanParser {
             study = defaultStudy;
         }
         long seed = present(top, "seed")
-                ? integer(top, "", "seed", Long.MIN_VALUE, Long.MAX_VALUE, "any 64-bit integer")
+                ? integer(top, "", "seed", Long.MIN_VALUE, Long.MAX_VALUE, "an integer (any 64-bit value)")
                 : DEFAULT_SEED;
         int replicates = present(top, "replicates")
                 ? (int) integer(top, "", "replicates", 1, Plan.MAX_REPLICATES, null)
@@ -281,7 +281,7 @@ public final class PlanParser {
             init = choice(m, "model", "init", Initialisation.class);
             if (init == Initialisation.REFERENCE && kind != ModelSpec.Kind.LOGISTIC) {
                 throw error(value(m, "init"), "model.init", "'reference' starts at the exact minimiser, which "
-                        + "exists for convex (logistic) models only; an mlp accepts zeros, glorot or he");
+                        + "exists for convex (logistic) models only; accepted for an mlp: zeros, glorot, he");
             }
         } else {
             init = kind == ModelSpec.Kind.LOGISTIC ? Initialisation.ZEROS : Initialisation.HE;
@@ -304,7 +304,7 @@ public final class PlanParser {
 
     private TrainingPlan training(YamlNode.MapNode m) {
         if (m == null) {
-            return new TrainingPlan(DEFAULT_EPOCHS, DEFAULT_BATCH, TrainingPlan.Sampling.SHUFFLE, 0.0,
+            return new TrainingPlan(DEFAULT_EPOCHS, DEFAULT_BATCH, Sampling.SHUFFLE, 0.0,
                     DEFAULT_TAIL, DEFAULT_SNAPSHOTS);
         }
         checkKeys(m, "training", "training", TRAINING_KEYS);
@@ -312,8 +312,8 @@ public final class PlanParser {
                 ? (int) integer(m, "training", "epochs", 1, TrainingPlan.MAX_EPOCHS, null) : DEFAULT_EPOCHS;
         int batch = present(m, "batch")
                 ? (int) integer(m, "training", "batch", 1, Integer.MAX_VALUE, null) : DEFAULT_BATCH;
-        TrainingPlan.Sampling sampling = present(m, "sampling")
-                ? choice(m, "training", "sampling", TrainingPlan.Sampling.class) : TrainingPlan.Sampling.SHUFFLE;
+        Sampling sampling = present(m, "sampling")
+                ? choice(m, "training", "sampling", Sampling.class) : Sampling.SHUFFLE;
         double momentum = present(m, "momentum")
                 ? number(m, "training", "momentum", Range.HALF_OPEN_UNIT) : 0.0;
         double tail = present(m, "tail") ? number(m, "training", "tail", Range.LEFT_OPEN_UNIT) : DEFAULT_TAIL;
@@ -453,6 +453,7 @@ public final class PlanParser {
                     throw node == null ? positioned(at, detail) : error(node, at, detail);
                 }
                 arms.add(a);
+                armPaths.add(t.path());
             }
         }
         return arms;

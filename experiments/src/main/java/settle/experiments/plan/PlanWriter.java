@@ -1,14 +1,17 @@
 package settle.experiments.plan;
 
-import settle.engine.model.ModelSpec;
-
+import java.io.IOException;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
 import java.util.HexFormat;
 import java.util.List;
 import java.util.Map;
 import java.util.regex.Pattern;
+import settle.engine.model.ModelSpec;
 
 /**
  * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included), in the
@@ -57,7 +60,7 @@ public final class PlanWriter {
         b.append("training:\n");
         b.append("  epochs: ").append(t.epochs()).append('\n');
         b.append("  batch: ").append(t.batch()).append('\n');
-        b.append("  sampling: ").append(t.sampling().yamlName()).append('\n');
+        b.append("  sampling: ").append(t.sampling().key()).append('\n');
         b.append("  momentum: ").append(number(t.momentum())).append('\n');
         b.append("  tail: ").append(number(t.tail())).append('\n');
         b.append("  snapshots: ").append(t.snapshots()).append('\n');
@@ -70,6 +73,23 @@ public final class PlanWriter {
             b.append("    manual: ").append(a.manual()).append('\n');
         }
         return b.toString();
+    }
+
+    /**
+     * Writes {@link #toYaml(Plan)} to {@code file} (a study directory's {@code plan.yaml}) atomically: into a
+     * temporary file beside it, then renamed over it, so a reader never sees half a plan.
+     *
+     * @throws IOException when the file cannot be written
+     */
+    public static void write(Plan plan, Path file) throws IOException {
+        Path dir = file.toAbsolutePath().getParent();
+        Path temp = Files.createTempFile(dir, ".plan-", ".tmp");
+        try {
+            Files.writeString(temp, toYaml(plan), StandardCharsets.UTF_8);
+            Files.move(temp, file, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        } finally {
+            Files.deleteIfExists(temp);
+        }
     }
 
     /** @return the lower-case hexadecimal SHA-256 of the UTF-8 bytes of {@link #toYaml(Plan)} */

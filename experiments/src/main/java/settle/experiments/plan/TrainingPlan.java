@@ -1,7 +1,8 @@
 package settle.experiments.plan;
 
-import java.util.Locale;
 import java.util.Objects;
+import settle.engine.train.Sampling;
+import settle.engine.train.TrainingSettings;
 
 /**
  * The training budget every arm of a plan shares.
@@ -14,19 +15,6 @@ import java.util.Objects;
  * @param snapshots evenly spaced tail snapshots K, ≥ 2 (capped at the tail length when training)
  */
 public record TrainingPlan(int epochs, int batch, Sampling sampling, double momentum, double tail, int snapshots) {
-
-    /** How mini-batches are drawn. */
-    public enum Sampling {
-        /** a fresh permutation each epoch, without replacement; the last short batch kept */
-        SHUFFLE,
-        /** each batch B independent indices with replacement; ⌈N/B⌉ updates per epoch */
-        REPLACEMENT;
-
-        /** @return the name as written in a plan */
-        public String yamlName() {
-            return name().toLowerCase(Locale.ROOT);
-        }
-    }
 
     /** Largest number of epochs a plan may ask for. */
     public static final int MAX_EPOCHS = 1_000_000;
@@ -48,5 +36,13 @@ public record TrainingPlan(int epochs, int batch, Sampling sampling, double mome
         if (snapshots < 2) {
             throw new IllegalArgumentException("snapshots must be ≥ 2: " + snapshots);
         }
+    }
+
+    /**
+     * @param averageTail the arm's {@code average: tail}
+     * @return the trainer's settings for one arm of this plan
+     */
+    public TrainingSettings settings(boolean averageTail) {
+        return new TrainingSettings(epochs, batch, sampling, momentum, tail, snapshots, averageTail);
     }
 }

@@ -39,7 +39,7 @@ abstract class YamlNode {
 
         @Override
         String describe() {
-            return "a map";
+            return entries.isEmpty() ? "an empty map" : "a map";
         }
 
         @Override
@@ -77,7 +77,7 @@ abstract class YamlNode {
 
         @Override
         String describe() {
-            return "a list";
+            return items.isEmpty() ? "an empty list" : "a list";
         }
 
         @Override

@@ -45,7 +45,7 @@ final class YamlReader {
         try (JsonParser p = FACTORY.createParser(text)) {
             JsonToken t = p.nextToken();
             if (t == null) {
-                throw new PlanException(file, 0, 0, "", "the plan is empty; expected a map with at least "
+                throw new PlanException(file, 1, 1, "", "the plan is empty; expected a map with at least "
                         + "'data', 'arms' (and usually 'study', 'seed', 'replicates', 'model', 'training')");
             }
             YamlNode root = readValue(p, t, path);
@@ -83,7 +83,7 @@ final class YamlReader {
                         YamlNode.Entry first = map.entries.get(key);
                         throw new PlanException(file, kl.getLineNr(), kl.getColumnNr(), render(path),
                                 "duplicate key '" + key + "' (first at line " + first.keyLine
-                                        + "); each key may appear once in a map");
+                                        + "); remove one of them: each key may appear once in a map");
                     }
                     YamlNode value = readValue(p, p.nextToken(), path);
                     map.entries.put(key, new YamlNode.Entry(key, kl.getLineNr(), kl.getColumnNr(), value));
@@ -132,6 +132,27 @@ final class YamlReader {
         return String.join("", path);
     }
 
+    /** SnakeYAML's "but got :" names the token bare; quote it. */
+    private static String found(String problem) {
+        return problem.replaceAll("but got ([^<\\s]\\S*)$", "but found '$1'").replace("but got <", "but found <");
+    }
+
+    /** Plain words for SnakeYAML's most common problems. */
+    private static String explain(String problem) {
+        if (problem.contains("(TAB)")) {
+            return "a tab character; indent with spaces, not tabs";
+        }
+        if (problem.startsWith("mapping values are not allowed here")) {
+            return "a ':' where none is allowed; check the indentation of this line, and quote a value that "
+                    + "contains ': '";
+        }
+        if (problem.startsWith("expected <block end>")) {
+            return "this line is indented differently from the keys above it; keys of one map start at the "
+                    + "same column, and nested keys are indented with spaces under their parent";
+        }
+        return found(problem) + "; a plan is a map of 'key: value' lines, nested by indenting with spaces";
+    }
+
     private PlanException syntaxError(JsonProcessingException e, Deque<String> path) {
         Throwable c = e;
         while (c != null && !(c instanceof MarkedYAMLException)) {
@@ -144,16 +165,16 @@ final class YamlReader {
             String contextText = m.getContext();
             if (context != null && contextText != null && contextText.contains("flow")) {
                 // An unclosed '[' or '{' swallows what follows; the bracket is the place to fix.
-                String bracket = contextText.contains("sequence") ? "[" : "{";
+                boolean sequence = contextText.contains("sequence");
                 return new PlanException(file, context.getLine() + 1, context.getColumn() + 1, render(path),
-                        "YAML syntax: '" + bracket + "' is not closed (" + what + " at line "
-                                + (problem.getLine() + 1) + ", column " + (problem.getColumn() + 1)
-                                + "); close it with '" + (bracket.equals("[") ? "]" : "}") + "'");
+                        "YAML syntax: '" + (sequence ? "[" : "{") + "' is not closed (" + found(what)
+                                + " at line " + (problem.getLine() + 1) + ", column " + (problem.getColumn() + 1)
+                                + "); close it with '" + (sequence ? "]" : "}") + "', and quote values that "
+                                + "contain ':', '?', ',', '[' or '{'");
             }
             if (problem != null) {
                 return new PlanException(file, problem.getLine() + 1, problem.getColumn() + 1, render(path),
-                        "YAML syntax: " + what + (contextText == null ? "" : " (" + contextText + ")")
-                                + "; a plan is a map of 'key: value' lines, nested by indenting with spaces");
+                        "YAML syntax: " + explain(what));
             }
         }
         JsonLocation l = e.getLocation();

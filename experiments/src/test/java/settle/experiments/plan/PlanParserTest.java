@@ -1,9 +1,5 @@
 package settle.experiments.plan;
 
-import settle.engine.model.Activation;
-
-import settle.engine.model.ModelSpec;
-
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
@@ -18,7 +14,10 @@ import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.engine.model.Activation;
 import settle.engine.model.Initialisation;
+import settle.engine.model.ModelSpec;
+import settle.engine.train.Sampling;
 
 class PlanParserTest {
 
@@ -47,7 +46,7 @@ class PlanParserTest {
         assertEquals(null, plan.model().activation());
         assertEquals(Initialisation.ZEROS, plan.model().init());
         assertEquals(1.0e-3, plan.model().l2());
-        assertEquals(new TrainingPlan(50, 32, TrainingPlan.Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
+        assertEquals(new TrainingPlan(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
         assertEquals("constant", plan.baseline());
         List<String> names = new ArrayList<>();
         for (ArmPlan a : plan.arms()) {
@@ -87,7 +86,7 @@ class PlanParserTest {
         assertEquals(new DataPlan("synthetic:gaussian?rows=200&seed=3", null, 0.2, 0.0, true), plan.data());
         assertEquals(new ModelSpec(ModelSpec.Kind.LOGISTIC, List.of(), null, 1.0e-3, Initialisation.ZEROS),
                 plan.model());
-        assertEquals(new TrainingPlan(50, 32, TrainingPlan.Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
+        assertEquals(new TrainingPlan(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
         assertEquals(1, plan.arms().size());
         ArmPlan arm = plan.arms().get(0);
         assertEquals("constant", arm.name(), "an unnamed arm is named after its schedule kind");
@@ -246,5 +245,44 @@ class PlanParserTest {
         PlanException e = p.error("data.source", "cannot read");
         assertEquals("plan.yaml:2:11: data.source: cannot read", e.getMessage());
         assertThrows(IllegalArgumentException.class, () -> p.plan().arm("nope"));
+    }
+
+    @Test
+    void writtenPlanFileParsesBackFromTheStudyDirectory(@TempDir Path dir) throws Exception {
+        Plan plan = PlanParser.parse(resource("grid.yaml"));
+        Path file = dir.resolve("plan.yaml");
+        PlanWriter.write(plan, file);
+        PlanWriter.write(plan, file); // over an existing file
+        assertEquals(plan, PlanParser.parse(file));
+        try (var s = Files.list(dir)) {
+            assertEquals(1, s.count(), "no temporary file left behind");
+        }
+    }
+
+    @Test
+    void nearMissesCountTranspositionsAndIgnoreCase() {
+        // OSA distance: one substitution, one transposition, one deletion, and a case change counts 0
+        assertEquals(1, NearMiss.distance("exponental", "exponential"));
+        assertEquals(1, NearMiss.distance("lable", "label"));
+        assertEquals(3, NearMiss.distance("kitten", "sitting"), "Levenshtein's classic example: k→s, e→i, +g");
+        assertEquals("epochs", NearMiss.closest("Epoch", List.of("epochs", "batch")));
+        assertEquals(null, NearMiss.closest("zzz", List.of("epochs", "batch")));
+    }
+
+    @Test
+    void gridErrorsPointAtTheOffendingValue() {
+        PlanException e = assertThrows(PlanException.class, () -> text("""
+                data: {source: "synthetic:xor"}
+                arms:
+                  - {name: r, schedule: {kind: reciprocal, rate: 0.2, decay: 1}}
+                grid:
+                  - arm: r
+                    decay: [1, 2, fast]
+                """));
+        assertEquals("plan.yaml:6:19: grid[0].decay[2]: reciprocal: decay = 'fast' is not accepted; expected a number"
+                + " (in arm 'r[decay=fast]')", e.getMessage());
+        assertEquals(6, e.line());
+        assertEquals(19, e.column());
+        assertEquals("grid[0].decay[2]", e.keyPath());
     }
 }
