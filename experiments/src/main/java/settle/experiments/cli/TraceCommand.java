@@ -37,6 +37,14 @@ import settle.engine.train.SampleOrders;
 import settle.engine.train.Trainer;
 import settle.engine.train.TrainingSettings;
 import settle.engine.train.Wander;
+import settle.experiments.plan.NearMiss;
+import settle.experiments.plan.ParsedPlan;
+import settle.experiments.plan.Plan;
+import settle.experiments.plan.PlanParser;
+import settle.experiments.run.ReplicateKey;
+import settle.experiments.study.AtomicFiles;
+import settle.experiments.study.ReplicateFile;
+import settle.experiments.study.StudyContext;
 
 /**
  * {@code settle trace}: trains one replicate (replicate 1 of the root seed) and prints it epoch by epoch; with
@@ -179,6 +187,102 @@ public final class TraceCommand implements Callable<Integer> {
         if (prepared.referenceNote != null) {
             out.println(prepared.referenceNote);
         }
+        ReplicateResult result = printRun(out, trainer, seeds);
+        if (dump != null) {
+            try {
+                writeDump(dump, result, trainer.shape().updatesPerEpoch());
+            } catch (IOException e) {
+                err.println("settle trace: cannot write " + dump + ": " + e.getMessage());
+                err.flush();
+                return Main.FAILED;
+            }
+            out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
+                    + dump.resolve("final.csv"));
+            out.flush();
+        }
+        return result.diverged() ? Main.INCOMPLETE : Main.OK;
+    }
+
+    /**
+     * The {@code --plan} form: reruns replicate K of one arm exactly as {@code settle run} trains it (same data,
+     * split, model, reference and seeds), prints it epoch by epoch, and with {@code --dump} also writes the
+     * replicate file, byte for byte the one in the study directory.
+     */
+    private int tracePlan(PrintWriter out, PrintWriter err) {
+        List<String> stray = new ArrayList<>();
+        for (String option : List.of("--data", "--label", "--model", "--hidden", "--activation", "--l2", "--schedule",
+                "--epochs", "--batch", "--sampling", "--momentum", "--seed", "--test-fraction", "--standardize",
+                "--init", "--order")) {
+            if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+                stray.add(option);
+            }
+        }
+        if (!stray.isEmpty()) {
+            return bad(err, String.join(", ", stray) + (stray.size() == 1 ? " does" : " do")
+                    + " not go with --plan: the plan fixes the data, model and training");
+        }
+        if (arm == null || replicate == null) {
+            return bad(err, "--plan needs --arm NAME and --replicate K");
+        }
+        StudyContext context;
+        ReplicateKey key;
+        try {
+            ParsedPlan parsed = PlanParser.read(plan);
+            Plan p = parsed.plan();
+            int index = -1;
+            List<String> names = new ArrayList<>();
+            for (int i = 0; i < p.arms().size(); i++) {
+                names.add(p.arms().get(i).name());
+                if (p.arms().get(i).name().equals(arm)) {
+                    index = i + 1;
+                }
+            }
+            if (index < 0) {
+                return bad(err, "--arm: no arm named '" + arm + "' in " + plan + NearMiss.suggestion(arm, names)
+                        + " (the arms: " + String.join(", ", names) + ")");
+            }
+            if (replicate < 1 || replicate > p.replicates()) {
+                return bad(err, "--replicate = " + replicate + " is not accepted; the plan has replicates 1.." + p.replicates());
+            }
+            key = new ReplicateKey(index, replicate);
+            context = StudyContext.build(parsed);
+        } catch (NoMinimiserException e) {
+            err.println("settle trace: " + e.getMessage());
+            err.flush();
+            return Main.FAILED;
+        } catch (IllegalArgumentException e) {
+            return bad(err, e.getMessage());
+        }
+        Trainer trainer = context.trainer(key.arm());
+        ReplicateSeeds seeds = context.seeds(key.replicate());
+        out.println(plan + ": arm " + key.arm() + " '" + arm + "', replicate " + key.replicate() + " of "
+                + context.plan().replicates() + "; " + context.model().describe() + "; " + context.data().train().rows()
+                + " training rows, " + context.data().test().rows() + " test rows; " + trainer.shape().epochs()
+                + " epochs × " + trainer.shape().updatesPerEpoch() + " updates");
+        out.println("schedule " + context.plan().arms().get(key.arm() - 1).schedule().schedule().describe());
+        out.println("seed " + seeds.rootSeed() + ", replicate " + seeds.replicate() + ": " + seeds.algorithm()
+                + " initialisation seed " + seeds.initialisationSeed() + ", sampling seed " + seeds.samplingSeed());
+        ReplicateResult result = printRun(out, trainer, seeds);
+        if (dump != null) {
+            try {
+                writeDump(dump, result, trainer.shape().updatesPerEpoch());
+                AtomicFiles.write(dump.resolve("replicate.json"), ReplicateFile.toJson(key, arm,
+                        context.model().classes(), result, context.predict(result)));
+            } catch (IOException e) {
+                err.println("settle trace: cannot write " + dump + ": " + e.getMessage());
+                err.flush();
+                return Main.FAILED;
+            }
+            out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
+                    + dump.resolve("final.csv") + " and " + dump.resolve("replicate.json")
+                    + " (the study's " + ReplicateFile.relativePath(key) + ")");
+            out.flush();
+        }
+        return result.diverged() ? Main.INCOMPLETE : Main.OK;
+    }
+
+    /** Trains one replicate, printing each epoch as it ends and the wander at the end. */
+    private static ReplicateResult printRun(PrintWriter out, Trainer trainer, ReplicateSeeds seeds) {
         String row = "%5s  %11s  %14s  %14s  %9s  %12s%n";
         out.printf(Locale.ROOT, row, "epoch", "rate", "objective", "test loss", "test acc", "distance");
         out.flush();
@@ -201,19 +305,7 @@ public final class TraceCommand implements Callable<Integer> {
             }
         }
         out.flush();
-        if (dump != null) {
-            try {
-                writeDump(dump, result, trainer.shape().updatesPerEpoch());
-            } catch (IOException e) {
-                err.println("settle trace: cannot write " + dump + ": " + e.getMessage());
-                err.flush();
-                return Main.FAILED;
-            }
-            out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
-                    + dump.resolve("final.csv"));
-            out.flush();
-        }
-        return result.diverged() ? Main.INCOMPLETE : Main.OK;
+        return result;
     }
 
     /** Everything the run needs, validated. */

@@ -4,7 +4,7 @@ import java.util.Collection;
 import java.util.Locale;
 
 /** Suggestions for misspelt names: the closest accepted name by edit distance, when it is close. */
-final class NearMiss {
+public final class NearMiss {
 
     private NearMiss() {
     }
@@ -29,7 +29,7 @@ final class NearMiss {
     }
 
     /** @return "; did you mean 'x'?" or "" */
-    static String suggestion(String given, Collection<String> accepted) {
+    public static String suggestion(String given, Collection<String> accepted) {
         String c = closest(given, accepted);
         return c == null ? "" : "; did you mean '" + c + "'?";
     }

@@ -93,8 +93,7 @@ public final class StudyContext {
             ArmPlan arm = plan.arms().get(i);
             TrainingSettings settings;
             try {
-                settings = new TrainingSettings(t.epochs(), t.batch(), settle.engine.train.Sampling.parse(t.sampling().yamlName()), t.momentum(), t.tail(),
-                        t.snapshots(), arm.average() == ArmPlan.Averaging.TAIL);
+                settings = t.settings(arm.average() == ArmPlan.Averaging.TAIL);
             } catch (IllegalArgumentException e) {
                 throw parsed.error("training", e.getMessage());
             }
@@ -161,8 +160,7 @@ public final class StudyContext {
         }
         TrainingPlan t = plan().training();
         int n = data.train().rows();
-        BatchSampling sampling = t.sampling().yamlName().equals(Sampling.SHUFFLE.key()) ? BatchSampling.SHUFFLE
-                : BatchSampling.REPLACEMENT;
+        BatchSampling sampling = t.sampling() == Sampling.SHUFFLE ? BatchSampling.SHUFFLE : BatchSampling.REPLACEMENT;
         UpdateSequence updates = UpdateSequence.of(result.rates(), n, Math.min(t.batch(), n), sampling);
         double[] offset = result.start().clone();
         model.removeGauge(offset);
