@@ -12,6 +12,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
+import java.util.concurrent.atomic.AtomicInteger;
 import settle.datasets.Standardiser;
 import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimum;
@@ -119,12 +120,28 @@ public final class StudyRunner {
             writeManifest(started, null, planHash, dataHash, splitHash);
             Progress progress = new Progress(err, progressMode, all.size(), all.size() - missing.size());
             ReplicateWork work = new LocalWork(context);
+            AtomicInteger written = new AtomicInteger(all.size() - missing.size());
+            // Ctrl-C (or any signal that lets the JVM run its hooks): every replicate file is whole, since each
+            // is renamed into place; say what is kept and how to go on. The JVM then exits with 130.
+            Thread onInterrupt = new Thread(() -> {
+                err.println();
+                err.println("settle: interrupted; " + written.get() + " of " + all.size()
+                        + " replicates are written and kept in " + directory + "; run the same command again to train the rest");
+                err.flush();
+            }, "settle-interrupt-note");
+            Runtime.getRuntime().addShutdownHook(onInterrupt);
             try {
                 executor.runAll(missing, work, outcome -> {
                     AtomicFiles.write(directory.resolve(ReplicateFile.relativePath(outcome.key())), outcome.file());
+                    written.incrementAndGet();
                     progress.finished(outcome);
                 });
             } finally {
+                try {
+                    Runtime.getRuntime().removeShutdownHook(onInterrupt);
+                } catch (IllegalStateException shuttingDown) {
+                    // the hook is running or has run: nothing to undo
+                }
                 progress.close();
             }
             EpochsTable.write(directory, plan, all);

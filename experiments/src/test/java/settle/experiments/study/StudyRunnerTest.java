@@ -233,6 +233,37 @@ class StudyRunnerTest {
         assertSameReplicateFiles(whole, study);
     }
 
+    @Test
+    void ctrlCStopsCleanlyWithExitCode130AndKeepsWholeFiles() throws Exception {
+        Path planFile = dir.resolve("plan.yaml");
+        Files.writeString(planFile, plan("interrupted", 60, ""));
+        Path study = dir.resolve("s");
+        String java = ProcessHandle.current().info().command().orElse("java");
+        Path log = dir.resolve("child.log");
+        Process child = new ProcessBuilder(List.of(java, "-cp", System.getProperty("java.class.path"), Main.class.getName(),
+                "run", planFile.toString(), "--out", study.toString(), "--threads", "1", "--quiet"))
+                .redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+        while (count(study) < 2 && child.isAlive() && System.nanoTime() < deadline) {
+            Thread.sleep(2);
+        }
+        assertTrue(child.isAlive(), "the run ended before it could be interrupted");
+        new ProcessBuilder("kill", "-INT", Long.toString(child.pid())).start().waitFor();
+        assertTrue(child.waitFor(30, TimeUnit.SECONDS));
+        assertEquals(130, child.exitValue());
+        int kept = count(study);
+        String said = Files.readString(log).trim();
+        assertTrue(said.matches("(?s).*settle: interrupted; \\d+ of 12 replicates are written and kept in .*; run the same "
+                + "command again to train the rest"), said);
+        for (Path f : replicateFiles(study)) {
+            MAPPER.readTree(f.toFile()); // every file kept is whole JSON
+        }
+        assertTrue(kept >= 2 && kept < 12, "kept " + kept);
+        assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", study.toString(),
+                "--quiet"));
+        assertEquals(12, count(study));
+    }
+
     private static int count(Path study) throws Exception {
         if (!Files.isDirectory(study.resolve("arms"))) {
             return 0;
