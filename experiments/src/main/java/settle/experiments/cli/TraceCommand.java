@@ -39,6 +39,7 @@ import settle.engine.train.TrainingSettings;
 import settle.engine.train.Wander;
 import settle.experiments.plan.NearMiss;
 import settle.experiments.plan.ParsedPlan;
+import settle.experiments.plan.PlanData;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.run.ReplicateKey;
@@ -352,7 +353,7 @@ public final class TraceCommand implements Callable<Integer> {
         Dataset train = all;
         Dataset test = null;
         if (testFraction != null) {
-            Split split = Splits.stratified(all, testFraction, seed);
+            Split split = Splits.stratified(all, testFraction, PlanData.testSplitSeed(seed));
             train = split.train();
             test = split.test();
         }

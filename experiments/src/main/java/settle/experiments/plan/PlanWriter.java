@@ -2,9 +2,7 @@ package settle.experiments.plan;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
 import java.util.HexFormat;
@@ -12,6 +10,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.regex.Pattern;
 import settle.engine.model.ModelSpec;
+import settle.experiments.study.AtomicFiles;
 
 /**
  * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included), in the
@@ -82,14 +81,7 @@ public final class PlanWriter {
      * @throws IOException when the file cannot be written
      */
     public static void write(Plan plan, Path file) throws IOException {
-        Path dir = file.toAbsolutePath().getParent();
-        Path temp = Files.createTempFile(dir, ".plan-", ".tmp");
-        try {
-            Files.writeString(temp, toYaml(plan), StandardCharsets.UTF_8);
-            Files.move(temp, file, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-        } finally {
-            Files.deleteIfExists(temp);
-        }
+        AtomicFiles.write(file, toYaml(plan));
     }
 
     /** @return the lower-case hexadecimal SHA-256 of the UTF-8 bytes of {@link #toYaml(Plan)} */

@@ -91,7 +91,6 @@ public final class StudyRunner {
      */
     public Outcome run(boolean fresh) throws Exception {
         Plan plan = context.plan();
-        String planYaml = PlanWriter.toYaml(plan);
         String planHash = PlanWriter.sha256(plan);
         String dataHash = Hashes.of(context.data().all());
         String splitHash = splitHash(context.data());
@@ -104,7 +103,7 @@ public final class StudyRunner {
                 clear();
             }
             String started = Instant.now().toString();
-            AtomicFiles.write(directory.resolve("plan.yaml"), planYaml);
+            PlanWriter.write(plan, directory.resolve("plan.yaml"));
             if (context.minimum() != null) {
                 AtomicFiles.write(directory.resolve("reference.json"), referenceJson());
             }
