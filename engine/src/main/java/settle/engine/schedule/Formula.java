@@ -1,5 +1,6 @@
 package settle.engine.schedule;
 
+import settle.engine.text.NearMiss;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
@@ -51,7 +52,7 @@ public final class Formula implements Schedule {
                     .variables(VARIABLES.toArray(new String[0])).build();
         } catch (UnknownFunctionOrVariableException u) {
             String token = identifierAt(expr, u.getPosition(), u.getToken());
-            String hint = Suggest.nearest(token, VARIABLES);
+            String hint = NearMiss.closest(token, VARIABLES);
             throw new ScheduleException("expr", KIND + ": expr = '" + expr + "' uses the unknown variable or function '"
                     + token + "'" + (hint == null ? "" : "; did you mean '" + hint + "'?")
                     + (hint == null ? "; expected variables " + String.join(", ", VARIABLES) : ""));

@@ -1,5 +1,6 @@
 package settle.engine.schedule;
 
+import settle.engine.text.NearMiss;
 import java.util.ArrayList;
 import java.util.LinkedHashSet;
 import java.util.List;
@@ -112,7 +113,7 @@ final class KeyReader {
         if (v instanceof String s && choices.contains(s)) {
             return s;
         }
-        String hint = v instanceof String s ? Suggest.nearest(s, choices) : null;
+        String hint = v instanceof String s ? NearMiss.closest(s, choices) : null;
         String expected = hint == null ? "one of " + String.join(" | ", choices)
                 : "one of " + String.join(" | ", choices) + " (did you mean '" + hint + "'?)";
         throw badType(path(key), v, expected);
@@ -180,7 +181,7 @@ final class KeyReader {
     private void finish() {
         for (String key : map.keySet()) {
             if (!accepted.contains(key) && !(prefix.isEmpty() && key.equals("kind"))) {
-                String hint = Suggest.nearest(key, accepted);
+                String hint = NearMiss.closest(key, accepted);
                 String p = path(key);
                 List<String> keys = new ArrayList<>();
                 for (String a : accepted) {

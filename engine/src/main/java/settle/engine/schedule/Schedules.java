@@ -1,5 +1,6 @@
 package settle.engine.schedule;
 
+import settle.engine.text.NearMiss;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -51,7 +52,7 @@ public final class Schedules {
         }
         Function<KeyReader, Schedule> parser = kind instanceof String s ? KINDS.get(s) : null;
         if (parser == null) {
-            String hint = kind instanceof String s ? Suggest.nearest(s, KINDS.keySet()) : null;
+            String hint = kind instanceof String s ? NearMiss.closest(s, KINDS.keySet()) : null;
             throw new ScheduleException("kind", "unknown schedule kind " + KeyReader.show(kind) + "; "
                     + (hint == null ? "expected one of " + String.join(", ", kinds()) : "did you mean '" + hint + "'?"));
         }

@@ -37,7 +37,7 @@ import settle.engine.train.SampleOrders;
 import settle.engine.train.Trainer;
 import settle.engine.train.TrainingSettings;
 import settle.engine.train.Wander;
-import settle.experiments.plan.NearMiss;
+import settle.engine.text.NearMiss;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.Plan;

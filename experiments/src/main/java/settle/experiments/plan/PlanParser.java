@@ -1,5 +1,6 @@
 package settle.experiments.plan;
 
+import settle.engine.text.NearMiss;
 import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.charset.CharacterCodingException;

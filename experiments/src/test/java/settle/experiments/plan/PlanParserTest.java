@@ -1,5 +1,6 @@
 package settle.experiments.plan;
 
+import settle.engine.text.NearMiss;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;

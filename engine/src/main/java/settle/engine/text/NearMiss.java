@@ -1,9 +1,12 @@
-package settle.experiments.plan;
+package settle.engine.text;
 
 import java.util.Collection;
 import java.util.Locale;
 
-/** Suggestions for misspelt names: the closest accepted name by edit distance, when it is close. */
+/**
+ * Suggestions for misspelt names (schedule kinds and keys, plan keys, arm names): the closest accepted name by
+ * edit distance, when it is close.
+ */
 public final class NearMiss {
 
     private NearMiss() {
@@ -11,11 +14,11 @@ public final class NearMiss {
 
     /**
      * @return the accepted name closest to {@code given} (case-insensitively), or null when none is within
-     *         max(1, ⌊len/3⌋) edits (ties: the first in {@code accepted}'s order)
+     *         max(2, ⌊len/3⌋) edits (ties: the first in {@code accepted}'s order)
      */
-    static String closest(String given, Collection<String> accepted) {
+    public static String closest(String given, Collection<String> accepted) {
         String g = given.toLowerCase(Locale.ROOT);
-        int limit = Math.max(1, Math.max(g.length(), 1) / 3);
+        int limit = Math.max(2, g.length() / 3);
         String best = null;
         int bestDistance = Integer.MAX_VALUE;
         for (String a : accepted) {
@@ -39,7 +42,7 @@ public final class NearMiss {
      *         of adjacent characters, one edit each (Levenshtein's distance with Damerau's transposition, so
      *         that "lable" is one edit from "label")
      */
-    static int distance(String a, String b) {
+    public static int distance(String a, String b) {
         int[][] d = new int[a.length() + 1][b.length() + 1];
         for (int i = 0; i <= a.length(); i++) {
             d[i][0] = i;
