@@ -18,7 +18,7 @@ import picocli.CommandLine.Spec;
         versionProvider = Main.Version.class,
         description = "Does learning-rate decay shrink the SGD noise ball on your data? "
                 + "Seed-paired studies of learning-rate schedules.",
-        subcommands = {RunCommand.class, DemoCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {RunCommand.class, DemoCommand.class, ReportCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Callable<Integer> {
 
     /** Exit code: success, warnings included. */
