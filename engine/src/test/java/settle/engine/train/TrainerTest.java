@@ -289,6 +289,27 @@ class TrainerTest {
             }
 
             @Override
+            public java.util.Map<String, Object> resolved() {
+                return new java.util.LinkedHashMap<>(java.util.Map.of("kind", "recording"));
+            }
+
+            @Override
+            public settle.engine.schedule.Warmup warmup() {
+                return settle.engine.schedule.Warmup.NONE;
+            }
+
+            @Override
+            public settle.engine.schedule.Asymptotics asymptotics() {
+                return new settle.engine.schedule.Asymptotics(settle.engine.schedule.Asymptotics.Limit.UNDECIDED,
+                        settle.engine.schedule.Asymptotics.Limit.UNDECIDED, "a test schedule");
+            }
+
+            @Override
+            public String describe() {
+                return "recording" + " (a test schedule)";
+            }
+
+            @Override
             public RateDriver start(RunShape shape) {
                 assertEquals(new RunShape(4, 6), shape);
                 return new RateDriver() {
