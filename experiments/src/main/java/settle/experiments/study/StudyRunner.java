@@ -27,6 +27,7 @@ import settle.experiments.run.ReplicateExecutor;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.run.ReplicateWork;
+import settle.reports.Report;
 
 /**
  * Runs a plan into its study directory: takes the lock, refuses a plan or data that changed under an existing
@@ -145,8 +146,19 @@ public final class StudyRunner {
             }
             EpochsTable.write(directory, plan, all);
             Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash);
+            writeReport();
             return new Outcome(directory, outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
                     missing.size());
+        }
+    }
+
+    /** Builds report.html and summary.csv from the finished study directory; a failure is a warning. */
+    private void writeReport() {
+        try {
+            Report.write(directory);
+        } catch (IOException | IllegalArgumentException e) {
+            err.println("warning: the report was not written: " + e.getMessage()
+                    + " (rebuild it with settle report " + directory + ")");
         }
     }
 

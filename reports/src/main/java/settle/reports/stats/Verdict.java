@@ -36,6 +36,19 @@ public final class Verdict {
      */
     public static List<Comparison> compare(String metric, Direction direction, ArmValues baseline,
             List<ArmValues> arms, VerdictOptions options) {
+        return compare(metric, direction, baseline, arms, options, true);
+    }
+
+    /**
+     * As {@link #compare(String, Direction, ArmValues, List, VerdictOptions)}, with the percentile bootstrap
+     * interval only when asked (descriptive metrics may leave it out: it is the costly part). The arms'
+     * bootstrap intervals are computed in parallel; each depends only on its own pairs and the fixed seed,
+     * so the result is the same at any thread count.
+     *
+     * @param bootstrap compute the bootstrap interval; when false it is {@link Interval#none(double)}
+     */
+    public static List<Comparison> compare(String metric, Direction direction, ArmValues baseline,
+            List<ArmValues> arms, VerdictOptions options, boolean bootstrap) {
         if (arms.isEmpty()) {
             throw new IllegalArgumentException("metric '" + metric + "': no arm to compare with the baseline '"
                     + baseline.name() + "'");
@@ -55,6 +68,13 @@ public final class Verdict {
         }
         double[] adjusted = Holm.adjust(raw);
         int needed = Holm.pairsNeeded(m, options.significance());
+        Interval[] boots = new Interval[m];
+        java.util.stream.IntStream.range(0, m).parallel().forEach(a -> {
+            double[] finite = partial[a].finiteLogRatios;
+            boots[a] = finite.length == 0 || !bootstrap ? Interval.none(options.confidence())
+                    : Bootstrap.hodgesLehmannInterval(finite, options.seed(), options.resamples(),
+                            options.confidence());
+        });
         List<Comparison> out = new ArrayList<>(m);
         for (int a = 0; a < m; a++) {
             Partial q = partial[a];
@@ -62,9 +82,7 @@ public final class Verdict {
             double estimate = finite.length == 0 ? Double.NaN : HodgesLehmann.estimate(finite);
             Interval exact = finite.length == 0 ? Interval.none(0.0)
                     : HodgesLehmann.exactInterval(finite, options.confidence());
-            Interval boot = finite.length == 0 ? Interval.none(options.confidence())
-                    : Bootstrap.hodgesLehmannInterval(finite, options.seed(), options.resamples(),
-                            options.confidence());
+            Interval boot = boots[a];
             out.add(new Comparison(metric, arms.get(a).name(), baseline.name(), direction, baseline.size(),
                     q.bothDiverged, q.armDiverged, q.baselineDiverged, q.clamped, options.floor(),
                     q.test.zeros(), q.test.used(), q.test.statistic(), q.test.pValue(), adjusted[a], m,

@@ -33,6 +33,9 @@ public final class VerdictSentence {
         boolean effectShown = false;
         if (c.testPairs() == 0 && c.effectPairs() == 0) {
             main = "cannot be compared on " + c.metric() + ": no usable pair of replicates";
+        } else if (c.testPairs() == 0 && c.zeroDifferences() == c.effectPairs()) {
+            main = "has the same " + c.metric() + " as the baseline in all " + c.effectPairs() + " pairs";
+            effectShown = true;
         } else if (c.detected()) {
             String verb = c.armLarger() ? "increases" : "reduces";
             if (effectAgrees(c)) {
@@ -67,7 +70,7 @@ public final class VerdictSentence {
                     + " with a diverged replicate set aside (" + c.armDiverged() + " of the arm, "
                     + c.baselineDiverged() + " of the baseline, counted as worst in the test)");
         }
-        if (c.zeroDifferences() > 0) {
+        if (c.zeroDifferences() > 0 && c.testPairs() > 0) {
             notes.add(count(c.zeroDifferences(), "zero difference", "zero differences") + " dropped from the test");
         }
         if (c.clamped() > 0) {

@@ -1,0 +1,53 @@
+package settle.experiments.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import settle.reports.Report;
+
+/**
+ * {@code settle report STUDY_DIR}: (re)builds {@code report.html} and {@code summary.csv} from a study
+ * directory. Exit 0; 3 when replicates are missing (a partial study still gets its report) or diverged; 2 for a
+ * missing or malformed study directory; 1 when a file cannot be read or written.
+ */
+@Command(name = "report", mixinStandardHelpOptions = true,
+        description = "(Re)build report.html and summary.csv from a study directory.")
+public final class ReportCommand implements Callable<Integer> {
+
+    @Parameters(index = "0", paramLabel = "STUDY_DIR", description = "the study directory")
+    Path directory;
+
+    @Spec
+    CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        Report.Outcome outcome;
+        try {
+            outcome = Report.write(directory);
+        } catch (IllegalArgumentException e) {
+            err.println("settle report: " + e.getMessage());
+            return Main.BAD_INPUT;
+        } catch (IOException e) {
+            err.println("settle report: " + directory + ": " + e.getMessage());
+            return Main.FAILED;
+        }
+        out.println("report written to " + outcome.report().toAbsolutePath().normalize());
+        out.println("summary written to " + outcome.summary().toAbsolutePath().normalize());
+        if (outcome.partial()) {
+            err.println("settle report: partial study: " + outcome.missing() + " of " + outcome.replicates()
+                    + " replicates missing");
+        }
+        if (outcome.diverged() > 0) {
+            err.println("settle report: " + outcome.diverged() + " of " + outcome.replicates() + " replicates diverged");
+        }
+        return outcome.partial() || outcome.diverged() > 0 ? Main.INCOMPLETE : Main.OK;
+    }
+}

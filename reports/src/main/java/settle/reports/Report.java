@@ -1,0 +1,66 @@
+package settle.reports;
+
+import java.io.IOException;
+import java.nio.file.Path;
+import settle.reports.html.ReportPage;
+import settle.reports.metrics.StudyAnalysis;
+import settle.reports.stats.VerdictOptions;
+import settle.reports.study.Study;
+import settle.reports.study.StudyFormatException;
+import settle.reports.study.StudyReader;
+
+/**
+ * Builds {@code report.html} and {@code summary.csv} in a study directory, from its files only (study
+ * directory format 1).
+ */
+public final class Report {
+
+    /** File name of the report. */
+    public static final String REPORT = "report.html";
+    /** File name of the machine-readable summary. */
+    public static final String SUMMARY = "summary.csv";
+
+    /**
+     * What was written.
+     *
+     * @param report the report's path
+     * @param summary the summary's path
+     * @param replicates replicates planned (arms × replicates)
+     * @param missing replicate files missing (a partial study)
+     * @param diverged replicates that diverged
+     */
+    public record Outcome(Path report, Path summary, int replicates, int missing, int diverged) {
+
+        /** @return true when some replicate files are missing */
+        public boolean partial() {
+            return missing > 0;
+        }
+    }
+
+    private Report() {
+    }
+
+    /**
+     * Reads the study directory, analyses it and writes both files atomically.
+     *
+     * @param directory the study directory
+     * @return what was written
+     * @throws StudyFormatException for a missing or malformed study directory
+     * @throws IOException when a file cannot be read or written
+     */
+    public static Outcome write(Path directory) throws IOException {
+        return write(directory, VerdictOptions.defaults());
+    }
+
+    /** As {@link #write(Path)} with the given verdict settings. */
+    public static Outcome write(Path directory, VerdictOptions options) throws IOException {
+        Study study = StudyReader.read(directory);
+        StudyAnalysis analysis = StudyAnalysis.of(study, options);
+        Path summary = directory.resolve(SUMMARY);
+        Path report = directory.resolve(REPORT);
+        AtomicWrite.text(summary, SummaryCsv.render(analysis));
+        AtomicWrite.text(report, ReportPage.render(analysis));
+        return new Outcome(report, summary, study.armCount() * study.replicateCount(), study.missing(),
+                study.diverged());
+    }
+}

@@ -1,0 +1,633 @@
+package settle.reports.html;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import org.apache.commons.math3.linear.Array2DRowRealMatrix;
+import org.apache.commons.math3.linear.EigenDecomposition;
+import settle.reports.metrics.StudyAnalysis;
+import settle.reports.stats.ArmSummary;
+import settle.reports.stats.Quantiles;
+import settle.reports.stats.VerdictOptions;
+import settle.reports.study.Metric;
+import settle.reports.study.Prediction;
+import settle.reports.study.Replicate;
+import settle.reports.study.Study;
+
+/** The report's charts, each an inline SVG written through an {@link HtmlWriter}. */
+final class Figures {
+
+    /** Most points drawn per arm for a long series (rates of every update). */
+    static final int MAX_BUCKETS = 200;
+    /** Largest model whose tail cloud is drawn. */
+    static final int CLOUD_MAX_PARAMETERS = 200;
+    /** Most snapshots drawn per arm in the tail cloud. */
+    static final int CLOUD_POINTS_PER_ARM = 300;
+
+    private static final double WIDE = 880;
+
+    private Figures() {
+    }
+
+    // ---------------------------------------------------------------- legend
+
+    static void legend(HtmlWriter w, Study study, boolean lines) {
+        w.open("ul", "class", "legend");
+        for (int a = 0; a < study.armCount(); a++) {
+            Palette.Style s = Palette.style(a);
+            w.open("li");
+            w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
+            if (lines) {
+                w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", s.colour(), "stroke-width", "2",
+                        "stroke-dasharray", s.dash());
+            }
+            SvgChart.marker(w, 17, 7, 4, s.shape(), s.colour(), true, "swatch-mark", null);
+            w.close("svg");
+            w.text(study.armName(a));
+            w.close("li");
+        }
+        w.close("ul");
+    }
+
+    // ---------------------------------------------------------------- rates
+
+    /** @return the first present replicate of arm a, or null */
+    static Replicate first(Study study, int a) {
+        for (Replicate r : study.replicates().get(a)) {
+            if (r != null) {
+                return r;
+            }
+        }
+        return null;
+    }
+
+    static void rates(HtmlWriter w, Study study) {
+        int perEpoch = Math.max(1, study.manifest().updatesPerEpoch());
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = 0;
+        double xMax = 1;
+        for (int a = 0; a < study.armCount(); a++) {
+            Replicate r = first(study, a);
+            if (r == null) {
+                continue;
+            }
+            for (double v : r.rates()) {
+                if (v > 0 && Double.isFinite(v)) {
+                    lo = Math.min(lo, v);
+                    hi = Math.max(hi, v);
+                }
+            }
+            xMax = Math.max(xMax, 1 + (double) Math.max(r.rates().length, r.totalUpdates()) / perEpoch);
+        }
+        SvgChart c = new SvgChart(w, "chart-rates", "chart", WIDE, 340, 70, Axis.fixed(1, xMax, "epoch (epoch 1 = the "
+                + "first pass; update u at 1 + (u − 1)/" + perEpoch + ")"), Axis.log(lo, hi, "rate α"),
+                "Learning rate of every update, per arm, on a log scale");
+        for (int a = 0; a < study.armCount(); a++) {
+            Replicate r = first(study, a);
+            if (r == null) {
+                continue;
+            }
+            double[][] xy = downsampleRates(r.rates(), perEpoch, MAX_BUCKETS);
+            c.line(xy[0], xy[1], Palette.style(a), "series rate");
+        }
+        c.end();
+        legend(w, study, true);
+    }
+
+    /**
+     * @return x (epoch position 1 + (u − 1)/U) and y of at most 3·buckets points keeping, per bucket, its
+     *     first value and its extremes in order, so steps and restarts stay visible
+     */
+    static double[][] downsampleRates(double[] rates, int perEpoch, int buckets) {
+        int n = rates.length;
+        if (n <= 3 * buckets) {
+            double[] x = new double[n];
+            for (int u = 0; u < n; u++) {
+                x[u] = 1 + (double) u / perEpoch;
+            }
+            return new double[][] {x, rates.clone()};
+        }
+        double[] xs = new double[3 * buckets + 1];
+        double[] ys = new double[3 * buckets + 1];
+        int k = 0;
+        for (int b = 0; b < buckets; b++) {
+            int from = (int) ((long) b * n / buckets);
+            int to = (int) ((long) (b + 1) * n / buckets);
+            int iMin = from;
+            int iMax = from;
+            for (int u = from; u < to; u++) {
+                if (rates[u] < rates[iMin]) {
+                    iMin = u;
+                }
+                if (rates[u] > rates[iMax]) {
+                    iMax = u;
+                }
+            }
+            int[] keep = {from, Math.min(iMin, iMax), Math.max(iMin, iMax)};
+            int previous = -1;
+            for (int u : keep) {
+                if (u != previous) {
+                    xs[k] = 1 + (double) u / perEpoch;
+                    ys[k++] = rates[u];
+                    previous = u;
+                }
+            }
+        }
+        xs[k] = 1 + (double) (n - 1) / perEpoch;
+        ys[k++] = rates[n - 1];
+        return new double[][] {Arrays.copyOf(xs, k), Arrays.copyOf(ys, k)};
+    }
+
+    // ---------------------------------------------------------------- objective
+
+    /** Per-epoch quartiles of one series over an arm's finished replicates: [epoch][0 = q1, 1 = median, 2 = q3]. */
+    static double[][] epochQuartiles(Study study, int a, java.util.function.Function<Replicate, double[]> series,
+            double shift) {
+        int epochs = 0;
+        List<double[]> rows = new ArrayList<>();
+        for (Replicate r : study.replicates().get(a)) {
+            if (r != null && !r.diverged()) {
+                double[] s = series.apply(r);
+                rows.add(s);
+                epochs = Math.max(epochs, s.length);
+            }
+        }
+        double[][] q = new double[epochs][3];
+        double[] buffer = new double[rows.size()];
+        for (int e = 0; e < epochs; e++) {
+            int n = 0;
+            for (double[] s : rows) {
+                if (e < s.length && Double.isFinite(s[e])) {
+                    buffer[n++] = s[e] - shift;
+                }
+            }
+            if (n == 0) {
+                Arrays.fill(q[e], Double.NaN);
+                continue;
+            }
+            double[] sorted = Arrays.copyOf(buffer, n);
+            Arrays.sort(sorted);
+            q[e][0] = Quantiles.type7(sorted, 0.25);
+            q[e][1] = Quantiles.type7(sorted, 0.5);
+            q[e][2] = Quantiles.type7(sorted, 0.75);
+        }
+        return q;
+    }
+
+    static void objective(HtmlWriter w, Study study) {
+        boolean convex = study.convex();
+        double shift = convex ? study.reference().objective() : 0.0;
+        double[][][] q = new double[study.armCount()][][];
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = Double.NEGATIVE_INFINITY;
+        int epochs = 1;
+        for (int a = 0; a < study.armCount(); a++) {
+            q[a] = epochQuartiles(study, a, r -> r.epochs().objective(), shift);
+            epochs = Math.max(epochs, q[a].length);
+            for (double[] e : q[a]) {
+                for (double v : e) {
+                    if (Double.isFinite(v) && (!convex || v > 0)) {
+                        lo = Math.min(lo, v);
+                        hi = Math.max(hi, v);
+                    }
+                }
+            }
+        }
+        Axis y = convex ? Axis.log(lo, hi, "F(θ) − F(θ*) at the epoch's end") : Axis.linear(lo, hi,
+                "training objective F(θ) at the epoch's end");
+        SvgChart c = new SvgChart(w, "chart-objective", "chart", WIDE, 340, 70, Axis.fixed(1, Math.max(2, epochs),
+                "epoch (1 = the first pass)"), y, "Training objective per epoch: median and interquartile band per arm");
+        for (int a = 0; a < study.armCount(); a++) {
+            int n = q[a].length;
+            int stride = Math.max(1, (n + 3 * MAX_BUCKETS - 1) / (3 * MAX_BUCKETS));
+            int m = (n + stride - 1) / stride;
+            double[] xs = new double[m];
+            double[] q1 = new double[m];
+            double[] med = new double[m];
+            double[] q3 = new double[m];
+            for (int i = 0, e = 0; e < n; e += stride, i++) {
+                xs[i] = e + 1;
+                q1[i] = q[a][e][0];
+                med[i] = q[a][e][1];
+                q3[i] = q[a][e][2];
+            }
+            c.band(xs, q1, q3, Palette.style(a), "band");
+            c.line(xs, med, Palette.style(a), "series median");
+        }
+        c.end();
+        legend(w, study, true);
+    }
+
+    // ---------------------------------------------------------------- distance
+
+    /** Measured mean of ‖θ_t − θ*‖² and predicted E‖θ_t − θ*‖² per epoch for arm a (finished replicates). */
+    static double[][] distanceCurves(Study study, int a) {
+        int epochs = 0;
+        for (Replicate r : study.replicates().get(a)) {
+            if (r != null && !r.diverged()) {
+                epochs = Math.max(epochs, r.epochs().size());
+            }
+        }
+        double[] measured = new double[epochs];
+        double[] predicted = new double[epochs];
+        int[] nm = new int[epochs];
+        int[] np = new int[epochs];
+        for (Replicate r : study.replicates().get(a)) {
+            if (r == null || r.diverged()) {
+                continue;
+            }
+            double[] d = r.epochs().distance();
+            for (int e = 0; e < d.length; e++) {
+                if (Double.isFinite(d[e])) {
+                    measured[e] += d[e] * d[e];
+                    nm[e]++;
+                }
+            }
+            Prediction p = r.prediction();
+            if (p.predicted() && p.epochDistanceSq() != null) {
+                double[] s = p.epochDistanceSq();
+                for (int e = 0; e < Math.min(epochs, s.length); e++) {
+                    if (Double.isFinite(s[e])) {
+                        predicted[e] += s[e];
+                        np[e]++;
+                    }
+                }
+            }
+        }
+        for (int e = 0; e < epochs; e++) {
+            measured[e] = nm[e] == 0 ? Double.NaN : measured[e] / nm[e];
+            predicted[e] = np[e] == 0 ? Double.NaN : predicted[e] / np[e];
+        }
+        return new double[][] {measured, predicted};
+    }
+
+    static void distance(HtmlWriter w, Study study) {
+        int arms = study.armCount();
+        double[][][] curves = new double[arms][][];
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = 0;
+        int epochs = 1;
+        for (int a = 0; a < arms; a++) {
+            curves[a] = distanceCurves(study, a);
+            epochs = Math.max(epochs, curves[a][0].length);
+            for (double[] s : curves[a]) {
+                for (double v : s) {
+                    if (v > 0 && Double.isFinite(v)) {
+                        lo = Math.min(lo, v);
+                        hi = Math.max(hi, v);
+                    }
+                }
+            }
+        }
+        w.open("div", "class", "multiples");
+        Palette.Style predictedStyle = new Palette.Style("#333333", "5 3", Palette.Shape.CIRCLE);
+        for (int a = 0; a < arms; a++) {
+            w.open("figure", "class", "panel");
+            SvgChart c = new SvgChart(w, "chart-distance-" + (a + 1), "chart small", 290, 220, 58,
+                    Axis.fixed(1, Math.max(2, epochs), "epoch"), Axis.log(lo, hi, "‖θ − θ*‖²"),
+                    "Distance to the reference minimiser per epoch for arm " + study.armName(a));
+            double[] xs = new double[curves[a][0].length];
+            for (int e = 0; e < xs.length; e++) {
+                xs[e] = e + 1;
+            }
+            c.line(xs, curves[a][1], predictedStyle, "series predicted");
+            c.line(xs, curves[a][0], Palette.style(a), "series measured");
+            c.end();
+            w.element("figcaption", study.armName(a));
+            w.close("figure");
+        }
+        w.close("div");
+        w.open("ul", "class", "legend");
+        w.open("li");
+        w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
+        w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", "#555555", "stroke-width", "2");
+        w.close("svg");
+        w.text("measured: mean over the arm's finished replicates of ‖θ_t − θ*‖² (arm colour)");
+        w.close("li");
+        w.open("li");
+        w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
+        w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", "#333333", "stroke-width", "2",
+                "stroke-dasharray", "5 3");
+        w.close("svg");
+        w.text("predicted E‖θ_t − θ*‖², averaged over the replicates' own rate sequences");
+        w.close("li");
+        w.close("ul");
+    }
+
+    // ---------------------------------------------------------------- strip plots
+
+    /**
+     * A horizontal strip plot: one row per arm, one mark (class "replicate") per replicate present, diverged
+     * replicates as a distinct mark (class "replicate diverged") at the right edge, the median as a bar.
+     */
+    static void strip(HtmlWriter w, StudyAnalysis analysis, Metric metric, String id) {
+        Study study = analysis.study();
+        int arms = study.armCount();
+        double floor = VerdictOptions.DEFAULT_FLOOR;
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = Double.NEGATIVE_INFINITY;
+        boolean anyDiverged = false;
+        for (int a = 0; a < arms; a++) {
+            for (Replicate r : study.replicates().get(a)) {
+                if (r == null) {
+                    continue;
+                }
+                if (r.diverged()) {
+                    anyDiverged = true;
+                    continue;
+                }
+                double v = Math.max(floor, r.metric(metric));
+                lo = Math.min(lo, v);
+                hi = Math.max(hi, v);
+            }
+        }
+        boolean log = lo > 0 && hi / lo > 20;
+        String unit = switch (metric) {
+            case TAIL_RADIUS, FINAL_DISTANCE, TAIL_DISTANCE -> " (parameter-space distance, the units of θ)";
+            case FINAL_GAP, AVERAGED_GAP -> " (objective units, nats per example)";
+            default -> "";
+        };
+        Axis x = log ? Axis.log(lo, hi, metric.words() + unit) : Axis.linear(Math.min(lo, hi), hi, metric.words() + unit);
+        double row = 26;
+        double left = 170;
+        double height = 12 + 46 + row * arms;
+        double extra = anyDiverged ? 60 : 0;
+        SvgChart c = new SvgChart(w, id, "chart strip", WIDE + extra, height, left, x, Axis.fixed(0, arms, null),
+                metric.words() + " of every replicate, one row per arm" + (anyDiverged ? "; diverged replicates at the"
+                        + " right, marked ×" : ""));
+        ArmSummary[] summaries = analysis.summaries(metric);
+        for (int a = 0; a < arms; a++) {
+            double cy = c.py(arms - a - 0.5);
+            String name = study.armName(a);
+            String shown = name.length() > 24 ? name.substring(0, 23) + "…" : name;
+            w.open("text", "class", "row-label", "x", SvgChart.n(left - 8), "y", SvgChart.n(cy + 4), "text-anchor", "end");
+            w.element("title", name);
+            w.text(shown);
+            w.close("text");
+            if (a % 2 == 1) {
+                w.empty("rect", "class", "row-shade", "x", SvgChart.n(c.plotLeft()), "y", SvgChart.n(cy - row / 2),
+                        "width", SvgChart.n(c.plotRight() - c.plotLeft()), "height", SvgChart.n(row));
+            }
+            Palette.Style style = Palette.style(a);
+            List<Replicate> reps = study.replicates().get(a);
+            for (int k = 0; k < reps.size(); k++) {
+                Replicate r = reps.get(k);
+                if (r == null) {
+                    continue;
+                }
+                double jitter = ((k * 0.6180339887498949) % 1.0 - 0.5) * row * 0.6;
+                if (r.diverged()) {
+                    double dx = c.plotRight() + 14 + (k % 4) * 10;
+                    SvgChart.marker(w, dx, cy + jitter, 4, Palette.Shape.CROSS, Palette.DIVERGED, false,
+                            "replicate diverged", name + ", replicate " + (k + 1) + ": diverged at update "
+                                    + r.divergedAtUpdate());
+                    continue;
+                }
+                double v = r.metric(metric);
+                double px = c.px(Math.max(floor, v));
+                SvgChart.marker(w, px, cy + jitter, 3.4, style.shape(), style.colour(), false, "replicate",
+                        name + ", replicate " + (k + 1) + ": " + Format.sig(v));
+            }
+            if (summaries != null && Double.isFinite(summaries[a].median())) {
+                double m = c.px(Math.max(floor, summaries[a].median()));
+                w.empty("line", "class", "median", "x1", SvgChart.n(m), "x2", SvgChart.n(m), "y1",
+                        SvgChart.n(cy - row * 0.42), "y2", SvgChart.n(cy + row * 0.42), "stroke", style.colour());
+            }
+        }
+        if (anyDiverged) {
+            w.element("text", "diverged", "class", "note", "x", SvgChart.n(c.plotRight() + 30), "y",
+                    SvgChart.n(c.plotTop() - 2), "text-anchor", "middle");
+        }
+        c.end();
+    }
+
+    // ---------------------------------------------------------------- tail cloud
+
+    /** @return a reason when the tail cloud is not drawn, else null */
+    static String cloudSkipReason(Study study) {
+        int p = study.manifest().parameters();
+        if (p > CLOUD_MAX_PARAMETERS) {
+            return "the model has " + p + " parameters; the tail cloud is drawn for models of up to "
+                    + CLOUD_MAX_PARAMETERS;
+        }
+        if (p < 2) {
+            return "the model has fewer than two parameters";
+        }
+        for (int a = 0; a < study.armCount(); a++) {
+            for (Replicate r : study.replicates().get(a)) {
+                if (r != null && r.snapshots() != null) {
+                    return null;
+                }
+            }
+        }
+        return "no replicate recorded tail snapshots";
+    }
+
+    static void cloud(HtmlWriter w, Study study) {
+        int arms = study.armCount();
+        int p = study.manifest().parameters();
+        // Pick the snapshots drawn: per arm at most CLOUD_POINTS_PER_ARM, evenly over its replicates.
+        List<List<double[]>> chosen = new ArrayList<>();
+        for (int a = 0; a < arms; a++) {
+            List<Replicate> reps = new ArrayList<>();
+            for (Replicate r : study.replicates().get(a)) {
+                if (r != null && !r.diverged() && r.snapshots() != null) {
+                    reps.add(r);
+                }
+            }
+            List<double[]> points = new ArrayList<>();
+            int per = reps.isEmpty() ? 0 : Math.max(1, CLOUD_POINTS_PER_ARM / reps.size());
+            for (Replicate r : reps) {
+                int k = r.snapshotRows();
+                int take = Math.min(per, k);
+                for (int j = 0; j < take; j++) {
+                    int row = (int) ((long) j * k / take);
+                    points.add(Arrays.copyOfRange(r.snapshots(), row * p, (row + 1) * p));
+                }
+            }
+            chosen.add(points);
+        }
+        double[] mean = new double[p];
+        int total = 0;
+        for (List<double[]> pts : chosen) {
+            for (double[] v : pts) {
+                for (int j = 0; j < p; j++) {
+                    mean[j] += v[j];
+                }
+                total++;
+            }
+        }
+        for (int j = 0; j < p; j++) {
+            mean[j] /= total;
+        }
+        double[][] cov = new double[p][p];
+        for (List<double[]> pts : chosen) {
+            for (double[] v : pts) {
+                for (int i = 0; i < p; i++) {
+                    double di = v[i] - mean[i];
+                    for (int j = i; j < p; j++) {
+                        cov[i][j] += di * (v[j] - mean[j]);
+                    }
+                }
+            }
+        }
+        double trace = 0;
+        for (int i = 0; i < p; i++) {
+            for (int j = i; j < p; j++) {
+                cov[i][j] /= total;
+                cov[j][i] = cov[i][j];
+            }
+            trace += cov[i][i];
+        }
+        EigenDecomposition eig = new EigenDecomposition(new Array2DRowRealMatrix(cov, false));
+        double[] values = eig.getRealEigenvalues();
+        Integer[] order = new Integer[p];
+        for (int i = 0; i < p; i++) {
+            order[i] = i;
+        }
+        Arrays.sort(order, (i, j) -> Double.compare(values[j], values[i]));
+        double[] u = eig.getEigenvector(order[0]).toArray();
+        double[] v = eig.getEigenvector(order[1]).toArray();
+        signFix(u);
+        signFix(v);
+        double share1 = trace > 0 ? 100 * values[order[0]] / trace : 0;
+        double share2 = trace > 0 ? 100 * values[order[1]] / trace : 0;
+        List<double[][]> projected = new ArrayList<>();
+        double xlo = Double.POSITIVE_INFINITY;
+        double xhi = Double.NEGATIVE_INFINITY;
+        double ylo = Double.POSITIVE_INFINITY;
+        double yhi = Double.NEGATIVE_INFINITY;
+        for (List<double[]> pts : chosen) {
+            double[][] xy = new double[pts.size()][];
+            for (int i = 0; i < xy.length; i++) {
+                xy[i] = project(pts.get(i), mean, u, v);
+                xlo = Math.min(xlo, xy[i][0]);
+                xhi = Math.max(xhi, xy[i][0]);
+                ylo = Math.min(ylo, xy[i][1]);
+                yhi = Math.max(yhi, xy[i][1]);
+            }
+            projected.add(xy);
+        }
+        double[] star = study.convex() && study.reference().theta().length == p
+                ? project(study.reference().theta(), mean, u, v) : null;
+        if (star != null) {
+            xlo = Math.min(xlo, star[0]);
+            xhi = Math.max(xhi, star[0]);
+            ylo = Math.min(ylo, star[1]);
+            yhi = Math.max(yhi, star[1]);
+        }
+        Axis x = Axis.linear(xlo, xhi, String.format(java.util.Locale.ROOT, "first principal axis (%.0f %% of variance)", share1));
+        Axis y = Axis.linear(ylo, yhi, String.format(java.util.Locale.ROOT, "second axis (%.0f %%)", share2));
+        w.open("div", "class", "multiples");
+        for (int a = 0; a < arms; a++) {
+            w.open("figure", "class", "panel");
+            SvgChart c = new SvgChart(w, "chart-cloud-" + (a + 1), "chart small", 290, 240, 58, x, y,
+                    "Tail snapshots of arm " + study.armName(a) + " projected on the principal axes of all arms' tail"
+                            + " snapshots");
+            Palette.Style s = Palette.style(a);
+            for (double[] pt : projected.get(a)) {
+                double px = c.px(pt[0]);
+                double py = c.py(pt[1]);
+                w.empty("circle", "class", "snapshot", "cx", SvgChart.n(px), "cy", SvgChart.n(py), "r", "1.7", "fill",
+                        s.colour());
+            }
+            if (star != null) {
+                SvgChart.marker(w, c.px(star[0]), c.py(star[1]), 6, Palette.Shape.PLUS, "#000000", false, "theta-star",
+                        "θ*, the reference minimiser");
+            }
+            c.end();
+            w.element("figcaption", study.armName(a));
+            w.close("figure");
+        }
+        w.close("div");
+    }
+
+    private static void signFix(double[] e) {
+        int big = 0;
+        for (int i = 1; i < e.length; i++) {
+            if (Math.abs(e[i]) > Math.abs(e[big])) {
+                big = i;
+            }
+        }
+        if (e[big] < 0) {
+            for (int i = 0; i < e.length; i++) {
+                e[i] = -e[i];
+            }
+        }
+    }
+
+    private static double[] project(double[] x, double[] mean, double[] u, double[] v) {
+        double a = 0;
+        double b = 0;
+        for (int j = 0; j < x.length; j++) {
+            double d = x[j] - mean[j];
+            a += d * u[j];
+            b += d * v[j];
+        }
+        return new double[] {a, b};
+    }
+
+    // ---------------------------------------------------------------- heatmap
+
+    /**
+     * A grid heatmap: cells (row value × column value) coloured by the median metric, value written in the
+     * cell; missing combinations left blank.
+     */
+    static void heatmap(HtmlWriter w, String id, String title, String rowKey, List<String> rowValues, String columnKey,
+            List<String> columnValues, double[][] cells) {
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = Double.NEGATIVE_INFINITY;
+        for (double[] r : cells) {
+            for (double v : r) {
+                if (Double.isFinite(v)) {
+                    lo = Math.min(lo, v);
+                    hi = Math.max(hi, v);
+                }
+            }
+        }
+        boolean log = lo > 0 && hi / lo > 20;
+        double cw = 92;
+        double ch = 34;
+        double left = 120;
+        double top = 44;
+        double width = left + cw * columnValues.size() + 20;
+        double height = top + ch * rowValues.size() + 16;
+        w.open("figure", "class", "panel heat");
+        w.open("svg", "id", id, "class", "chart heatmap", "viewBox", "0 0 " + SvgChart.n(width) + " " + SvgChart.n(height),
+                "width", SvgChart.n(width), "height", SvgChart.n(height), "role", "img");
+        w.element("title", title);
+        w.element("text", columnKey, "class", "axis-title", "x", SvgChart.n(left + cw * columnValues.size() / 2), "y", "14",
+                "text-anchor", "middle");
+        w.element("text", rowKey, "class", "axis-title", "x", SvgChart.n(left - 10), "y", SvgChart.n(top - 6),
+                "text-anchor", "end");
+        for (int j = 0; j < columnValues.size(); j++) {
+            w.element("text", columnValues.get(j), "class", "tick", "x", SvgChart.n(left + cw * (j + 0.5)), "y",
+                    SvgChart.n(top - 8), "text-anchor", "middle");
+        }
+        for (int i = 0; i < rowValues.size(); i++) {
+            double y = top + ch * i;
+            w.element("text", rowValues.get(i), "class", "tick", "x", SvgChart.n(left - 10), "y", SvgChart.n(y + ch / 2 + 4),
+                    "text-anchor", "end");
+            for (int j = 0; j < columnValues.size(); j++) {
+                double v = cells[i][j];
+                double x = left + cw * j;
+                if (!Double.isFinite(v)) {
+                    w.empty("rect", "class", "cell empty", "x", SvgChart.n(x), "y", SvgChart.n(y), "width",
+                            SvgChart.n(cw - 2), "height", SvgChart.n(ch - 2));
+                    continue;
+                }
+                double t = hi > lo ? (log ? Math.log(v / lo) / Math.log(hi / lo) : (v - lo) / (hi - lo)) : 0.5;
+                w.open("rect", "class", "cell", "x", SvgChart.n(x), "y", SvgChart.n(y), "width", SvgChart.n(cw - 2),
+                        "height", SvgChart.n(ch - 2), "fill", Palette.sequential(t));
+                w.element("title", rowKey + " " + rowValues.get(i) + ", " + columnKey + " " + columnValues.get(j) + ": "
+                        + Format.sig(v));
+                w.close("rect");
+                w.element("text", Format.sig(v), "class", Palette.darkCell(t) ? "cell-text light" : "cell-text", "x",
+                        SvgChart.n(x + cw / 2 - 1), "y", SvgChart.n(y + ch / 2 + 3), "text-anchor", "middle");
+            }
+        }
+        w.close("svg");
+        w.element("figcaption", title + " (darker is smaller)");
+        w.close("figure");
+    }
+}

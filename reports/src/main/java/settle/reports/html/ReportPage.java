@@ -1,0 +1,749 @@
+package settle.reports.html;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import settle.reports.metrics.ArmLevel;
+import settle.reports.metrics.StudyAnalysis;
+import settle.reports.stats.ArmSummary;
+import settle.reports.stats.Comparison;
+import settle.reports.stats.Interval;
+import settle.reports.stats.VerdictSentence;
+import settle.reports.study.Manifest;
+import settle.reports.study.Metric;
+import settle.reports.study.Prediction;
+import settle.reports.study.Replicate;
+import settle.reports.study.Study;
+
+/**
+ * {@code report.html}: one self-contained page (inline CSS and SVG, no script, a Content-Security-Policy
+ * that forbids every fetch) with the sections of {@link #SECTIONS}, each a {@code <section>} with that id.
+ * Every string from the study (arm, feature and class names, the plan text, paths) is escaped.
+ */
+public final class ReportPage {
+
+    /** Section ids, in page order. */
+    public static final List<String> SECTIONS = List.of("verdict", "rates", "objective", "distance", "wander",
+            "tail-cloud", "grid", "replicates", "provenance", "limits");
+
+    /** The Content-Security-Policy of the page: nothing may be fetched; inline style and data images only. */
+    public static final String CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:";
+
+    private static final Pattern STUDY = Pattern.compile("(?m)^study:\\s*\"?([^\"\\r\\n]*?)\"?\\s*$");
+    private static final Pattern GRID_ARM = Pattern.compile("^(.*)\\[([^\\[\\]]+)\\]$");
+
+    private final StudyAnalysis analysis;
+    private final Study study;
+    private final Manifest manifest;
+    private final HtmlWriter w;
+
+    private ReportPage(StudyAnalysis analysis) {
+        this.analysis = analysis;
+        this.study = analysis.study();
+        this.manifest = study.manifest();
+        this.w = new HtmlWriter(1 << 18);
+    }
+
+    /**
+     * @param analysis the analysed study
+     * @return the page
+     */
+    public static String render(StudyAnalysis analysis) {
+        ReportPage page = new ReportPage(analysis);
+        page.page();
+        return page.w.toString();
+    }
+
+    /** @return the study's name from the plan text, or the directory's name */
+    static String studyName(Study study) {
+        Matcher m = STUDY.matcher(study.planText());
+        if (m.find() && !m.group(1).isBlank()) {
+            return m.group(1).trim();
+        }
+        return String.valueOf(study.directory().toAbsolutePath().normalize().getFileName());
+    }
+
+    private void page() {
+        String name = studyName(study);
+        w.doctype().open("html", "lang", "en").newline();
+        w.open("head").newline();
+        w.empty("meta", "charset", "utf-8").newline();
+        w.empty("meta", "http-equiv", "Content-Security-Policy", "content", CSP).newline();
+        w.empty("meta", "name", "viewport", "content", "width=device-width, initial-scale=1").newline();
+        w.element("title", "settle report: " + name).newline();
+        w.styleSheet(Css.SHEET).newline();
+        w.close("head").newline();
+        w.open("body").newline();
+        w.open("header");
+        w.element("h1", "Study " + name + ": does decay shrink the noise ball?");
+        w.open("p", "class", "lede");
+        int epochs = epochs();
+        w.text(manifest.model() + " on " + manifest.dataSource() + " (" + manifest.trainRows() + " training rows, "
+                + manifest.testRows() + " test rows); " + study.armCount() + " arms × " + study.replicateCount()
+                + " seed-paired replicates; " + epochs + " epochs of " + manifest.updatesPerEpoch() + " updates. "
+                + "Baseline arm: " + manifest.baseline() + ".");
+        w.close("p");
+        if (study.missing() > 0 || study.diverged() > 0) {
+            w.open("p", "class", "warning");
+            List<String> parts = new ArrayList<>();
+            if (study.missing() > 0) {
+                parts.add(study.missing() + " replicate" + (study.missing() == 1 ? " is" : "s are")
+                        + " missing: this is a partial study (run it again to finish it); the verdict pairs the "
+                        + analysis.pairedReplicates().length + " replicate indices present in every arm");
+            }
+            if (study.diverged() > 0) {
+                parts.add(study.diverged() + " replicate" + (study.diverged() == 1 ? "" : "s")
+                        + " diverged: they count as the worst value in the verdict and are left out of summaries");
+            }
+            w.text(String.join("; ", parts) + ".");
+            w.close("p");
+        }
+        w.open("nav");
+        w.open("ul");
+        String[] titles = {"Verdict", "Rates", "Training objective", "Distance to θ*", "Wander per replicate",
+            "Tail cloud", "Grid", "Replicates", "Provenance", "Limits"};
+        for (int i = 0; i < SECTIONS.size(); i++) {
+            w.open("li").element("a", titles[i], "href", "#" + SECTIONS.get(i)).close("li");
+        }
+        w.close("ul");
+        w.close("nav");
+        w.close("header").newline();
+        w.open("main").newline();
+        verdict();
+        rates();
+        objective();
+        distance();
+        wander();
+        cloud();
+        grid();
+        replicates();
+        provenance();
+        limits();
+        w.close("main").newline();
+        w.open("footer");
+        w.text("Written by settle " + manifest.toolVersion() + " from the study directory; rebuild with "
+                + "settle report " + study.directory() + ".");
+        w.close("footer").newline();
+        w.close("body").newline();
+        w.close("html").newline();
+    }
+
+    private int epochs() {
+        int e = 0;
+        for (List<Replicate> arm : study.replicates()) {
+            for (Replicate r : arm) {
+                if (r != null) {
+                    e = Math.max(e, r.epochs().size());
+                }
+            }
+        }
+        return e;
+    }
+
+    private void section(String id, String title) {
+        w.open("section", "id", id).newline();
+        w.element("h2", title);
+    }
+
+    private void endSection() {
+        w.close("section").newline();
+    }
+
+    private void para(String text) {
+        w.element("p", text);
+    }
+
+    // ---------------------------------------------------------------- verdict
+
+    private void verdict() {
+        section("verdict", "Verdict");
+        int base = manifest.baselineIndex();
+        String baseline = manifest.baseline();
+        List<Comparison> primary = analysis.comparisons(StudyAnalysis.PRIMARY);
+        if (study.armCount() == 1) {
+            para("The plan has only the baseline arm " + baseline + ": there is nothing to compare it with.");
+        } else if (primary.isEmpty()) {
+            para("No replicate index is present in every arm, so no arm can be compared with the baseline.");
+        } else {
+            pick(base);
+            w.element("h3", "Each arm against the baseline " + baseline);
+            w.open("ul", "class", "sentences");
+            for (int a = 0; a < study.armCount(); a++) {
+                if (a == base) {
+                    continue;
+                }
+                w.open("li");
+                w.element("strong", study.armName(a));
+                Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
+                w.text(" " + VerdictSentence.render(c) + ".");
+                List<String> more = new ArrayList<>();
+                for (Metric m : StudyAnalysis.COMPARED) {
+                    Comparison d = m == StudyAnalysis.PRIMARY ? null : analysis.comparison(m, a);
+                    if (d != null) {
+                        more.add(withMetric(m, VerdictSentence.render(d)));
+                    }
+                }
+                if (!more.isEmpty()) {
+                    w.open("ul", "class", "descriptive");
+                    for (String s : more) {
+                        w.element("li", s);
+                    }
+                    w.close("ul");
+                }
+                w.close("li");
+            }
+            w.close("ul");
+            int n = analysis.pairedReplicates().length;
+            int needed = analysis.replicatesNeeded();
+            int m = analysis.comparedArms();
+            String power = "With " + m + " arm" + (m == 1 ? "" : "s") + " compared with the baseline (Holm across arms),"
+                    + " the smallest adjusted p an exact signed-rank test can reach with n pairs is " + m + "·2/2ⁿ, so a"
+                    + " verdict needs at least " + needed + " replicates; this study pairs " + n + ".";
+            if (n < needed) {
+                power += " It has fewer: \"no difference detected\" here is not evidence that there is none.";
+            }
+            w.element("p", power, "class", "note");
+            w.element("p", "Tail radius is the primary metric: the test is the exact Wilcoxon signed-rank test on the "
+                    + "paired log-ratios, Holm-adjusted across arms; the effect is the Hodges–Lehmann estimate of "
+                    + "the log-ratio shown as a % change with its exact 95 % interval (a percentile bootstrap "
+                    + "interval, 10 000 resamples, beside it in the table). The other metrics are descriptive. A "
+                    + "diverged replicate counts as worse than every finite value.", "class", "note");
+        }
+        verdictTable(base);
+        endSection();
+    }
+
+    private void pick(int base) {
+        int best = -1;
+        double bestMedian = Double.POSITIVE_INFINITY;
+        ArmSummary[] radius = analysis.summaries(StudyAnalysis.PRIMARY);
+        for (int a = 0; a < study.armCount(); a++) {
+            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
+            if (c != null && c.detected() && !c.armLarger() && radius[a].median() < bestMedian) {
+                best = a;
+                bestMedian = radius[a].median();
+            }
+        }
+        w.open("div", "class", "pick");
+        if (best < 0) {
+            int lowest = 0;
+            for (int a = 1; a < study.armCount(); a++) {
+                if (radius[a].median() < radius[lowest].median()) {
+                    lowest = a;
+                }
+            }
+            w.open("p");
+            w.text("No arm wanders detectably less than the baseline ");
+            w.element("strong", manifest.baseline());
+            w.text(" (tail radius, Holm-adjusted p ≤ 0.05). The lowest median tail radius is "
+                    + Format.sig(radius[lowest].median()) + ", of ");
+            w.element("strong", study.armName(lowest));
+            w.text(". Keep the baseline, or run more replicates"
+                    + (analysis.pairedReplicates().length < analysis.replicatesNeeded()
+                            ? " (at least " + analysis.replicatesNeeded() + " are needed for a verdict at this number of arms)"
+                            : "") + ".");
+            w.close("p");
+        } else {
+            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, best);
+            w.open("p");
+            w.text("For low wander, pick ");
+            w.element("strong", study.armName(best));
+            w.text(": among the arms that detectably wander less than the baseline " + manifest.baseline()
+                    + ", it has the smallest median tail radius (" + Format.sig(radius[best].median()) + " against "
+                    + Format.sig(radius[base].median()) + "); it " + VerdictSentence.render(c) + ".");
+            w.close("p");
+            w.open("p");
+            w.text("At what cost: ");
+            List<String> costs = new ArrayList<>();
+            for (Metric m : List.of(Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.FINAL_GAP)) {
+                Comparison d = analysis.comparison(m, best);
+                ArmSummary[] s = analysis.summaries(m);
+                if (d == null || s == null) {
+                    continue;
+                }
+ costs.add(withMetric(m, VerdictSentence.render(d)) + " (median " + Format.sig(s[best].median())
+                        + " against " + Format.sig(s[base].median()) + ")");
+            }
+            w.text(costs.isEmpty() ? "no test split or reference to measure it on." : String.join("; ", costs) + ".");
+            w.close("p");
+        }
+        w.close("div");
+    }
+
+    /** @return the sentence, prefixed with the metric's name when it does not say it */
+    private static String withMetric(Metric m, String sentence) {
+        return sentence.contains(m.words()) ? sentence : m.words() + ": " + sentence;
+    }
+
+    private void verdictTable(int base) {
+        w.open("div", "class", "scroll");
+        w.open("table", "class", "verdict-table");
+        w.open("caption").text("Per arm: medians over finished replicates [interquartile range]; changes against the "
+                + "baseline paired by seed; arm-level spreads with joint bootstrap 95 % intervals.").close("caption");
+        w.open("thead").open("tr");
+        String[] heads = {"arm", "tail radius", "change", "exact 95 % CI", "bootstrap 95 % CI", "adjusted p (p)",
+            "P(beats baseline)", "final gap", "test loss", "test accuracy", "seed spread", "prediction spread",
+            "disagreement"};
+        for (String h : heads) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead");
+        w.open("tbody");
+        for (int a = 0; a < study.armCount(); a++) {
+            w.open("tr", "class", a == base ? "baseline" : null);
+            w.open("th", "scope", "row", "class", "arm");
+            swatch(a);
+            w.text(study.armName(a) + (a == base ? " (baseline)" : ""));
+            w.close("th");
+            w.element("td", summaryCell(StudyAnalysis.PRIMARY, a), "class", "num");
+            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
+            if (c == null) {
+                for (int i = 0; i < 5; i++) {
+                    w.element("td", a == base ? "" : "—", "class", "num");
+                }
+            } else {
+                w.element("td", c.effectPairs() > 0 ? Format.percent(c.percentChange()) : "—", "class", "num");
+                w.element("td", range(c.exact()), "class", "num");
+                w.element("td", range(c.bootstrap()), "class", "num");
+                w.element("td", Format.p(c.pAdjusted()) + " (" + Format.p(c.p()) + ")", "class",
+                        c.detected() ? "num detected" : "num");
+                w.element("td", Format.sig(c.probabilityBetter()), "class", "num");
+            }
+            w.element("td", summaryCell(Metric.FINAL_GAP, a), "class", "num");
+            w.element("td", summaryCell(Metric.TEST_LOSS, a), "class", "num");
+            w.element("td", summaryCell(Metric.TEST_ACCURACY, a), "class", "num");
+            w.element("td", levelCell(analysis.seedSpread(a)), "class", "num");
+            w.element("td", levelCell(analysis.predictionSpread(a)), "class", "num");
+            w.element("td", levelCell(analysis.disagreement(a)), "class", "num");
+            w.close("tr");
+        }
+        w.close("tbody");
+        w.close("table");
+        w.close("div");
+    }
+
+    private void swatch(int a) {
+        Palette.Style s = Palette.style(a);
+        w.open("svg", "width", "14", "height", "14", "class", "swatch", "aria-hidden", "true");
+        SvgChart.marker(w, 7, 7, 4, s.shape(), s.colour(), true, "swatch-mark", null);
+        w.close("svg");
+    }
+
+    private static String range(Interval i) {
+        return i.isDefined() ? Format.percentRange(Comparison.percent(i.low()), Comparison.percent(i.high())) : "—";
+    }
+
+    private String summaryCell(Metric m, int a) {
+        ArmSummary[] s = analysis.summaries(m);
+        if (s == null) {
+            return "—";
+        }
+        ArmSummary x = s[a];
+        return Format.sig(x.median()) + " [" + Format.sig(x.interquartileRange()) + "]";
+    }
+
+    private static String levelCell(ArmLevel v) {
+        if (!Double.isFinite(v.value())) {
+            return "—";
+        }
+        String s = Format.sig(v.value());
+        if (v.interval().isDefined()) {
+            s += " (" + Format.sig(v.interval().low()) + "–" + Format.sig(v.interval().high()) + ")";
+        }
+        return s;
+    }
+
+    // ---------------------------------------------------------------- rates
+
+    private void rates() {
+        section("rates", "Learning rate of every arm");
+        para("Counter convention: epoch 1 is the first pass over the training data and update 1 the first update; "
+                + "the rate of update u is drawn at epoch 1 + (u − 1)/U with U = " + manifest.updatesPerEpoch()
+                + " updates per epoch. A schedule read per epoch shows its epoch-1 value from the start, not its "
+                + "rate parameter: reciprocal decay α0/(1 + k·n) starts at α0/(1 + k). Replicate 1's rates are "
+                + "drawn (every replicate has the same unless the schedule reads losses, as plateau does).");
+        Figures.rates(w, study);
+        w.open("table", "class", "compact");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"arm", "first rate", "last rate", "Σα", "Σα²", "updates"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int a = 0; a < study.armCount(); a++) {
+            Replicate r = Figures.first(study, a);
+            w.open("tr");
+            w.open("th", "scope", "row");
+            swatch(a);
+            w.text(study.armName(a));
+            w.close("th");
+            double[] rates = r == null ? new double[0] : r.rates();
+            double sum = 0;
+            double sq = 0;
+            for (double v : rates) {
+                if (Double.isFinite(v)) {
+                    sum += v;
+                    sq += v * v;
+                }
+            }
+            w.element("td", rates.length == 0 ? "—" : Format.sig(rates[0]), "class", "num");
+            w.element("td", rates.length == 0 ? "—" : Format.sig(rates[rates.length - 1]), "class", "num");
+            w.element("td", Format.sig(sum), "class", "num");
+            w.element("td", Format.sig(sq), "class", "num");
+            w.element("td", Integer.toString(rates.length), "class", "num");
+            w.close("tr");
+        }
+        w.close("tbody").close("table");
+        endSection();
+    }
+
+    // ---------------------------------------------------------------- objective, distance
+
+    private void objective() {
+        section("objective", "Training objective per epoch");
+        para(study.convex()
+                ? "The full-batch training objective F(θ) at the end of each epoch, minus F(θ*) = "
+                        + Format.sig(study.reference().objective()) + " (log scale): the median over each arm's finished "
+                        + "replicates as a line, the interquartile range as a band."
+                : "The full-batch training objective F(θ) at the end of each epoch: the median over each arm's finished "
+                        + "replicates as a line, the interquartile range as a band.");
+        Figures.objective(w, study);
+        endSection();
+    }
+
+    private void distance() {
+        section("distance", "Distance to θ*: measured and predicted");
+        if (!study.convex()) {
+            para("Not available: the model is not convex, so there is no reference minimiser θ* to measure against.");
+            endSection();
+            return;
+        }
+        Prediction label = null;
+        String skipped = null;
+        for (List<Replicate> arm : study.replicates()) {
+            for (Replicate r : arm) {
+                if (r == null) {
+                    continue;
+                }
+                if (r.prediction().predicted() && label == null) {
+                    label = r.prediction();
+                } else if (!r.prediction().predicted() && skipped == null) {
+                    skipped = r.prediction().skipped();
+                }
+            }
+        }
+        para("Squared distances are compared: the measured mean over replicates of ‖θ_t − θ*‖² at the end of each epoch "
+                + "(solid, arm colour) beside the predicted E‖θ_t − θ*‖² from the linearised mean and covariance "
+                + "recursion for each replicate's own rate sequence, averaged over the replicates (dashed). The "
+                + "prediction is set against the distance to θ*, not against the tail radius: a short tail sees only "
+                + "part of the stationary spread.");
+        if (label != null) {
+            w.open("p", "class", "note");
+            w.element("strong", "What the prediction is: ");
+            w.text(label.label());
+            w.close("p");
+        }
+        if (skipped != null) {
+            w.open("p", "class", "note");
+            w.element("strong", label == null ? "Prediction skipped: " : "Prediction skipped for some replicates: ");
+            w.text(skipped);
+            w.close("p");
+        }
+        Figures.distance(w, study);
+        w.open("table", "class", "compact");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"arm", "measured tail distance² (mean)", "predicted over the tail (mean)",
+            "measured / predicted", "largest α·λmax"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int a = 0; a < study.armCount(); a++) {
+            double measured = 0;
+            int nm = 0;
+            double predicted = 0;
+            int np = 0;
+            double largest = Double.NaN;
+            for (Replicate r : study.replicates().get(a)) {
+                if (r == null || r.diverged()) {
+                    continue;
+                }
+                double t = r.metric(Metric.TAIL_DISTANCE);
+                if (Double.isFinite(t)) {
+                    measured += t * t;
+                    nm++;
+                }
+                if (r.prediction().predicted() && Double.isFinite(r.prediction().tailDistanceSq())) {
+                    predicted += r.prediction().tailDistanceSq();
+                    np++;
+                    largest = Double.isNaN(largest) ? r.prediction().largestRateTimesCurvature()
+                            : Math.max(largest, r.prediction().largestRateTimesCurvature());
+                }
+            }
+            measured = nm == 0 ? Double.NaN : measured / nm;
+            predicted = np == 0 ? Double.NaN : predicted / np;
+            w.open("tr");
+            w.open("th", "scope", "row");
+            swatch(a);
+            w.text(study.armName(a));
+            w.close("th");
+            w.element("td", Format.sig(measured), "class", "num");
+            w.element("td", Format.sig(predicted), "class", "num");
+            w.element("td", Format.sig(measured / predicted), "class", "num");
+            w.element("td", Format.sig(largest), "class", "num");
+            w.close("tr");
+        }
+        w.close("tbody").close("table");
+        endSection();
+    }
+
+    // ---------------------------------------------------------------- wander
+
+    private void wander() {
+        section("wander", "Wander of every replicate");
+        para("Each mark is one replicate (hover for its number and value); the bar is the arm's median. Tail radius: "
+                + "sqrt((1/K) Σ ‖θ_(k) − θ̄_K‖²) over the K tail snapshots, the noise ball seen inside one run"
+                + (study.convex() ? ". Final gap: F(θ_F) − F(θ*), θ_F the last iterate (the tail average for "
+                        + "averaged arms); values below 1e-12 are drawn at 1e-12." : ".")
+                + " Diverged replicates are drawn as red × marks right of the plot.");
+        w.element("h3", "Tail radius (the primary metric)");
+        Figures.strip(w, analysis, Metric.TAIL_RADIUS, "strip-tail-radius");
+        if (analysis.available().contains(Metric.FINAL_GAP)) {
+            w.element("h3", "Final gap");
+            Figures.strip(w, analysis, Metric.FINAL_GAP, "strip-final-gap");
+        } else {
+            para("Final gap: not available (no reference minimiser).");
+        }
+        Figures.legend(w, study, false);
+        endSection();
+    }
+
+    private void cloud() {
+        section("tail-cloud", "Tail cloud of every arm");
+        String reason = Figures.cloudSkipReason(study);
+        if (reason != null) {
+            para("Not drawn: " + reason + ".");
+        } else {
+            para("The tail snapshots of every arm projected onto the two principal axes of all arms' tail snapshots "
+                    + "pooled (at most " + Figures.CLOUD_POINTS_PER_ARM + " per arm, evenly over its replicates); every "
+                    + "panel shares the axes, so the clouds' sizes compare directly"
+                    + (study.convex() ? "; + marks θ*." : "."));
+            Figures.cloud(w, study);
+        }
+        endSection();
+    }
+
+    // ---------------------------------------------------------------- grid
+
+    /** A grid arm name {@code base[key=value,key=value]} parsed, or null. */
+    record GridName(String base, Map<String, String> values) {
+        static GridName parse(String name) {
+            Matcher m = GRID_ARM.matcher(name);
+            if (!m.matches()) {
+                return null;
+            }
+            Map<String, String> values = new LinkedHashMap<>();
+            for (String part : m.group(2).split(",")) {
+                int eq = part.indexOf('=');
+                if (eq <= 0) {
+                    return null;
+                }
+                values.put(part.substring(0, eq).trim(), part.substring(eq + 1).trim());
+            }
+            return new GridName(m.group(1), values);
+        }
+    }
+
+    private void grid() {
+        section("grid", "Grid");
+        Map<String, List<Integer>> groups = new LinkedHashMap<>();
+        Map<Integer, GridName> parsed = new LinkedHashMap<>();
+        for (int a = 0; a < study.armCount(); a++) {
+            GridName g = GridName.parse(study.armName(a));
+            if (g != null) {
+                parsed.put(a, g);
+                groups.computeIfAbsent(g.base() + "\u0000" + String.join("\u0000", g.values().keySet()),
+                        k -> new ArrayList<>()).add(a);
+            }
+        }
+        boolean drawn = false;
+        int figure = 0;
+        for (List<Integer> members : groups.values()) {
+            if (members.size() < 2) {
+                continue;
+            }
+            GridName first = parsed.get(members.get(0));
+            List<String> keys = new ArrayList<>(first.values().keySet());
+            if (keys.size() > 2) {
+                para("Arm " + first.base() + " is expanded over " + keys.size() + " keys (" + String.join(", ", keys)
+                        + "): heatmaps are drawn for grids of one or two keys; see the verdict table.");
+                continue;
+            }
+            String rowKey = keys.get(0);
+            String columnKey = keys.size() == 2 ? keys.get(1) : "";
+            List<String> rows = new ArrayList<>();
+            List<String> columns = new ArrayList<>();
+            for (int a : members) {
+                GridName g = parsed.get(a);
+                String r = g.values().get(rowKey);
+                String c = keys.size() == 2 ? g.values().get(columnKey) : "";
+                if (!rows.contains(r)) {
+                    rows.add(r);
+                }
+                if (!columns.contains(c)) {
+                    columns.add(c);
+                }
+            }
+            w.element("h3", "Arm " + first.base() + " over " + String.join(" × ", keys));
+            w.open("div", "class", "multiples");
+            for (Metric m : List.of(Metric.TAIL_RADIUS, Metric.FINAL_GAP, Metric.TEST_LOSS, Metric.TEST_ACCURACY)) {
+                ArmSummary[] s = analysis.summaries(m);
+                if (s == null) {
+                    continue;
+                }
+                double[][] cells = new double[rows.size()][columns.size()];
+                for (double[] row : cells) {
+                    java.util.Arrays.fill(row, Double.NaN);
+                }
+                for (int a : members) {
+                    GridName g = parsed.get(a);
+                    int i = rows.indexOf(g.values().get(rowKey));
+                    int j = columns.indexOf(keys.size() == 2 ? g.values().get(columnKey) : "");
+                    cells[i][j] = s[a].median();
+                }
+                figure++;
+                Figures.heatmap(w, "heatmap-" + figure, "median " + m.words(), rowKey, rows, columnKey, columns, cells);
+            }
+            w.close("div");
+            drawn = true;
+        }
+        if (!drawn) {
+            para("The plan has no grid: no arm was expanded over hyperparameters (grid arms are named like "
+                    + "reciprocal[rate=0.1,decay=0.3]).");
+        }
+        endSection();
+    }
+
+    // ---------------------------------------------------------------- replicates
+
+    private void replicates() {
+        section("replicates", "Every replicate");
+        para("Replicate k of every arm shares its seeds (initial weights and mini-batch order). "
+                + "Values at the final iterate (the tail average for averaged arms).");
+        List<Metric> columns = analysis.available();
+        w.open("div", "class", "scroll tall");
+        w.open("table", "class", "replicate-table");
+        w.open("thead").open("tr");
+        w.element("th", "arm", "scope", "col");
+        w.element("th", "replicate", "scope", "col");
+        w.element("th", "status", "scope", "col");
+        for (Metric m : columns) {
+            w.element("th", m.words(), "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int a = 0; a < study.armCount(); a++) {
+            for (int k = 0; k < study.replicateCount(); k++) {
+                Replicate r = study.replicate(a, k);
+                w.open("tr", "class", r == null ? "missing" : r.diverged() ? "diverged" : null);
+                w.element("td", study.armName(a));
+                w.element("td", Integer.toString(k + 1), "class", "num");
+                w.element("td", r == null ? "missing" : r.diverged() ? "diverged at update " + r.divergedAtUpdate()
+                        : r.status());
+                for (Metric m : columns) {
+                    w.element("td", r == null || r.diverged() ? "—" : Format.sig(r.metric(m)), "class", "num");
+                }
+                w.close("tr");
+            }
+        }
+        w.close("tbody").close("table");
+        w.close("div");
+        endSection();
+    }
+
+    // ---------------------------------------------------------------- provenance, limits
+
+    private void provenance() {
+        section("provenance", "Provenance");
+        String dir = study.directory().toString();
+        w.open("p");
+        w.text("Reproduce this study (the plan below is the resolved plan, every default filled in): ");
+        w.element("code", "settle run " + study.directory().resolve("plan.yaml") + " --out " + dir);
+        w.text("; rebuild this report: ");
+        w.element("code", "settle report " + dir);
+        w.text(".");
+        w.close("p");
+        w.open("dl", "class", "facts");
+        fact("tool", "settle " + manifest.toolVersion() + (manifest.gitCommit().isEmpty() ? ""
+                : ", commit " + manifest.gitCommit()));
+        fact("command recorded", String.join(" ", manifest.command()));
+        fact("JVM", manifest.jvm());
+        fact("CPU", manifest.cpu());
+        fact("executor", manifest.executor() + " (" + manifest.threads() + " threads)");
+        fact("started – ended", manifest.started() + " – " + (manifest.ended().isEmpty() ? "(not ended)" : manifest.ended()));
+        fact("random generator", manifest.generator() + ", root seed " + manifest.rootSeed());
+        fact("plan SHA-256", manifest.planSha256());
+        fact("data SHA-256", manifest.dataSha256());
+        fact("split SHA-256", manifest.splitSha256());
+        fact("data", manifest.dataSource() + ": " + manifest.rows() + " rows, " + manifest.trainRows() + " training, "
+                + manifest.testRows() + " test");
+        fact("features", String.join(", ", manifest.featureNames()));
+        fact("classes", String.join(", ", manifest.classNames()));
+        fact("model", manifest.model() + ", " + manifest.parameters() + " parameters");
+        if (study.convex()) {
+            fact("reference minimiser", study.reference().method() + ": F(θ*) = " + Format.sig(study.reference().objective())
+                    + ", gradient norm " + Format.sig(study.reference().gradientNorm())
+                    + (Double.isFinite(study.reference().stabilityBound()) ? ", stability bound 2/λmax = "
+                            + Format.sig(study.reference().stabilityBound()) : ""));
+        }
+        w.close("dl");
+        w.element("h3", "Seeds of each replicate (shared by every arm)");
+        w.open("div", "class", "scroll");
+        w.open("table", "class", "compact");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"replicate", "initialisation seed", "sampling seed"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int k = 0; k < study.replicateCount(); k++) {
+            Replicate r = null;
+            for (int a = 0; a < study.armCount() && r == null; a++) {
+                r = study.replicate(a, k);
+            }
+            w.open("tr");
+            w.element("td", Integer.toString(k + 1), "class", "num");
+            w.element("td", r == null ? "—" : Long.toString(r.initialisationSeed()), "class", "num");
+            w.element("td", r == null ? "—" : Long.toString(r.samplingSeed()), "class", "num");
+            w.close("tr");
+        }
+        w.close("tbody").close("table");
+        w.close("div");
+        w.element("h3", "The plan (plan.yaml)");
+        w.element("pre", study.planText(), "class", "plan");
+        endSection();
+    }
+
+    private void fact(String term, String value) {
+        w.element("dt", term);
+        w.element("dd", value);
+    }
+
+    private void limits() {
+        section("limits", "Limits of this result");
+        w.open("ul");
+        w.element("li", "It holds for this dataset (" + manifest.dataSource() + "), this model (" + manifest.model()
+                + "), this batch size, number of epochs and sampling, and these arms only: another dataset, model or "
+                + "budget can rank the schedules differently.");
+        w.element("li", "It rests on " + study.replicateCount() + " replicates per arm. Few replicates give weak "
+                + "verdicts: with " + analysis.comparedArms() + " arm(s) compared, at least "
+                + analysis.replicatesNeeded() + " are needed before any difference can be declared, and \"no "
+                + "difference detected\" is never evidence of no difference.");
+        w.element("li", "The tail radius measures the wander inside the last " + "tail of each run, from evenly "
+                + "spaced snapshots; a short tail under a small rate sees only part of the stationary noise ball.");
+        w.element("li", "The predicted noise ball linearises SGD at θ*: exact only for a quadratic objective with "
+                + "state-independent noise, first-order for logistic regression, approximate under reshuffling.");
+        w.element("li", "Test metrics are measured on one test split of " + manifest.testRows() + " rows.");
+        w.close("ul");
+        endSection();
+    }
+}

@@ -1,0 +1,263 @@
+package settle.reports.html;
+
+/**
+ * An inline SVG chart on two numeric axes: frame, grid, ticks and axis titles, then lines, bands and marks
+ * in data coordinates. Every text goes through the escaping {@link HtmlWriter}.
+ */
+public final class SvgChart {
+
+    private final HtmlWriter w;
+    private final double width;
+    private final double height;
+    private final double left;
+    private final double right;
+    private final double top;
+    private final double bottom;
+    private final Axis x;
+    private final Axis y;
+    private boolean ended;
+
+    /**
+     * Starts a chart and draws its frame.
+     *
+     * @param w where to write
+     * @param id the svg element's id (or null)
+     * @param cssClass the svg element's class
+     * @param width width in px
+     * @param height height in px
+     * @param left left margin in px (room for tick labels and the y title)
+     * @param x the horizontal axis
+     * @param y the vertical axis
+     * @param description what the chart shows, for screen readers (its {@code <title>})
+     */
+    public SvgChart(HtmlWriter w, String id, String cssClass, double width, double height, double left, Axis x, Axis y,
+            String description) {
+        this.w = w;
+        this.width = width;
+        this.height = height;
+        this.left = left;
+        this.right = 16;
+        this.top = 12;
+        this.bottom = 46;
+        this.x = x;
+        this.y = y;
+        w.open("svg", "id", id, "class", cssClass, "viewBox",
+                "0 0 " + n(width) + " " + n(height), "width", n(width), "height", n(height), "role", "img");
+        w.element("title", description);
+        frame();
+    }
+
+    /** @return the horizontal pixel of a data value */
+    public double px(double v) {
+        return left + x.map(v) * (width - left - right);
+    }
+
+    /** @return the vertical pixel of a data value */
+    public double py(double v) {
+        return height - bottom - y.map(v) * (height - top - bottom);
+    }
+
+    /** @return the pixel of the plot's top edge */
+    public double plotTop() {
+        return top;
+    }
+
+    /** @return the pixel of the plot's bottom edge */
+    public double plotBottom() {
+        return height - bottom;
+    }
+
+    /** @return the pixel of the plot's left edge */
+    public double plotLeft() {
+        return left;
+    }
+
+    /** @return the pixel of the plot's right edge */
+    public double plotRight() {
+        return width - right;
+    }
+
+    private void frame() {
+        double x0 = left;
+        double x1 = width - right;
+        double y0 = height - bottom;
+        double y1 = top;
+        w.open("g", "class", "axes");
+        for (double t : y.label() == null ? new double[0] : y.ticks()) {
+            double p = py(t);
+            w.empty("line", "class", "grid", "x1", n(x0), "x2", n(x1), "y1", n(p), "y2", n(p));
+            w.element("text", Axis.format(t), "class", "tick", "x", n(x0 - 5), "y", n(p + 4), "text-anchor", "end");
+        }
+        for (double t : x.ticks()) {
+            double p = px(t);
+            w.empty("line", "class", "grid", "x1", n(p), "x2", n(p), "y1", n(y0), "y2", n(y1));
+            w.element("text", Axis.format(t), "class", "tick", "x", n(p), "y", n(y0 + 15), "text-anchor", "middle");
+        }
+        w.empty("rect", "class", "frame", "x", n(x0), "y", n(y1), "width", n(x1 - x0), "height", n(y0 - y1));
+        w.element("text", x.label() + (x.isLog() ? " (log scale)" : ""), "class", "axis-title", "x",
+                n((x0 + x1) / 2), "y", n(height - 8), "text-anchor", "middle");
+        if (y.label() != null) {
+            double cy = (y0 + y1) / 2;
+            w.element("text", y.label() + (y.isLog() ? " (log scale)" : ""), "class", "axis-title", "x", "12", "y",
+                    n(cy), "text-anchor", "middle", "transform", "rotate(-90 12 " + n(cy) + ")");
+        }
+        w.close("g");
+    }
+
+    /**
+     * A line through the points whose coordinates are both drawable (NaN or, on a log axis, non-positive
+     * values break the line).
+     */
+    public void line(double[] xs, double[] ys, Palette.Style style, String cssClass) {
+        StringBuilder d = new StringBuilder(xs.length * 14);
+        boolean pen = false;
+        for (int i = 0; i < xs.length; i++) {
+            double a = px(xs[i]);
+            double b = py(ys[i]);
+            if (!Double.isFinite(a) || !Double.isFinite(b)) {
+                pen = false;
+                continue;
+            }
+            d.append(pen ? 'L' : 'M').append(n(a)).append(' ').append(n(clampY(b))).append(' ');
+            pen = true;
+        }
+        if (d.length() == 0) {
+            return;
+        }
+        w.empty("path", "class", cssClass, "d", d.toString().trim(), "fill", "none", "stroke", style.colour(),
+                "stroke-dasharray", style.dash());
+    }
+
+    /** A filled band between lo and hi (the IQR of a median line). */
+    public void band(double[] xs, double[] lo, double[] hi, Palette.Style style, String cssClass) {
+        StringBuilder d = new StringBuilder(xs.length * 28);
+        int count = 0;
+        for (int i = 0; i < xs.length; i++) {
+            double a = px(xs[i]);
+            double b = py(hi[i]);
+            if (Double.isFinite(a) && Double.isFinite(b)) {
+                d.append(count == 0 ? 'M' : 'L').append(n(a)).append(' ').append(n(clampY(b))).append(' ');
+                count++;
+            }
+        }
+        for (int i = xs.length - 1; i >= 0; i--) {
+            double a = px(xs[i]);
+            double b = py(lo[i]);
+            if (Double.isFinite(a) && Double.isFinite(b)) {
+                d.append('L').append(n(a)).append(' ').append(n(clampY(b))).append(' ');
+            }
+        }
+        if (count < 2) {
+            return;
+        }
+        w.empty("path", "class", cssClass, "d", d.append('Z').toString(), "fill", style.colour(), "stroke", "none");
+    }
+
+    /** A horizontal reference line at data value v with a label at its right end. */
+    public void horizontal(double v, String label) {
+        double b = py(v);
+        if (!Double.isFinite(b) || b < top || b > height - bottom) {
+            return;
+        }
+        w.empty("line", "class", "reference", "x1", n(left), "x2", n(width - right), "y1", n(b), "y2", n(b));
+        if (label != null) {
+            w.element("text", label, "class", "note", "x", n(width - right - 4), "y", n(b - 4), "text-anchor", "end");
+        }
+    }
+
+    /**
+     * A marker at pixel (cx, cy).
+     *
+     * @param tooltip text of its {@code <title>} (or null)
+     */
+    public static void marker(HtmlWriter w, double cx, double cy, double r, Palette.Shape shape, String colour,
+            boolean filled, String cssClass, String tooltip) {
+        String fill = filled ? colour : "#ffffff";
+        String tag;
+        String[] geometry;
+        switch (shape) {
+            case CIRCLE -> {
+                tag = "circle";
+                geometry = new String[] {"cx", n(cx), "cy", n(cy), "r", n(r)};
+            }
+            case SQUARE -> {
+                tag = "rect";
+                geometry = new String[] {"x", n(cx - r * 0.85), "y", n(cy - r * 0.85), "width", n(1.7 * r), "height",
+                    n(1.7 * r)};
+            }
+            default -> {
+                tag = "path";
+                geometry = new String[] {"d", shapePath(shape, cx, cy, r)};
+            }
+        }
+        String[] attrs = new String[geometry.length + 8];
+        attrs[0] = "class";
+        attrs[1] = cssClass;
+        System.arraycopy(geometry, 0, attrs, 2, geometry.length);
+        int i = 2 + geometry.length;
+        boolean lineOnly = shape == Palette.Shape.PLUS || shape == Palette.Shape.CROSS;
+        attrs[i++] = "fill";
+        attrs[i++] = lineOnly ? "none" : fill;
+        attrs[i++] = "stroke";
+        attrs[i++] = colour;
+        attrs[i++] = "stroke-width";
+        attrs[i] = lineOnly ? "2" : "1.2";
+        if (tooltip == null) {
+            w.empty(tag, attrs);
+        } else {
+            w.open(tag, attrs);
+            w.element("title", tooltip);
+            w.close(tag);
+        }
+    }
+
+    /** A marker at data coordinates (vx, vy); nothing when off the axes. */
+    public void mark(double vx, double vy, Palette.Style style, boolean filled, String cssClass, String tooltip) {
+        double a = px(vx);
+        double b = py(vy);
+        if (!Double.isFinite(a) || !Double.isFinite(b)) {
+            return;
+        }
+        marker(w, a, b, 3.6, style.shape(), style.colour(), filled, cssClass, tooltip);
+    }
+
+    private static String shapePath(Palette.Shape shape, double cx, double cy, double r) {
+        return switch (shape) {
+            case TRIANGLE -> "M" + n(cx) + " " + n(cy - r * 1.15) + "L" + n(cx + r) + " " + n(cy + r * 0.75) + "L"
+                    + n(cx - r) + " " + n(cy + r * 0.75) + "Z";
+            case TRIANGLE_DOWN -> "M" + n(cx) + " " + n(cy + r * 1.15) + "L" + n(cx + r) + " " + n(cy - r * 0.75)
+                    + "L" + n(cx - r) + " " + n(cy - r * 0.75) + "Z";
+            case DIAMOND -> "M" + n(cx) + " " + n(cy - r * 1.2) + "L" + n(cx + r) + " " + n(cy) + "L" + n(cx) + " "
+                    + n(cy + r * 1.2) + "L" + n(cx - r) + " " + n(cy) + "Z";
+            case PLUS -> "M" + n(cx - r) + " " + n(cy) + "H" + n(cx + r) + "M" + n(cx) + " " + n(cy - r) + "V"
+                    + n(cy + r);
+            default -> "M" + n(cx - r) + " " + n(cy - r) + "L" + n(cx + r) + " " + n(cy + r) + "M" + n(cx - r) + " "
+                    + n(cy + r) + "L" + n(cx + r) + " " + n(cy - r);
+        };
+    }
+
+    private double clampY(double b) {
+        return Math.max(top - 2, Math.min(height - bottom + 2, b));
+    }
+
+    /** Closes the svg element. */
+    public void end() {
+        if (ended) {
+            throw new IllegalStateException("chart already ended");
+        }
+        ended = true;
+        w.close("svg");
+    }
+
+    /** @return a pixel coordinate with one decimal */
+    static String n(double v) {
+        if (!Double.isFinite(v)) {
+            return "0";
+        }
+        long tenths = Math.round(v * 10);
+        long whole = tenths / 10;
+        int frac = (int) Math.abs(tenths % 10);
+        String sign = tenths < 0 && whole == 0 ? "-" : "";
+        return frac == 0 ? sign + whole : sign + whole + "." + frac;
+    }
+}

@@ -1,0 +1,386 @@
+package settle.reports.metrics;
+
+import java.util.ArrayList;
+import java.util.EnumMap;
+import java.util.List;
+import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import settle.reports.stats.ArmSummary;
+import settle.reports.stats.ArmValues;
+import settle.reports.stats.Bootstrap;
+import settle.reports.stats.Comparison;
+import settle.reports.stats.Direction;
+import settle.reports.stats.Holm;
+import settle.reports.stats.Interval;
+import settle.reports.stats.Verdict;
+import settle.reports.stats.VerdictOptions;
+import settle.reports.study.Metric;
+import settle.reports.study.Replicate;
+import settle.reports.study.Study;
+
+/**
+ * Everything a report shows that spans replicates: per-arm summaries of every per-replicate metric, the
+ * verdict (each arm against the baseline, paired by replicate index, primary metric tail radius, the rest
+ * descriptive), and the arm-level metrics with joint bootstrap intervals.
+ *
+ * <p>Pairing: the verdict uses the replicate indices whose file exists in every arm (a partial study drops
+ * the others, counted in {@link #pairedReplicates()}); a diverged replicate counts as worst. Arm summaries use
+ * each arm's finished replicates.
+ */
+public final class StudyAnalysis {
+
+    /** The metrics of the verdict, primary first. */
+    public static final List<Metric> COMPARED = List.of(Metric.TAIL_RADIUS, Metric.FINAL_GAP, Metric.FINAL_DISTANCE,
+            Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.AVERAGED_GAP);
+
+    /** The primary metric. */
+    public static final Metric PRIMARY = Metric.TAIL_RADIUS;
+
+    private static final Pattern L2 = Pattern.compile("(?m)^\\s+l2:\\s*([-+0-9.eE]+)\\s*$");
+
+    private final Study study;
+    private final VerdictOptions options;
+    private final List<Metric> available;
+    private final Map<Metric, ArmSummary[]> summaries = new EnumMap<>(Metric.class);
+    private final Map<Metric, List<Comparison>> comparisons = new EnumMap<>(Metric.class);
+    private final int[] paired;
+    private final ArmLevel[] seedSpread;
+    private final ArmLevel[] predictionSpread;
+    private final ArmLevel[] disagreement;
+
+    private StudyAnalysis(Study study, VerdictOptions options) {
+        this.study = study;
+        this.options = options;
+        int arms = study.armCount();
+        this.paired = pairedIndices(study);
+        this.available = new ArrayList<>();
+        for (Metric m : Metric.values()) {
+            if (metricAvailable(study, m)) {
+                available.add(m);
+            }
+        }
+        for (Metric m : available) {
+            ArmSummary[] s = new ArmSummary[arms];
+            for (int a = 0; a < arms; a++) {
+                s[a] = summary(study, a, m);
+            }
+            summaries.put(m, s);
+        }
+        int base = study.manifest().baselineIndex();
+        if (arms > 1 && paired.length > 0) {
+            for (Metric m : COMPARED) {
+                if (!available.contains(m)) {
+                    continue;
+                }
+                ArmValues baseline = values(study, base, m, paired);
+                List<ArmValues> others = new ArrayList<>();
+                for (int a = 0; a < arms; a++) {
+                    if (a != base) {
+                        others.add(values(study, a, m, paired));
+                    }
+                }
+                comparisons.put(m, Verdict.compare(m.words(), m.higherIsBetter() ? Direction.HIGHER_IS_BETTER
+                        : Direction.LOWER_IS_BETTER, baseline, others, options, m == PRIMARY));
+            }
+        }
+        this.seedSpread = new ArmLevel[arms];
+        this.predictionSpread = new ArmLevel[arms];
+        this.disagreement = new ArmLevel[arms];
+        armLevel();
+    }
+
+    /**
+     * @param study the study
+     * @param options the verdict's settings
+     * @return the analysis
+     */
+    public static StudyAnalysis of(Study study, VerdictOptions options) {
+        return new StudyAnalysis(study, options);
+    }
+
+    /** @return the analysis with the default verdict settings */
+    public static StudyAnalysis of(Study study) {
+        return of(study, VerdictOptions.defaults());
+    }
+
+    /** @return the study analysed */
+    public Study study() {
+        return study;
+    }
+
+    /** @return the verdict settings */
+    public VerdictOptions options() {
+        return options;
+    }
+
+    /** @return the per-replicate metrics every finished replicate has, in enum order */
+    public List<Metric> available() {
+        return List.copyOf(available);
+    }
+
+    /** @return the summary of metric {@code m} for every arm (index = arm index − 1), or null when unavailable */
+    public ArmSummary[] summaries(Metric m) {
+        ArmSummary[] s = summaries.get(m);
+        return s == null ? null : s.clone();
+    }
+
+    /**
+     * @return the comparisons of every non-baseline arm with the baseline on {@code m}, in arm order; empty
+     *     when the metric is unavailable or the study has one arm
+     */
+    public List<Comparison> comparisons(Metric m) {
+        return comparisons.getOrDefault(m, List.of());
+    }
+
+    /** @return the comparison of arm {@code arm} (0-based) on {@code m}, or null for the baseline or none */
+    public Comparison comparison(Metric m, int arm) {
+        List<Comparison> list = comparisons(m);
+        int base = study.manifest().baselineIndex();
+        if (arm == base || list.isEmpty()) {
+            return null;
+        }
+        return list.get(arm < base ? arm : arm - 1);
+    }
+
+    /** @return the 0-based replicate indices present in every arm: the pairs of the verdict */
+    public int[] pairedReplicates() {
+        return paired.clone();
+    }
+
+    /** @return m, the number of arms compared with the baseline */
+    public int comparedArms() {
+        return study.armCount() - 1;
+    }
+
+    /** @return the replicates a verdict needs for adjusted p ≤ the significance level at this m */
+    public int replicatesNeeded() {
+        return Holm.pairsNeeded(Math.max(1, comparedArms()), options.significance());
+    }
+
+    /** @return seed spread of arm {@code a} (convex models; else undefined) */
+    public ArmLevel seedSpread(int a) {
+        return seedSpread[a];
+    }
+
+    /** @return prediction spread of arm {@code a} */
+    public ArmLevel predictionSpread(int a) {
+        return predictionSpread[a];
+    }
+
+    /** @return mean pairwise disagreement of arm {@code a} */
+    public ArmLevel disagreement(int a) {
+        return disagreement[a];
+    }
+
+    private static int[] pairedIndices(Study study) {
+        List<Integer> keep = new ArrayList<>();
+        for (int k = 0; k < study.replicateCount(); k++) {
+            boolean all = true;
+            for (int a = 0; a < study.armCount() && all; a++) {
+                all = study.replicate(a, k) != null;
+            }
+            if (all) {
+                keep.add(k);
+            }
+        }
+        return keep.stream().mapToInt(Integer::intValue).toArray();
+    }
+
+    private static boolean metricAvailable(Study study, Metric m) {
+        if (m.convexOnly() && !study.convex()) {
+            return false;
+        }
+        boolean any = false;
+        for (int a = 0; a < study.armCount(); a++) {
+            for (int k = 0; k < study.replicateCount(); k++) {
+                Replicate r = study.replicate(a, k);
+                if (r == null || r.diverged()) {
+                    continue;
+                }
+                if (!Double.isFinite(r.metric(m))) {
+                    return false;
+                }
+                any = true;
+            }
+        }
+        return any;
+    }
+
+    private static ArmSummary summary(Study study, int a, Metric m) {
+        List<Replicate> present = new ArrayList<>();
+        for (Replicate r : study.replicates().get(a)) {
+            if (r != null) {
+                present.add(r);
+            }
+        }
+        double[] v = new double[present.size()];
+        boolean[] d = new boolean[present.size()];
+        for (int i = 0; i < v.length; i++) {
+            d[i] = present.get(i).diverged();
+            v[i] = d[i] ? Double.NaN : present.get(i).metric(m);
+        }
+        return ArmSummary.of(v, d);
+    }
+
+    private static ArmValues values(Study study, int a, Metric m, int[] indices) {
+        double[] v = new double[indices.length];
+        boolean[] d = new boolean[indices.length];
+        for (int i = 0; i < indices.length; i++) {
+            Replicate r = study.replicate(a, indices[i]);
+            d[i] = r.diverged();
+            v[i] = d[i] ? Double.NaN : r.metric(m);
+        }
+        return new ArmValues(study.armName(a), v, d);
+    }
+
+    /** Seed spread, prediction spread and disagreement, with joint bootstrap intervals. */
+    private void armLevel() {
+        int arms = study.armCount();
+        int s = study.replicateCount();
+        Gauge gauge = gauge();
+        double[][] seedGram = new double[arms][];
+        double[][] probGram = new double[arms][];
+        double[][] disagree = new double[arms][];
+        boolean[] complete = new boolean[arms];
+        for (int a = 0; a < arms; a++) {
+            List<Replicate> finished = new ArrayList<>();
+            for (Replicate r : study.replicates().get(a)) {
+                if (r != null && !r.diverged()) {
+                    finished.add(r);
+                }
+            }
+            complete[a] = finished.size() == s;
+            int n = finished.size();
+            if (study.convex() && n >= 1) {
+                double[][] theta = new double[n][];
+                for (int i = 0; i < n; i++) {
+                    theta[i] = gauge.project(finished.get(i).finalIterate());
+                }
+                seedGram[a] = Spread.centredGram(theta, 1.0);
+                seedSpread[a] = new ArmLevel(Math.sqrt(Spread.meanSquaredDeviation(seedGram[a], once(n))),
+                        Interval.none(0.0), n);
+            } else {
+                seedSpread[a] = ArmLevel.none();
+            }
+            boolean probabilities = n >= 1;
+            for (Replicate r : finished) {
+                probabilities &= r.testProbabilities() != null;
+            }
+            if (probabilities) {
+                double[][] p = new double[n][];
+                for (int i = 0; i < n; i++) {
+                    p[i] = finished.get(i).testProbabilities();
+                }
+                int rows = finished.get(0).testRows();
+                int classes = finished.get(0).testClasses();
+                probGram[a] = Spread.centredGram(p, rows);
+                int[] counts = once(n);
+                predictionSpread[a] = new ArmLevel(Spread.meanSquaredDeviation(probGram[a], counts), Interval.none(0.0), n);
+                if (n >= 2) {
+                    disagree[a] = Spread.disagreement(p, classes);
+                    disagreement[a] = new ArmLevel(Spread.meanPairwise(disagree[a], counts), Interval.none(0.0), n);
+                } else {
+                    disagreement[a] = ArmLevel.none();
+                }
+            } else {
+                predictionSpread[a] = ArmLevel.none();
+                disagreement[a] = ArmLevel.none();
+            }
+        }
+        // Joint bootstrap over seed indices for the arms where every replicate finished.
+        List<double[]> grams = new ArrayList<>();
+        List<Integer> kinds = new ArrayList<>();
+        List<Integer> owners = new ArrayList<>();
+        for (int a = 0; a < arms; a++) {
+            if (!complete[a] || s < 2) {
+                continue;
+            }
+            if (seedGram[a] != null) {
+                grams.add(seedGram[a]);
+                kinds.add(0);
+                owners.add(a);
+            }
+            if (probGram[a] != null) {
+                grams.add(probGram[a]);
+                kinds.add(1);
+                owners.add(a);
+            }
+            if (disagree[a] != null) {
+                grams.add(disagree[a]);
+                kinds.add(2);
+                owners.add(a);
+            }
+        }
+        if (grams.isEmpty()) {
+            return;
+        }
+        // One bootstrap per arm, every one from the same seed: each draws the same index vectors, so the arms
+        // are resampled jointly (the same seeds in every arm), and the arms can run in parallel.
+        int outputs = grams.size();
+        Interval[] intervals = new Interval[outputs];
+        List<Integer> starts = new ArrayList<>();
+        for (int o = 0; o < outputs; o++) {
+            if (o == 0 || !owners.get(o).equals(owners.get(o - 1))) {
+                starts.add(o);
+            }
+        }
+        starts.add(outputs);
+        java.util.stream.IntStream.range(0, starts.size() - 1).parallel().forEach(g -> {
+            int from = starts.get(g);
+            int to = starts.get(g + 1);
+            int[] counts = new int[s];
+            Interval[] part = Bootstrap.jointIntervals(s, to - from, (indices, out) -> {
+                java.util.Arrays.fill(counts, 0);
+                for (int i : indices) {
+                    counts[i]++;
+                }
+                for (int o = from; o < to; o++) {
+                    double[] gram = grams.get(o);
+                    switch (kinds.get(o)) {
+                        case 0 -> out[o - from] = Math.sqrt(Spread.meanSquaredDeviation(gram, counts));
+                        case 1 -> out[o - from] = Spread.meanSquaredDeviation(gram, counts);
+                        default -> out[o - from] = Spread.meanPairwise(gram, counts);
+                    }
+                }
+            }, options.seed(), options.resamples(), options.confidence());
+            System.arraycopy(part, 0, intervals, from, to - from);
+        });
+        for (int o = 0; o < outputs; o++) {
+            int a = owners.get(o);
+            switch (kinds.get(o)) {
+                case 0 -> seedSpread[a] = new ArmLevel(seedSpread[a].value(), intervals[o], seedSpread[a].replicates());
+                case 1 -> predictionSpread[a] = new ArmLevel(predictionSpread[a].value(), intervals[o],
+                        predictionSpread[a].replicates());
+                default -> disagreement[a] = new ArmLevel(disagreement[a].value(), intervals[o],
+                        disagreement[a].replicates());
+            }
+        }
+    }
+
+    private Gauge gauge() {
+        var m = study.manifest();
+        int gaugeDimension = study.reference() == null ? -1 : study.reference().gaugeDimension();
+        return Gauge.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, l2IsZero(study.planText()));
+    }
+
+    /** @return true when the plan text's model penalty {@code l2:} is zero or absent */
+    static boolean l2IsZero(String planText) {
+        Matcher matcher = L2.matcher(planText);
+        if (!matcher.find()) {
+            return true;
+        }
+        try {
+            return Double.parseDouble(matcher.group(1)) == 0.0;
+        } catch (NumberFormatException e) {
+            return false;
+        }
+    }
+
+    /** @return counts drawing each of n replicates once */
+    private static int[] once(int n) {
+        int[] c = new int[n];
+        java.util.Arrays.fill(c, 1);
+        return c;
+    }
+}

@@ -1,0 +1,281 @@
+package settle.reports;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Writes a study directory in the documented format 1 (the JSON of the README's study-directory schema) with
+ * values chosen by a test: the reports module reads it exactly as it reads a real study. Binary logistic
+ * regression with {@code features} weights and a bias; every replicate gets the same per-epoch series unless
+ * set.
+ */
+final class SyntheticStudy {
+
+    private static final ObjectMapper MAPPER = new ObjectMapper();
+
+    /** One replicate's content. */
+    static final class Rep {
+        String status = "finished";
+        Map<String, Double> metrics = new LinkedHashMap<>();
+        double[] last;
+        double[] tailMean;
+        double[] snapshots;
+        int snapshotRows;
+        double[] probabilities;
+        int classes = 2;
+    }
+
+    final List<String> arms = new ArrayList<>();
+    final List<Boolean> averaged = new ArrayList<>();
+    final List<List<Rep>> replicates = new ArrayList<>();
+    List<String> featureNames = List.of("x1", "x2");
+    String baseline;
+    int epochs = 4;
+    int updatesPerEpoch = 5;
+    boolean convex = true;
+    String planText;
+
+    /** Adds an arm whose replicates are filled in by the test. */
+    List<Rep> arm(String name, boolean average, int count) {
+        if (baseline == null) {
+            baseline = name;
+        }
+        arms.add(name);
+        averaged.add(average);
+        List<Rep> reps = new ArrayList<>();
+        for (int k = 0; k < count; k++) {
+            Rep r = new Rep();
+            r.last = new double[featureNames.size() + 1];
+            reps.add(r);
+        }
+        replicates.add(reps);
+        return reps;
+    }
+
+    /** Sets the tail radius and the other metrics of arm a's replicates (every other metric a constant). */
+    void tailRadius(List<Rep> reps, double... values) {
+        for (int k = 0; k < values.length; k++) {
+            Rep r = reps.get(k);
+            r.metrics.put("tail_radius", values[k]);
+            r.metrics.putIfAbsent("final_gap", 1e-3);
+            r.metrics.putIfAbsent("final_distance", 0.1);
+            r.metrics.putIfAbsent("tail_distance", 0.2);
+            r.metrics.putIfAbsent("tail_loss_spread", 1e-3);
+            r.metrics.putIfAbsent("averaged_gap", 1e-4);
+            r.metrics.putIfAbsent("test_loss", 0.3);
+            r.metrics.putIfAbsent("test_accuracy", 0.9);
+        }
+    }
+
+    /**
+     * Writes the study into {@code dir}; replicates listed in {@code skip} ("arm/replicate", from 1) get no
+     * file (a partial study).
+     */
+    Path write(Path dir, String... skip) throws IOException {
+        Files.createDirectories(dir);
+        int count = replicates.get(0).size();
+        int p = featureNames.size() + 1;
+        ObjectNode m = MAPPER.createObjectNode();
+        m.put("format", 1);
+        ObjectNode tool = m.putObject("tool");
+        tool.put("name", "settle");
+        tool.put("version", "0.1.0");
+        tool.put("git_commit", "");
+        m.putObject("jvm").put("vendor", "test").put("name", "test").put("version", "17");
+        m.putObject("cpu").put("model", "test").put("arch", "amd64").put("cores", 2);
+        m.put("executor", "test");
+        m.put("threads", 1);
+        m.putArray("command").add("settle").add("run").add("plan.yaml");
+        m.put("generator", "L64X128MixRandom");
+        m.put("root_seed", 7);
+        m.put("started", "2026-01-01T00:00:00Z");
+        m.put("ended", "2026-01-01T00:01:00Z");
+        m.put("plan_sha256", "aa");
+        m.put("data_sha256", "bb");
+        m.put("split_sha256", "cc");
+        ObjectNode data = m.putObject("data");
+        data.put("source", "synthetic:test");
+        data.put("rows", 100);
+        data.put("features", featureNames.size());
+        ArrayNode fn = data.putArray("feature_names");
+        featureNames.forEach(fn::add);
+        data.putArray("class_names").add("no").add("yes");
+        data.put("train_rows", 80);
+        data.put("test_rows", 20);
+        data.put("holdout_rows", 0);
+        data.put("updates_per_epoch", updatesPerEpoch);
+        m.putNull("standardisation");
+        m.put("model", "binary logistic regression, " + featureNames.size() + " features, 2 classes");
+        m.put("parameters", p);
+        m.put("reference", convex ? "reference.json" : "none: the model is not convex");
+        m.put("baseline", baseline);
+        ArrayNode armList = m.putArray("arms");
+        for (int a = 0; a < arms.size(); a++) {
+            armList.addObject().put("index", a + 1).put("name", arms.get(a)).put("directory", "arms/" + (a + 1));
+        }
+        ArrayNode repList = m.putArray("replicates");
+        for (int a = 0; a < arms.size(); a++) {
+            for (int k = 0; k < count; k++) {
+                repList.addObject().put("arm", a + 1).put("replicate", k + 1)
+                        .put("status", replicates.get(a).get(k).status);
+            }
+        }
+        MAPPER.writeValue(dir.resolve("manifest.json").toFile(), m);
+        Files.writeString(dir.resolve("plan.yaml"), planText != null ? planText
+                : "study: synthetic\nseed: 7\nreplicates: " + count + "\nmodel:\n  kind: logistic\n  l2: 0.01\n");
+        if (convex) {
+            ObjectNode r = MAPPER.createObjectNode();
+            r.put("format", 1);
+            r.put("model", "binary logistic regression");
+            r.put("method", "newton");
+            r.put("iterations", 5);
+            r.put("converged", true);
+            r.put("objective", 0.25);
+            r.put("gradient_norm", 1e-12);
+            ArrayNode theta = r.putArray("theta");
+            for (int j = 0; j < p; j++) {
+                theta.add(0.0);
+            }
+            r.put("gauge_dimension", 0);
+            r.putArray("eigenvalues").add(0.1).add(0.2).add(0.3);
+            r.put("lambda_min", 0.1);
+            r.put("lambda_max", 0.3);
+            r.put("stability_bound", 2 / 0.3);
+            MAPPER.writeValue(dir.resolve("reference.json").toFile(), r);
+        }
+        List<String> skipped = List.of(skip);
+        for (int a = 0; a < arms.size(); a++) {
+            Path armDir = dir.resolve("arms").resolve(Integer.toString(a + 1));
+            Files.createDirectories(armDir);
+            for (int k = 0; k < count; k++) {
+                if (skipped.contains((a + 1) + "/" + (k + 1))) {
+                    continue;
+                }
+                MAPPER.writeValue(armDir.resolve((k + 1) + ".json").toFile(), replicate(a, k, p));
+            }
+        }
+        return dir;
+    }
+
+    private ObjectNode replicate(int a, int k, int p) {
+        Rep rep = replicates.get(a).get(k);
+        boolean diverged = rep.status.equals("diverged");
+        ObjectNode r = MAPPER.createObjectNode();
+        r.put("format", 1);
+        r.put("arm", a + 1);
+        r.put("arm_name", arms.get(a));
+        r.put("replicate", k + 1);
+        r.putObject("seeds").put("algorithm", "L64X128MixRandom").put("root", 7).put("initialisation", 100 + k)
+                .put("sampling", 200 + k);
+        r.put("status", rep.status);
+        r.put("diverged_at_update", diverged ? 7 : 0);
+        r.put("total_updates", epochs * updatesPerEpoch);
+        r.put("updates_run", diverged ? 7 : epochs * updatesPerEpoch);
+        r.put("average", averaged.get(a) ? "tail" : "none");
+        r.put("initial_objective", 0.69);
+        ObjectNode metrics = r.putObject("metrics");
+        for (String key : List.of("final_objective", "final_gap", "final_distance", "tail_radius", "tail_distance",
+                "tail_loss_spread", "averaged_objective", "averaged_gap", "test_loss", "test_accuracy")) {
+            Double v = rep.metrics.get(key);
+            if (diverged || v == null) {
+                metrics.putNull(key);
+            } else {
+                metrics.put(key, v);
+            }
+        }
+        if (diverged) {
+            r.putNull("tail");
+        } else {
+            ObjectNode tail = r.putObject("tail");
+            tail.put("first_update", epochs * updatesPerEpoch - 1);
+            tail.put("length", 2);
+            tail.put("snapshots", rep.snapshotRows);
+            tail.putArray("snapshot_updates");
+            tail.putArray("snapshot_objectives");
+        }
+        ObjectNode e = r.putObject("epochs");
+        int n = diverged ? 1 : epochs;
+        ArrayNode epoch = e.putArray("epoch");
+        ArrayNode lastUpdate = e.putArray("last_update");
+        ArrayNode rate = e.putArray("rate");
+        ArrayNode objective = e.putArray("objective");
+        ArrayNode holdout = e.putArray("holdout_loss");
+        ArrayNode testLoss = e.putArray("test_loss");
+        ArrayNode testAccuracy = e.putArray("test_accuracy");
+        ArrayNode distance = e.putArray("distance");
+        for (int i = 0; i < n; i++) {
+            epoch.add(i + 1);
+            lastUpdate.add((i + 1) * updatesPerEpoch);
+            rate.add(0.5 / (1 + a * i));
+            objective.add(0.25 + 0.1 / (i + 1) + 0.001 * k);
+            holdout.addNull();
+            testLoss.add(0.3);
+            testAccuracy.add(0.9);
+            if (convex) {
+                distance.add(1.0 / (i + 1));
+            } else {
+                distance.addNull();
+            }
+        }
+        ArrayNode rates = r.putArray("rates");
+        for (int u = 0; u < (diverged ? 7 : epochs * updatesPerEpoch); u++) {
+            rates.add(0.5 / (1 + a * (u / updatesPerEpoch)));
+        }
+        array(r.putArray("start"), new double[p]);
+        array(r.putArray("last"), rep.last);
+        if (rep.tailMean == null) {
+            r.putNull("tail_mean");
+        } else {
+            array(r.putArray("tail_mean"), rep.tailMean);
+        }
+        if (diverged || rep.snapshots == null) {
+            r.putNull("snapshots");
+        } else {
+            ObjectNode s = r.putObject("snapshots");
+            s.put("rows", rep.snapshotRows);
+            s.put("columns", p);
+            array(s.putArray("values"), rep.snapshots);
+        }
+        if (diverged || rep.probabilities == null) {
+            r.putNull("test_probabilities");
+        } else {
+            ObjectNode s = r.putObject("test_probabilities");
+            s.put("rows", rep.probabilities.length / rep.classes);
+            s.put("columns", rep.classes);
+            array(s.putArray("values"), rep.probabilities);
+        }
+        ObjectNode pr = r.putObject("prediction");
+        if (convex && !diverged) {
+            pr.put("predicted", true);
+            pr.put("kind", "first-order");
+            pr.put("label", "first-order: logistic regression linearised at θ*");
+            ArrayNode d = pr.putArray("epoch_distance_sq");
+            for (int i = 0; i < epochs; i++) {
+                d.add(1.2 / ((i + 1) * (i + 1)));
+            }
+            pr.putArray("epoch_excess_loss");
+            pr.put("tail_updates", 2);
+            pr.put("tail_distance_sq", 0.05);
+            pr.put("stability_bound", 2 / 0.3);
+            pr.put("largest_rate_times_curvature", 0.15);
+        } else {
+            pr.put("predicted", false);
+            pr.put("skipped", convex ? "the replicate diverged" : "the model is not convex");
+        }
+        return r;
+    }
+
+    private static void array(ArrayNode node, double[] values) {
+        for (double v : values) {
+            node.add(v);
+        }
+    }
+}
