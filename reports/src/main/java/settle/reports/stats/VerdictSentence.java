@@ -39,7 +39,7 @@ public final class VerdictSentence {
         } else if (c.detected()) {
             String verb = c.armLarger() ? "increases" : "reduces";
             if (effectAgrees(c)) {
-                main = verb + " " + c.metric() + " by " + magnitude(c.percentChange()) + " % (" + ciText(c) + ", "
+                main = verb + " " + c.metric() + " by " + magnitude(c.percentChange()) + " % (" + ciText(c, false) + ", "
                         + pText(c) + ")";
                 effectShown = true;
             } else {
@@ -51,7 +51,7 @@ public final class VerdictSentence {
         } else {
             main = "no difference detected with " + c.testPairs() + " replicates";
             if (c.effectPairs() > 0 && c.exact().isDefined()) {
-                main += " (change " + signed(c.percentChange()) + " %, " + ciText(c) + ", " + pText(c) + ")";
+                main += " (change " + signed(c.percentChange()) + " %, " + ciText(c, true) + ", " + pText(c) + ")";
                 effectShown = true;
             } else {
                 main += " (" + pText(c) + ")";
@@ -60,7 +60,7 @@ public final class VerdictSentence {
         List<String> notes = new ArrayList<>();
         if (!effectShown && c.effectPairs() > 0 && c.exact().isDefined() && (c.detected() || c.testPairs() < c.pairsNeeded())) {
             notes.add("on the " + c.effectPairs() + " finite pairs the change is " + signed(c.percentChange())
-                    + " % (" + ciText(c) + ")");
+                    + " % (" + ciText(c, true) + ")");
         }
         if (c.bothDiverged() > 0) {
             notes.add(count(c.bothDiverged(), "pair", "pairs") + " where both replicates diverged dropped");
@@ -93,11 +93,17 @@ public final class VerdictSentence {
         return c.armLarger() ? (c.estimate() > 0 && low > 0) : (c.estimate() < 0 && high < 0);
     }
 
-    private static String ciText(Comparison c) {
+    /**
+     * @param signedBounds true beside a signed change ("change −1.3 %, 95 % CI −2.6 to −0.16 %"); false after
+     *     "reduces … by" or "increases … by", where the bounds are magnitudes of that change
+     */
+    private static String ciText(Comparison c, boolean signedBounds) {
         double lo = Comparison.percent(c.exact().low());
         double hi = Comparison.percent(c.exact().high());
         String body;
-        if (lo > 0 && hi > 0) {
+        if (signedBounds) {
+            body = signed(lo) + " to " + signed(hi) + " %";
+        } else if (lo > 0 && hi > 0) {
             body = magnitude(lo) + "–" + magnitude(hi) + " %";
         } else if (lo < 0 && hi < 0) {
             body = magnitude(hi) + "–" + magnitude(lo) + " %";
