@@ -72,23 +72,35 @@ public final class Spread {
      */
     public static double meanSquaredDeviation(double[] gram, int[] counts) {
         int s = counts.length;
+        int[] drawn = new int[s];
+        int m = nonZero(counts, drawn);
         double total = 0.0;
         double diagonal = 0.0;
         double quadratic = 0.0;
-        for (int a = 0; a < s; a++) {
+        for (int x = 0; x < m; x++) {
+            int a = drawn[x];
             int wa = counts[a];
-            if (wa == 0) {
-                continue;
-            }
             total += wa;
             diagonal += wa * gram[a * s + a];
             double row = 0.0;
-            for (int b = 0; b < s; b++) {
+            for (int y = 0; y < m; y++) {
+                int b = drawn[y];
                 row += counts[b] * gram[a * s + b];
             }
             quadratic += wa * row;
         }
         return Math.max(0.0, diagonal / total - quadratic / (total * total));
+    }
+
+    /** Writes the indices with a non-zero count, in increasing order, into {@code drawn}; returns how many. */
+    private static int nonZero(int[] counts, int[] drawn) {
+        int m = 0;
+        for (int a = 0; a < counts.length; a++) {
+            if (counts[a] != 0) {
+                drawn[m++] = a;
+            }
+        }
+        return m;
     }
 
     /**
@@ -99,16 +111,17 @@ public final class Spread {
      */
     public static double meanPairwise(double[] disagreement, int[] counts) {
         int s = counts.length;
+        int[] drawn = new int[s];
+        int m = nonZero(counts, drawn);
         double total = 0.0;
         double quadratic = 0.0;
-        for (int a = 0; a < s; a++) {
+        for (int x = 0; x < m; x++) {
+            int a = drawn[x];
             int wa = counts[a];
-            if (wa == 0) {
-                continue;
-            }
             total += wa;
             double row = 0.0;
-            for (int b = 0; b < s; b++) {
+            for (int y = 0; y < m; y++) {
+                int b = drawn[y];
                 row += counts[b] * disagreement[a * s + b];
             }
             quadratic += wa * row;

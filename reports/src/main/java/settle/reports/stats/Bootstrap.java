@@ -38,18 +38,80 @@ public final class Bootstrap {
                 throw new IllegalArgumentException("value " + i + " is not finite: " + x[i]);
             }
         }
+        // A resample is the multiset of the original values with counts c_k. Its Walsh averages are
+        // (x_k + x_l)/2 with multiplicity c_k·c_l for k < l and c_k(c_k + 1)/2 for k = l, so its median is a
+        // weighted median over the original n(n+1)/2 pairs sorted once: O(n²) per resample, no selection,
+        // and the same value as the median of the resample's own Walsh averages.
+        int pairs = HodgesLehmann.walshCount(n);
+        double[] value = new double[pairs];
+        int[] first = new int[pairs];
+        int[] second = new int[pairs];
+        sortPairsByValue(x, value, first, second);
         SplitMix64 random = new SplitMix64(seed);
-        double[] sample = new double[n];
-        double[] walsh = new double[HodgesLehmann.walshCount(n)];
+        int[] counts = new int[n];
         double[] out = new double[resamples];
+        long half = pairs / 2;
+        boolean even = (pairs & 1) == 0;
         for (int b = 0; b < resamples; b++) {
+            Arrays.fill(counts, 0);
             for (int i = 0; i < n; i++) {
-                sample[i] = x[random.nextIndex(n)];
+                counts[random.nextIndex(n)]++;
             }
-            out[b] = HodgesLehmann.estimate(sample, n, walsh);
+            // ranks are 0-based; the median is element `half`, averaged with element `half − 1` when even
+            long seen = 0;
+            double lower = Double.NaN;
+            double upper = Double.NaN;
+            for (int r = 0; r < pairs; r++) {
+                int ci = counts[first[r]];
+                if (ci == 0) {
+                    continue;
+                }
+                int cj = counts[second[r]];
+                long w = first[r] == second[r] ? (long) ci * (ci + 1) / 2 : (long) ci * cj;
+                if (w == 0) {
+                    continue;
+                }
+                if (even && Double.isNaN(lower) && seen + w > half - 1) {
+                    lower = value[r];
+                }
+                seen += w;
+                if (seen > half) {
+                    upper = value[r];
+                    break;
+                }
+            }
+            out[b] = even ? (lower + upper) / 2.0 : upper;
         }
         Arrays.sort(out);
         return out;
+    }
+
+    /**
+     * The Walsh averages (x_i + x_j)/2, i ≤ j, sorted: the r-th smallest goes to {@code value[r]} and its pair
+     * to {@code first[r]}, {@code second[r]}.
+     */
+    private static void sortPairsByValue(double[] x, double[] value, int[] first, int[] second) {
+        int n = x.length;
+        Integer[] rank = new Integer[value.length];
+        int[] pi = new int[value.length];
+        int[] pj = new int[value.length];
+        double[] v = new double[value.length];
+        int q = 0;
+        for (int i = 0; i < n; i++) {
+            for (int j = i; j < n; j++) {
+                pi[q] = i;
+                pj[q] = j;
+                v[q] = (x[i] + x[j]) / 2.0;
+                rank[q] = q;
+                q++;
+            }
+        }
+        Arrays.sort(rank, (a, b) -> Double.compare(v[a], v[b]));
+        for (int r = 0; r < rank.length; r++) {
+            value[r] = v[rank[r]];
+            first[r] = pi[rank[r]];
+            second[r] = pj[rank[r]];
+        }
     }
 
     /**
