@@ -17,7 +17,10 @@ import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
 import settle.engine.minimum.NoMinimiserException;
+import settle.engine.model.Initialisation;
 import settle.engine.model.Model;
+import settle.engine.theory.LastIterateBound;
+import settle.engine.train.ReplicateSeeds;
 import settle.engine.schedule.Asymptotics;
 import settle.engine.schedule.RateSums;
 import settle.engine.schedule.RunShape;
@@ -274,7 +277,55 @@ public final class CheckCommand implements Callable<Integer> {
         if (beta != 0) {
             out.println("  (momentum " + beta + ": the noise-ball prediction is skipped for this plan)");
         }
+        out.println();
+        printBound(out, plan, model, train, minimum, rates);
         return Main.OK;
+    }
+
+    /**
+     * Each arm's value of the convex last-iterate bound (Defazio et al. 2023, Theorem 10; Schaipp et al., ICML
+     * 2025, Theorem 1) for its planned rates, and the arms ranked by it: an a-priori ranking, labelled a bound.
+     */
+    private static void printBound(PrintWriter out, Plan plan, Model model, Dataset train, Minimum minimum,
+            List<double[]> rates) {
+        out.println("a-priori ranking by the convex last-iterate bound (a worst-case BOUND on E[F(θ_T)] − F(θ*), not a"
+                + " prediction;");
+        out.println("  Defazio et al. 2023, arXiv:2310.07831, Thm 10, as in Schaipp et al., ICML 2025, Thm 1):");
+        if (plan.training().momentum() != 0) {
+            out.println("  not computed: the bound is for SGD without momentum");
+            return;
+        }
+        double[] start = new double[model.parameterCount()];
+        if (plan.model().init() == Initialisation.REFERENCE) {
+            System.arraycopy(minimum.theta(), 0, start, 0, start.length);
+        } else {
+            model.initialise(start, plan.model().init(), ReplicateSeeds.derive(plan.seed(), 1).initialisationStream());
+        }
+        double g = LastIterateBound.gradientScale(model, train, start, plan.training().batch());
+        double[] gaugeFree = start.clone();
+        model.removeGauge(gaugeFree);
+        double d2 = 0;
+        for (int i = 0; i < gaugeFree.length; i++) {
+            double delta = gaugeFree[i] - minimum.theta()[i];
+            d2 += delta * delta;
+        }
+        double d = Math.sqrt(d2);
+        out.printf(Locale.ROOT, "  D = ‖θ₀ − θ*‖ = %s (replicate 1's start), G = %s (root-mean-square norm of a"
+                + " batch gradient at θ₀)%n", rate(d), rate(g));
+        int n = plan.arms().size();
+        double[] value = new double[n];
+        Integer[] order = new Integer[n];
+        for (int i = 0; i < n; i++) {
+            value[i] = LastIterateBound.value(rates.get(i), d, g);
+            order[i] = i;
+        }
+        java.util.Arrays.sort(order, (a, b) -> Double.compare(value[a], value[b]));
+        out.printf(Locale.ROOT, "  %-4s %-4s %12s  %s%n", "rank", "arm", "bound", "name");
+        for (int r = 0; r < n; r++) {
+            int i = order[r];
+            out.printf(Locale.ROOT, "  %-4d %-4s %12s  %s%n", r + 1, "#" + (i + 1), rate(value[i]),
+                    plan.arms().get(i).name());
+        }
     }
 
     /** @return a rate with 5 significant digits */

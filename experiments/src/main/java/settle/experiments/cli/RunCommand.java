@@ -48,6 +48,11 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--json", description = "print a machine-readable summary on stdout")
     boolean json;
 
+    @Option(names = "--pace", paramLabel = "MS", description = "manual arms: at least MS milliseconds between two"
+            + " epoch ends, so that a short study can be followed and nudged by hand (default 0); results do not"
+            + " depend on it")
+    long pace;
+
     @Spec
     CommandSpec spec;
 
@@ -56,7 +61,7 @@ public final class RunCommand implements Callable<Integer> {
         List<String> command = new ArrayList<>();
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());
-        return execute(spec, () -> PlanParser.read(planFile), out, threads, fresh, quiet, json, command);
+        return execute(spec, () -> PlanParser.read(planFile), out, threads, fresh, quiet, json, command, pace);
     }
 
     /** Supplies the parsed plan (from a file, or the bundled demo). */
@@ -68,10 +73,20 @@ public final class RunCommand implements Callable<Integer> {
     /** Shared by {@code run} and {@code demo}. */
     static int execute(CommandSpec spec, PlanSource source, Path out, int threads, boolean fresh, boolean quiet,
             boolean json, List<String> command) {
+        return execute(spec, source, out, threads, fresh, quiet, json, command, 0);
+    }
+
+    /** Shared by {@code run} and {@code demo}; {@code pace} in milliseconds (manual arms). */
+    static int execute(CommandSpec spec, PlanSource source, Path out, int threads, boolean fresh, boolean quiet,
+            boolean json, List<String> command, long pace) {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
         if (threads < 1) {
             stderr.println("--threads must be at least 1: " + threads);
+            return Main.BAD_INPUT;
+        }
+        if (pace < 0) {
+            stderr.println("--pace must be at least 0 milliseconds: " + pace);
             return Main.BAD_INPUT;
         }
         StudyRunner.Outcome outcome;
@@ -88,7 +103,7 @@ public final class RunCommand implements Callable<Integer> {
             stderr.flush();
             PrintStream progressStream = System.err;
             StudyRunner runner = new StudyRunner(context, directory, new LocalExecutor(threads), command,
-                    progressStream, Progress.choose(quiet));
+                    progressStream, Progress.choose(quiet), pace);
             outcome = runner.run(fresh);
         } catch (NoMinimiserException | StudyLock.LockHeldException e) {
             stderr.println("settle run: " + e.getMessage());

@@ -267,8 +267,7 @@ public final class TraceCommand implements Callable<Integer> {
         if (dump != null) {
             try {
                 writeDump(dump, result, trainer.shape().updatesPerEpoch());
-                AtomicFiles.write(dump.resolve("replicate.json"), ReplicateFile.toJson(key, arm,
-                        context.model().classes(), result, context.predict(result)));
+                AtomicFiles.write(dump.resolve("replicate.json"), ReplicateFile.of(context, key, result));
             } catch (IOException e) {
                 err.println("settle trace: cannot write " + dump + ": " + e.getMessage());
                 err.flush();

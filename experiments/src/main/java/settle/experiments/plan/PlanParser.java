@@ -18,6 +18,7 @@ import java.util.Map;
 import settle.engine.model.Activation;
 import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
+import settle.engine.schedule.NudgeLog;
 import settle.engine.schedule.Schedule;
 import settle.engine.schedule.ScheduleException;
 import settle.engine.schedule.Schedules;
@@ -84,7 +85,8 @@ public final class PlanParser {
             "| `arms[].name` | the schedule kind | any text, unique |",
             "| `arms[].schedule` | required | a schedule map (`kind` and its keys) |",
             "| `arms[].average` | none | `none` / `tail` |",
-            "| `arms[].manual` | false | true / false (recorded; reserved for manual decay) |",
+            "| `arms[].manual` | false | true / false: the arm's replicates run in step and take nudges while the study runs (not with plateau) |",
+            "| `arms[].nudges` | none | list of `{from: EPOCH, factor: F, note: TEXT}`: rates × F from that epoch on (replay.yaml writes them) |",
             "| `grid[].arm` | required | the name of an arm in `arms` |",
             "| `grid[].KEY` | — | a non-empty list of values for schedule key KEY |");
 
@@ -95,7 +97,8 @@ public final class PlanParser {
     private static final List<String> MODEL_KEYS = List.of("kind", "hidden", "activation", "l2", "init");
     private static final List<String> TRAINING_KEYS = List.of(
             "epochs", "batch", "sampling", "momentum", "tail", "snapshots");
-    private static final List<String> ARM_KEYS = List.of("name", "schedule", "average", "manual");
+    private static final List<String> ARM_KEYS = List.of("name", "schedule", "average", "manual", "nudges");
+    private static final List<String> NUDGE_KEYS = List.of("from", "factor", "note");
     private static final List<String> SOURCE_KINDS = List.of("bundled", "csv", "libsvm", "synthetic");
     private static final String SOURCE_FORMS = "bundled:NAME, csv:PATH, libsvm:PATH or synthetic:GENERATOR";
 
@@ -333,10 +336,12 @@ public final class PlanParser {
         final YamlNode.MapNode schedule;
         final ArmPlan.Averaging average;
         final boolean manual;
+        final List<NudgeLog.Entry> nudges;
         int grid = -1;
 
         Template(int index, String name, YamlNode.MapNode item, YamlNode.MapNode schedule,
-                ArmPlan.Averaging average, boolean manual) {
+                ArmPlan.Averaging average, boolean manual, List<NudgeLog.Entry> nudges) {
+            this.nudges = nudges;
             this.index = index;
             this.name = name;
             this.item = item;
@@ -388,7 +393,44 @@ public final class PlanParser {
             ArmPlan.Averaging average = present(arm, "average")
                     ? choice(arm, path, "average", ArmPlan.Averaging.class) : ArmPlan.Averaging.NONE;
             boolean manual = present(arm, "manual") && bool(arm, path, "manual");
-            out.add(new Template(i, name, arm, schedule, average, manual));
+            if (manual && "plateau".equals(kind)) {
+                throw error(value(arm, "manual"), path + ".manual", "a manual arm needs a schedule that is a pure"
+                        + " function of the counters; plateau cuts on each replicate's own losses, so its replicates"
+                        + " would not share one rate (use manual: false, or another kind)");
+            }
+            List<NudgeLog.Entry> nudges = present(arm, "nudges") ? nudges(value(arm, "nudges"), path + ".nudges")
+                    : List.of();
+            out.add(new Template(i, name, arm, schedule, average, manual, nudges));
+        }
+        return out;
+    }
+
+    private List<NudgeLog.Entry> nudges(YamlNode v, String path) {
+        String form = "a list of {from: EPOCH, factor: F, note: TEXT}";
+        if (!(v instanceof YamlNode.ListNode list)) {
+            throw error(v, path, "must be " + form + ", got " + v.describe());
+        }
+        List<NudgeLog.Entry> out = new ArrayList<>();
+        for (int j = 0; j < list.items.size(); j++) {
+            String at = path + "[" + j + "]";
+            YamlNode item = list.items.get(j);
+            record(at, item);
+            if (!(item instanceof YamlNode.MapNode m)) {
+                throw error(item, at, "must be a map {from: EPOCH, factor: F, note: TEXT}, got " + item.describe());
+            }
+            checkKeys(m, at, "a nudge", NUDGE_KEYS);
+            for (String key : List.of("from", "factor")) {
+                if (!present(m, key)) {
+                    throw error(m, at + "." + key, "missing; a nudge is {from: EPOCH, factor: F, note: TEXT}");
+                }
+            }
+            int from = (int) integer(m, at, "from", 1, Integer.MAX_VALUE, null);
+            double factor = number(m, at, "factor", Range.NON_NEGATIVE);
+            if (factor == 0) {
+                throw error(value(m, "factor"), at + ".factor", "must be a positive number, got 0");
+            }
+            String note = present(m, "note") ? string(m, at, "note") : "";
+            out.add(new NudgeLog.Entry(from, factor, note));
         }
         return out;
     }
@@ -565,7 +607,7 @@ public final class PlanParser {
             throw positioned(at, "judge: holdout needs a holdout split: set data.holdout-fraction above 0 "
                     + "(such as 0.2), or judge: train");
         }
-        return new ArmPlan(name, new ScheduleSpec(resolved, schedule), t.average, t.manual);
+        return new ArmPlan(name, new ScheduleSpec(resolved, schedule), t.average, t.manual, t.nudges);
     }
 
     private String baseline(YamlNode.MapNode top, List<Template> templates, List<ArmPlan> arms) {

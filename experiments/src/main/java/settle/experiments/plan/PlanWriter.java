@@ -10,6 +10,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.regex.Pattern;
 import settle.engine.model.ModelSpec;
+import settle.engine.schedule.NudgeLog;
 import settle.experiments.study.AtomicFiles;
 
 /**
@@ -70,6 +71,16 @@ public final class PlanWriter {
             b.append("    schedule: ").append(flow(a.schedule().settings())).append('\n');
             b.append("    average: ").append(a.average().yamlName()).append('\n');
             b.append("    manual: ").append(a.manual()).append('\n');
+            if (!a.nudges().isEmpty()) {
+                b.append("    nudges:\n");
+                for (NudgeLog.Entry n : a.nudges()) {
+                    Map<String, Object> nudge = new java.util.LinkedHashMap<>();
+                    nudge.put("from", n.from());
+                    nudge.put("factor", n.factor());
+                    nudge.put("note", n.note());
+                    b.append("      - ").append(flow(nudge)).append('\n');
+                }
+            }
         }
         return b.toString();
     }

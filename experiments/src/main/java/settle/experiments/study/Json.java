@@ -13,7 +13,7 @@ import java.io.UncheckedIOException;
  * indentation, arrays of numbers on one line, numbers in Java's shortest round-trip form, and JSON's null
  * for a value that is not finite (NaN means "does not apply" in the engine).
  */
-final class Json {
+public final class Json {
 
     private static final JsonFactory FACTORY = new JsonFactory();
 
@@ -22,12 +22,12 @@ final class Json {
 
     /** Writes one JSON document. */
     @FunctionalInterface
-    interface Body {
+    public interface Body {
         void write(JsonGenerator g) throws IOException;
     }
 
     /** @return the UTF-8 bytes of the document, ending with a newline */
-    static byte[] document(Body body) {
+    public static byte[] document(Body body) {
         ByteArrayOutputStream bytes = new ByteArrayOutputStream(1 << 14);
         try (JsonGenerator g = FACTORY.createGenerator(bytes)) {
             DefaultPrettyPrinter pretty = new DefaultPrettyPrinter()
@@ -41,12 +41,12 @@ final class Json {
         return bytes.toByteArray();
     }
 
-    static void number(JsonGenerator g, String key, double value) throws IOException {
+    public static void number(JsonGenerator g, String key, double value) throws IOException {
         g.writeFieldName(key);
         number(g, value);
     }
 
-    static void number(JsonGenerator g, double value) throws IOException {
+    public static void number(JsonGenerator g, double value) throws IOException {
         if (Double.isFinite(value)) {
             g.writeNumber(value);
         } else {
@@ -54,7 +54,7 @@ final class Json {
         }
     }
 
-    static void array(JsonGenerator g, String key, double[] values) throws IOException {
+    public static void array(JsonGenerator g, String key, double[] values) throws IOException {
         g.writeFieldName(key);
         if (values == null) {
             g.writeNull();
@@ -67,7 +67,7 @@ final class Json {
         g.writeEndArray();
     }
 
-    static void array(JsonGenerator g, String key, long[] values) throws IOException {
+    public static void array(JsonGenerator g, String key, long[] values) throws IOException {
         g.writeFieldName(key);
         if (values == null) {
             g.writeNull();
@@ -81,7 +81,7 @@ final class Json {
     }
 
     /** A row-major matrix: {rows, columns, values}. */
-    static void matrix(JsonGenerator g, String key, int rows, int columns, double[] values) throws IOException {
+    public static void matrix(JsonGenerator g, String key, int rows, int columns, double[] values) throws IOException {
         g.writeFieldName(key);
         if (values == null) {
             g.writeNull();

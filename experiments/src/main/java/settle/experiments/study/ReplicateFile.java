@@ -2,8 +2,10 @@ package settle.experiments.study;
 
 import com.fasterxml.jackson.core.JsonGenerator;
 import java.io.IOException;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import settle.engine.schedule.NudgeLog;
 import settle.engine.theory.FixedPoint;
 import settle.engine.theory.NoiseBallPrediction;
 import settle.engine.train.EpochRecord;
@@ -11,6 +13,7 @@ import settle.engine.train.ReplicateResult;
 import settle.engine.train.ReplicateSeeds;
 import settle.engine.train.TailPlan;
 import settle.engine.train.Wander;
+import settle.experiments.plan.ArmPlan;
 import settle.experiments.run.ReplicateKey;
 
 /**
@@ -41,11 +44,42 @@ public final class ReplicateFile {
      */
     public static byte[] toJson(ReplicateKey key, String armName, int classes, ReplicateResult result,
             NoiseBallPrediction prediction) {
-        return Json.document(g -> write(g, key, armName, classes, result, prediction));
+        return toJson(key, armName, classes, result, prediction, List.of(), List.of());
+    }
+
+    /**
+     * @param nudges the nudges in force during the replicate (from ≤ its last epoch), in the order applied
+     * @param plateauCuts where a plateau schedule cut this replicate's rate, in epoch order
+     * @return the file's bytes
+     */
+    public static byte[] toJson(ReplicateKey key, String armName, int classes, ReplicateResult result,
+            NoiseBallPrediction prediction, List<NudgeLog.Entry> nudges, List<PlateauCuts.Cut> plateauCuts) {
+        return Json.document(g -> write(g, key, armName, classes, result, prediction, nudges, plateauCuts));
+    }
+
+    /**
+     * The file of replicate {@code key} of a study, as the runner writes it: with the nudges applied to it
+     * (those of its arm's log whose epoch it reached) and, for plateau arms, the epochs its rate was cut.
+     */
+    public static byte[] of(StudyContext context, ReplicateKey key, ReplicateResult result) {
+        ArmPlan arm = context.plan().arms().get(key.arm() - 1);
+        NudgeLog log = context.nudgeLog(key.arm());
+        List<NudgeLog.Entry> applied = new ArrayList<>();
+        int reached = result.epochs().size() + (result.diverged() ? 1 : 0);
+        if (log != null) {
+            for (NudgeLog.Entry e : log.entries()) {
+                if (e.from() <= reached) {
+                    applied.add(e);
+                }
+            }
+        }
+        List<PlateauCuts.Cut> cuts = PlateauCuts.of(arm.schedule().schedule(), context.shape(), result);
+        return toJson(key, arm.name(), context.model().classes(), result, context.predict(result), applied, cuts);
     }
 
     private static void write(JsonGenerator g, ReplicateKey key, String armName, int classes, ReplicateResult r,
-            NoiseBallPrediction prediction) throws IOException {
+            NoiseBallPrediction prediction, List<NudgeLog.Entry> nudges, List<PlateauCuts.Cut> plateauCuts)
+            throws IOException {
         g.writeStartObject();
         g.writeNumberField("format", FORMAT);
         g.writeNumberField("arm", key.arm());
@@ -124,6 +158,24 @@ public final class ReplicateFile {
         Json.array(g, "test_accuracy", testAccuracy);
         Json.array(g, "distance", distance);
         g.writeEndObject();
+
+        g.writeArrayFieldStart("nudges");
+        for (NudgeLog.Entry nudge : nudges) {
+            g.writeStartObject();
+            g.writeNumberField("from_epoch", nudge.from());
+            g.writeNumberField("factor", nudge.factor());
+            g.writeStringField("note", nudge.note());
+            g.writeEndObject();
+        }
+        g.writeEndArray();
+        g.writeArrayFieldStart("plateau_cuts");
+        for (PlateauCuts.Cut c : plateauCuts) {
+            g.writeStartObject();
+            g.writeNumberField("from_epoch", c.fromEpoch());
+            Json.number(g, "rate", c.rate());
+            g.writeEndObject();
+        }
+        g.writeEndArray();
 
         Json.array(g, "rates", r.rates());
         Json.array(g, "start", r.start());

@@ -8,6 +8,10 @@ import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
 import settle.engine.minimum.NoMinimiserException;
 import settle.engine.model.Model;
+import settle.engine.schedule.NudgeLog;
+import settle.engine.schedule.NudgedSchedule;
+import settle.engine.schedule.RunShape;
+import settle.engine.schedule.Schedule;
 import settle.engine.theory.BatchSampling;
 import settle.engine.theory.NoiseBallPrediction;
 import settle.engine.theory.NoiseBallTheory;
@@ -41,9 +45,11 @@ public final class StudyContext {
     private final NoiseBallTheory theory;
     private final String theorySkipped;
     private final List<Trainer> trainers;
+    private final List<NudgeLog> nudgeLogs;
 
     private StudyContext(ParsedPlan parsed, PlanData data, Model model, Minimum minimum, Curvature curvature,
-            NoiseBallTheory theory, String theorySkipped, List<Trainer> trainers) {
+            NoiseBallTheory theory, String theorySkipped, List<Trainer> trainers, List<NudgeLog> nudgeLogs) {
+        this.nudgeLogs = nudgeLogs;
         this.parsed = parsed;
         this.data = data;
         this.model = model;
@@ -88,6 +94,7 @@ public final class StudyContext {
             }
         }
         List<Trainer> trainers = new ArrayList<>();
+        List<NudgeLog> logs = new ArrayList<>();
         TrainingPlan t = plan.training();
         for (int i = 0; i < plan.arms().size(); i++) {
             ArmPlan arm = plan.arms().get(i);
@@ -97,7 +104,14 @@ public final class StudyContext {
             } catch (IllegalArgumentException e) {
                 throw parsed.error("training", e.getMessage());
             }
-            Trainer.Builder b = Trainer.builder(model, data.train(), arm.schedule().schedule(), settings)
+            Schedule schedule = arm.schedule().schedule();
+            NudgeLog log = null;
+            if (arm.nudged()) {
+                log = NudgeLog.of(arm.nudges());
+                schedule = new NudgedSchedule(schedule, log);
+            }
+            logs.add(log);
+            Trainer.Builder b = Trainer.builder(model, data.train(), schedule, settings)
                     .test(data.test())
                     .initialisation(plan.model().init());
             if (data.holdout() != null) {
@@ -112,7 +126,8 @@ public final class StudyContext {
                 throw parsed.error("arms[" + i + "]", e.getMessage());
             }
         }
-        return new StudyContext(parsed, data, model, minimum, curvature, theory, theorySkipped, trainers);
+        return new StudyContext(parsed, data, model, minimum, curvature, theory, theorySkipped, trainers,
+                java.util.Collections.unmodifiableList(logs));
     }
 
     /** @return the plan with its key positions */
@@ -170,6 +185,19 @@ public final class StudyContext {
         }
         int tail = (int) Math.min(result.rates().length, (long) Math.ceil(t.tail() * result.rates().length - 1e-9));
         return theory.predict(updates, offset, Math.max(1, tail), ObjectiveKind.LOGISTIC);
+    }
+
+    /**
+     * @return the nudge log of the arm with 1-based index {@code arm} (manual arms and arms with nudges fixed
+     *     in the plan; the runner appends a manual arm's live nudges to it), or null for an arm without nudges
+     */
+    public NudgeLog nudgeLog(int arm) {
+        return nudgeLogs.get(arm - 1);
+    }
+
+    /** @return the run's shape: epochs × updates per epoch */
+    public RunShape shape() {
+        return trainers.get(0).shape();
     }
 
     /** @return the trainer of the arm with 1-based index {@code arm} */

@@ -57,6 +57,25 @@ public final class StudyLock implements AutoCloseable {
         return new StudyLock(ch, lock);
     }
 
+    /**
+     * Whether a live process on this host holds the lock of {@code studyDir}, judged from the pid written in
+     * {@code .lock} (it does not take the lock, so it never gets in a starting run's way).
+     */
+    public static boolean heldByLiveProcess(Path studyDir) {
+        Path file = studyDir.resolve(FILE);
+        try {
+            String text = Files.readString(file, StandardCharsets.UTF_8).trim();
+            int at = text.indexOf('@');
+            if (at <= 0 || !text.substring(at + 1).equals(host())) {
+                return false;
+            }
+            long pid = Long.parseLong(text.substring(0, at));
+            return ProcessHandle.of(pid).map(ProcessHandle::isAlive).orElse(false);
+        } catch (IOException | NumberFormatException e) {
+            return false;
+        }
+    }
+
     private static String readHolder(FileChannel ch) throws IOException {
         ByteBuffer buf = ByteBuffer.allocate(512);
         int n = ch.read(buf, 0);
@@ -79,6 +98,8 @@ public final class StudyLock implements AutoCloseable {
     @Override
     public void close() throws IOException {
         try {
+            // an empty lock file tells readers that no run holds it any more
+            channel.truncate(0);
             lock.release();
         } finally {
             channel.close();

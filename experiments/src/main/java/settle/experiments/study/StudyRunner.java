@@ -12,8 +12,19 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
+import java.util.HashMap;
+import java.util.Map;
 import java.util.concurrent.atomic.AtomicInteger;
 import settle.datasets.Standardiser;
+import settle.engine.schedule.NudgeLog;
+import settle.experiments.manual.AppliedNudge;
+import settle.experiments.manual.LockstepRunner;
+import settle.experiments.manual.ManualArms;
+import settle.experiments.manual.NudgeQueue;
+import settle.experiments.manual.NudgeRequest;
+import settle.experiments.manual.NudgesCsv;
+import settle.experiments.manual.ProgressBoard;
+import settle.experiments.run.LocalExecutor;
 import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimum;
 import settle.engine.train.ReplicateResult;
@@ -65,6 +76,7 @@ public final class StudyRunner {
     private final List<String> commandLine;
     private final PrintStream err;
     private final Progress.Mode progressMode;
+    private final long paceMillis;
 
     /**
      * @param context the plan, its data and trainers
@@ -75,6 +87,19 @@ public final class StudyRunner {
      */
     public StudyRunner(StudyContext context, Path directory, ReplicateExecutor executor, List<String> commandLine,
             PrintStream err, Progress.Mode progressMode) {
+        this(context, directory, executor, commandLine, err, progressMode, 0);
+    }
+
+    /**
+     * @param paceMillis manual arms: the least time between two epoch ends, so that a person can follow and
+     *     nudge a short study (0: as fast as they train); results do not depend on it
+     */
+    public StudyRunner(StudyContext context, Path directory, ReplicateExecutor executor, List<String> commandLine,
+            PrintStream err, Progress.Mode progressMode, long paceMillis) {
+        if (paceMillis < 0) {
+            throw new IllegalArgumentException("--pace must be at least 0 milliseconds: " + paceMillis);
+        }
+        this.paceMillis = paceMillis;
         this.context = context;
         this.directory = directory;
         this.executor = executor;
@@ -103,24 +128,48 @@ public final class StudyRunner {
             if (fresh) {
                 clear();
             }
+            List<Integer> manualArms = ManualArms.indices(plan);
+            if (!manualArms.isEmpty() && !(executor instanceof LocalExecutor)) {
+                ManualArms.refuseUnlessLocal(plan, executor.describe());
+            }
             String started = Instant.now().toString();
             PlanWriter.write(plan, directory.resolve("plan.yaml"));
             if (context.minimum() != null) {
                 AtomicFiles.write(directory.resolve("reference.json"), referenceJson());
             }
+            Map<Integer, Integer> resume = resumeEpochs(manualArms);
+            List<AppliedNudge> logged = replayLoggedNudges();
             List<ReplicateKey> all = context.keys();
             List<ReplicateKey> missing = new ArrayList<>();
+            List<ReplicateKey> manualMissing = new ArrayList<>();
+            ProgressBoard board = new ProgressBoard(directory, plan);
+            int[] present = new int[plan.arms().size() + 1];
+            int[] presentDiverged = new int[plan.arms().size() + 1];
             for (ReplicateKey key : all) {
                 Path file = directory.resolve(ReplicateFile.relativePath(key));
                 AtomicFiles.removeLeftovers(file.getParent());
                 if (!Files.exists(file)) {
-                    missing.add(key);
+                    (plan.arms().get(key.arm() - 1).manual() ? manualMissing : missing).add(key);
+                } else {
+                    present[key.arm()]++;
+                    if ("diverged".equals(MAPPER.readTree(file.toFile()).path("status").asText())) {
+                        presentDiverged[key.arm()]++;
+                    }
                 }
             }
+            for (int a = 1; a <= plan.arms().size(); a++) {
+                board.state(a, present[a] == plan.replicates() ? ProgressBoard.State.FINISHED
+                        : ProgressBoard.State.PENDING, present[a], presentDiverged[a]);
+            }
+            board.write();
+            if (!manualArms.isEmpty()) {
+                ManualArms.writeReplay(directory, plan, logs());
+            }
             writeManifest(started, null, planHash, dataHash, splitHash);
-            Progress progress = new Progress(err, progressMode, all.size(), all.size() - missing.size());
+            int toRun = missing.size() + manualMissing.size();
+            Progress progress = new Progress(err, progressMode, all.size(), all.size() - toRun);
             ReplicateWork work = new LocalWork(context);
-            AtomicInteger written = new AtomicInteger(all.size() - missing.size());
+            AtomicInteger written = new AtomicInteger(all.size() - toRun);
             // Ctrl-C (or any signal that lets the JVM run its hooks): every replicate file is whole, since each
             // is renamed into place; say what is kept and how to go on. The JVM then exits with 130.
             Thread onInterrupt = new Thread(() -> {
@@ -130,12 +179,18 @@ public final class StudyRunner {
                 err.flush();
             }, "settle-interrupt-note");
             Runtime.getRuntime().addShutdownHook(onInterrupt);
+            ReplicateExecutor.Sink sink = outcome -> {
+                AtomicFiles.write(directory.resolve(ReplicateFile.relativePath(outcome.key())), outcome.file());
+                written.incrementAndGet();
+                progress.finished(outcome);
+                board.replicateWritten(outcome.key().arm(), outcome.diverged());
+                board.write();
+            };
             try {
-                executor.runAll(missing, work, outcome -> {
-                    AtomicFiles.write(directory.resolve(ReplicateFile.relativePath(outcome.key())), outcome.file());
-                    written.incrementAndGet();
-                    progress.finished(outcome);
-                });
+                new LockstepRunner(context, directory, board, executor.parallelism(), paceMillis, logged, resume)
+                        .run(manualMissing, sink::accept);
+                executor.runAll(missing, work, sink);
+                refuseLeftoverNudges();
             } finally {
                 try {
                     Runtime.getRuntime().removeShutdownHook(onInterrupt);
@@ -143,7 +198,10 @@ public final class StudyRunner {
                     // the hook is running or has run: nothing to undo
                 }
                 progress.close();
+                board.ended();
+                board.write();
             }
+            missing.addAll(manualMissing);
             EpochsTable.write(directory, plan, all);
             Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash);
             writeReport();
@@ -179,9 +237,8 @@ public final class StudyRunner {
     /** @return the finished replicate {@code key} of {@code context}, as its file's bytes */
     public static ReplicateOutcome outcome(StudyContext context, ReplicateKey key) {
         ReplicateResult result = context.train(key);
-        ArmPlan arm = context.plan().arms().get(key.arm() - 1);
-        byte[] file = ReplicateFile.toJson(key, arm.name(), context.model().classes(), result, context.predict(result));
-        return new ReplicateOutcome(key, file, result.diverged(), result.rates().length);
+        return new ReplicateOutcome(key, ReplicateFile.of(context, key, result), result.diverged(),
+                result.rates().length);
     }
 
     private void refuseChanged(Path manifestFile, String planHash, String dataHash, String splitHash) throws IOException {
@@ -219,8 +276,80 @@ public final class StudyRunner {
             }
         }
         for (String name : List.of("manifest.json", "reference.json", "epochs.csv", "summary.csv", "report.html",
-                "plan.yaml", "progress.json")) {
+                "plan.yaml", ProgressBoard.FILE, NudgesCsv.FILE, ManualArms.REPLAY_FILE)) {
             Files.deleteIfExists(directory.resolve(name));
+        }
+        NudgeQueue.clear(directory);
+    }
+
+    /** @return every arm's nudge log (null for arms without nudges), index 0 = arm 1 */
+    private List<NudgeLog> logs() {
+        List<NudgeLog> logs = new ArrayList<>();
+        for (int a = 1; a <= context.plan().arms().size(); a++) {
+            logs.add(context.nudgeLog(a));
+        }
+        return logs;
+    }
+
+    /**
+     * Puts the nudges recorded in {@code nudges.csv} (by the run this one resumes) back into the manual arms'
+     * logs, so the replicates still to train replay them.
+     */
+    private List<AppliedNudge> replayLoggedNudges() throws IOException {
+        List<AppliedNudge> logged = NudgesCsv.read(directory);
+        Plan plan = context.plan();
+        for (int a = 1; a <= plan.arms().size(); a++) {
+            if (context.nudgeLog(a) != null) {
+                context.nudgeLog(a).replaceAll(plan.arms().get(a - 1).nudges());
+            }
+        }
+        for (AppliedNudge n : logged) {
+            int a = n.armIndex();
+            if (a > plan.arms().size() || !plan.arms().get(a - 1).name().equals(n.arm())
+                    || !plan.arms().get(a - 1).manual()) {
+                throw new ChangedPlanException(directory.resolve(NudgesCsv.FILE) + ": a nudge of arm " + a + " '"
+                        + n.arm() + "', which is not a manual arm of this plan; use --fresh to discard the study");
+            }
+            context.nudgeLog(a).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
+        }
+        return logged;
+    }
+
+    /**
+     * @return per manual arm, the first epoch at whose end a waiting request may apply: the epoch that was in
+     *     progress when the run this one resumes stopped (from its progress.json), else 1
+     */
+    private Map<Integer, Integer> resumeEpochs(List<Integer> manualArms) {
+        Map<Integer, Integer> out = new HashMap<>();
+        Path file = directory.resolve(ProgressBoard.FILE);
+        if (manualArms.isEmpty() || !Files.exists(file)) {
+            return out;
+        }
+        try {
+            JsonNode old = MAPPER.readTree(file.toFile());
+            for (JsonNode arm : old.path("arms")) {
+                int index = arm.path("index").asInt();
+                if (manualArms.contains(index) && arm.path("name").asText().equals(
+                        context.plan().arms().get(index - 1).name())) {
+                    out.put(index, arm.path("epoch").asInt(0) + 1);
+                }
+            }
+        } catch (IOException | RuntimeException e) {
+            err.println("settle: note: " + file + " is unreadable (" + e.getMessage() + "); waiting nudges apply"
+                    + " from the first epoch end");
+        }
+        return out;
+    }
+
+    /** Refuses the requests still waiting when the run ends: no arm of it trains any more. */
+    private void refuseLeftoverNudges() throws IOException {
+        NudgeQueue.Pending pending = NudgeQueue.pending(directory);
+        for (NudgeQueue.Unreadable u : pending.unreadable()) {
+            NudgeQueue.refuse(directory, u.id(), u.reason());
+        }
+        for (NudgeRequest r : pending.requests()) {
+            NudgeQueue.refuse(directory, r.id(), LockstepRunner.refusal(context.plan(), r.arm(),
+                    LockstepRunner.armIndex(context.plan(), r.arm())));
         }
     }
 

@@ -89,6 +89,17 @@ final class StudySchema {
                 assertEquals(e, epochs.path(series).size(), "epochs." + series);
             }
             assertTrue(r.path("prediction").path("predicted").isBoolean());
+            assertTrue(r.path("nudges").isArray(), "nudges");
+            for (JsonNode nudge : r.path("nudges")) {
+                assertTrue(nudge.path("from_epoch").asInt() >= 1 && nudge.path("factor").asDouble() > 0
+                        && nudge.path("note").isTextual(), "nudge " + nudge);
+            }
+            assertTrue(r.path("plateau_cuts").isArray(), "plateau_cuts");
+            int previousCut = 1;
+            for (JsonNode cut : r.path("plateau_cuts")) {
+                assertTrue(cut.path("from_epoch").asInt() > previousCut, "plateau cuts in epoch order, from epoch 2");
+                previousCut = cut.path("from_epoch").asInt();
+            }
             if (status.equals("finished")) {
                 assertEquals(r.path("total_updates").asLong(), updates);
                 assertEquals(parameters, r.path("tail_mean").size());

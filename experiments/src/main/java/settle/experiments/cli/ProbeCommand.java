@@ -1,0 +1,161 @@
+package settle.experiments.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import settle.engine.probe.RangeTest;
+import settle.engine.schedule.RunShape;
+import settle.experiments.plan.ArmPlan;
+import settle.experiments.plan.ParsedPlan;
+import settle.experiments.plan.PlanData;
+import settle.experiments.plan.PlanParser;
+import settle.experiments.probe.Probe;
+import settle.experiments.probe.ProbePage;
+import settle.experiments.study.AtomicFiles;
+
+/**
+ * {@code settle probe PLAN}: a learning-rate range test on the plan's data and model (Smith, WACV 2017, with
+ * a geometric ramp), printed as a table with the largest stable rate of each seed, the stability bound
+ * 2/λmax(H) for convex models and the suggested initial-rate range, and drawn in a small HTML page.
+ */
+@Command(name = "probe", mixinStandardHelpOptions = true,
+        description = "Learning-rate range test on a plan's data and model: a suggested initial-rate range.")
+public final class ProbeCommand implements Callable<Integer> {
+
+    /** Table rows printed per sweep (evenly spaced updates, and the last). */
+    static final int TABLE_ROWS = 30;
+
+    @Parameters(index = "0", paramLabel = "PLAN", description = "the plan YAML file")
+    Path planFile;
+
+    @Option(names = "--seeds", paramLabel = "S", description = "sweeps, from replicates 1..S (default: the smaller of"
+            + " 5 and the plan's replicates)")
+    Integer seeds;
+
+    @Option(names = "--updates", paramLabel = "U", description = "updates per sweep (default ${DEFAULT-VALUE})")
+    int updates = 300;
+
+    @Option(names = "--from", paramLabel = "RATE", description = "first rate (default ${DEFAULT-VALUE})")
+    double from = 1e-5;
+
+    @Option(names = "--to", paramLabel = "RATE", description = "top of the sweep (default ${DEFAULT-VALUE})")
+    double to = 100;
+
+    @Option(names = "--html", paramLabel = "FILE", description = "the page (default: <study>-probe.html)")
+    Path html;
+
+    @Spec
+    CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        ParsedPlan parsed;
+        Probe.Result r;
+        try {
+            parsed = PlanParser.read(planFile);
+            int s = seeds != null ? seeds : Math.min(5, parsed.plan().replicates());
+            r = Probe.run(parsed, s, from, to, updates);
+        } catch (IllegalArgumentException e) {
+            out.flush();
+            err.println(e.getMessage());
+            return Main.BAD_INPUT;
+        }
+        String study = parsed.plan().study();
+        out.printf(Locale.ROOT, "rate range test of plan %s: %d sweeps (replicates 1..%d), %d updates each, rate"
+                + " grown geometrically from %s to %s; a sweep stops once the training objective exceeds %s× its"
+                + " lowest value so far or is not finite%n", planFile, r.sweeps().size(), r.sweeps().size(), r.updates(),
+                num(r.from()), num(r.to()), num(RangeTest.BLOW_UP));
+        out.println("(the range test: Smith, \"Cyclical Learning Rates for Training Neural Networks\", WACV 2017,"
+                + " which ramps linearly; the geometric ramp is common practice)");
+        out.println();
+        printTable(out, r);
+        out.println();
+        StringBuilder stable = new StringBuilder("largest stable rate per seed:");
+        for (int k = 0; k < r.largestStable().length; k++) {
+            stable.append(String.format(Locale.ROOT, " %d: %s%s", k + 1, num(r.largestStable()[k]),
+                    r.sweeps().get(k).stopped() ? "" : " (top of the sweep)"));
+        }
+        out.println(stable);
+        out.println("largest stable rate (median over the seeds): " + num(r.upper()));
+        if (Double.isFinite(r.stabilityBound())) {
+            out.println("stability bound of the mean at θ*, 2/λmax(H): " + num(r.stabilityBound()));
+        } else {
+            out.println("stability bound: not computed (" + r.boundNote() + ")");
+        }
+        out.println("suggested initial-rate range: " + num(r.lower()) + " to " + num(r.upper())
+                + " (upper end: the median over the seeds of the largest stable rate; lower end: a tenth of it)");
+        List<String> arms = armLines(parsed, r);
+        for (String line : arms) {
+            out.println("  " + line);
+        }
+        Path page = html != null ? html : Path.of(study + "-probe.html");
+        try {
+            AtomicFiles.write(page, ProbePage.html(study, r, arms));
+        } catch (IOException e) {
+            err.println("settle probe: cannot write " + page + ": " + e.getMessage());
+            return Main.FAILED;
+        }
+        out.println("wrote " + page);
+        return Main.OK;
+    }
+
+    private static void printTable(PrintWriter out, Probe.Result r) {
+        int longest = 0;
+        for (RangeTest.Sweep s : r.sweeps()) {
+            longest = Math.max(longest, s.rates().length);
+        }
+        StringBuilder head = new StringBuilder(String.format(Locale.ROOT, "  %6s %11s", "update", "rate"));
+        for (int k = 1; k <= r.sweeps().size(); k++) {
+            head.append(String.format(Locale.ROOT, " %11s", "F seed " + k));
+        }
+        out.println(head);
+        int step = Math.max(1, (int) Math.ceil(longest / (double) TABLE_ROWS));
+        for (int i = 0; i < longest; i++) {
+            if (i % step != 0 && i != longest - 1) {
+                continue;
+            }
+            double rate = Double.NaN;
+            StringBuilder row = new StringBuilder();
+            for (RangeTest.Sweep s : r.sweeps()) {
+                if (i < s.rates().length) {
+                    rate = s.rates()[i];
+                    row.append(String.format(Locale.ROOT, " %11s", num(s.objectives()[i])));
+                } else {
+                    row.append(String.format(Locale.ROOT, " %11s", "stopped"));
+                }
+            }
+            out.println(String.format(Locale.ROOT, "  %6d %11s", i + 1, num(rate)) + row);
+        }
+    }
+
+    private static List<String> armLines(ParsedPlan parsed, Probe.Result r) {
+        List<String> lines = new ArrayList<>();
+        RunShape shape = PlanData.load(parsed).shape(parsed.plan());
+        for (int i = 0; i < parsed.plan().arms().size(); i++) {
+            ArmPlan a = parsed.plan().arms().get(i);
+            double max = 0;
+            for (double v : a.schedule().schedule().plannedRates(shape)) {
+                max = Math.max(max, v);
+            }
+            String where = max > r.upper() ? "above the suggested range" : max < r.lower() ? "below the suggested range"
+                    : "inside the suggested range";
+            lines.add("arm #" + (i + 1) + " '" + a.name() + "': largest planned rate " + num(max) + ", " + where);
+        }
+        return lines;
+    }
+
+    private static String num(double v) {
+        return Double.isFinite(v) ? String.format(Locale.ROOT, "%.4g", v) : "—";
+    }
+}
