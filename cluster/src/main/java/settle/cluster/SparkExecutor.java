@@ -81,8 +81,9 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
     /**
      * The configuration settle starts Spark with: {@code spark.*} system properties (and what
      * {@code spark-submit} set) first, then settle's defaults where those say nothing: no web UI, no limit on
-     * the results' total size (they stream to disk, not to memory), and for a local master the driver on the
-     * loopback address.
+     * the results' total size (they stream to disk, not to memory), for a local master the driver on the
+     * loopback address, and for any other master (unless {@code spark.jars} is set, as spark-submit does) the
+     * jar settle runs from, shipped to the executors.
      *
      * @return the configuration for {@code master}
      */
@@ -93,8 +94,28 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
         if (master.startsWith("local")) {
             conf.setIfMissing("spark.driver.host", "127.0.0.1");
             conf.setIfMissing("spark.driver.bindAddress", "127.0.0.1");
+        } else if (!conf.contains("spark.jars")) {
+            // started by ./settle rather than spark-submit: ship this jar, so the executors have settle's classes
+            String jar = ownJar();
+            if (jar != null) {
+                conf.set("spark.jars", jar);
+            }
         }
         return conf;
+    }
+
+    /** @return the jar this class was loaded from, or null when it was loaded from a directory (tests) */
+    private static String ownJar() {
+        try {
+            java.security.CodeSource source = SparkExecutor.class.getProtectionDomain().getCodeSource();
+            if (source == null) {
+                return null;
+            }
+            java.nio.file.Path path = java.nio.file.Path.of(source.getLocation().toURI());
+            return path.toString().endsWith(".jar") ? path.toString() : null;
+        } catch (java.net.URISyntaxException | SecurityException e) {
+            return null;
+        }
     }
 
     private synchronized JavaSparkContext started() {
@@ -104,7 +125,11 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
             } catch (Exception e) {
                 // Scala declares no exceptions: a master Spark cannot parse comes as a SparkException
                 if (e instanceof SparkException) {
-                    throw new IllegalArgumentException("--cluster " + master + ": " + firstLine(e.getMessage()), e);
+                    String hint = master.startsWith("yarn") || master.startsWith("k8s://")
+                            ? " (settle's cluster build holds Spark's core only: submit to YARN or Kubernetes with"
+                                    + " spark-submit from a Spark installation, docs/cluster.md)"
+                            : "";
+                    throw new IllegalArgumentException("--cluster " + master + ": " + firstLine(e.getMessage()) + hint, e);
                 }
                 throw e;
             }
