@@ -55,7 +55,7 @@ public final class DemoCommand implements Callable<Integer> {
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());
         int code = RunCommand.execute(spec, () -> PlanParser.read(planText(), "demo.yaml", Path.of("")), out, threads,
-                true, quiet, false, command);
+                null, true, quiet, false, command, 0);
         if (code == Main.OK || code == Main.INCOMPLETE) {
             Path where = out != null ? out : Path.of("studies", "frost-demo");
             spec.commandLine().getOut().println("demo study written to " + where.toAbsolutePath().normalize());

@@ -17,6 +17,8 @@ import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.run.LocalExecutor;
 import settle.experiments.run.Progress;
+import settle.experiments.run.ReplicateExecutor;
+import settle.experiments.study.ClusterExecutorFactory;
 import settle.experiments.study.StudyContext;
 import settle.experiments.study.StudyLock;
 import settle.experiments.study.StudyRunner;
@@ -38,6 +40,11 @@ public final class RunCommand implements Callable<Integer> {
 
     @Option(names = "--threads", paramLabel = "N", description = "replicates trained at once (default: the core count, ${DEFAULT-VALUE})")
     int threads = Runtime.getRuntime().availableProcessors();
+
+    @Option(names = "--cluster", paramLabel = "MASTER",
+            description = "run the replicates as Apache Spark tasks on MASTER (local[N], spark://HOST:PORT, yarn);"
+                    + " needs the cluster build (docs/cluster.md)")
+    String cluster;
 
     @Option(names = "--fresh", description = "discard the results of an existing study in the directory first")
     boolean fresh;
@@ -61,7 +68,11 @@ public final class RunCommand implements Callable<Integer> {
         List<String> command = new ArrayList<>();
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());
-        return execute(spec, () -> PlanParser.read(planFile), out, threads, fresh, quiet, json, command, pace);
+        if (cluster != null && spec.commandLine().getParseResult().hasMatchedOption("--threads")) {
+            spec.commandLine().getErr().println("warning: --threads is ignored with --cluster: the cluster's cores"
+                    + " decide how many replicates run at once");
+        }
+        return execute(spec, () -> PlanParser.read(planFile), out, threads, cluster, fresh, quiet, json, command, pace);
     }
 
     /** Supplies the parsed plan (from a file, or the bundled demo). */
@@ -70,15 +81,14 @@ public final class RunCommand implements Callable<Integer> {
         ParsedPlan read();
     }
 
-    /** Shared by {@code run} and {@code demo}. */
-    static int execute(CommandSpec spec, PlanSource source, Path out, int threads, boolean fresh, boolean quiet,
-            boolean json, List<String> command) {
-        return execute(spec, source, out, threads, fresh, quiet, json, command, 0);
-    }
-
-    /** Shared by {@code run} and {@code demo}; {@code pace} in milliseconds (manual arms). */
-    static int execute(CommandSpec spec, PlanSource source, Path out, int threads, boolean fresh, boolean quiet,
-            boolean json, List<String> command, long pace) {
+    /**
+     * Shared by {@code run} and {@code demo}.
+     *
+     * @param cluster the cluster's master for {@code --cluster}, or null to train on local threads
+     * @param pace at least this many milliseconds between two epoch ends of a manual arm (0: no pause)
+     */
+    static int execute(CommandSpec spec, PlanSource source, Path out, int threads, String cluster, boolean fresh,
+            boolean quiet, boolean json, List<String> command, long pace) {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
         if (threads < 1) {
@@ -91,9 +101,13 @@ public final class RunCommand implements Callable<Integer> {
         }
         StudyRunner.Outcome outcome;
         try {
+            ClusterExecutorFactory factory = cluster == null ? null : ClusterExecutorFactory.find();
             ParsedPlan parsed = source.read();
             for (String w : parsed.warnings()) {
                 stderr.println("warning: " + w);
+            }
+            if (factory != null) {
+                ClusterExecutorFactory.refuseManualArms(parsed);
             }
             StudyContext context = StudyContext.build(parsed);
             for (String w : context.data().warnings()) {
@@ -102,9 +116,16 @@ public final class RunCommand implements Callable<Integer> {
             Path directory = out != null ? out : Path.of("studies", parsed.plan().study());
             stderr.flush();
             PrintStream progressStream = System.err;
-            StudyRunner runner = new StudyRunner(context, directory, new LocalExecutor(threads), command,
-                    progressStream, Progress.choose(quiet), pace);
-            outcome = runner.run(fresh);
+            ReplicateExecutor executor = factory == null ? new LocalExecutor(threads) : factory.create(cluster, context);
+            try {
+                StudyRunner runner = new StudyRunner(context, directory, executor, command, progressStream,
+                        Progress.choose(quiet), pace);
+                outcome = runner.run(fresh);
+            } finally {
+                if (executor instanceof AutoCloseable closeable) {
+                    closeable.close();
+                }
+            }
         } catch (NoMinimiserException | StudyLock.LockHeldException e) {
             stderr.println("settle run: " + e.getMessage());
             return Main.FAILED;

@@ -65,8 +65,7 @@ public final class PlanData {
      *         fraction whose split cannot be made
      */
     public static PlanData load(ParsedPlan parsed) {
-        Plan plan = parsed.plan();
-        DataPlan d = plan.data();
+        DataPlan d = parsed.plan().data();
         Dataset all;
         try {
             all = DataSources.load(d.source(), d.label(), null);
@@ -74,6 +73,21 @@ public final class PlanData {
             throw parsed.error(d.label() != null && e.getMessage() != null && e.getMessage().contains("label")
                     ? "data.label" : "data.source", e.getMessage());
         }
+        return split(parsed, all);
+    }
+
+    /**
+     * Splits (and standardises) rows already read, exactly as {@link #load} does after reading them: a cluster
+     * worker that receives the rows from the driver gets the same splits without reading the source again.
+     *
+     * @param parsed the plan with its key positions
+     * @param all every row of the plan's data source, as read; not modified
+     * @return the splits
+     * @throws PlanException positioned at the fraction whose split cannot be made
+     */
+    public static PlanData split(ParsedPlan parsed, Dataset all) {
+        Plan plan = parsed.plan();
+        DataPlan d = plan.data();
         Split testSplit;
         try {
             testSplit = Splits.stratified(all, d.testFraction(), testSplitSeed(plan.seed()));

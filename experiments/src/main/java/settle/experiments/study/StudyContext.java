@@ -67,8 +67,18 @@ public final class StudyContext {
      * @throws NoMinimiserException when a convex model's objective has no minimiser
      */
     public static StudyContext build(ParsedPlan parsed) {
+        return build(parsed, PlanData.load(parsed));
+    }
+
+    /**
+     * As {@link #build(ParsedPlan)}, from data already loaded and split (a cluster worker builds its context
+     * from the rows the driver shipped, split by {@link PlanData#split}).
+     *
+     * @param parsed the plan with its key positions
+     * @param data the plan's data, loaded and split as {@link PlanData#load} does
+     */
+    public static StudyContext build(ParsedPlan parsed, PlanData data) {
         Plan plan = parsed.plan();
-        PlanData data = PlanData.load(parsed);
         Model model;
         try {
             model = plan.model().build(data.train().features(), data.train().classes());
