@@ -31,6 +31,11 @@ final class SyntheticStudy {
         int snapshotRows;
         double[] probabilities;
         int classes = 2;
+        /** Nudges in force: {from_epoch, factor} with the note at the same index of {@link #nudgeNotes}. */
+        List<double[]> nudges = new ArrayList<>();
+        List<String> nudgeNotes = new ArrayList<>();
+        /** Plateau cuts: {from_epoch, rate}. */
+        List<double[]> plateauCuts = new ArrayList<>();
     }
 
     final List<String> arms = new ArrayList<>();
@@ -42,6 +47,12 @@ final class SyntheticStudy {
     int updatesPerEpoch = 5;
     boolean convex = true;
     String planText;
+    /** The text of nudges.csv, or null for none. */
+    String nudgesCsv;
+    /** The a-priori bound's value per arm for reference.json (with D = 2, G = 3), or null to leave the block out. */
+    double[] bound;
+    /** When set, reference.json's bound block says it was skipped, for this reason. */
+    String boundSkipped;
 
     /** Adds an arm whose replicates are filled in by the test. */
     List<Rep> arm(String name, boolean average, int count) {
@@ -149,7 +160,23 @@ final class SyntheticStudy {
             r.put("lambda_min", 0.1);
             r.put("lambda_max", 0.3);
             r.put("stability_bound", 2 / 0.3);
+            if (boundSkipped != null) {
+                r.putObject("last_iterate_bound").put("source", "test").put("skipped", boundSkipped);
+            } else if (bound != null) {
+                ObjectNode b = r.putObject("last_iterate_bound");
+                b.put("source", "Defazio et al. 2023, Theorem 10 (test)");
+                b.put("rates", "planned");
+                b.put("d", 2.0);
+                b.put("g", 3.0);
+                ArrayNode values = b.putArray("arms");
+                for (int a = 0; a < bound.length; a++) {
+                    values.addObject().put("index", a + 1).put("name", arms.get(a)).put("value", bound[a]);
+                }
+            }
             MAPPER.writeValue(dir.resolve("reference.json").toFile(), r);
+        }
+        if (nudgesCsv != null) {
+            Files.writeString(dir.resolve("nudges.csv"), nudgesCsv);
         }
         List<String> skipped = List.of(skip);
         for (int a = 0; a < arms.size(); a++) {
@@ -228,6 +255,15 @@ final class SyntheticStudy {
         ArrayNode rates = r.putArray("rates");
         for (int u = 0; u < (diverged ? 7 : epochs * updatesPerEpoch); u++) {
             rates.add(0.5 / (1 + a * (u / updatesPerEpoch)));
+        }
+        ArrayNode nudges = r.putArray("nudges");
+        for (int i = 0; i < rep.nudges.size(); i++) {
+            nudges.addObject().put("from_epoch", (int) rep.nudges.get(i)[0]).put("factor", rep.nudges.get(i)[1])
+                    .put("note", rep.nudgeNotes.get(i));
+        }
+        ArrayNode cuts = r.putArray("plateau_cuts");
+        for (double[] c : rep.plateauCuts) {
+            cuts.addObject().put("from_epoch", (int) c[0]).put("rate", c[1]);
         }
         array(r.putArray("start"), new double[p]);
         array(r.putArray("last"), rep.last);

@@ -17,10 +17,7 @@ import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
 import settle.engine.minimum.NoMinimiserException;
-import settle.engine.model.Initialisation;
 import settle.engine.model.Model;
-import settle.engine.theory.LastIterateBound;
-import settle.engine.train.ReplicateSeeds;
 import settle.engine.schedule.Asymptotics;
 import settle.engine.schedule.RateSums;
 import settle.engine.schedule.RunShape;
@@ -31,6 +28,7 @@ import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.plan.PlanWriter;
+import settle.experiments.study.AprioriBound;
 
 /**
  * {@code settle check PLAN}: validates a plan, prints it resolved, loads and splits its data, and shows every
@@ -291,32 +289,17 @@ public final class CheckCommand implements Callable<Integer> {
         out.println("a-priori ranking by the convex last-iterate bound (a worst-case BOUND on E[F(θ_T)] − F(θ*), not a"
                 + " prediction;");
         out.println("  Defazio et al. 2023, arXiv:2310.07831, Thm 10, as in Schaipp et al., ICML 2025, Thm 1):");
-        if (plan.training().momentum() != 0) {
-            out.println("  not computed: the bound is for SGD without momentum");
+        AprioriBound bound = AprioriBound.of(plan, model, train, minimum.theta(), rates);
+        if (!bound.computed()) {
+            out.println("  " + bound.skipped());
             return;
         }
-        double[] start = new double[model.parameterCount()];
-        if (plan.model().init() == Initialisation.REFERENCE) {
-            System.arraycopy(minimum.theta(), 0, start, 0, start.length);
-        } else {
-            model.initialise(start, plan.model().init(), ReplicateSeeds.derive(plan.seed(), 1).initialisationStream());
-        }
-        double g = LastIterateBound.gradientScale(model, train, start, plan.training().batch());
-        double[] gaugeFree = start.clone();
-        model.removeGauge(gaugeFree);
-        double d2 = 0;
-        for (int i = 0; i < gaugeFree.length; i++) {
-            double delta = gaugeFree[i] - minimum.theta()[i];
-            d2 += delta * delta;
-        }
-        double d = Math.sqrt(d2);
         out.printf(Locale.ROOT, "  D = ‖θ₀ − θ*‖ = %s (replicate 1's start), G = %s (root-mean-square norm of a"
-                + " batch gradient at θ₀)%n", rate(d), rate(g));
+                + " batch gradient at θ₀)%n", rate(bound.d()), rate(bound.g()));
         int n = plan.arms().size();
-        double[] value = new double[n];
+        double[] value = bound.values();
         Integer[] order = new Integer[n];
         for (int i = 0; i < n; i++) {
-            value[i] = LastIterateBound.value(rates.get(i), d, g);
             order[i] = i;
         }
         java.util.Arrays.sort(order, (a, b) -> Double.compare(value[a], value[b]));

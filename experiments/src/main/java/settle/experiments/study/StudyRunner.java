@@ -371,6 +371,14 @@ public final class StudyRunner {
         Optional<String> skip = Curvature.skipReason(context.model());
         Curvature c = context.curvature() != null ? context.curvature()
                 : skip.isEmpty() ? Curvature.at(context.model(), context.data().train(), m.theta()) : null;
+        Plan plan = context.plan();
+        List<double[]> rates = new ArrayList<>();
+        List<String> names = new ArrayList<>();
+        for (var arm : plan.arms()) {
+            rates.add(arm.schedule().schedule().plannedRates(context.shape()));
+            names.add(arm.name());
+        }
+        AprioriBound bound = AprioriBound.of(plan, context.model(), context.data().train(), m.theta(), rates);
         return Json.document(g -> {
             g.writeStartObject();
             g.writeNumberField("format", ReplicateFile.FORMAT);
@@ -390,6 +398,7 @@ public final class StudyRunner {
                 Json.number(g, "lambda_max", c.lambdaMax());
                 Json.number(g, "stability_bound", c.stabilityBound());
             }
+            bound.write(g, names);
             g.writeEndObject();
         });
     }

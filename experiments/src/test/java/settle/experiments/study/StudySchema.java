@@ -62,6 +62,32 @@ final class StudySchema {
             JsonNode ref = MAPPER.readTree(dir.resolve("reference.json").toFile());
             assertEquals(parameters, ref.path("theta").size());
             assertTrue(ref.path("objective").isNumber() && ref.path("gradient_norm").isNumber());
+            JsonNode bound = ref.path(AprioriBound.KEY);
+            assertTrue(bound.isObject(), "reference.json has the a-priori bound block");
+            if (!bound.has("skipped")) {
+                assertEquals(arms, bound.path("arms").size(), "one bound value per arm");
+                for (int a = 0; a < arms; a++) {
+                    JsonNode arm = bound.path("arms").get(a);
+                    assertEquals(a + 1, arm.path("index").asInt());
+                    assertEquals(m.path("arms").get(a).path("name").asText(), arm.path("name").asText());
+                    // An arm whose replicate 1 finished without nudge or cut ran exactly its planned rates: the
+                    // recorded value is the bound of those rates with the recorded D and G.
+                    Path first = dir.resolve("arms/" + (a + 1) + "/1.json");
+                    if (!Files.isRegularFile(first)) {
+                        continue;
+                    }
+                    JsonNode r = MAPPER.readTree(first.toFile());
+                    if (r.path("status").asText().equals("finished") && r.path("nudges").isEmpty()
+                            && r.path("plateau_cuts").isEmpty()) {
+                        double[] rates = new double[r.path("rates").size()];
+                        for (int i = 0; i < rates.length; i++) {
+                            rates[i] = r.path("rates").get(i).asDouble();
+                        }
+                        assertEquals(settle.engine.theory.LastIterateBound.value(rates, bound.path("d").asDouble(),
+                                bound.path("g").asDouble()), arm.path("value").asDouble(), 0.0, "bound of arm " + (a + 1));
+                    }
+                }
+            }
         }
         int epochRows = 0;
         for (JsonNode rep : m.path("replicates")) {

@@ -53,6 +53,8 @@ final class Css {
             .chart .series { stroke-width: 1.8; stroke-linejoin: round; }
             .chart .series.predicted { stroke-width: 1.6; }
             .chart .band { opacity: 0.14; }
+            .chart .series.rate-replicate { stroke-width: 0.8; opacity: 0.55; }
+            .chart .mark-label { font-size: 10px; }
             .chart .median { stroke-width: 2.4; }
             .chart .reference { stroke: #333333; stroke-dasharray: 4 3; }
             .chart .snapshot { opacity: 0.55; }

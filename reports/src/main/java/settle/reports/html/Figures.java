@@ -67,31 +67,70 @@ final class Figures {
         double hi = 0;
         double xMax = 1;
         for (int a = 0; a < study.armCount(); a++) {
-            Replicate r = first(study, a);
-            if (r == null) {
-                continue;
-            }
-            for (double v : r.rates()) {
-                if (v > 0 && Double.isFinite(v)) {
-                    lo = Math.min(lo, v);
-                    hi = Math.max(hi, v);
+            for (Replicate r : drawnRates(study, a)) {
+                for (double v : r.rates()) {
+                    if (v > 0 && Double.isFinite(v)) {
+                        lo = Math.min(lo, v);
+                        hi = Math.max(hi, v);
+                    }
                 }
+                xMax = Math.max(xMax, 1 + (double) Math.max(r.rates().length, r.totalUpdates()) / perEpoch);
             }
-            xMax = Math.max(xMax, 1 + (double) Math.max(r.rates().length, r.totalUpdates()) / perEpoch);
         }
         SvgChart c = new SvgChart(w, "chart-rates", "chart", WIDE, 340, 70, Axis.fixed(1, xMax, "epoch (epoch 1 = the "
                 + "first pass; update u at 1 + (u − 1)/" + perEpoch + ")"), Axis.log(lo, hi, "rate α"),
                 "Learning rate of every update, per arm, on a log scale");
         for (int a = 0; a < study.armCount(); a++) {
-            Replicate r = first(study, a);
-            if (r == null) {
-                continue;
+            boolean cut = Marks.cut(study, a);
+            for (Replicate r : drawnRates(study, a)) {
+                double[][] xy = downsampleRates(r.rates(), perEpoch, MAX_BUCKETS);
+                c.line(xy[0], xy[1], Palette.style(a), cut ? "series rate-replicate" : "series rate");
+                if (cut) {
+                    for (var k : r.plateauCuts()) {
+                        c.tick(k.fromEpoch(), k.rate(), Palette.style(a), "cut",
+                                Marks.cutTooltip(study.armName(a), r, k.fromEpoch(), k.rate()));
+                    }
+                }
             }
-            double[][] xy = downsampleRates(r.rates(), perEpoch, MAX_BUCKETS);
-            c.line(xy[0], xy[1], Palette.style(a), "series rate");
         }
+        nudgeMarkers(c, study, 0);
         c.end();
         legend(w, study, true);
+    }
+
+    /**
+     * @return the replicates whose rates the rate chart draws for arm a: every present one when a plateau schedule
+     *     cut some replicate's rate (their rates differ), else the first present one
+     */
+    static List<Replicate> drawnRates(Study study, int a) {
+        List<Replicate> out = new ArrayList<>();
+        if (Marks.cut(study, a)) {
+            for (Replicate r : study.replicates().get(a)) {
+                if (r != null) {
+                    out.add(r);
+                }
+            }
+        } else if (first(study, a) != null) {
+            out.add(first(study, a));
+        }
+        return out;
+    }
+
+    /**
+     * One vertical marker (class "nudge") per nudge of every arm, at epoch {@code from − shift}: the rate chart
+     * marks the nudge's first update (shift 0); the objective chart the end of the epoch before it (shift 1, the
+     * last point before the nudge took effect; epoch 1 for a nudge in force from the start).
+     */
+    private static void nudgeMarkers(SvgChart c, Study study, int shift) {
+        java.util.Map<Integer, Integer> rows = new java.util.HashMap<>();
+        List<List<Marks.NudgeMark>> nudges = Marks.nudges(study);
+        for (int a = 0; a < nudges.size(); a++) {
+            for (Marks.NudgeMark n : nudges.get(a)) {
+                int x = Math.max(1, n.fromEpoch() - shift);
+                int row = rows.merge(x, 1, Integer::sum) - 1;
+                c.vertical(x, Palette.style(a), "nudge", n.label(), n.tooltip(study.armName(a)), Math.min(row, 5));
+            }
+        }
     }
 
     /**
@@ -214,6 +253,23 @@ final class Figures {
             c.band(xs, q1, q3, Palette.style(a), "band");
             c.line(xs, med, Palette.style(a), "series median");
         }
+        // Plateau cuts: a tick per replicate per cut, on that replicate's objective at the end of the epoch whose
+        // plateau triggered the cut (the epoch before the first one at the reduced rate).
+        for (int a = 0; a < study.armCount(); a++) {
+            for (Replicate r : study.replicates().get(a)) {
+                if (r == null) {
+                    continue;
+                }
+                double[] objective = r.epochs().objective();
+                for (var k : r.plateauCuts()) {
+                    int end = k.fromEpoch() - 1;
+                    double v = end >= 1 && end <= objective.length ? objective[end - 1] - shift : Double.NaN;
+                    c.tick(end, v, Palette.style(a), "cut", Marks.cutTooltip(study.armName(a), r, k.fromEpoch(),
+                            k.rate()));
+                }
+            }
+        }
+        nudgeMarkers(c, study, 1);
         c.end();
         legend(w, study, true);
     }

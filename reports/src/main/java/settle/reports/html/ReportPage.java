@@ -27,7 +27,7 @@ public final class ReportPage {
 
     /** Section ids, in page order. */
     public static final List<String> SECTIONS = List.of("verdict", "rates", "objective", "distance", "wander",
-            "tail-cloud", "grid", "replicates", "provenance", "limits");
+            "a-priori", "tail-cloud", "grid", "replicates", "provenance", "limits");
 
     /** The Content-Security-Policy of the page: nothing may be fetched; inline style and data images only. */
     public static final String CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:";
@@ -104,7 +104,7 @@ public final class ReportPage {
         w.open("nav");
         w.open("ul");
         String[] titles = {"Verdict", "Rates", "Training objective", "Distance to θ*", "Wander per replicate",
-            "Tail cloud", "Grid", "Replicates", "Provenance", "Limits"};
+            "A-priori bound", "Tail cloud", "Grid", "Replicates", "Provenance", "Limits"};
         for (int i = 0; i < SECTIONS.size(); i++) {
             w.open("li").element("a", titles[i], "href", "#" + SECTIONS.get(i)).close("li");
         }
@@ -117,6 +117,7 @@ public final class ReportPage {
         objective();
         distance();
         wander();
+        apriori();
         cloud();
         grid();
         replicates();
@@ -364,7 +365,10 @@ public final class ReportPage {
                 + "the rate of update u is drawn at epoch 1 + (u − 1)/U with U = " + manifest.updatesPerEpoch()
                 + " updates per epoch. A schedule read per epoch shows its epoch-1 value from the start, not its "
                 + "rate parameter: reciprocal decay α0/(1 + k·n) starts at α0/(1 + k). Replicate 1's rates are "
-                + "drawn (every replicate has the same unless the schedule reads losses, as plateau does).");
+                + "drawn (every replicate has the same unless the schedule reads losses, as plateau does: an arm whose "
+                + "rate a plateau schedule cut is drawn replicate by replicate, thin, with a tick where each "
+                + "replicate's rate was cut). A dashed vertical marker is a nudge: the arm's rates multiplied by the "
+                + "factor shown from that epoch on (hover for its note).");
         Figures.rates(w, study);
         w.open("table", "class", "compact");
         w.open("thead").open("tr");
@@ -396,7 +400,111 @@ public final class ReportPage {
             w.close("tr");
         }
         w.close("tbody").close("table");
+        nudgeTable();
+        plateauTable();
         endSection();
+    }
+
+    /** The nudges of every arm, in arm order and then the order applied; nothing when there is none. */
+    private void nudgeTable() {
+        List<List<Marks.NudgeMark>> nudges = Marks.nudges(study);
+        int count = 0;
+        for (List<Marks.NudgeMark> arm : nudges) {
+            count += arm.size();
+        }
+        if (count == 0) {
+            return;
+        }
+        w.element("h3", "Nudges");
+        para(count + " nudge" + (count == 1 ? "" : "s") + ": from its epoch on, every replicate of the arm ran at its "
+                + "base schedule's rates times the product of the factors in force. The resulting rate is the one at "
+                + "the first update of that epoch; a nudge without a time was fixed in the plan.");
+        w.open("table", "class", "compact", "id", "nudges");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"arm", "from epoch", "factor", "resulting rate", "note", "time"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int a = 0; a < nudges.size(); a++) {
+            for (Marks.NudgeMark n : nudges.get(a)) {
+                w.open("tr", "class", "nudge-row");
+                w.open("th", "scope", "row");
+                swatch(a);
+                w.text(study.armName(a));
+                w.close("th");
+                w.element("td", Integer.toString(n.fromEpoch()), "class", "num");
+                w.element("td", Format.sig(n.factor()), "class", "num");
+                w.element("td", Format.sig(n.rate()), "class", "num");
+                w.element("td", n.note().isEmpty() ? "—" : n.note());
+                w.element("td", n.time().isEmpty() ? "in the plan" : n.time());
+                w.close("tr");
+            }
+        }
+        w.close("tbody").close("table");
+    }
+
+    /**
+     * Per arm whose rate a plateau schedule cut: the median number of cuts over its replicates and the epochs of
+     * their first cuts; nothing when no rate was cut.
+     */
+    private void plateauTable() {
+        List<Integer> arms = new ArrayList<>();
+        for (int a = 0; a < study.armCount(); a++) {
+            if (Marks.cut(study, a)) {
+                arms.add(a);
+            }
+        }
+        if (arms.isEmpty()) {
+            return;
+        }
+        w.element("h3", "Plateau cuts");
+        para("Where a plateau schedule cut the rate, per replicate (the first epoch at each reduced rate): the number of "
+                + "cuts over the arm's replicates (type-7 median) and the epoch of each replicate's first cut.");
+        w.open("table", "class", "compact", "id", "plateau-cuts");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"arm", "replicates", "median cuts", "cuts (min–max)",
+            "first cut: median epoch", "first cut: epochs (min–max)", "never cut"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int a : arms) {
+            List<Double> cuts = new ArrayList<>();
+            List<Double> first = new ArrayList<>();
+            for (Replicate r : study.replicates().get(a)) {
+                if (r == null) {
+                    continue;
+                }
+                cuts.add((double) r.plateauCuts().size());
+                if (!r.plateauCuts().isEmpty()) {
+                    first.add((double) r.plateauCuts().get(0).fromEpoch());
+                }
+            }
+            double[] c = sorted(cuts);
+            double[] f = sorted(first);
+            w.open("tr");
+            w.open("th", "scope", "row");
+            swatch(a);
+            w.text(study.armName(a));
+            w.close("th");
+            w.element("td", Integer.toString(c.length), "class", "num");
+            w.element("td", Format.sig(settle.reports.stats.Quantiles.type7(c, 0.5)), "class", "num");
+            w.element("td", Format.sig(c[0]) + "–" + Format.sig(c[c.length - 1]), "class", "num");
+            w.element("td", f.length == 0 ? "—" : Format.sig(settle.reports.stats.Quantiles.type7(f, 0.5)), "class",
+                    "num");
+            w.element("td", f.length == 0 ? "—" : Format.sig(f[0]) + "–" + Format.sig(f[f.length - 1]), "class", "num");
+            w.element("td", Integer.toString(c.length - f.length), "class", "num");
+            w.close("tr");
+        }
+        w.close("tbody").close("table");
+    }
+
+    private static double[] sorted(List<Double> values) {
+        double[] out = new double[values.size()];
+        for (int i = 0; i < out.length; i++) {
+            out[i] = values.get(i);
+        }
+        java.util.Arrays.sort(out);
+        return out;
     }
 
     // ---------------------------------------------------------------- objective, distance
@@ -409,6 +517,11 @@ public final class ReportPage {
                         + "replicates as a line, the interquartile range as a band."
                 : "The full-batch training objective F(θ) at the end of each epoch: the median over each arm's finished "
                         + "replicates as a line, the interquartile range as a band.");
+        if (Marks.nudges(study).stream().anyMatch(l -> !l.isEmpty()) || anyCut()) {
+            para("A dashed vertical marker is a nudge, drawn at the end of the epoch before it took effect (the last "
+                    + "point at the old rate); a short tick is a plateau cut of one replicate, on its objective at the "
+                    + "end of the epoch that triggered it.");
+        }
         Figures.objective(w, study);
         endSection();
     }
@@ -517,6 +630,120 @@ public final class ReportPage {
         }
         Figures.legend(w, study, false);
         endSection();
+    }
+
+    private boolean anyCut() {
+        for (int a = 0; a < study.armCount(); a++) {
+            if (Marks.cut(study, a)) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    // ---------------------------------------------------------------- a-priori bound
+
+    private void apriori() {
+        section("a-priori", "A-priori ranking by a convex bound");
+        if (!study.convex()) {
+            para("Not shown: the last-iterate bound holds for convex objectives, and " + manifest.model()
+                    + " is not convex (the study has no reference minimiser θ*).");
+            endSection();
+            return;
+        }
+        settle.reports.study.Bound bound = study.reference().bound();
+        if (bound == null) {
+            para("Not shown: this study's reference.json does not record the last-iterate bound (it was written by an "
+                    + "earlier settle); settle check " + study.directory().resolve("plan.yaml") + " prints it.");
+            endSection();
+            return;
+        }
+        if (!bound.computed()) {
+            para("Not shown: " + bound.skipped() + ".");
+            endSection();
+            return;
+        }
+        if (bound.values().length != study.armCount()) {
+            para("Not shown: reference.json records the bound for " + bound.values().length + " arms; the study has "
+                    + study.armCount() + ".");
+            endSection();
+            return;
+        }
+        w.open("p");
+        w.element("strong", "A worst-case bound, not a prediction. ");
+        w.text("Each arm's value of the convex last-iterate bound on E[F(θ_T)] − F(θ*) for its planned rates η_1 … η_T "
+                + "(plateau arms without their cuts, nudged arms before their nudges): (D² + G² Σ η_t²) / (2 Σ η_t) + "
+                + "(G²/2) Σ_{k<T} η_k / (Σ_{t>k} η_t) · (Σ_{t≥k} η_t²) / (Σ_{t≥k} η_t), with D = ‖θ₀ − θ*‖ = "
+                + Format.sig(bound.d()) + " (replicate 1's start) and G = " + Format.sig(bound.g())
+                + " (the root-mean-square norm of a batch gradient at θ₀). It holds for non-smooth convex problems "
+                + "with bounded gradients and ranks schedules before any run; it does not say what the loss will be. "
+                + "Source: " + (bound.source().isEmpty() ? "Defazio et al. 2023, arXiv:2310.07831, Theorem 10; "
+                        + "Schaipp et al., ICML 2025, Theorem 1" : bound.source()) + ".");
+        w.close("p");
+        double[] radius = medians(Metric.TAIL_RADIUS);
+        double[] gap = medians(Metric.FINAL_GAP);
+        int[] byBound = ranks(bound.values());
+        int[] byRadius = ranks(radius);
+        int[] byGap = ranks(gap);
+        para("Ranks run from 1 (smallest) and ties share a rank. The empirical ranks are by the median over each arm's "
+                + "finished replicates; an arm whose replicates all diverged has none.");
+        w.open("div", "class", "scroll");
+        w.open("table", "class", "compact", "id", "bound-ranking");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"arm", "bound on E[F(θ_T)] − F(θ*) (worst case)", "rank by bound",
+            "median tail radius", "rank", "median final gap", "rank"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead").open("tbody");
+        for (int a = 0; a < study.armCount(); a++) {
+            w.open("tr");
+            w.open("th", "scope", "row");
+            swatch(a);
+            w.text(study.armName(a));
+            w.close("th");
+            w.element("td", Format.sig(bound.values()[a]), "class", "num");
+            w.element("td", rank(byBound[a]), "class", "num");
+            w.element("td", Format.sig(radius[a]), "class", "num");
+            w.element("td", rank(byRadius[a]), "class", "num");
+            w.element("td", Format.sig(gap[a]), "class", "num");
+            w.element("td", rank(byGap[a]), "class", "num");
+            w.close("tr");
+        }
+        w.close("tbody").close("table");
+        w.close("div");
+        endSection();
+    }
+
+    /** @return each arm's median of m over its finished replicates (NaN when none or unavailable) */
+    private double[] medians(Metric m) {
+        double[] out = new double[study.armCount()];
+        ArmSummary[] s = analysis.summaries(m);
+        for (int a = 0; a < out.length; a++) {
+            out[a] = s == null ? Double.NaN : s[a].median();
+        }
+        return out;
+    }
+
+    /** @return 1 + the number of finite values below each finite value (ties share the rank); 0 for NaN */
+    static int[] ranks(double[] values) {
+        int[] out = new int[values.length];
+        for (int i = 0; i < values.length; i++) {
+            if (!Double.isFinite(values[i])) {
+                continue;
+            }
+            int below = 0;
+            for (double v : values) {
+                if (Double.isFinite(v) && v < values[i]) {
+                    below++;
+                }
+            }
+            out[i] = 1 + below;
+        }
+        return out;
+    }
+
+    private static String rank(int r) {
+        return r == 0 ? "—" : Integer.toString(r);
     }
 
     private void cloud() {

@@ -166,6 +166,42 @@ public final class SvgChart {
     }
 
     /**
+     * A vertical marker across the plot at data value vx: a group of class {@code cssClass} holding its
+     * {@code <title>}, a dashed line in the style's colour and a small label near the top (row {@code row} of
+     * labels, so that markers of several arms at one epoch stay legible). Nothing when vx is off the axis.
+     */
+    public void vertical(double vx, Palette.Style style, String cssClass, String label, String tooltip, int row) {
+        double a = px(vx);
+        if (!Double.isFinite(a) || a < left - 0.5 || a > width - right + 0.5) {
+            return;
+        }
+        w.open("g", "class", cssClass);
+        w.element("title", tooltip);
+        w.empty("line", "x1", n(a), "x2", n(a), "y1", n(top), "y2", n(height - bottom), "stroke", style.colour(),
+                "stroke-width", "1.2", "stroke-dasharray", "3 2");
+        w.element("text", label, "class", "mark-label", "x", n(a + 3), "y", n(top + 10 + 11 * row), "fill",
+                style.colour());
+        w.close("g");
+    }
+
+    /**
+     * A short vertical tick of class {@code cssClass} centred on data point (vx, vy), held inside the plot, with
+     * a {@code <title>}. Nothing when vx is off the axis; a vy that cannot be drawn puts it on the bottom edge.
+     */
+    public void tick(double vx, double vy, Palette.Style style, String cssClass, String tooltip) {
+        double a = px(vx);
+        if (!Double.isFinite(a) || a < left - 0.5 || a > width - right + 0.5) {
+            return;
+        }
+        double b = py(vy);
+        b = Double.isFinite(b) ? Math.max(top + 5, Math.min(height - bottom - 5, b)) : height - bottom - 5;
+        w.open("line", "class", cssClass, "x1", n(a), "x2", n(a), "y1", n(b - 5), "y2", n(b + 5), "stroke",
+                style.colour(), "stroke-width", "1.6");
+        w.element("title", tooltip);
+        w.close("line");
+    }
+
+    /**
      * A marker at pixel (cx, cy).
      *
      * @param tooltip text of its {@code <title>} (or null)

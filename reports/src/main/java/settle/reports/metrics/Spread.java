@@ -71,9 +71,19 @@ public final class Spread {
      * @return the mean squared distance of the drawn vectors to their mean (per unit of the divisor), ≥ 0
      */
     public static double meanSquaredDeviation(double[] gram, int[] counts) {
+        int[] drawn = new int[counts.length];
+        return meanSquaredDeviation(gram, counts, drawn, drawn(counts, drawn));
+    }
+
+    /**
+     * As {@link #meanSquaredDeviation(double[], int[])} with the drawn indices already listed (same value, bit for
+     * bit): the joint bootstrap lists them once per resample for every statistic.
+     *
+     * @param drawn the indices with a non-zero count, increasing, in its first m entries. Not modified.
+     * @param m how many
+     */
+    public static double meanSquaredDeviation(double[] gram, int[] counts, int[] drawn, int m) {
         int s = counts.length;
-        int[] drawn = new int[s];
-        int m = nonZero(counts, drawn);
         double total = 0.0;
         double diagonal = 0.0;
         double quadratic = 0.0;
@@ -92,8 +102,13 @@ public final class Spread {
         return Math.max(0.0, diagonal / total - quadratic / (total * total));
     }
 
-    /** Writes the indices with a non-zero count, in increasing order, into {@code drawn}; returns how many. */
-    private static int nonZero(int[] counts, int[] drawn) {
+    /**
+     * Writes the indices with a non-zero count, in increasing order, into {@code drawn}; returns how many.
+     *
+     * @param counts not modified
+     * @param drawn modified: its first entries receive the indices
+     */
+    public static int drawn(int[] counts, int[] drawn) {
         int m = 0;
         for (int a = 0; a < counts.length; a++) {
             if (counts[a] != 0) {
@@ -110,9 +125,18 @@ public final class Spread {
      * @return the mean of D over the pairs of positions in the drawn sample (equal draws disagree nowhere)
      */
     public static double meanPairwise(double[] disagreement, int[] counts) {
+        int[] drawn = new int[counts.length];
+        return meanPairwise(disagreement, counts, drawn, drawn(counts, drawn));
+    }
+
+    /**
+     * As {@link #meanPairwise(double[], int[])} with the drawn indices already listed (same value, bit for bit).
+     *
+     * @param drawn the indices with a non-zero count, increasing, in its first m entries. Not modified.
+     * @param m how many
+     */
+    public static double meanPairwise(double[] disagreement, int[] counts, int[] drawn, int m) {
         int s = counts.length;
-        int[] drawn = new int[s];
-        int m = nonZero(counts, drawn);
         double total = 0.0;
         double quadratic = 0.0;
         for (int x = 0; x < m; x++) {

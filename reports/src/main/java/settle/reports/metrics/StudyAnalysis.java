@@ -330,17 +330,25 @@ public final class StudyAnalysis {
             int from = starts.get(g);
             int to = starts.get(g + 1);
             int[] counts = new int[s];
+            int[] drawn = new int[s];
+            double[][] gramOf = new double[to - from][];
+            int[] kindOf = new int[to - from];
+            for (int o = from; o < to; o++) {
+                gramOf[o - from] = grams.get(o);
+                kindOf[o - from] = kinds.get(o);
+            }
             Interval[] part = Bootstrap.jointIntervals(s, to - from, (indices, out) -> {
                 java.util.Arrays.fill(counts, 0);
                 for (int i : indices) {
                     counts[i]++;
                 }
-                for (int o = from; o < to; o++) {
-                    double[] gram = grams.get(o);
-                    switch (kinds.get(o)) {
-                        case 0 -> out[o - from] = Math.sqrt(Spread.meanSquaredDeviation(gram, counts));
-                        case 1 -> out[o - from] = Spread.meanSquaredDeviation(gram, counts);
-                        default -> out[o - from] = Spread.meanPairwise(gram, counts);
+                int m = Spread.drawn(counts, drawn);
+                for (int o = 0; o < gramOf.length; o++) {
+                    double[] gram = gramOf[o];
+                    switch (kindOf[o]) {
+                        case 0 -> out[o] = Math.sqrt(Spread.meanSquaredDeviation(gram, counts, drawn, m));
+                        case 1 -> out[o] = Spread.meanSquaredDeviation(gram, counts, drawn, m);
+                        default -> out[o] = Spread.meanPairwise(gram, counts, drawn, m);
                     }
                 }
             }, options.seed(), options.resamples(), options.confidence());

@@ -11,7 +11,8 @@ package settle.reports.study;
  * @param stabilityBound 2/λmax(H), or NaN when skipped
  * @param gaugeDimension gauge directions left out of H (0 for binary logistic; −1 when the curvature was
  *     skipped and the file does not say)
+ * @param bound the a-priori last-iterate bound of each arm, or null when the file does not record it
  */
 public record Reference(double[] theta, double objective, double gradientNorm, String method, double[] eigenvalues,
-        double stabilityBound, int gaugeDimension) {
+        double stabilityBound, int gaugeDimension, Bound bound) {
 }

@@ -23,11 +23,19 @@ package settle.reports.study;
  * @param testClasses columns of the test probabilities
  * @param testProbabilities test-set class probabilities, rows × K row-major (null when none)
  * @param prediction the predicted noise ball, or a skipped one
+ * @param nudges the nudges in force during the replicate, in the order applied (empty when none)
+ * @param plateauCuts where a plateau schedule cut its rate, in epoch order (empty when none)
  */
 public record Replicate(int arm, String armName, int replicate, long initialisationSeed, long samplingSeed,
         String status, long divergedAtUpdate, long totalUpdates, boolean averageTail, double initialObjective,
         double[] metrics, Epochs epochs, double[] rates, double[] last, double[] tailMean, int snapshotRows,
-        double[] snapshots, int testClasses, double[] testProbabilities, Prediction prediction) {
+        double[] snapshots, int testClasses, double[] testProbabilities, Prediction prediction,
+        java.util.List<Nudge> nudges, java.util.List<PlateauCut> plateauCuts) {
+
+    public Replicate {
+        nudges = java.util.List.copyOf(nudges);
+        plateauCuts = java.util.List.copyOf(plateauCuts);
+    }
 
     /** @return true when the replicate diverged */
     public boolean diverged() {

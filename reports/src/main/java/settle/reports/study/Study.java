@@ -12,9 +12,10 @@ import java.util.List;
  * @param reference θ* and its curvature, or null for a model with no reference minimiser
  * @param replicates {@code replicates.get(a).get(k)} is replicate k + 1 of arm a + 1, or null when its file
  *     is missing
+ * @param nudgeLog the rows of {@code nudges.csv} in the order applied (empty when the study has none)
  */
 public record Study(Path directory, Manifest manifest, String planText, Reference reference,
-        List<List<Replicate>> replicates) {
+        List<List<Replicate>> replicates, List<NudgeRecord> nudgeLog) {
 
     public Study {
         if (replicates.size() != manifest.arms().size()) {
@@ -22,6 +23,7 @@ public record Study(Path directory, Manifest manifest, String planText, Referenc
                     + manifest.arms().size() + " arms in the manifest");
         }
         replicates = replicates.stream().map(java.util.Collections::unmodifiableList).toList();
+        nudgeLog = List.copyOf(nudgeLog);
     }
 
     /** @return the number of arms */

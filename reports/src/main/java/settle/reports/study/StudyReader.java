@@ -2,18 +2,15 @@ package settle.reports.study;
 
 import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.core.StreamReadFeature;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.json.JsonMapper;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Iterator;
 import java.util.List;
+import java.util.Map;
+import java.util.Set;
 
 /**
  * Reads a study directory through its documented format (version 1: {@code manifest.json}, {@code plan.yaml},
@@ -26,8 +23,14 @@ public final class StudyReader {
     /** The study directory format this reader understands. */
     public static final int FORMAT = 1;
 
-    private static final ObjectMapper MAPPER = JsonMapper.builder()
-            .enable(StreamReadFeature.USE_FAST_DOUBLE_PARSER).build();
+    /** The header of {@code nudges.csv}. */
+    public static final String NUDGES_HEADER = "arm_index,arm,from_epoch,factor,rate,note,time,request";
+
+    /** Keys of a replicate file the report does not read: skipped unparsed. */
+    private static final Set<String> REPLICATE_SKIP = Set.of("tail", "holdout_loss", "start", "epoch_excess_loss",
+            "fixed_point");
+    /** Keys of the manifest the report does not read. */
+    private static final Set<String> MANIFEST_SKIP = Set.of("standardisation");
 
     private StudyReader() {
     }
@@ -47,7 +50,7 @@ public final class StudyReader {
             throw new StudyFormatException(directory + ": not a study directory (no manifest.json; "
                     + "a study directory is made by settle run)");
         }
-        JsonNode m = parse(manifestFile);
+        Map<String, Object> m = parse(manifestFile, MANIFEST_SKIP);
         Manifest manifest = manifest(manifestFile, m);
         Path planFile = directory.resolve("plan.yaml");
         String planText;
@@ -57,7 +60,7 @@ public final class StudyReader {
             throw new StudyFormatException(planFile + ": missing; every study directory has its resolved plan");
         }
         Path referenceFile = directory.resolve("reference.json");
-        Reference reference = Files.isRegularFile(referenceFile) ? reference(referenceFile, parse(referenceFile)) : null;
+        Reference reference = Files.isRegularFile(referenceFile) ? reference(referenceFile, parse(referenceFile, Set.of())) : null;
         int arms = manifest.arms().size();
         int count = manifest.replicates();
         Replicate[] files = new Replicate[arms * count];
@@ -69,7 +72,7 @@ public final class StudyReader {
                 Path file = directory.resolve("arms").resolve(Integer.toString(a)).resolve(k + ".json");
                 if (Files.isRegularFile(file)) {
                     try {
-                        files[i] = replicate(file, parse(file), a, k, manifest);
+                        files[i] = replicate(file, parse(file, REPLICATE_SKIP), a, k, manifest);
                     } catch (IOException e) {
                         throw new java.io.UncheckedIOException(e);
                     }
@@ -82,16 +85,16 @@ public final class StudyReader {
         for (int a = 0; a < arms; a++) {
             replicates.add(java.util.Arrays.asList(java.util.Arrays.copyOfRange(files, a * count, (a + 1) * count)));
         }
-        return new Study(directory, manifest, planText, reference, replicates);
+        return new Study(directory, manifest, planText, reference, replicates, nudgesCsv(directory.resolve("nudges.csv")));
     }
 
-    private static JsonNode parse(Path file) throws IOException {
+    private static Map<String, Object> parse(Path file, Set<String> skip) throws IOException {
         try {
-            JsonNode node = MAPPER.readTree(file.toFile());
-            if (node == null || !node.isObject()) {
+            Object node = LeanJson.read(file, skip);
+            if (!(node instanceof Map)) {
                 throw new StudyFormatException(file + ": expected a JSON object");
             }
-            return node;
+            return cast(node);
         } catch (JsonProcessingException e) {
             JsonLocation at = e.getLocation();
             String where = at == null ? "" : " at line " + at.getLineNr() + ", column " + at.getColumnNr();
@@ -99,20 +102,20 @@ public final class StudyReader {
         }
     }
 
-    private static Manifest manifest(Path file, JsonNode m) {
+    private static Manifest manifest(Path file, Map<String, Object> m) {
         int format = integer(file, m, "format");
         if (format != FORMAT) {
             throw new StudyFormatException(file + ": study directory format " + format
                     + " is not supported; this settle reads format " + FORMAT);
         }
-        JsonNode tool = object(file, m, "tool");
-        JsonNode jvm = m.path("jvm");
-        JsonNode cpu = m.path("cpu");
-        JsonNode data = object(file, m, "data");
+        Map<String, Object> tool = object(file, m, "tool");
+        Map<String, Object> jvm = optionalObject(m, "jvm");
+        Map<String, Object> cpu = optionalObject(m, "cpu");
+        Map<String, Object> data = object(file, m, "data");
         List<String> arms = new ArrayList<>();
-        JsonNode armList = array(file, m, "arms");
+        List<Object> armList = array(file, m, "arms");
         for (int i = 0; i < armList.size(); i++) {
-            JsonNode arm = armList.get(i);
+            Map<String, Object> arm = element(file, armList, i, "arms");
             int index = integer(file, arm, "index");
             if (index != i + 1) {
                 throw new StudyFormatException(file + ": arms[" + i + "].index is " + index + "; expected " + (i + 1)
@@ -121,7 +124,9 @@ public final class StudyReader {
             arms.add(text(file, arm, "name"));
         }
         int replicates = 0;
-        for (JsonNode r : array(file, m, "replicates")) {
+        List<Object> replicateList = array(file, m, "replicates");
+        for (int i = 0; i < replicateList.size(); i++) {
+            Map<String, Object> r = element(file, replicateList, i, "replicates");
             int arm = integer(file, r, "arm");
             if (arm < 1 || arm > arms.size()) {
                 throw new StudyFormatException(file + ": replicates lists arm " + arm + "; the study has arms 1 to "
@@ -132,18 +137,18 @@ public final class StudyReader {
         if (replicates < 1) {
             throw new StudyFormatException(file + ": 'replicates' lists no replicate");
         }
-        return new Manifest(format, text(file, tool, "version"), tool.path("git_commit").asText(""),
-                join(jvm.path("vendor").asText(""), jvm.path("name").asText(""), jvm.path("version").asText("")),
-                join(cpu.path("model").asText(""), cpu.path("arch").asText(""),
-                        cpu.has("cores") ? cpu.path("cores").asInt() + " cores" : ""),
-                m.path("executor").asText(""), m.path("threads").asInt(0), strings(file, m, "command"),
-                m.path("generator").asText(""), m.path("root_seed").asLong(), m.path("started").asText(""),
-                m.path("ended").isNull() ? "" : m.path("ended").asText(""), m.path("plan_sha256").asText(""),
-                m.path("data_sha256").asText(""), m.path("split_sha256").asText(""), text(file, data, "source"),
-                data.path("rows").asInt(), strings(file, data, "feature_names"), strings(file, data, "class_names"),
-                data.path("train_rows").asInt(), integer(file, data, "test_rows"),
-                integer(file, data, "updates_per_epoch"), text(file, m, "model"), integer(file, m, "parameters"),
-                text(file, m, "baseline"), arms, replicates);
+        return new Manifest(format, text(file, tool, "version"), asText(tool.get("git_commit"), ""),
+                join(asText(jvm.get("vendor"), ""), asText(jvm.get("name"), ""), asText(jvm.get("version"), "")),
+                join(asText(cpu.get("model"), ""), asText(cpu.get("arch"), ""),
+                        cpu.containsKey("cores") ? asLong(cpu.get("cores"), 0) + " cores" : ""),
+                asText(m.get("executor"), ""), (int) asLong(m.get("threads"), 0), strings(file, m, "command"),
+                asText(m.get("generator"), ""), asLong(m.get("root_seed"), 0), asText(m.get("started"), ""),
+                asText(m.get("ended"), ""), asText(m.get("plan_sha256"), ""),
+                asText(m.get("data_sha256"), ""), asText(m.get("split_sha256"), ""), text(file, data, "source"),
+                (int) asLong(data.get("rows"), 0), strings(file, data, "feature_names"),
+                strings(file, data, "class_names"), (int) asLong(data.get("train_rows"), 0),
+                integer(file, data, "test_rows"), integer(file, data, "updates_per_epoch"), text(file, m, "model"),
+                integer(file, m, "parameters"), text(file, m, "baseline"), arms, replicates);
     }
 
     private static String join(String... parts) {
@@ -156,40 +161,66 @@ public final class StudyReader {
         return b.toString();
     }
 
-    private static Reference reference(Path file, JsonNode r) {
+    private static Reference reference(Path file, Map<String, Object> r) {
         int format = integer(file, r, "format");
         if (format != FORMAT) {
             throw new StudyFormatException(file + ": format " + format + " is not supported; expected " + FORMAT);
         }
         double[] theta = numbers(file, r, "theta", false);
-        double[] eigen = r.has("eigenvalues") ? numbers(file, r, "eigenvalues", false) : null;
-        return new Reference(theta, number(file, r, "objective"), r.path("gradient_norm").asDouble(Double.NaN),
-                r.path("method").asText(""), eigen, r.path("stability_bound").isNumber()
-                        ? r.path("stability_bound").asDouble() : Double.NaN,
-                r.has("gauge_dimension") ? integer(file, r, "gauge_dimension") : -1);
+        double[] eigen = r.containsKey("eigenvalues") ? numbers(file, r, "eigenvalues", false) : null;
+        Object stability = r.get("stability_bound");
+        return new Reference(theta, number(file, r, "objective"), asDouble(r.get("gradient_norm"), Double.NaN),
+                asText(r.get("method"), ""), eigen, isNumber(stability) ? asDouble(stability, Double.NaN) : Double.NaN,
+                r.containsKey("gauge_dimension") ? integer(file, r, "gauge_dimension") : -1, bound(file, r));
     }
 
-    private static Replicate replicate(Path file, JsonNode r, int arm, int k, Manifest manifest) {
+    /** The {@code last_iterate_bound} block of reference.json, or null when the file has none. */
+    private static Bound bound(Path file, Map<String, Object> r) {
+        if (!r.containsKey("last_iterate_bound")) {
+            return null;
+        }
+        Map<String, Object> b = object(file, r, "last_iterate_bound");
+        String source = asText(b.get("source"), "");
+        if (b.containsKey("skipped")) {
+            return new Bound(source, Double.NaN, Double.NaN, new double[0], text(file, b, "skipped"));
+        }
+        List<Object> arms = array(file, b, "arms");
+        double[] values = new double[arms.size()];
+        for (int i = 0; i < values.length; i++) {
+            Map<String, Object> arm = element(file, arms, i, "last_iterate_bound.arms");
+            if (integer(file, arm, "index") != i + 1) {
+                throw new StudyFormatException(file + ": last_iterate_bound.arms[" + i + "].index is "
+                        + arm.get("index") + "; expected " + (i + 1) + " (arms in index order from 1)");
+            }
+            values[i] = number(file, arm, "value");
+        }
+        String skipped = "";
+        if (values.length == 0) {
+            skipped = "no arm has a value";
+        }
+        return new Bound(source, number(file, b, "d"), number(file, b, "g"), values, skipped);
+    }
+
+    private static Replicate replicate(Path file, Map<String, Object> r, int arm, int k, Manifest manifest) {
         int format = integer(file, r, "format");
         if (format != FORMAT) {
             throw new StudyFormatException(file + ": format " + format + " is not supported; expected " + FORMAT);
         }
         if (integer(file, r, "arm") != arm || integer(file, r, "replicate") != k) {
-            throw new StudyFormatException(file + ": holds arm " + r.path("arm").asInt() + " replicate "
-                    + r.path("replicate").asInt() + "; its path says arm " + arm + " replicate " + k);
+            throw new StudyFormatException(file + ": holds arm " + asLong(r.get("arm"), 0) + " replicate "
+                    + asLong(r.get("replicate"), 0) + "; its path says arm " + arm + " replicate " + k);
         }
         String status = text(file, r, "status");
         if (!status.equals("finished") && !status.equals("diverged")) {
             throw new StudyFormatException(file + ": status '" + status + "'; expected finished or diverged");
         }
-        JsonNode seeds = object(file, r, "seeds");
-        JsonNode metricsNode = r.path("metrics");
+        Map<String, Object> seeds = object(file, r, "seeds");
+        Map<String, Object> metricsNode = optionalObject(r, "metrics");
         double[] metrics = new double[Metric.values().length];
         for (Metric metric : Metric.values()) {
-            JsonNode v = metricsNode.path(metric.key());
-            metrics[metric.ordinal()] = v.isNumber() ? v.asDouble() : Double.NaN;
+            metrics[metric.ordinal()] = asDouble(metricsNode.get(metric.key()), Double.NaN);
         }
-        JsonNode e = object(file, r, "epochs");
+        Map<String, Object> e = object(file, r, "epochs");
         Replicate.Epochs epochs = new Replicate.Epochs(numbers(file, e, "epoch", true),
                 numbers(file, e, "last_update", true), numbers(file, e, "rate", true),
                 numbers(file, e, "objective", true), numbers(file, e, "test_loss", true),
@@ -207,13 +238,14 @@ public final class StudyReader {
             throw new StudyFormatException(file + ": 'last' has " + last.length + " values; the model has "
                     + manifest.parameters() + " parameters");
         }
-        double[] tailMean = r.path("tail_mean").isArray() ? numbers(file, r, "tail_mean", true) : null;
-        JsonNode snap = r.path("snapshots");
+        double[] tailMean = r.get("tail_mean") instanceof LeanJson.Numbers ? numbers(file, r, "tail_mean", true) : null;
+        Object snap = r.get("snapshots");
         int snapshotRows = 0;
         double[] snapshots = null;
-        if (snap.isObject()) {
-            snapshotRows = integer(file, snap, "rows");
-            snapshots = numbers(file, snap, "values", false);
+        if (snap instanceof Map) {
+            Map<String, Object> s = cast(snap);
+            snapshotRows = integer(file, s, "rows");
+            snapshots = numbers(file, s, "values", false);
             if (snapshotRows > 0 && snapshots.length != (long) snapshotRows * last.length) {
                 throw new StudyFormatException(file + ": 'snapshots' has " + snapshots.length + " values for "
                         + snapshotRows + " rows of " + last.length + " parameters");
@@ -222,13 +254,14 @@ public final class StudyReader {
                 snapshots = null;
             }
         }
-        JsonNode probs = r.path("test_probabilities");
+        Object probs = r.get("test_probabilities");
         double[] probabilities = null;
         int classes = 0;
-        if (probs.isObject()) {
-            int rows = integer(file, probs, "rows");
-            classes = integer(file, probs, "columns");
-            probabilities = numbers(file, probs, "values", false);
+        if (probs instanceof Map) {
+            Map<String, Object> s = cast(probs);
+            int rows = integer(file, s, "rows");
+            classes = integer(file, s, "columns");
+            probabilities = numbers(file, s, "values", false);
             if (probabilities.length != (long) rows * classes) {
                 throw new StudyFormatException(file + ": 'test_probabilities' has " + probabilities.length
                         + " values for " + rows + " rows of " + classes + " classes");
@@ -237,96 +270,298 @@ public final class StudyReader {
                 probabilities = null;
             }
         }
-        return new Replicate(arm, text(file, r, "arm_name"), k, seeds.path("initialisation").asLong(),
-                seeds.path("sampling").asLong(), status, r.path("diverged_at_update").asLong(0),
-                r.path("total_updates").asLong(0), "tail".equals(r.path("average").asText("none")),
-                r.path("initial_objective").asDouble(Double.NaN), metrics, epochs,
+        return new Replicate(arm, text(file, r, "arm_name"), k, asLong(seeds.get("initialisation"), 0),
+                asLong(seeds.get("sampling"), 0), status, asLong(r.get("diverged_at_update"), 0),
+                asLong(r.get("total_updates"), 0), "tail".equals(asText(r.get("average"), "none")),
+                asDouble(r.get("initial_objective"), Double.NaN), metrics, epochs,
                 numbers(file, r, "rates", true), last, tailMean, snapshotRows, snapshots, classes, probabilities,
-                prediction(file, r.path("prediction")));
+                prediction(file, r.get("prediction")), nudges(file, r), plateauCuts(file, r));
     }
 
-    private static Prediction prediction(Path file, JsonNode p) {
-        if (!p.isObject() || !p.path("predicted").asBoolean(false)) {
-            String reason = p.isObject() ? p.path("skipped").asText("not recorded") : "not recorded";
+    /** The replicate's {@code nudges}; a file written before they were recorded has none. */
+    private static List<Nudge> nudges(Path file, Map<String, Object> r) {
+        List<Nudge> out = new ArrayList<>();
+        if (!r.containsKey("nudges")) {
+            return out;
+        }
+        List<Object> list = array(file, r, "nudges");
+        for (int i = 0; i < list.size(); i++) {
+            Map<String, Object> n = element(file, list, i, "nudges");
+            double factor = number(file, n, "factor");
+            if (!(factor > 0) || Double.isInfinite(factor)) {
+                throw new StudyFormatException(file + ": nudges[" + i + "].factor is " + factor
+                        + "; a nudge's factor is positive and finite");
+            }
+            out.add(new Nudge(epoch(file, n, "nudges", i), factor, text(file, n, "note")));
+        }
+        return out;
+    }
+
+    /** The replicate's {@code plateau_cuts}; a file written before they were recorded has none. */
+    private static List<PlateauCut> plateauCuts(Path file, Map<String, Object> r) {
+        List<PlateauCut> out = new ArrayList<>();
+        if (!r.containsKey("plateau_cuts")) {
+            return out;
+        }
+        List<Object> list = array(file, r, "plateau_cuts");
+        for (int i = 0; i < list.size(); i++) {
+            Map<String, Object> c = element(file, list, i, "plateau_cuts");
+            Object rate = c.get("rate");
+            out.add(new PlateauCut(epoch(file, c, "plateau_cuts", i), isNumber(rate) ? asDouble(rate, Double.NaN)
+                    : Double.NaN));
+        }
+        return out;
+    }
+
+    private static int epoch(Path file, Map<String, Object> node, String list, int i) {
+        int e = integer(file, node, "from_epoch");
+        if (e < 1) {
+            throw new StudyFormatException(file + ": " + list + "[" + i + "].from_epoch is " + e
+                    + "; epochs count from 1");
+        }
+        return e;
+    }
+
+    private static Prediction prediction(Path file, Object node) {
+        Map<String, Object> p = node instanceof Map ? cast(node) : null;
+        if (p == null || !asBoolean(p.get("predicted"))) {
+            String reason = p != null ? asText(p.get("skipped"), "not recorded") : "not recorded";
             return new Prediction(false, reason, "", "", null, Double.NaN, Double.NaN, Double.NaN);
         }
-        return new Prediction(true, "", p.path("kind").asText(""), p.path("label").asText(""),
-                numbers(file, p, "epoch_distance_sq", true), p.path("tail_distance_sq").asDouble(Double.NaN),
-                p.path("stability_bound").asDouble(Double.NaN),
-                p.path("largest_rate_times_curvature").asDouble(Double.NaN));
+        return new Prediction(true, "", asText(p.get("kind"), ""), asText(p.get("label"), ""),
+                numbers(file, p, "epoch_distance_sq", true), asDouble(p.get("tail_distance_sq"), Double.NaN),
+                asDouble(p.get("stability_bound"), Double.NaN),
+                asDouble(p.get("largest_rate_times_curvature"), Double.NaN));
     }
 
-    private static JsonNode field(Path file, JsonNode node, String key) {
-        JsonNode v = node.get(key);
-        if (v == null || v.isMissingNode()) {
+    // ---------------------------------------------------------------- nudges.csv
+
+    /**
+     * @return the rows of {@code nudges.csv} (RFC 4180, a header row), in file order; empty when the file is absent
+     */
+    static List<NudgeRecord> nudgesCsv(Path file) throws IOException {
+        List<NudgeRecord> out = new ArrayList<>();
+        if (!Files.isRegularFile(file)) {
+            return out;
+        }
+        List<List<String>> records = csv(Files.readString(file, StandardCharsets.UTF_8), file);
+        if (records.isEmpty() || !String.join(",", records.get(0)).equals(NUDGES_HEADER)) {
+            throw new StudyFormatException(file + ": line 1: expected the header " + NUDGES_HEADER);
+        }
+        for (int i = 1; i < records.size(); i++) {
+            List<String> r = records.get(i);
+            if (r.size() != 8) {
+                throw new StudyFormatException(file + ": record " + (i + 1) + ": " + r.size() + " fields, expected 8 ("
+                        + NUDGES_HEADER + ")");
+            }
+            try {
+                out.add(new NudgeRecord(Integer.parseInt(r.get(0)), r.get(1), Integer.parseInt(r.get(2)),
+                        Double.parseDouble(r.get(3)), Double.parseDouble(r.get(4)), r.get(5), r.get(6), r.get(7)));
+            } catch (NumberFormatException e) {
+                throw new StudyFormatException(file + ": record " + (i + 1) + ": arm_index and from_epoch must be whole"
+                        + " numbers and factor and rate numbers (" + e.getMessage() + ")");
+            }
+        }
+        return out;
+    }
+
+    /** RFC 4180 records: fields split at commas; a quoted field may hold commas, doubled quotes and line breaks. */
+    private static List<List<String>> csv(String text, Path file) {
+        List<List<String>> records = new ArrayList<>();
+        List<String> record = new ArrayList<>();
+        StringBuilder field = new StringBuilder();
+        boolean quoted = false;
+        boolean any = false;
+        int line = 1;
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            if (quoted) {
+                if (c == '"') {
+                    if (i + 1 < text.length() && text.charAt(i + 1) == '"') {
+                        field.append('"');
+                        i++;
+                    } else {
+                        quoted = false;
+                    }
+                } else {
+                    if (c == '\n') {
+                        line++;
+                    }
+                    field.append(c);
+                }
+            } else if (c == '"' && field.length() == 0) {
+                quoted = true;
+                any = true;
+            } else if (c == ',') {
+                record.add(field.toString());
+                field.setLength(0);
+                any = true;
+            } else if (c == '\r' || c == '\n') {
+                if (c == '\r' && i + 1 < text.length() && text.charAt(i + 1) == '\n') {
+                    i++;
+                }
+                if (any || field.length() > 0) {
+                    record.add(field.toString());
+                    records.add(record);
+                }
+                record = new ArrayList<>();
+                field.setLength(0);
+                any = false;
+                line++;
+            } else {
+                field.append(c);
+                any = true;
+            }
+        }
+        if (quoted) {
+            throw new StudyFormatException(file + ": line " + line + ": a quoted field is not closed");
+        }
+        if (any || field.length() > 0) {
+            record.add(field.toString());
+            records.add(record);
+        }
+        return records;
+    }
+
+    // ---------------------------------------------------------------- typed access to a lean tree
+
+    @SuppressWarnings("unchecked")
+    private static Map<String, Object> cast(Object node) {
+        return (Map<String, Object>) node;
+    }
+
+    private static Object field(Path file, Map<String, Object> node, String key) {
+        Object v = node.get(key);
+        if (v == null) {
             throw new StudyFormatException(file + ": missing key '" + key + "'");
         }
         return v;
     }
 
-    private static int integer(Path file, JsonNode node, String key) {
-        JsonNode v = field(file, node, key);
-        if (!v.isIntegralNumber() || !v.canConvertToInt()) {
-            throw new StudyFormatException(file + ": '" + key + "' must be a whole number, not " + v);
+    /** @return a JSON value as a message shows it */
+    private static String show(Object v) {
+        if (v instanceof String s) {
+            return "\"" + s + "\"";
         }
-        return v.asInt();
+        if (v instanceof Map) {
+            return "an object";
+        }
+        if (v instanceof List) {
+            return "an array";
+        }
+        return String.valueOf(v);
     }
 
-    private static double number(Path file, JsonNode node, String key) {
-        JsonNode v = field(file, node, key);
-        if (!v.isNumber()) {
-            throw new StudyFormatException(file + ": '" + key + "' must be a number, not " + v);
-        }
-        return v.asDouble();
+    private static boolean isNumber(Object v) {
+        return v instanceof Long || v instanceof Double;
     }
 
-    private static String text(Path file, JsonNode node, String key) {
-        JsonNode v = field(file, node, key);
-        if (!v.isTextual()) {
-            throw new StudyFormatException(file + ": '" + key + "' must be a string, not " + v);
+    private static int integer(Path file, Map<String, Object> node, String key) {
+        Object v = field(file, node, key);
+        if (!(v instanceof Long l) || l != (int) (long) l) {
+            throw new StudyFormatException(file + ": '" + key + "' must be a whole number, not " + show(v));
         }
-        return v.asText();
+        return (int) (long) l;
     }
 
-    private static JsonNode object(Path file, JsonNode node, String key) {
-        JsonNode v = field(file, node, key);
-        if (!v.isObject()) {
+    private static double number(Path file, Map<String, Object> node, String key) {
+        Object v = field(file, node, key);
+        if (!isNumber(v)) {
+            throw new StudyFormatException(file + ": '" + key + "' must be a number, not " + show(v));
+        }
+        return ((Number) v).doubleValue();
+    }
+
+    private static String text(Path file, Map<String, Object> node, String key) {
+        Object v = field(file, node, key);
+        if (!(v instanceof String s)) {
+            throw new StudyFormatException(file + ": '" + key + "' must be a string, not " + show(v));
+        }
+        return s;
+    }
+
+    private static Map<String, Object> object(Path file, Map<String, Object> node, String key) {
+        Object v = field(file, node, key);
+        if (!(v instanceof Map)) {
             throw new StudyFormatException(file + ": '" + key + "' must be an object");
         }
-        return v;
+        return cast(v);
     }
 
-    private static JsonNode array(Path file, JsonNode node, String key) {
-        JsonNode v = field(file, node, key);
-        if (!v.isArray()) {
-            throw new StudyFormatException(file + ": '" + key + "' must be an array");
+    /** @return the object at key, or an empty one when absent or not an object */
+    private static Map<String, Object> optionalObject(Map<String, Object> node, String key) {
+        Object v = node.get(key);
+        return v instanceof Map ? cast(v) : Map.of();
+    }
+
+    /** @return an array's elements (numbers as Double, nulls as {@link LeanJson#NULL}) */
+    private static List<Object> array(Path file, Map<String, Object> node, String key) {
+        Object v = field(file, node, key);
+        if (v instanceof List) {
+            @SuppressWarnings("unchecked")
+            List<Object> list = (List<Object>) v;
+            return list;
         }
-        return v;
+        if (v instanceof LeanJson.Numbers numbers) {
+            List<Object> list = new ArrayList<>(numbers.values().length);
+            for (double x : numbers.values()) {
+                list.add(Double.isNaN(x) ? LeanJson.NULL : (Object) x);
+            }
+            return list;
+        }
+        throw new StudyFormatException(file + ": '" + key + "' must be an array");
     }
 
-    private static List<String> strings(Path file, JsonNode node, String key) {
-        JsonNode a = array(file, node, key);
+    private static Map<String, Object> element(Path file, List<Object> list, int i, String key) {
+        Object v = list.get(i);
+        if (!(v instanceof Map)) {
+            throw new StudyFormatException(file + ": " + key + "[" + i + "] must be an object, not " + show(v));
+        }
+        return cast(v);
+    }
+
+    private static List<String> strings(Path file, Map<String, Object> node, String key) {
+        List<Object> a = array(file, node, key);
         List<String> out = new ArrayList<>(a.size());
-        for (Iterator<JsonNode> it = a.elements(); it.hasNext();) {
-            out.add(it.next().asText());
+        for (Object v : a) {
+            out.add(asText(v, v == LeanJson.NULL ? "" : show(v)));
         }
         return out;
     }
 
     /** @return the array's numbers; null entries become NaN when {@code nullable}, else are an error */
-    private static double[] numbers(Path file, JsonNode node, String key, boolean nullable) {
-        JsonNode a = array(file, node, key);
-        double[] out = new double[a.size()];
-        for (int i = 0; i < out.length; i++) {
-            JsonNode v = a.get(i);
-            if (v.isNumber()) {
-                out[i] = v.asDouble();
-            } else if (v.isNull() && nullable) {
-                out[i] = Double.NaN;
-            } else {
-                throw new StudyFormatException(file + ": '" + key + "'[" + i + "] must be a number, not " + v);
+    private static double[] numbers(Path file, Map<String, Object> node, String key, boolean nullable) {
+        Object v = field(file, node, key);
+        if (v instanceof LeanJson.Numbers numbers) {
+            if (!nullable && numbers.firstNull() >= 0) {
+                throw new StudyFormatException(file + ": '" + key + "'[" + numbers.firstNull()
+                        + "] must be a number, not null");
+            }
+            return numbers.values();
+        }
+        List<Object> a = array(file, node, key);
+        for (int i = 0; i < a.size(); i++) {
+            Object x = a.get(i);
+            if (!isNumber(x) && !(x == LeanJson.NULL && nullable)) {
+                throw new StudyFormatException(file + ": '" + key + "'[" + i + "] must be a number, not " + show(x));
             }
         }
-        return out;
+        throw new IllegalStateException("unreachable: a list of numbers is read as numbers");
+    }
+
+    private static String asText(Object v, String otherwise) {
+        return v instanceof String s ? s : otherwise;
+    }
+
+    private static long asLong(Object v, long otherwise) {
+        return v instanceof Long l ? l : v instanceof Double d ? (long) (double) d : otherwise;
+    }
+
+    private static double asDouble(Object v, double otherwise) {
+        return isNumber(v) ? ((Number) v).doubleValue() : otherwise;
+    }
+
+    private static boolean asBoolean(Object v) {
+        return Boolean.TRUE.equals(v);
     }
 }
