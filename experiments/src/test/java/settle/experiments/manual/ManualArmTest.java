@@ -1,6 +1,5 @@
 package settle.experiments.manual;
 
-import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -17,6 +16,7 @@ import java.util.List;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.experiments.study.StudyFiles;
 import settle.experiments.cli.Main;
 import settle.experiments.plan.PlanParser;
 
@@ -88,25 +88,6 @@ class ManualArmTest {
             assertTrue(child.isAlive(), "the run ended before epoch " + epoch);
             assertTrue(System.nanoTime() < deadline, "no epoch " + epoch + " within " + CHILD_SECONDS + " s");
             Thread.sleep(5);
-        }
-    }
-
-    static List<Path> replicateFiles(Path study) throws Exception {
-        List<Path> files = new ArrayList<>();
-        try (var walk = Files.walk(study.resolve("arms"))) {
-            walk.filter(p -> p.toString().endsWith(".json")).sorted().forEach(files::add);
-        }
-        return files;
-    }
-
-    static void assertSameReplicateFiles(Path a, Path b) throws Exception {
-        List<Path> left = replicateFiles(a);
-        List<Path> right = replicateFiles(b);
-        assertEquals(left.size(), right.size());
-        for (int i = 0; i < left.size(); i++) {
-            assertEquals(a.relativize(left.get(i)), b.relativize(right.get(i)));
-            assertArrayEquals(Files.readAllBytes(left.get(i)), Files.readAllBytes(right.get(i)),
-                    "replicate file " + a.relativize(left.get(i)) + " differs");
         }
     }
 
@@ -185,7 +166,7 @@ class ManualArmTest {
         Path replay = dir.resolve("replayed");
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", study.resolve("replay.yaml").toString(),
                 "--out", replay.toString(), "--quiet"));
-        assertSameReplicateFiles(study, replay);
+        StudyFiles.assertSameReplicateFiles(study, replay);
     }
 
     @Test
@@ -230,7 +211,7 @@ class ManualArmTest {
         Path replay = dir.resolve("crash-replayed");
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", study.resolve("replay.yaml").toString(),
                 "--out", replay.toString(), "--quiet"));
-        assertSameReplicateFiles(study, replay);
+        StudyFiles.assertSameReplicateFiles(study, replay);
     }
 
     @Test

@@ -11,7 +11,6 @@ import java.io.PrintWriter;
 import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
@@ -59,25 +58,6 @@ class StudyRunnerTest {
         return Main.run(new PrintWriter(out), new PrintWriter(err), args);
     }
 
-    static List<Path> replicateFiles(Path study) throws Exception {
-        List<Path> files = new ArrayList<>();
-        try (var walk = Files.walk(study.resolve("arms"))) {
-            walk.filter(p -> p.toString().endsWith(".json")).sorted().forEach(files::add);
-        }
-        return files;
-    }
-
-    static void assertSameReplicateFiles(Path a, Path b) throws Exception {
-        List<Path> left = replicateFiles(a);
-        List<Path> right = replicateFiles(b);
-        assertEquals(left.size(), right.size());
-        for (int i = 0; i < left.size(); i++) {
-            assertEquals(a.relativize(left.get(i)), b.relativize(right.get(i)));
-            assertArrayEquals(Files.readAllBytes(left.get(i)), Files.readAllBytes(right.get(i)),
-                    "replicate file " + a.relativize(left.get(i)) + " differs");
-        }
-    }
-
     @Test
     void replicateFilesAreByteIdenticalOnOneAndTwoThreads() throws Exception {
         Path planFile = dir.resolve("plan.yaml");
@@ -88,8 +68,8 @@ class StudyRunnerTest {
                 "--threads", "1", "--quiet"));
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", two.toString(),
                 "--threads", "2", "--quiet"));
-        assertEquals(12, replicateFiles(one).size());
-        assertSameReplicateFiles(one, two);
+        assertEquals(12, StudyFiles.replicateFiles(one).size());
+        StudyFiles.assertSameReplicateFiles(one, two);
         assertArrayEquals(Files.readAllBytes(one.resolve("epochs.csv")), Files.readAllBytes(two.resolve("epochs.csv")));
         assertEquals(1, MAPPER.readTree(one.resolve("manifest.json").toFile()).path("threads").asInt());
         assertEquals(2, MAPPER.readTree(two.resolve("manifest.json").toFile()).path("threads").asInt());
@@ -134,7 +114,7 @@ class StudyRunnerTest {
         JsonNode summary = MAPPER.readTree(out.toString());
         assertEquals(2, summary.path("trained_now").asInt());
         assertEquals(12, summary.path("finished").asInt());
-        assertSameReplicateFiles(whole, resumed);
+        StudyFiles.assertSameReplicateFiles(whole, resumed);
         assertFalse(Files.exists(resumed.resolve("arms/3/.1.json.999.1.1" + AtomicFiles.TEMP_SUFFIX)));
     }
 
@@ -230,7 +210,7 @@ class StudyRunnerTest {
         }
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", study.toString(),
                 "--quiet"));
-        assertSameReplicateFiles(whole, study);
+        StudyFiles.assertSameReplicateFiles(whole, study);
     }
 
     @Test
@@ -255,7 +235,7 @@ class StudyRunnerTest {
         String said = Files.readString(log).trim();
         assertTrue(said.matches("(?s).*settle: interrupted; \\d+ of 12 replicates are written and kept in .*; run the same "
                 + "command again to train the rest"), said);
-        for (Path f : replicateFiles(study)) {
+        for (Path f : StudyFiles.replicateFiles(study)) {
             MAPPER.readTree(f.toFile()); // every file kept is whole JSON
         }
         assertTrue(kept >= 2 && kept < 12, "kept " + kept);
@@ -268,7 +248,7 @@ class StudyRunnerTest {
         if (!Files.isDirectory(study.resolve("arms"))) {
             return 0;
         }
-        return replicateFiles(study).size();
+        return StudyFiles.replicateFiles(study).size();
     }
 
     private static Process childRun(Path planFile, Path study) throws Exception {
