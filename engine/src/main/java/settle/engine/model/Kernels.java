@@ -18,6 +18,13 @@ public final class Kernels {
     /** True when the vector path runs (decided once, at class initialisation). */
     private static final boolean VECTOR = decideVector();
 
+    /**
+     * The vector path takes products whose lane dimension has at least one full register block (2 vectors);
+     * narrower ones run scalar (same results; the vector setup would cost more than it saves, and code the JIT has
+     * not compiled yet boxes vectors).
+     */
+    private static final int VECTOR_COLUMNS = VECTOR ? 2 * VectorKernels.lanes() : Integer.MAX_VALUE;
+
     private Kernels() {
     }
 
@@ -56,10 +63,40 @@ public final class Kernels {
      */
     public static void product(double[] a, int aOffset, int n, int k, double[] b, int bOffset, int m,
             double[] init, int initOffset, double[] c, int cOffset) {
-        if (VECTOR) {
+        if (VECTOR && m >= VECTOR_COLUMNS) {
             VectorKernels.product(a, aOffset, n, k, b, bOffset, m, init, initOffset, c, cOffset);
         } else {
             scalarProduct(a, aOffset, n, k, b, bOffset, m, init, initOffset, c, cOffset);
+        }
+    }
+
+    /** Column groups of a gradient pass: how many vector panels of A are packed at once. */
+    static final int GROUP = 4;
+
+    /**
+     * @return the length of the {@code pack} buffer that {@link #multiplyByTransposed} and
+     *     {@link #addTransposedProduct} need for up to {@code rows} rows, {@code outputs} = m and {@code inputs} = k
+     */
+    public static int packLength(int rows, int outputs, int inputs) {
+        int panel = VECTOR ? 2 * VectorKernels.lanes() : 1;
+        long forward = (long) outputs * inputs;
+        long gradient = (long) outputs * rows + (long) rows * GROUP * panel;
+        return Math.toIntExact(Math.max(forward, gradient));
+    }
+
+    /**
+     * C (n × m) = init + A (n × k) · Wᵀ with W (m × k) row-major (a layer's weights): the same chains as
+     * {@link #product} with B = Wᵀ. The vector path packs W into column panels in {@code pack} first.
+     *
+     * @param w W, row j at {@code wOffset + j·k}; not modified
+     * @param pack scratch of at least {@link #packLength} values; modified
+     */
+    public static void multiplyByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
+            double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
+        if (VECTOR && n >= 4 && m >= VECTOR_COLUMNS) {
+            VectorKernels.multiplyByTransposed(a, aOffset, n, k, w, wOffset, m, init, initOffset, c, cOffset, pack);
+        } else {
+            productTransposed(a, aOffset, n, k, w, wOffset, m, init, initOffset, c, cOffset);
         }
     }
 
@@ -70,11 +107,12 @@ public final class Kernels {
      * @param d D, row r at {@code dOffset + r·m}; not modified
      * @param a A, row r at {@code aOffset + r·k}; not modified
      * @param g G, row j at {@code gOffset + j·k}; modified (added to), must not overlap D or A
+     * @param pack scratch of at least {@link #packLength} values; modified
      */
     public static void addTransposedProduct(double[] d, int dOffset, int n, int m, double[] a, int aOffset, int k,
-            double[] g, int gOffset) {
-        if (VECTOR) {
-            VectorKernels.addTransposedProduct(d, dOffset, n, m, a, aOffset, k, g, gOffset);
+            double[] g, int gOffset, double[] pack) {
+        if (VECTOR && k >= VECTOR_COLUMNS) {
+            VectorKernels.addTransposedProduct(d, dOffset, n, m, a, aOffset, k, g, gOffset, pack);
         } else {
             scalarAddTransposedProduct(d, dOffset, n, m, a, aOffset, k, g, gOffset);
         }
@@ -120,28 +158,6 @@ public final class Kernels {
                     acc = Math.fma(a[ar + i], w[wj + i], acc);
                 }
                 c[cr + j] = acc;
-            }
-        }
-    }
-
-    /**
-     * Writes the transpose of W (m × k, row-major from {@code wOffset}) into T (k × m, from 0).
-     *
-     * @param w not modified
-     * @param t receives k·m values; modified
-     */
-    public static void transpose(double[] w, int wOffset, int m, int k, double[] t) {
-        final int tile = 8;
-        for (int j0 = 0; j0 < m; j0 += tile) {
-            int j1 = Math.min(m, j0 + tile);
-            for (int i0 = 0; i0 < k; i0 += tile) {
-                int i1 = Math.min(k, i0 + tile);
-                for (int j = j0; j < j1; j++) {
-                    int row = wOffset + j * k;
-                    for (int i = i0; i < i1; i++) {
-                        t[i * m + j] = w[row + i];
-                    }
-                }
             }
         }
     }

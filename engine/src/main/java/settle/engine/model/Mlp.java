@@ -156,14 +156,14 @@ public final class Mlp implements Model {
     /**
      * Per layer l = 1 … L: its outputs a_l (capacity × s_l; post-activation for hidden layers, the logits and
      * then the probabilities for the output layer) and the loss's gradient with respect to its pre-activations
-     * δ_l (capacity × s_l); and room for one layer's Wᵀ.
+     * δ_l (capacity × s_l); and the products' packing buffer.
      */
     private static final class Scratch implements Workspace {
         private final int capacity;
         private final int[] sizes;
         private final double[][] out;
         private final double[][] delta;
-        private final double[] transposed;
+        private final double[] pack;
 
         Scratch(int capacity, int[] sizes) {
             this.capacity = capacity;
@@ -174,9 +174,9 @@ public final class Mlp implements Model {
             for (int l = 1; l < sizes.length; l++) {
                 out[l] = new double[Math.multiplyExact(capacity, sizes[l])];
                 delta[l] = new double[capacity * sizes[l]];
-                largest = Math.max(largest, sizes[l] * sizes[l - 1]);
+                largest = Math.max(largest, Kernels.packLength(capacity, sizes[l], sizes[l - 1]));
             }
-            this.transposed = new double[largest];
+            this.pack = new double[largest];
         }
 
         @Override
@@ -201,9 +201,6 @@ public final class Mlp implements Model {
     // Backward: δ_L = p − onehot(y);  ∂/∂W_l += δ_lᵀ a_{l−1};  ∂/∂b_l += Σ_r δ_l,r;
     //           δ_{l−1} = (δ_l W_l) ⊙ act'(a_{l−1})  with relu' = [a > 0], tanh' = 1 − a².
 
-    /** Rows of a batch below which z_l is taken from W_l directly instead of from W_lᵀ (same results). */
-    static final int TRANSPOSE_ROWS = 4;
-
     /**
      * Fills s.out[1..L] for the n rows of x; s.out[L] ends holding the logits z_L (n, K). Each z is one fused
      * multiply-add chain from b_j over the inputs in ascending order ({@link Kernels#product}).
@@ -214,12 +211,8 @@ public final class Mlp implements Model {
             double[] out = s.out[l];
             int nIn = sizes[l - 1];
             int nOut = sizes[l];
-            if (n < TRANSPOSE_ROWS) {
-                Kernels.productTransposed(in, 0, n, nIn, theta, weightOffset[l], nOut, theta, biasOffset[l], out, 0);
-            } else {
-                Kernels.transpose(theta, weightOffset[l], nOut, nIn, s.transposed);
-                Kernels.product(in, 0, n, nIn, s.transposed, 0, nOut, theta, biasOffset[l], out, 0);
-            }
+            Kernels.multiplyByTransposed(in, 0, n, nIn, theta, weightOffset[l], nOut, theta, biasOffset[l], out, 0,
+                    s.pack);
             if (l < layers) {
                 int count = n * nOut;
                 if (activation == Activation.RELU) {
@@ -268,7 +261,7 @@ public final class Mlp implements Model {
             int nIn = sizes[l - 1];
             int nOut = sizes[l];
             // ∂/∂W_l (nOut, nIn) += δ_lᵀ (nOut × n) · a_{l−1} (n × nIn); ∂/∂b_l += column sums of δ_l.
-            Kernels.addTransposedProduct(delta, 0, n, nOut, in, 0, nIn, gradientSum, weightOffset[l]);
+            Kernels.addTransposedProduct(delta, 0, n, nOut, in, 0, nIn, gradientSum, weightOffset[l], s.pack);
             Kernels.addColumnSums(delta, n, nOut, gradientSum, biasOffset[l]);
             if (l == 1) {
                 break;

@@ -25,7 +25,8 @@ final class Penalties {
     }
 
     /**
-     * Turns a gradient sum over n rows into the batch gradient: g ← g/n, then g += λθ on the weights.
+     * Turns a gradient sum over n rows into the batch gradient: g ← g/n, then g += λθ on the weights (one pass;
+     * per element the same two roundings as the default, and the penalty's sum in the same order).
      *
      * @param theta not modified
      * @param gradient the sum on entry, the batch gradient on return; modified
@@ -34,14 +35,22 @@ final class Penalties {
     static double finishBatch(double[] theta, double[] gradient, int[] weightRanges, double lossSum, int n,
             double lambda) {
         double inverse = 1.0 / n;
-        for (int i = 0; i < gradient.length; i++) {
+        double sum = 0;
+        int next = 0;
+        for (int q = 0; q < weightRanges.length; q += 2) {
+            for (int i = next; i < weightRanges[q]; i++) {
+                gradient[i] *= inverse;
+            }
+            for (int i = weightRanges[q]; i < weightRanges[q + 1]; i++) {
+                double t = theta[i];
+                gradient[i] = gradient[i] * inverse + lambda * t;
+                sum += t * t;
+            }
+            next = weightRanges[q + 1];
+        }
+        for (int i = next; i < gradient.length; i++) {
             gradient[i] *= inverse;
         }
-        for (int q = 0; q < weightRanges.length; q += 2) {
-            for (int i = weightRanges[q]; i < weightRanges[q + 1]; i++) {
-                gradient[i] += lambda * theta[i];
-            }
-        }
-        return lossSum * inverse + penalty(theta, weightRanges, lambda);
+        return lossSum * inverse + 0.5 * lambda * sum;
     }
 }

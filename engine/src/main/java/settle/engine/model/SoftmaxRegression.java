@@ -90,18 +90,18 @@ public final class SoftmaxRegression implements Model {
         return new Scratch(maxBatch, inputs, classes);
     }
 
-    /** The batch's scores, then exponentials, then deltas (capacity × K), and Wᵀ (d × K). */
+    /** The batch's scores, then exponentials, then deltas (capacity × K), and the products' packing buffer. */
     private static final class Scratch implements Workspace {
         private final int capacity;
         private final int classes;
         private final double[] scores;
-        private final double[] transposed;
+        private final double[] pack;
 
         Scratch(int capacity, int inputs, int classes) {
             this.capacity = capacity;
             this.classes = classes;
             this.scores = new double[Math.multiplyExact(capacity, classes)];
-            this.transposed = new double[inputs * classes];
+            this.pack = new double[Kernels.packLength(capacity, classes, inputs)];
         }
 
         @Override
@@ -112,7 +112,7 @@ public final class SoftmaxRegression implements Model {
 
     private Scratch scratch(double[] theta, int n, Workspace workspace) {
         Starts.checkLength("θ", theta, parameterCount());
-        if (!(workspace instanceof Scratch s) || s.classes != classes || s.transposed.length != inputs * classes) {
+        if (!(workspace instanceof Scratch s) || s.classes != classes || s.pack.length != Kernels.packLength(s.capacity, classes, inputs)) {
             throw new IllegalArgumentException("workspace was not made by a " + classes
                     + "-class multinomial logistic model with " + inputs + " inputs");
         }
@@ -124,17 +124,9 @@ public final class SoftmaxRegression implements Model {
     // Forward:  Z = X Wᵀ + b (n, K),  per row m = max z,  s = Σ exp(z_k − m),  loss_r = m + log s − z_y.
     // Backward: Δ_rk = exp(z_k − m)/s − [k = y_r],  ∂/∂W += Δᵀ X,  ∂/∂b += column sums of Δ.
 
-    /** Rows of a batch below which the scores are taken from W directly instead of from Wᵀ (same results). */
-    static final int TRANSPOSE_ROWS = 4;
-
     /** Fills s.scores with Z = X Wᵀ + b for the n rows of x (one fused multiply-add chain per score). */
     private void scores(double[] theta, double[] x, int n, Scratch s) {
-        if (n < TRANSPOSE_ROWS) {
-            Kernels.productTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0);
-        } else {
-            Kernels.transpose(theta, 0, classes, inputs, s.transposed);
-            Kernels.product(x, 0, n, inputs, s.transposed, 0, classes, theta, biasOffset, s.scores, 0);
-        }
+        Kernels.multiplyByTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0, s.pack);
     }
 
     /**
@@ -189,7 +181,7 @@ public final class SoftmaxRegression implements Model {
                 z[base + k] = z[base + k] * inverse - (k == label ? 1.0 : 0.0);
             }
         }
-        Kernels.addTransposedProduct(z, 0, n, classes, x, 0, inputs, gradientSum, 0);
+        Kernels.addTransposedProduct(z, 0, n, classes, x, 0, inputs, gradientSum, 0, s.pack);
         Kernels.addColumnSums(z, n, classes, gradientSum, biasOffset);
         return sum;
     }

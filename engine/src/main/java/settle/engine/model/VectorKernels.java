@@ -33,7 +33,7 @@ final class VectorKernels {
         for (; j + 2 * L <= m; j += 2 * L) {
             int r = 0;
             for (; r + 4 <= n; r += 4) {
-                product4x2(a, aOffset + r * k, k, b, bOffset + j, m, init, initOffset + j, c, cOffset + r * m + j);
+                product4x2(a, aOffset + r * k, k, b, bOffset + j, m, init, initOffset + j, c, cOffset + r * m + j, m);
             }
             for (; r < n; r++) {
                 product1x2(a, aOffset + r * k, k, b, bOffset + j, m, init, initOffset + j, c, cOffset + r * m + j);
@@ -57,12 +57,59 @@ final class VectorKernels {
         }
     }
 
+    /**
+     * See {@link Kernels#multiplyByTransposed}: W's rows are packed into panels of 2L columns of Wᵀ (panel p holds
+     * Wᵀ[i][2Lp .. 2Lp + 2L) for i = 0 … k−1, contiguous), then multiplied like {@link #product}; the last
+     * m mod 2L columns are chains over W's rows.
+     */
+    static void multiplyByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
+            double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
+        int width = 2 * L;
+        int panels = m / width;
+        for (int p = 0; p < panels; p++) {
+            int base = p * k * width;
+            int row = wOffset + p * width * k;
+            for (int i = 0; i < k; i++) {
+                int to = base + i * width;
+                for (int jj = 0; jj < width; jj++) {
+                    pack[to + jj] = w[row + jj * k + i];
+                }
+            }
+        }
+        for (int p = 0; p < panels; p++) {
+            int j = p * width;
+            int base = p * k * width;
+            int r = 0;
+            for (; r + 6 <= n; r += 6) {
+                product6x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j, m);
+            }
+            for (; r + 4 <= n; r += 4) {
+                product4x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j, m);
+            }
+            for (; r < n; r++) {
+                product1x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j);
+            }
+        }
+        for (int j = panels * width; j < m; j++) {
+            int wj = wOffset + j * k;
+            for (int r = 0; r < n; r++) {
+                int ar = aOffset + r * k;
+                double acc = init == null ? 0.0 : init[initOffset + j];
+                for (int i = 0; i < k; i++) {
+                    acc = Math.fma(a[ar + i], w[wj + i], acc);
+                }
+                c[cOffset + r * m + j] = acc;
+            }
+        }
+    }
+
     private static DoubleVector start(double[] init, int offset) {
         return init == null ? DoubleVector.zero(S) : DoubleVector.fromArray(S, init, offset);
     }
 
-    private static void product4x2(double[] a, int a0, int k, double[] b, int b0, int m, double[] init, int i0,
-            double[] c, int c0) {
+    /** 4 rows × 2L columns; B rows {@code bStride} apart, C rows {@code cStride} apart. */
+    private static void product4x2(double[] a, int a0, int k, double[] b, int b0, int bStride, double[] init, int i0,
+            double[] c, int c0, int cStride) {
         DoubleVector s0 = start(init, i0);
         DoubleVector s1 = start(init, i0 + L);
         DoubleVector c00 = s0;
@@ -76,8 +123,8 @@ final class VectorKernels {
         int a1 = a0 + k;
         int a2 = a1 + k;
         int a3 = a2 + k;
-        int bi = b0;
-        for (int i = 0; i < k; i++, bi += m) {
+        for (int i = 0; i < k; i++) {
+            int bi = b0 + i * bStride;
             DoubleVector v0 = DoubleVector.fromArray(S, b, bi);
             DoubleVector v1 = DoubleVector.fromArray(S, b, bi + L);
             DoubleVector x0 = DoubleVector.broadcast(S, a[a0 + i]);
@@ -95,20 +142,79 @@ final class VectorKernels {
         }
         c00.intoArray(c, c0);
         c01.intoArray(c, c0 + L);
-        c10.intoArray(c, c0 + m);
-        c11.intoArray(c, c0 + m + L);
-        c20.intoArray(c, c0 + 2 * m);
-        c21.intoArray(c, c0 + 2 * m + L);
-        c30.intoArray(c, c0 + 3 * m);
-        c31.intoArray(c, c0 + 3 * m + L);
+        c10.intoArray(c, c0 + cStride);
+        c11.intoArray(c, c0 + cStride + L);
+        c20.intoArray(c, c0 + 2 * cStride);
+        c21.intoArray(c, c0 + 2 * cStride + L);
+        c30.intoArray(c, c0 + 3 * cStride);
+        c31.intoArray(c, c0 + 3 * cStride + L);
     }
 
-    private static void product1x2(double[] a, int a0, int k, double[] b, int b0, int m, double[] init, int i0,
+    /** 6 rows × 2L columns, twelve accumulators; B rows {@code bStride} apart, C rows {@code cStride} apart. */
+    private static void product6x2(double[] a, int a0, int k, double[] b, int b0, int bStride, double[] init, int i0,
+            double[] c, int c0, int cStride) {
+        DoubleVector s0 = start(init, i0);
+        DoubleVector s1 = start(init, i0 + L);
+        DoubleVector c00 = s0;
+        DoubleVector c01 = s1;
+        DoubleVector c10 = s0;
+        DoubleVector c11 = s1;
+        DoubleVector c20 = s0;
+        DoubleVector c21 = s1;
+        DoubleVector c30 = s0;
+        DoubleVector c31 = s1;
+        DoubleVector c40 = s0;
+        DoubleVector c41 = s1;
+        DoubleVector c50 = s0;
+        DoubleVector c51 = s1;
+        int a1 = a0 + k;
+        int a2 = a1 + k;
+        int a3 = a2 + k;
+        int a4 = a3 + k;
+        int a5 = a4 + k;
+        for (int i = 0; i < k; i++) {
+            int bi = b0 + i * bStride;
+            DoubleVector v0 = DoubleVector.fromArray(S, b, bi);
+            DoubleVector v1 = DoubleVector.fromArray(S, b, bi + L);
+            DoubleVector x0 = DoubleVector.broadcast(S, a[a0 + i]);
+            c00 = x0.fma(v0, c00);
+            c01 = x0.fma(v1, c01);
+            DoubleVector x1 = DoubleVector.broadcast(S, a[a1 + i]);
+            c10 = x1.fma(v0, c10);
+            c11 = x1.fma(v1, c11);
+            DoubleVector x2 = DoubleVector.broadcast(S, a[a2 + i]);
+            c20 = x2.fma(v0, c20);
+            c21 = x2.fma(v1, c21);
+            DoubleVector x3 = DoubleVector.broadcast(S, a[a3 + i]);
+            c30 = x3.fma(v0, c30);
+            c31 = x3.fma(v1, c31);
+            DoubleVector x4 = DoubleVector.broadcast(S, a[a4 + i]);
+            c40 = x4.fma(v0, c40);
+            c41 = x4.fma(v1, c41);
+            DoubleVector x5 = DoubleVector.broadcast(S, a[a5 + i]);
+            c50 = x5.fma(v0, c50);
+            c51 = x5.fma(v1, c51);
+        }
+        c00.intoArray(c, c0);
+        c01.intoArray(c, c0 + L);
+        c10.intoArray(c, c0 + cStride);
+        c11.intoArray(c, c0 + cStride + L);
+        c20.intoArray(c, c0 + 2 * cStride);
+        c21.intoArray(c, c0 + 2 * cStride + L);
+        c30.intoArray(c, c0 + 3 * cStride);
+        c31.intoArray(c, c0 + 3 * cStride + L);
+        c40.intoArray(c, c0 + 4 * cStride);
+        c41.intoArray(c, c0 + 4 * cStride + L);
+        c50.intoArray(c, c0 + 5 * cStride);
+        c51.intoArray(c, c0 + 5 * cStride + L);
+    }
+
+    private static void product1x2(double[] a, int a0, int k, double[] b, int b0, int bStride, double[] init, int i0,
             double[] c, int c0) {
         DoubleVector c00 = start(init, i0);
         DoubleVector c01 = start(init, i0 + L);
         int bi = b0;
-        for (int i = 0; i < k; i++, bi += m) {
+        for (int i = 0; i < k; i++, bi += bStride) {
             DoubleVector x0 = DoubleVector.broadcast(S, a[a0 + i]);
             c00 = x0.fma(DoubleVector.fromArray(S, b, bi), c00);
             c01 = x0.fma(DoubleVector.fromArray(S, b, bi + L), c01);
@@ -127,25 +233,49 @@ final class VectorKernels {
         c00.intoArray(c, c0);
     }
 
-    /** See {@link Kernels#addTransposedProduct}: lanes run over the k columns of A and G. */
+    /**
+     * See {@link Kernels#addTransposedProduct}: lanes run over the k columns of A and G. D is transposed into
+     * {@code pack} (Dᵀ, m × n) and A's columns are packed {@link Kernels#GROUP} panels of 2L at a time (panel q
+     * holds A[r][..] for r = 0 … n−1, contiguous), so that every block of 4 rows of G reuses a packed group from
+     * cache; the last k mod 2L columns are scalar chains.
+     */
     static void addTransposedProduct(double[] d, int dOffset, int n, int m, double[] a, int aOffset, int k,
-            double[] g, int gOffset) {
-        int i = 0;
-        for (; i + 2 * L <= k; i += 2 * L) {
+            double[] g, int gOffset, double[] pack) {
+        int width = 2 * L;
+        int full = k / width * width;
+        for (int r = 0; r < n; r++) {
+            int dr = dOffset + r * m;
+            for (int j = 0; j < m; j++) {
+                pack[j * n + r] = d[dr + j];
+            }
+        }
+        int packA = m * n;
+        for (int g0 = 0; g0 < full; g0 += Kernels.GROUP * width) {
+            int g1 = Math.min(full, g0 + Kernels.GROUP * width);
+            for (int i0 = g0; i0 < g1; i0 += width) {
+                int base = packA + (i0 - g0) * n;
+                for (int r = 0; r < n; r++) {
+                    System.arraycopy(a, aOffset + r * k + i0, pack, base + r * width, width);
+                }
+            }
             int j = 0;
+            for (; j + 6 <= m; j += 6) {
+                for (int i0 = g0; i0 < g1; i0 += width) {
+                    gradient6x2(pack, j * n, n, pack, packA + (i0 - g0) * n, g, gOffset + j * k + i0, k);
+                }
+            }
             for (; j + 4 <= m; j += 4) {
-                gradient4x2(d, dOffset + j, n, m, a, aOffset + i, k, g, gOffset + j * k + i);
+                for (int i0 = g0; i0 < g1; i0 += width) {
+                    gradient4x2(pack, j * n, n, pack, packA + (i0 - g0) * n, g, gOffset + j * k + i0, k);
+                }
             }
             for (; j < m; j++) {
-                gradient1x2(d, dOffset + j, n, m, a, aOffset + i, k, g, gOffset + j * k + i);
+                for (int i0 = g0; i0 < g1; i0 += width) {
+                    gradient1x2(pack, j * n, n, pack, packA + (i0 - g0) * n, g, gOffset + j * k + i0);
+                }
             }
         }
-        for (; i + L <= k; i += L) {
-            for (int j = 0; j < m; j++) {
-                gradient1x1(d, dOffset + j, n, m, a, aOffset + i, k, g, gOffset + j * k + i);
-            }
-        }
-        for (; i < k; i++) {
+        for (int i = full; i < k; i++) {
             for (int j = 0; j < m; j++) {
                 int gi = gOffset + j * k + i;
                 double acc = g[gi];
@@ -157,7 +287,8 @@ final class VectorKernels {
         }
     }
 
-    private static void gradient4x2(double[] d, int d0, int n, int m, double[] a, int a0, int k, double[] g, int g0) {
+    /** G rows j … j+3 (k apart from g0) += over r of Dᵀ rows (n apart from d0) times the packed panel at p0. */
+    private static void gradient4x2(double[] dt, int d0, int n, double[] pack, int p0, double[] g, int g0, int k) {
         DoubleVector g00 = DoubleVector.fromArray(S, g, g0);
         DoubleVector g01 = DoubleVector.fromArray(S, g, g0 + L);
         DoubleVector g10 = DoubleVector.fromArray(S, g, g0 + k);
@@ -166,21 +297,23 @@ final class VectorKernels {
         DoubleVector g21 = DoubleVector.fromArray(S, g, g0 + 2 * k + L);
         DoubleVector g30 = DoubleVector.fromArray(S, g, g0 + 3 * k);
         DoubleVector g31 = DoubleVector.fromArray(S, g, g0 + 3 * k + L);
-        int dr = d0;
-        int ar = a0;
-        for (int r = 0; r < n; r++, dr += m, ar += k) {
-            DoubleVector v0 = DoubleVector.fromArray(S, a, ar);
-            DoubleVector v1 = DoubleVector.fromArray(S, a, ar + L);
-            DoubleVector x0 = DoubleVector.broadcast(S, d[dr]);
+        int d1 = d0 + n;
+        int d2 = d1 + n;
+        int d3 = d2 + n;
+        int ap = p0;
+        for (int r = 0; r < n; r++, ap += 2 * L) {
+            DoubleVector v0 = DoubleVector.fromArray(S, pack, ap);
+            DoubleVector v1 = DoubleVector.fromArray(S, pack, ap + L);
+            DoubleVector x0 = DoubleVector.broadcast(S, dt[d0 + r]);
             g00 = x0.fma(v0, g00);
             g01 = x0.fma(v1, g01);
-            DoubleVector x1 = DoubleVector.broadcast(S, d[dr + 1]);
+            DoubleVector x1 = DoubleVector.broadcast(S, dt[d1 + r]);
             g10 = x1.fma(v0, g10);
             g11 = x1.fma(v1, g11);
-            DoubleVector x2 = DoubleVector.broadcast(S, d[dr + 2]);
+            DoubleVector x2 = DoubleVector.broadcast(S, dt[d2 + r]);
             g20 = x2.fma(v0, g20);
             g21 = x2.fma(v1, g21);
-            DoubleVector x3 = DoubleVector.broadcast(S, d[dr + 3]);
+            DoubleVector x3 = DoubleVector.broadcast(S, dt[d3 + r]);
             g30 = x3.fma(v0, g30);
             g31 = x3.fma(v1, g31);
         }
@@ -194,27 +327,72 @@ final class VectorKernels {
         g31.intoArray(g, g0 + 3 * k + L);
     }
 
-    private static void gradient1x2(double[] d, int d0, int n, int m, double[] a, int a0, int k, double[] g, int g0) {
+    /** G rows j … j+5 (k apart from g0) += over r of Dᵀ rows (n apart from d0) times the packed panel at p0. */
+    private static void gradient6x2(double[] dt, int d0, int n, double[] pack, int p0, double[] g, int g0, int k) {
         DoubleVector g00 = DoubleVector.fromArray(S, g, g0);
         DoubleVector g01 = DoubleVector.fromArray(S, g, g0 + L);
-        int dr = d0;
-        int ar = a0;
-        for (int r = 0; r < n; r++, dr += m, ar += k) {
-            DoubleVector x0 = DoubleVector.broadcast(S, d[dr]);
-            g00 = x0.fma(DoubleVector.fromArray(S, a, ar), g00);
-            g01 = x0.fma(DoubleVector.fromArray(S, a, ar + L), g01);
+        DoubleVector g10 = DoubleVector.fromArray(S, g, g0 + k);
+        DoubleVector g11 = DoubleVector.fromArray(S, g, g0 + k + L);
+        DoubleVector g20 = DoubleVector.fromArray(S, g, g0 + 2 * k);
+        DoubleVector g21 = DoubleVector.fromArray(S, g, g0 + 2 * k + L);
+        DoubleVector g30 = DoubleVector.fromArray(S, g, g0 + 3 * k);
+        DoubleVector g31 = DoubleVector.fromArray(S, g, g0 + 3 * k + L);
+        DoubleVector g40 = DoubleVector.fromArray(S, g, g0 + 4 * k);
+        DoubleVector g41 = DoubleVector.fromArray(S, g, g0 + 4 * k + L);
+        DoubleVector g50 = DoubleVector.fromArray(S, g, g0 + 5 * k);
+        DoubleVector g51 = DoubleVector.fromArray(S, g, g0 + 5 * k + L);
+        int d1 = d0 + n;
+        int d2 = d1 + n;
+        int d3 = d2 + n;
+        int d4 = d3 + n;
+        int d5 = d4 + n;
+        int ap = p0;
+        for (int r = 0; r < n; r++, ap += 2 * L) {
+            DoubleVector v0 = DoubleVector.fromArray(S, pack, ap);
+            DoubleVector v1 = DoubleVector.fromArray(S, pack, ap + L);
+            DoubleVector x0 = DoubleVector.broadcast(S, dt[d0 + r]);
+            g00 = x0.fma(v0, g00);
+            g01 = x0.fma(v1, g01);
+            DoubleVector x1 = DoubleVector.broadcast(S, dt[d1 + r]);
+            g10 = x1.fma(v0, g10);
+            g11 = x1.fma(v1, g11);
+            DoubleVector x2 = DoubleVector.broadcast(S, dt[d2 + r]);
+            g20 = x2.fma(v0, g20);
+            g21 = x2.fma(v1, g21);
+            DoubleVector x3 = DoubleVector.broadcast(S, dt[d3 + r]);
+            g30 = x3.fma(v0, g30);
+            g31 = x3.fma(v1, g31);
+            DoubleVector x4 = DoubleVector.broadcast(S, dt[d4 + r]);
+            g40 = x4.fma(v0, g40);
+            g41 = x4.fma(v1, g41);
+            DoubleVector x5 = DoubleVector.broadcast(S, dt[d5 + r]);
+            g50 = x5.fma(v0, g50);
+            g51 = x5.fma(v1, g51);
         }
         g00.intoArray(g, g0);
         g01.intoArray(g, g0 + L);
+        g10.intoArray(g, g0 + k);
+        g11.intoArray(g, g0 + k + L);
+        g20.intoArray(g, g0 + 2 * k);
+        g21.intoArray(g, g0 + 2 * k + L);
+        g30.intoArray(g, g0 + 3 * k);
+        g31.intoArray(g, g0 + 3 * k + L);
+        g40.intoArray(g, g0 + 4 * k);
+        g41.intoArray(g, g0 + 4 * k + L);
+        g50.intoArray(g, g0 + 5 * k);
+        g51.intoArray(g, g0 + 5 * k + L);
     }
 
-    private static void gradient1x1(double[] d, int d0, int n, int m, double[] a, int a0, int k, double[] g, int g0) {
+    private static void gradient1x2(double[] dt, int d0, int n, double[] pack, int p0, double[] g, int g0) {
         DoubleVector g00 = DoubleVector.fromArray(S, g, g0);
-        int dr = d0;
-        int ar = a0;
-        for (int r = 0; r < n; r++, dr += m, ar += k) {
-            g00 = DoubleVector.broadcast(S, d[dr]).fma(DoubleVector.fromArray(S, a, ar), g00);
+        DoubleVector g01 = DoubleVector.fromArray(S, g, g0 + L);
+        int ap = p0;
+        for (int r = 0; r < n; r++, ap += 2 * L) {
+            DoubleVector x0 = DoubleVector.broadcast(S, dt[d0 + r]);
+            g00 = x0.fma(DoubleVector.fromArray(S, pack, ap), g00);
+            g01 = x0.fma(DoubleVector.fromArray(S, pack, ap + L), g01);
         }
         g00.intoArray(g, g0);
+        g01.intoArray(g, g0 + L);
     }
 }
