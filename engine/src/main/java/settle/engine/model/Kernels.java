@@ -79,8 +79,8 @@ public final class Kernels {
      */
     public static int packLength(int rows, int outputs, int inputs) {
         int panel = VECTOR ? 2 * VectorKernels.lanes() : 1;
-        long forward = (long) outputs * inputs;
-        long gradient = (long) outputs * rows + (long) rows * GROUP * panel;
+        long forward = (long) ((outputs + panel - 1) / panel) * panel * inputs + 7L * panel;
+        long gradient = (long) outputs * rows + (long) Math.max(rows * GROUP, rows + 6) * panel;
         return Math.toIntExact(Math.max(forward, gradient));
     }
 
@@ -195,6 +195,41 @@ public final class Kernels {
                 for (int i = 0; i < k; i++) {
                     g[gj + i] = Math.fma(dj, a[ar + i], g[gj + i]);
                 }
+            }
+        }
+    }
+
+    /**
+     * ReLU in place: v ← max(v, 0) as {@link Math#max} defines it (−0 and +0 give +0, NaN stays NaN).
+     *
+     * @param v modified, the first {@code count} values
+     * @param width the layer's width (rows of count / width values); narrow layers run scalar
+     */
+    public static void relu(double[] v, int count, int width) {
+        int i = 0;
+        if (VECTOR && width >= VECTOR_COLUMNS) {
+            i = VectorKernels.relu(v, count);
+        }
+        for (; i < count; i++) {
+            v[i] = Math.max(v[i], 0.0);
+        }
+    }
+
+    /**
+     * The ReLU derivative's mask: d ← 0 wherever a is not positive, d unchanged elsewhere.
+     *
+     * @param d modified, the first {@code count} values
+     * @param a the layer's outputs; not modified
+     * @param width the layer's width (rows of count / width values); narrow layers run scalar
+     */
+    public static void keepWherePositive(double[] d, double[] a, int count, int width) {
+        int i = 0;
+        if (VECTOR && width >= VECTOR_COLUMNS) {
+            i = VectorKernels.keepWherePositive(d, a, count);
+        }
+        for (; i < count; i++) {
+            if (!(a[i] > 0)) {
+                d[i] = 0.0;
             }
         }
     }

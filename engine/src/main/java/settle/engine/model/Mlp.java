@@ -216,9 +216,7 @@ public final class Mlp implements Model {
             if (l < layers) {
                 int count = n * nOut;
                 if (activation == Activation.RELU) {
-                    for (int i = 0; i < count; i++) {
-                        out[i] = out[i] > 0 ? out[i] : 0.0;
-                    }
+                    Kernels.relu(out, count, nOut);
                 } else {
                     for (int i = 0; i < count; i++) {
                         out[i] = Math.tanh(out[i]);
@@ -271,11 +269,7 @@ public final class Mlp implements Model {
             Kernels.product(delta, 0, n, nOut, theta, weightOffset[l], nIn, null, 0, previous, 0);
             int count = n * nIn;
             if (activation == Activation.RELU) {
-                for (int i = 0; i < count; i++) {
-                    if (!(in[i] > 0)) {
-                        previous[i] = 0.0;
-                    }
-                }
+                Kernels.keepWherePositive(previous, in, count, nIn);
             } else {
                 for (int i = 0; i < count; i++) {
                     double a = in[i];

@@ -1,6 +1,7 @@
 package settle.engine.model;
 
 import jdk.incubator.vector.DoubleVector;
+import jdk.incubator.vector.VectorOperators;
 import jdk.incubator.vector.VectorSpecies;
 
 /**
@@ -24,6 +25,26 @@ final class VectorKernels {
     /** @return doubles per vector */
     static int lanes() {
         return L;
+    }
+
+    /** @return how many leading values of v were set to max(v, 0) (whole vectors); see {@link Kernels#relu} */
+    static int relu(double[] v, int count) {
+        int i = 0;
+        for (; i + L <= count; i += L) {
+            DoubleVector.fromArray(S, v, i).max(0.0).intoArray(v, i);
+        }
+        return i;
+    }
+
+    /** @return how many leading values were masked (whole vectors); see {@link Kernels#keepWherePositive} */
+    static int keepWherePositive(double[] d, double[] a, int count) {
+        int i = 0;
+        DoubleVector zero = DoubleVector.zero(S);
+        for (; i + L <= count; i += L) {
+            DoubleVector x = DoubleVector.fromArray(S, a, i);
+            DoubleVector.fromArray(S, d, i).blend(zero, x.compare(VectorOperators.GT, 0.0).not()).intoArray(d, i);
+        }
+        return i;
     }
 
     /** See {@link Kernels#product}: lanes run over the m columns of B and C. */
@@ -60,19 +81,25 @@ final class VectorKernels {
     /**
      * See {@link Kernels#multiplyByTransposed}: W's rows are packed into panels of 2L columns of Wᵀ (panel p holds
      * Wᵀ[i][2Lp .. 2Lp + 2L) for i = 0 … k−1, contiguous), then multiplied like {@link #product}; the last
-     * m mod 2L columns are chains over W's rows.
+     * m mod 2L columns go through a zero-padded panel and a tile.
      */
     static void multiplyByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
             double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
         int width = 2 * L;
         int panels = m / width;
-        for (int p = 0; p < panels; p++) {
+        int rest = m - panels * width;
+        int all = panels + (rest > 0 ? 1 : 0);
+        for (int p = 0; p < all; p++) {
             int base = p * k * width;
+            int valid = p < panels ? width : rest;
             int row = wOffset + p * width * k;
             for (int i = 0; i < k; i++) {
                 int to = base + i * width;
-                for (int jj = 0; jj < width; jj++) {
+                for (int jj = 0; jj < valid; jj++) {
                     pack[to + jj] = w[row + jj * k + i];
+                }
+                for (int jj = valid; jj < width; jj++) {
+                    pack[to + jj] = 0.0;
                 }
             }
         }
@@ -90,16 +117,39 @@ final class VectorKernels {
                 product1x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j);
             }
         }
-        for (int j = panels * width; j < m; j++) {
-            int wj = wOffset + j * k;
-            for (int r = 0; r < n; r++) {
-                int ar = aOffset + r * k;
-                double acc = init == null ? 0.0 : init[initOffset + j];
-                for (int i = 0; i < k; i++) {
-                    acc = Math.fma(a[ar + i], w[wj + i], acc);
+        if (rest > 0) {
+            // the last, partial panel: zero-padded weights and starting values, results through a tile in pack
+            int j = panels * width;
+            int base = panels * k * width;
+            int padded = all * k * width;
+            int tile = padded + width;
+            double[] start = null;
+            if (init != null) {
+                start = pack;
+                for (int jj = 0; jj < width; jj++) {
+                    pack[padded + jj] = jj < rest ? init[initOffset + j + jj] : 0.0;
                 }
-                c[cOffset + r * m + j] = acc;
             }
+            int r = 0;
+            for (; r + 6 <= n; r += 6) {
+                product6x2(a, aOffset + r * k, k, pack, base, width, start, padded, pack, tile, width);
+                untile(pack, tile, 6, width, rest, c, cOffset + r * m + j, m);
+            }
+            for (; r + 4 <= n; r += 4) {
+                product4x2(a, aOffset + r * k, k, pack, base, width, start, padded, pack, tile, width);
+                untile(pack, tile, 4, width, rest, c, cOffset + r * m + j, m);
+            }
+            for (; r < n; r++) {
+                product1x2(a, aOffset + r * k, k, pack, base, width, start, padded, pack, tile);
+                untile(pack, tile, 1, width, rest, c, cOffset + r * m + j, m);
+            }
+        }
+    }
+
+    /** Copies the first {@code valid} columns of a rows × width tile into C. */
+    private static void untile(double[] tile, int t0, int rows, int width, int valid, double[] c, int c0, int cStride) {
+        for (int q = 0; q < rows; q++) {
+            System.arraycopy(tile, t0 + q * width, c, c0 + q * cStride, valid);
         }
     }
 
@@ -237,7 +287,7 @@ final class VectorKernels {
      * See {@link Kernels#addTransposedProduct}: lanes run over the k columns of A and G. D is transposed into
      * {@code pack} (Dᵀ, m × n) and A's columns are packed {@link Kernels#GROUP} panels of 2L at a time (panel q
      * holds A[r][..] for r = 0 … n−1, contiguous), so that every block of 4 rows of G reuses a packed group from
-     * cache; the last k mod 2L columns are scalar chains.
+     * cache; the last k mod 2L columns go through a zero-padded panel and a tile.
      */
     static void addTransposedProduct(double[] d, int dOffset, int n, int m, double[] a, int aOffset, int k,
             double[] g, int gOffset, double[] pack) {
@@ -275,14 +325,42 @@ final class VectorKernels {
                 }
             }
         }
-        for (int i = full; i < k; i++) {
-            for (int j = 0; j < m; j++) {
-                int gi = gOffset + j * k + i;
-                double acc = g[gi];
-                for (int r = 0; r < n; r++) {
-                    acc = Math.fma(d[dOffset + r * m + j], a[aOffset + r * k + i], acc);
+        int rest = k - full;
+        if (rest > 0) {
+            // the last, partial panel of A, zero-padded; each block of G goes through a tile in pack
+            for (int r = 0; r < n; r++) {
+                int to = packA + r * width;
+                System.arraycopy(a, aOffset + r * k + full, pack, to, rest);
+                for (int ii = rest; ii < width; ii++) {
+                    pack[to + ii] = 0.0;
                 }
-                g[gi] = acc;
+            }
+            int tile = packA + n * width;
+            int j = 0;
+            for (; j + 6 <= m; j += 6) {
+                toTile(g, gOffset + j * k + full, k, 6, rest, pack, tile, width);
+                gradient6x2(pack, j * n, n, pack, packA, pack, tile, width);
+                untile(pack, tile, 6, width, rest, g, gOffset + j * k + full, k);
+            }
+            for (; j + 4 <= m; j += 4) {
+                toTile(g, gOffset + j * k + full, k, 4, rest, pack, tile, width);
+                gradient4x2(pack, j * n, n, pack, packA, pack, tile, width);
+                untile(pack, tile, 4, width, rest, g, gOffset + j * k + full, k);
+            }
+            for (; j < m; j++) {
+                toTile(g, gOffset + j * k + full, k, 1, rest, pack, tile, width);
+                gradient1x2(pack, j * n, n, pack, packA, pack, tile);
+                untile(pack, tile, 1, width, rest, g, gOffset + j * k + full, k);
+            }
+        }
+    }
+
+    /** Copies {@code valid} columns of {@code rows} rows of G into a zero-padded rows × width tile. */
+    private static void toTile(double[] g, int g0, int gStride, int rows, int valid, double[] tile, int t0, int width) {
+        for (int q = 0; q < rows; q++) {
+            System.arraycopy(g, g0 + q * gStride, tile, t0 + q * width, valid);
+            for (int ii = valid; ii < width; ii++) {
+                tile[t0 + q * width + ii] = 0.0;
             }
         }
     }

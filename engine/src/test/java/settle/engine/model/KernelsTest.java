@@ -101,6 +101,34 @@ class KernelsTest {
         }
     }
 
+    @Test
+    void reluAndItsMaskAgreeWithThePlainLoop() {
+        SplittableRandom random = new SplittableRandom(13);
+        int width = 16;
+        int count = 7 * width;
+        double[] z = gaussian(random, count);
+        z[3] = -0.0;
+        z[20] = 0.0;
+        double[] expected = new double[count];
+        for (int i = 0; i < count; i++) {
+            expected[i] = Math.max(z[i], 0.0);
+        }
+        double[] relu = z.clone();
+        Kernels.relu(relu, count, width);
+        assertArrayEquals(expected, relu, EXACT, "relu");
+        assertTrue(Double.doubleToRawLongBits(relu[3]) == 0L, "max(−0, 0) is +0");
+        double[] d = gaussian(random, count);
+        double[] masked = d.clone();
+        for (int i = 0; i < count; i++) {
+            if (!(relu[i] > 0)) {
+                masked[i] = 0.0;
+            }
+        }
+        double[] kept = d.clone();
+        Kernels.keepWherePositive(kept, relu, count, width);
+        assertArrayEquals(masked, kept, EXACT, "mask");
+    }
+
     private static double[] gaussian(SplittableRandom random, int count) {
         double[] values = new double[count];
         for (int i = 0; i < count; i++) {
