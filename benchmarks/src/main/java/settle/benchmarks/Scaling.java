@@ -25,7 +25,8 @@ import settle.engine.train.TrainingSettings;
  *       over N rounds; prints the wall-clock speedup and checks that every replicate's final θ is bit-identical
  *       between the two;</li>
  *   <li>{@code rows [--workload KEY] [--epochs E]}: one replicate at 10k, 20k and 40k rows (interleaved, 3 rounds,
- *       the plan's default tail: τ = 0.1, 50 snapshots); prints CPU time per row × epoch;</li>
+ *       the plan's default tail: τ = 0.1, 50 snapshots; the default 5 epochs make the tail at least 50 updates
+ *       long at every size, so K = 50 everywhere); prints CPU time per row × epoch;</li>
  *   <li>{@code memory [--replicates R] [--rows N] [--epochs E]}: an MLP 784-256-10 study (default 200 replicates,
  *       20 000 rows, 5 epochs, the plan's default tail) on 2 threads; run it with {@code -Xmx1g}; prints the heap in
  *       use after each replicate and the pools' peak.</li>
@@ -44,9 +45,9 @@ public final class Scaling {
         String mode = args[0];
         String workload = mode.equals("memory") ? "mlp-784-256-10-b256" : "mlp-64-128-10-b64";
         int replicates = mode.equals("memory") ? 200 : 8;
-        int rounds = 3;
+        int rounds = mode.equals("rows") ? 5 : 3;
         int rows = 20_000;
-        int epochs = mode.equals("memory") ? 5 : 2;
+        int epochs = mode.equals("threads") ? 2 : 5;
         for (int i = 1; i < args.length; i++) {
             switch (args[i]) {
                 case "--workload" -> workload = args[++i];
@@ -85,33 +86,51 @@ public final class Scaling {
         Trainer trainer = studyTrainer(w, data);
         System.out.printf(Locale.ROOT, "%s, N=%d, %d epochs, default tail; %d replicates per run%n", w.describe(),
                 w.rows(), w.epochs(), replicates);
-        runPool(trainer, replicates, 2); // warm-up
+        runPool(trainer, replicates, 2, new long[replicates]); // warm-up
         double[] speedups = new double[rounds];
+        double[] cpuRatios = new double[rounds];
         for (int round = 0; round < rounds; round++) {
+            long[] cpu1 = new long[replicates];
+            long[] cpu2 = new long[replicates];
             long start = System.nanoTime();
-            long[] one = runPool(trainer, replicates, 1);
+            long[] one = runPool(trainer, replicates, 1, cpu1);
             double t1 = (System.nanoTime() - start) * 1e-9;
             start = System.nanoTime();
-            long[] two = runPool(trainer, replicates, 2);
+            long[] two = runPool(trainer, replicates, 2, cpu2);
             double t2 = (System.nanoTime() - start) * 1e-9;
             if (!Arrays.equals(one, two)) {
                 throw new IllegalStateException("results differ between 1 and 2 threads");
             }
             speedups[round] = t1 / t2;
-            System.out.printf(Locale.ROOT, "  round %d: 1 thread %.2f s, 2 threads %.2f s, speedup %.2f×; final θ "
-                    + "bit-identical%n", round + 1, t1, t2, speedups[round]);
+            double c1 = Arrays.stream(cpu1).sum() * 1e-9;
+            double c2 = Arrays.stream(cpu2).sum() * 1e-9;
+            cpuRatios[round] = c1 / c2;
+            System.out.printf(Locale.ROOT, "  round %d: 1 thread %.2f s (CPU %.2f s), 2 threads %.2f s (CPU %.2f s); "
+                    + "wall-clock speedup %.2f×, CPU per replicate 1-thread/2-thread %.2f; final θ bit-identical%n",
+                    round + 1, t1, c1, t2, c2, speedups[round], cpuRatios[round]);
         }
-        System.out.printf(Locale.ROOT, "speedup on 2 threads: median %s%n", Comparison.spread(speedups));
+        System.out.printf(Locale.ROOT, "wall-clock speedup on 2 threads: median %s%n", Comparison.spread(speedups));
+        System.out.printf(Locale.ROOT, "work per replicate (CPU time, 1 thread / 2 threads): median %s "
+                + "(1.00 = the threads do not slow each other; speedup = 2 × this when both cores are free)%n",
+                Comparison.spread(cpuRatios));
     }
 
-    /** @return per replicate, a hash of the bits of its final θ */
-    private static long[] runPool(Trainer trainer, int replicates, int threads) throws Exception {
+    /**
+     * @param cpu receives each replicate's CPU time in nanoseconds; modified
+     * @return per replicate, a hash of the bits of its final θ
+     */
+    private static long[] runPool(Trainer trainer, int replicates, int threads, long[] cpu) throws Exception {
         ExecutorService pool = Executors.newFixedThreadPool(threads);
         try {
             List<Future<Long>> futures = new ArrayList<>();
             for (int k = 1; k <= replicates; k++) {
                 int replicate = k;
-                futures.add(pool.submit(() -> hash(trainer.run(ReplicateSeeds.derive(20260101L, replicate)))));
+                futures.add(pool.submit(() -> {
+                    long before = Clock.cpuNanos();
+                    long h = hash(trainer.run(ReplicateSeeds.derive(20260101L, replicate)));
+                    cpu[replicate - 1] = Clock.cpuNanos() - before;
+                    return h;
+                }));
             }
             long[] hashes = new long[replicates];
             for (int k = 0; k < replicates; k++) {
@@ -139,6 +158,10 @@ public final class Scaling {
         }
         System.out.printf(Locale.ROOT, "%s, %d epochs, default tail (τ = 0.1, 50 snapshots); CPU time per row × epoch%n",
                 w.describe(), w.epochs());
+        for (int s = 0; s < sizes.length; s++) {
+            System.out.printf(Locale.ROOT, "  %6d rows: %d updates, %d snapshots%n", sizes[s],
+                    trainers[s].tailPlan().totalUpdates(), trainers[s].tailPlan().snapshots());
+        }
         double[][] perRow = new double[sizes.length][rounds];
         for (int round = -1; round < rounds; round++) {
             for (int s = 0; s < sizes.length; s++) {

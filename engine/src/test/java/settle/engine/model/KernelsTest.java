@@ -9,7 +9,8 @@ import org.junit.jupiter.api.Test;
 /**
  * The products' exactness contract ({@link Kernels}): every output is one {@link Math#fma} chain over the summed
  * index in ascending order, so the vector path, the scalar fallback and a plain triple loop written here agree
- * bit for bit (tolerance 0) on every shape, including ones that leave partial register blocks and vector tails.
+ * bit for bit (tolerance 0) on every shape, including ones that leave partial register blocks and vector tails, and
+ * one deep and tall enough to cross the cache blocks of the summed index and of the rows.
  */
 class KernelsTest {
 
@@ -17,7 +18,8 @@ class KernelsTest {
     private static final double EXACT = 0.0;
 
     private static final int[][] SHAPES = {
-        {1, 1, 1}, {3, 5, 7}, {4, 8, 8}, {5, 9, 10}, {7, 13, 17}, {8, 16, 3}, {13, 50, 10}, {64, 31, 33}, {9, 2, 64}, {37, 70, 45}};
+        {1, 1, 1}, {3, 5, 7}, {4, 8, 8}, {5, 9, 10}, {7, 13, 17}, {8, 16, 3}, {13, 50, 10}, {64, 31, 33}, {9, 2, 64},
+        {37, 70, 45}, {101, 530, 19}};
 
     @Test
     void theSurefireRunUsesTheVectorPath() {
