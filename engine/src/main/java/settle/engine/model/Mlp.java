@@ -23,6 +23,7 @@ public final class Mlp implements Model {
     private final int[] biasOffset;
     private final int parameterCount;
     private final boolean[] penalised;
+    private final int[] weightRanges;
 
     /**
      * @param inputs d, at least 1
@@ -74,8 +75,11 @@ public final class Mlp implements Model {
         }
         this.parameterCount = (int) offset;
         this.penalised = new boolean[parameterCount];
+        this.weightRanges = new int[2 * layers];
         for (int l = 1; l <= layers; l++) {
             Arrays.fill(penalised, weightOffset[l], biasOffset[l], true);
+            weightRanges[2 * l - 2] = weightOffset[l];
+            weightRanges[2 * l - 1] = biasOffset[l];
         }
     }
 
@@ -152,23 +156,27 @@ public final class Mlp implements Model {
     /**
      * Per layer l = 1 … L: its outputs a_l (capacity × s_l; post-activation for hidden layers, the logits and
      * then the probabilities for the output layer) and the loss's gradient with respect to its pre-activations
-     * δ_l (capacity × s_l).
+     * δ_l (capacity × s_l); and the products' packing buffer.
      */
     private static final class Scratch implements Workspace {
         private final int capacity;
         private final int[] sizes;
         private final double[][] out;
         private final double[][] delta;
+        private final double[] pack;
 
         Scratch(int capacity, int[] sizes) {
             this.capacity = capacity;
             this.sizes = sizes;
             this.out = new double[sizes.length][];
             this.delta = new double[sizes.length][];
+            int largest = 0;
             for (int l = 1; l < sizes.length; l++) {
                 out[l] = new double[Math.multiplyExact(capacity, sizes[l])];
                 delta[l] = new double[capacity * sizes[l]];
+                largest = Math.max(largest, Kernels.packLength(capacity, sizes[l], sizes[l - 1]));
             }
+            this.pack = new double[largest];
         }
 
         @Override
@@ -193,33 +201,29 @@ public final class Mlp implements Model {
     // Backward: δ_L = p − onehot(y);  ∂/∂W_l += δ_lᵀ a_{l−1};  ∂/∂b_l += Σ_r δ_l,r;
     //           δ_{l−1} = (δ_l W_l) ⊙ act'(a_{l−1})  with relu' = [a > 0], tanh' = 1 − a².
 
-    /** Fills s.out[1..L] for the n rows of x; s.out[L] ends holding the logits z_L (n, K). */
+    /**
+     * Fills s.out[1..L] for the n rows of x; s.out[L] ends holding the logits z_L (n, K). Each z is one fused
+     * multiply-add chain from b_j over the inputs in ascending order ({@link Kernels#product}).
+     */
     private void forward(double[] theta, double[] x, int n, Scratch s) {
         for (int l = 1; l <= layers; l++) {
             double[] in = l == 1 ? x : s.out[l - 1];
             double[] out = s.out[l];
             int nIn = sizes[l - 1];
             int nOut = sizes[l];
-            int w = weightOffset[l];
-            int b = biasOffset[l];
-            boolean hidden = l < layers;
-            for (int r = 0; r < n; r++) {
-                int inBase = r * nIn;
-                int outBase = r * nOut;
-                for (int j = 0; j < nOut; j++) {
-                    int row = w + j * nIn;
-                    double z = theta[b + j];
-                    for (int i = 0; i < nIn; i++) {
-                        z += theta[row + i] * in[inBase + i];
+            Kernels.multiplyByTransposed(in, 0, n, nIn, theta, weightOffset[l], nOut, theta, biasOffset[l], out, 0,
+                    s.pack);
+            if (l < layers) {
+                int count = n * nOut;
+                if (activation == Activation.RELU) {
+                    Kernels.relu(out, count, nOut);
+                } else {
+                    for (int i = 0; i < count; i++) {
+                        out[i] = Math.tanh(out[i]);
                     }
-                    out[outBase + j] = hidden ? activate(z) : z;
                 }
             }
         }
-    }
-
-    private double activate(double z) {
-        return activation == Activation.RELU ? (z > 0 ? z : 0.0) : Math.tanh(z);
     }
 
     /**
@@ -254,54 +258,22 @@ public final class Mlp implements Model {
             double[] delta = s.delta[l];
             int nIn = sizes[l - 1];
             int nOut = sizes[l];
-            int w = weightOffset[l];
-            int b = biasOffset[l];
             // ∂/∂W_l (nOut, nIn) += δ_lᵀ (nOut × n) · a_{l−1} (n × nIn); ∂/∂b_l += column sums of δ_l.
-            for (int r = 0; r < n; r++) {
-                int inBase = r * nIn;
-                int dBase = r * nOut;
-                for (int j = 0; j < nOut; j++) {
-                    double dj = delta[dBase + j];
-                    if (dj == 0.0) {
-                        continue;
-                    }
-                    int row = w + j * nIn;
-                    for (int i = 0; i < nIn; i++) {
-                        gradientSum[row + i] += dj * in[inBase + i];
-                    }
-                    gradientSum[b + j] += dj;
-                }
-            }
+            Kernels.addTransposedProduct(delta, 0, n, nOut, in, 0, nIn, gradientSum, weightOffset[l], s.pack);
+            Kernels.addColumnSums(delta, n, nOut, gradientSum, biasOffset[l]);
             if (l == 1) {
                 break;
             }
             // δ_{l−1} (n, nIn) = δ_l (n, nOut) · W_l (nOut, nIn), times act'(a_{l−1}).
             double[] previous = s.delta[l - 1];
-            for (int r = 0; r < n; r++) {
-                int pBase = r * nIn;
-                int dBase = r * nOut;
-                Arrays.fill(previous, pBase, pBase + nIn, 0.0);
-                for (int j = 0; j < nOut; j++) {
-                    double dj = delta[dBase + j];
-                    if (dj == 0.0) {
-                        continue;
-                    }
-                    int row = w + j * nIn;
-                    for (int i = 0; i < nIn; i++) {
-                        previous[pBase + i] += dj * theta[row + i];
-                    }
-                }
-                if (activation == Activation.RELU) {
-                    for (int i = 0; i < nIn; i++) {
-                        if (!(in[pBase + i] > 0)) {
-                            previous[pBase + i] = 0.0;
-                        }
-                    }
-                } else {
-                    for (int i = 0; i < nIn; i++) {
-                        double a = in[pBase + i];
-                        previous[pBase + i] *= 1.0 - a * a;
-                    }
+            Kernels.product(delta, 0, n, nOut, theta, weightOffset[l], nIn, null, 0, previous, 0);
+            int count = n * nIn;
+            if (activation == Activation.RELU) {
+                Kernels.keepWherePositive(previous, in, count, nIn);
+            } else {
+                for (int i = 0; i < count; i++) {
+                    double a = in[i];
+                    previous[i] *= 1.0 - a * a;
                 }
             }
         }
@@ -342,6 +314,18 @@ public final class Mlp implements Model {
         }
         backward(theta, x, n, gradientSum, s);
         return sum;
+    }
+
+    @Override
+    public double batchObjective(double[] theta, double[] x, int[] y, int n, double[] gradient, Workspace workspace) {
+        Arrays.fill(gradient, 0.0);
+        double lossSum = addGradientSum(theta, x, y, n, gradient, workspace);
+        return Penalties.finishBatch(theta, gradient, weightRanges, lossSum, n, l2);
+    }
+
+    @Override
+    public double penalty(double[] theta) {
+        return Penalties.penalty(theta, weightRanges, l2);
     }
 
     @Override

@@ -19,6 +19,7 @@ public final class SoftmaxRegression implements Model {
     private final int classes;
     private final double l2;
     private final int biasOffset;
+    private final int[] weightRanges;
 
     /**
      * @param inputs d, at least 1
@@ -43,6 +44,7 @@ public final class SoftmaxRegression implements Model {
         this.classes = classes;
         this.l2 = l2;
         this.biasOffset = inputs * classes;
+        this.weightRanges = new int[] {0, biasOffset};
     }
 
     @Override
@@ -85,17 +87,21 @@ public final class SoftmaxRegression implements Model {
         if (maxBatch < 1) {
             throw new IllegalArgumentException("workspace capacity must be at least 1: " + maxBatch);
         }
-        return new Scratch(maxBatch, classes);
+        return new Scratch(maxBatch, inputs, classes);
     }
 
-    /** One row's scores (K values); rows are processed one at a time. */
+    /** The batch's scores, then exponentials, then deltas (capacity × K), and the products' packing buffer. */
     private static final class Scratch implements Workspace {
         private final int capacity;
+        private final int classes;
         private final double[] scores;
+        private final double[] pack;
 
-        Scratch(int capacity, int classes) {
+        Scratch(int capacity, int inputs, int classes) {
             this.capacity = capacity;
-            this.scores = new double[classes];
+            this.classes = classes;
+            this.scores = new double[Math.multiplyExact(capacity, classes)];
+            this.pack = new double[Kernels.packLength(capacity, classes, inputs)];
         }
 
         @Override
@@ -106,59 +112,53 @@ public final class SoftmaxRegression implements Model {
 
     private Scratch scratch(double[] theta, int n, Workspace workspace) {
         Starts.checkLength("θ", theta, parameterCount());
-        if (!(workspace instanceof Scratch s) || s.scores.length != classes) {
+        if (!(workspace instanceof Scratch s) || s.classes != classes || s.pack.length != Kernels.packLength(s.capacity, classes, inputs)) {
             throw new IllegalArgumentException("workspace was not made by a " + classes
-                    + "-class multinomial logistic model");
+                    + "-class multinomial logistic model with " + inputs + " inputs");
         }
         Starts.checkRows(n, s.capacity);
         return s;
     }
 
     // Forward and backward, side by side. x is (n, d) row-major, W is (K, d) row-major at θ[0], b (K) at θ[K·d].
-    // Forward:  z = W x_r + b (K),  m = max z,  s = Σ exp(z_k − m),  loss_r = m + log s − z_y.
-    // Backward: δ_k = exp(z_k − m)/s − [k = y],  ∂/∂W_k += δ_k x_r,  ∂/∂b_k += δ_k.
+    // Forward:  Z = X Wᵀ + b (n, K),  per row m = max z,  s = Σ exp(z_k − m),  loss_r = m + log s − z_y.
+    // Backward: Δ_rk = exp(z_k − m)/s − [k = y_r],  ∂/∂W += Δᵀ X,  ∂/∂b += column sums of Δ.
+
+    /** Fills s.scores with Z = X Wᵀ + b for the n rows of x (one fused multiply-add chain per score). */
+    private void scores(double[] theta, double[] x, int n, Scratch s) {
+        Kernels.multiplyByTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0, s.pack);
+    }
 
     /**
-     * Replaces each score z_k by exp(z_k − max z) (callers read z_y first).
+     * Replaces each score z_k of row r by exp(z_k − max z) (callers read z_y first).
      *
-     * @param scores z on entry, the shifted exponentials on return; modified
-     * @return max z + log Σ exp(z_k − max z), the log-sum-exp of z
+     * @param z the batch's scores (n × K); row r modified
+     * @return max z + log Σ exp(z_k − max z), the log-sum-exp of the row
      */
-    private double logSumExp(double[] scores) {
-        double max = scores[0];
+    private double logSumExp(double[] z, int r) {
+        int base = r * classes;
+        double max = z[base];
         for (int k = 1; k < classes; k++) {
-            max = Math.max(max, scores[k]);
+            max = Math.max(max, z[base + k]);
         }
         double sum = 0;
         for (int k = 0; k < classes; k++) {
-            double e = Math.exp(scores[k] - max);
-            scores[k] = e;
+            double e = Math.exp(z[base + k] - max);
+            z[base + k] = e;
             sum += e;
         }
         return max + Math.log(sum);
     }
 
-    /** Fills {@code scores} with z = W x_r + b for row r of x. */
-    private void scores(double[] theta, double[] x, int row, double[] scores) {
-        int base = row * inputs;
-        for (int k = 0; k < classes; k++) {
-            int w = k * inputs;
-            double z = theta[biasOffset + k];
-            for (int j = 0; j < inputs; j++) {
-                z += theta[w + j] * x[base + j];
-            }
-            scores[k] = z;
-        }
-    }
-
     @Override
     public double lossSum(double[] theta, double[] x, int[] y, int n, Workspace workspace) {
-        double[] z = scratch(theta, n, workspace).scores;
+        Scratch s = scratch(theta, n, workspace);
+        scores(theta, x, n, s);
+        double[] z = s.scores;
         double sum = 0;
         for (int r = 0; r < n; r++) {
-            scores(theta, x, r, z);
-            double target = z[y[r]];
-            sum += logSumExp(z) - target;
+            double target = z[r * classes + y[r]];
+            sum += logSumExp(z, r) - target;
         }
         return sum;
     }
@@ -166,47 +166,57 @@ public final class SoftmaxRegression implements Model {
     @Override
     public double addGradientSum(double[] theta, double[] x, int[] y, int n, double[] gradientSum,
             Workspace workspace) {
-        double[] z = scratch(theta, n, workspace).scores;
+        Scratch s = scratch(theta, n, workspace);
         Starts.checkLength("gradient", gradientSum, parameterCount());
+        scores(theta, x, n, s);
+        double[] z = s.scores;
         double sum = 0;
         for (int r = 0; r < n; r++) {
-            scores(theta, x, r, z);
             int label = y[r];
-            double target = z[label];
-            double lse = logSumExp(z);
-            sum += lse - target;
-            double inverse = 1.0 / sumOf(z);
-            int base = r * inputs;
+            int base = r * classes;
+            double target = z[base + label];
+            sum += logSumExp(z, r) - target;
+            double inverse = 1.0 / rowSum(z, base);
             for (int k = 0; k < classes; k++) {
-                double delta = z[k] * inverse - (k == label ? 1.0 : 0.0);
-                int w = k * inputs;
-                for (int j = 0; j < inputs; j++) {
-                    gradientSum[w + j] += delta * x[base + j];
-                }
-                gradientSum[biasOffset + k] += delta;
+                z[base + k] = z[base + k] * inverse - (k == label ? 1.0 : 0.0);
             }
         }
+        Kernels.addTransposedProduct(z, 0, n, classes, x, 0, inputs, gradientSum, 0, s.pack);
+        Kernels.addColumnSums(z, n, classes, gradientSum, biasOffset);
         return sum;
     }
 
-    private double sumOf(double[] values) {
+    @Override
+    public double batchObjective(double[] theta, double[] x, int[] y, int n, double[] gradient, Workspace workspace) {
+        java.util.Arrays.fill(gradient, 0.0);
+        double lossSum = addGradientSum(theta, x, y, n, gradient, workspace);
+        return Penalties.finishBatch(theta, gradient, weightRanges, lossSum, n, l2);
+    }
+
+    @Override
+    public double penalty(double[] theta) {
+        return Penalties.penalty(theta, weightRanges, l2);
+    }
+
+    private double rowSum(double[] values, int base) {
         double sum = 0;
         for (int k = 0; k < classes; k++) {
-            sum += values[k];
+            sum += values[base + k];
         }
         return sum;
     }
 
     @Override
     public void probabilities(double[] theta, double[] x, int n, double[] out, Workspace workspace) {
-        double[] z = scratch(theta, n, workspace).scores;
+        Scratch s = scratch(theta, n, workspace);
+        scores(theta, x, n, s);
+        double[] z = s.scores;
         for (int r = 0; r < n; r++) {
-            scores(theta, x, r, z);
-            logSumExp(z);
-            double inverse = 1.0 / sumOf(z);
-            int o = r * classes;
+            logSumExp(z, r);
+            int base = r * classes;
+            double inverse = 1.0 / rowSum(z, base);
             for (int k = 0; k < classes; k++) {
-                out[o + k] = z[k] * inverse;
+                out[base + k] = z[base + k] * inverse;
             }
         }
     }

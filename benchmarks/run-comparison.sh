@@ -1,0 +1,21 @@
+#!/usr/bin/env bash
+# The speed comparison of docs/benchmarks.md: settle against Debian's python3-torch (idiomatic and hand-written
+# variants), float64, one thread each, interleaved rounds. Installs the peer with apt when it is missing, builds
+# the benchmarks jar, and runs. Extra arguments go to the comparison (e.g. --rounds 7, --only logistic-b64).
+# Not part of the test suite.
+set -euo pipefail
+root=$(cd "$(dirname "$0")/.." && pwd)
+cd "$root"
+if ! /usr/bin/python3 -c 'import torch' >/dev/null 2>&1; then
+  echo "run-comparison: installing python3-torch (Debian) for the peer" >&2
+  if [ "$(id -u)" -eq 0 ]; then sudo=""; else sudo="sudo"; fi
+  $sudo apt-get update -q
+  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -q python3-torch
+fi
+jar="$root/benchmarks/target/benchmarks.jar"
+if [ ! -f "$jar" ] || [ -n "$(find "$root" -path '*/src/main/*' -newer "$jar" -print -quit)" ]; then
+  mvn -B -q -DskipTests -pl benchmarks -am package
+fi
+export OMP_NUM_THREADS=1 OPENBLAS_NUM_THREADS=1 MKL_NUM_THREADS=1
+exec java --add-modules jdk.incubator.vector -cp "$jar" settle.benchmarks.Comparison \
+  --peer "$root/benchmarks/src/main/python/peer.py" --python /usr/bin/python3 "$@" 2> >(grep -v 'Using incubator modules' >&2)
