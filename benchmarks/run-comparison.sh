@@ -6,11 +6,21 @@
 set -euo pipefail
 root=$(cd "$(dirname "$0")/.." && pwd)
 cd "$root"
-if ! /usr/bin/python3 -c 'import torch' >/dev/null 2>&1; then
-  echo "run-comparison: installing python3-torch (Debian) for the peer" >&2
+# The peer must multiply with an optimised BLAS: python3-torch alone may pull in Debian's reference BLAS
+# (libblas3), which makes its large products about ten times slower and would flatter settle. OpenBLAS is
+# installed alongside and selected through Debian's alternatives.
+blas=$(readlink -f /usr/lib/x86_64-linux-gnu/libblas.so.3 2>/dev/null || true)
+if ! /usr/bin/python3 -c 'import torch' >/dev/null 2>&1 || [[ "$blas" != *openblas* ]]; then
+  echo "run-comparison: installing python3-torch and OpenBLAS (Debian) for the peer" >&2
   if [ "$(id -u)" -eq 0 ]; then sudo=""; else sudo="sudo"; fi
   $sudo apt-get update -q
-  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -q python3-torch
+  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -q python3-torch libopenblas0-pthread
+  blas=$(readlink -f /usr/lib/x86_64-linux-gnu/libblas.so.3 2>/dev/null || true)
+  if [[ "$blas" != *openblas* ]]; then
+    echo "run-comparison: libblas.so.3 is $blas, not OpenBLAS; select it with" \
+      "'update-alternatives --config libblas.so.3-x86_64-linux-gnu'" >&2
+    exit 1
+  fi
 fi
 jar="$root/benchmarks/target/benchmarks.jar"
 if [ ! -f "$jar" ] || [ -n "$(find "$root" -path '*/src/main/*' -newer "$jar" -print -quit)" ]; then

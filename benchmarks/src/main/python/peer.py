@@ -125,6 +125,18 @@ def hand(w, seed):
     return time.perf_counter() - start, time.process_time() - cpu, objective
 
 
+def blas_loaded():
+    """The BLAS libraries mapped into this process (after a product has run), by file name."""
+    torch.ones(8, 8, dtype=torch.float64).mm(torch.ones(8, 8, dtype=torch.float64))
+    names = set()
+    with open("/proc/self/maps") as maps:
+        for line in maps:
+            path = line.split()[-1]
+            if "blas" in path or "mkl" in path:
+                names.add(os.path.realpath(path))
+    return ",".join(sorted(names)) or "none-found"
+
+
 def main():
     for line in sys.stdin:
         parts = line.split()
@@ -145,8 +157,8 @@ def main():
                 seconds, cpu, objective = variant(w, int(parts[3]))
                 print("ok %.9f %.9f %.17g" % (seconds, cpu, objective), flush=True)
             elif parts[0] == "version":
-                print("ok torch %s numpy %s threads %d" % (torch.__version__, np.__version__, torch.get_num_threads()),
-                      flush=True)
+                print("ok torch %s numpy %s threads %d blas %s" % (torch.__version__, np.__version__,
+                                                                   torch.get_num_threads(), blas_loaded()), flush=True)
             else:
                 print("error unknown command " + parts[0], flush=True)
         except Exception as e:  # report and carry on: the caller prints the message

@@ -73,14 +73,22 @@ public final class Kernels {
     /** Column groups of a gradient pass: how many vector panels of A are packed at once. */
     static final int GROUP = 4;
 
+    /** Rows of A a forward pass packs at once (a multiple of the register block's 6 rows). */
+    static final int ROW_BLOCK = 48;
+
     /**
      * @return the length of the {@code pack} buffer that {@link #multiplyByTransposed} and
      *     {@link #addTransposedProduct} need for up to {@code rows} rows, {@code outputs} = m and {@code inputs} = k
      */
     public static int packLength(int rows, int outputs, int inputs) {
-        int panel = VECTOR ? 2 * VectorKernels.lanes() : 1;
-        long forward = (long) ((outputs + panel - 1) / panel) * panel * inputs + 7L * panel;
-        long gradient = (long) outputs * rows + (long) Math.max(rows * GROUP, rows + 6) * panel;
+        if (!VECTOR) {
+            return 1;
+        }
+        long width = 2L * VectorKernels.lanes();
+        long panels = (outputs + width - 1) / width;
+        long packedRows = (Math.min(rows, ROW_BLOCK) + 5L) / 6 * 6;
+        long forward = panels * width * inputs + panels * width + 6 * width + packedRows * inputs;
+        long gradient = (outputs + 5L) / 6 * 6 * rows + GROUP * width * rows + 6 * width;
         return Math.toIntExact(Math.max(forward, gradient));
     }
 

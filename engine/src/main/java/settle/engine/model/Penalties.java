@@ -26,7 +26,8 @@ final class Penalties {
 
     /**
      * Turns a gradient sum over n rows into the batch gradient: g ← g/n, then g += λθ on the weights (one pass;
-     * per element the same two roundings as the default, and the penalty's sum in the same order).
+     * per element the same two roundings as the default, and the penalty's sum in the same order). With λ = 0 only
+     * g ← g/n (the same values, up to the sign of a zero).
      *
      * @param theta not modified
      * @param gradient the sum on entry, the batch gradient on return; modified
@@ -35,6 +36,13 @@ final class Penalties {
     static double finishBatch(double[] theta, double[] gradient, int[] weightRanges, double lossSum, int n,
             double lambda) {
         double inverse = 1.0 / n;
+        if (lambda == 0.0) {
+            // no penalty: skip the sum of squares, a serial chain over every weight that would only be multiplied by 0
+            for (int i = 0; i < gradient.length; i++) {
+                gradient[i] *= inverse;
+            }
+            return lossSum * inverse;
+        }
         double sum = 0;
         int next = 0;
         for (int q = 0; q < weightRanges.length; q += 2) {

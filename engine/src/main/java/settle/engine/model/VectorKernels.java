@@ -5,8 +5,8 @@ import jdk.incubator.vector.VectorOperators;
 import jdk.incubator.vector.VectorSpecies;
 
 /**
- * The vector path of {@link Kernels}: register blocks of 4 rows × 2 vectors of independent outputs, each lane
- * one output's fused multiply-add chain in the summed index's ascending order (see {@link Kernels} for the
+ * The vector path of {@link Kernels}: register blocks of 6 (or, at the edges, 4 or 1) rows × 2 vectors of
+ * independent outputs, each lane one output's fused multiply-add chain in the summed index's ascending order (see {@link Kernels} for the
  * contract). Loaded only when {@code jdk.incubator.vector} is in the boot layer.
  */
 final class VectorKernels {
@@ -79,9 +79,13 @@ final class VectorKernels {
     }
 
     /**
-     * See {@link Kernels#multiplyByTransposed}: W's rows are packed into panels of 2L columns of Wᵀ (panel p holds
-     * Wᵀ[i][2Lp .. 2Lp + 2L) for i = 0 … k−1, contiguous), then multiplied like {@link #product}; the last
-     * m mod 2L columns go through a zero-padded panel and a tile.
+     * See {@link Kernels#multiplyByTransposed}. W's rows are packed into panels of 2L columns of Wᵀ (panel p holds
+     * Wᵀ[i][2Lp .. 2Lp + 2L) for i = 0 … k−1, contiguous); A's rows are packed {@link Kernels#ROW_BLOCK} at a time
+     * into micro-panels of {@link #ROWS} interleaved rows (micro-panel q holds A[6q + t][i] at 6i + t), so that the
+     * register block reads both operands with one running index. C starts as the initial values and each block
+     * of 6 rows × 2L columns runs its chains over all k in one pass. The last m mod 2L columns (a zero-padded
+     * panel) and the last n mod 6 rows (a zero-padded micro-panel) go through a tile: padded lanes and rows are
+     * outputs of their own that are never copied out, so they cannot touch a real output's chain.
      */
     static void multiplyByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
             double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
@@ -90,60 +94,152 @@ final class VectorKernels {
         int rest = m - panels * width;
         int all = panels + (rest > 0 ? 1 : 0);
         for (int p = 0; p < all; p++) {
-            int base = p * k * width;
             int valid = p < panels ? width : rest;
-            int row = wOffset + p * width * k;
+            packPanel(w, wOffset + p * width * k, k, valid, pack, p * k * width, width);
+        }
+        // after the panels: the starting values of one tile row (m padded to all·2L), the tile, the packed rows
+        int starts = all * k * width;
+        int tile = starts + all * width;
+        int packedA = tile + ROWS * width;
+        for (int j = 0; j < all * width; j++) {
+            pack[starts + j] = init != null && j < m ? init[initOffset + j] : 0.0;
+        }
+        int columns = panels * width;
+        int whole = n / ROWS * ROWS;
+        for (int r = 0; r < whole; r++) {
+            System.arraycopy(pack, starts, c, cOffset + r * m, columns);
+        }
+        for (int r0 = 0; r0 < n; r0 += Kernels.ROW_BLOCK) {
+            int r1 = Math.min(n, r0 + Kernels.ROW_BLOCK);
+            int blocks = (r1 - r0 + ROWS - 1) / ROWS;
+            for (int q = 0; q < blocks; q++) {
+                int first = r0 + q * ROWS;
+                packRows(a, aOffset + first * k, k, Math.min(ROWS, n - first), pack, packedA + q * ROWS * k);
+            }
+            for (int p = 0; p < all; p++) {
+                for (int q = 0; q < blocks; q++) {
+                    int first = r0 + q * ROWS;
+                    int rows = Math.min(ROWS, n - first);
+                    int micro = packedA + q * ROWS * k;
+                    if (p < panels && rows == ROWS) {
+                        block6x2(pack, micro, k, pack, p * k * width, c, cOffset + first * m + p * width, m);
+                    } else {
+                        for (int t = 0; t < ROWS; t++) {
+                            System.arraycopy(pack, starts + p * width, pack, tile + t * width, width);
+                        }
+                        block6x2(pack, micro, k, pack, p * k * width, pack, tile, width);
+                        untile(pack, tile, rows, width, p < panels ? width : rest, c,
+                                cOffset + first * m + p * width, m);
+                    }
+                }
+            }
+        }
+    }
+
+    /** Rows per register block of the packed products. */
+    static final int ROWS = 6;
+
+    /** Packs {@code valid} rows of W (k apart from w0) as columns of a k × width panel at p0, zero-padded. */
+    private static void packPanel(double[] w, int w0, int k, int valid, double[] pack, int p0, int width) {
+        for (int jj = 0; jj < valid; jj++) {
+            int from = w0 + jj * k;
+            int to = p0 + jj;
             for (int i = 0; i < k; i++) {
-                int to = base + i * width;
-                for (int jj = 0; jj < valid; jj++) {
-                    pack[to + jj] = w[row + jj * k + i];
-                }
-                for (int jj = valid; jj < width; jj++) {
-                    pack[to + jj] = 0.0;
-                }
+                pack[to + i * width] = w[from + i];
             }
         }
-        for (int p = 0; p < panels; p++) {
-            int j = p * width;
-            int base = p * k * width;
-            int r = 0;
-            for (; r + 6 <= n; r += 6) {
-                product6x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j, m);
-            }
-            for (; r + 4 <= n; r += 4) {
-                product4x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j, m);
-            }
-            for (; r < n; r++) {
-                product1x2(a, aOffset + r * k, k, pack, base, width, init, initOffset + j, c, cOffset + r * m + j);
+        for (int jj = valid; jj < width; jj++) {
+            for (int i = 0; i < k; i++) {
+                pack[p0 + jj + i * width] = 0.0;
             }
         }
-        if (rest > 0) {
-            // the last, partial panel: zero-padded weights and starting values, results through a tile in pack
-            int j = panels * width;
-            int base = panels * k * width;
-            int padded = all * k * width;
-            int tile = padded + width;
-            double[] start = null;
-            if (init != null) {
-                start = pack;
-                for (int jj = 0; jj < width; jj++) {
-                    pack[padded + jj] = jj < rest ? init[initOffset + j + jj] : 0.0;
-                }
+    }
+
+    /**
+     * Packs {@code valid} ≤ 6 rows of A (k apart from a0) into one micro-panel at p0, A[t][i] at p0 + 6i + t,
+     * zero-padded to 6 rows.
+     */
+    private static void packRows(double[] a, int a0, int k, int valid, double[] pack, int p0) {
+        if (valid == ROWS) {
+            int a1 = a0 + k;
+            int a2 = a1 + k;
+            int a3 = a2 + k;
+            int a4 = a3 + k;
+            int a5 = a4 + k;
+            for (int i = 0; i < k; i++) {
+                int to = p0 + ROWS * i;
+                pack[to] = a[a0 + i];
+                pack[to + 1] = a[a1 + i];
+                pack[to + 2] = a[a2 + i];
+                pack[to + 3] = a[a3 + i];
+                pack[to + 4] = a[a4 + i];
+                pack[to + 5] = a[a5 + i];
             }
-            int r = 0;
-            for (; r + 6 <= n; r += 6) {
-                product6x2(a, aOffset + r * k, k, pack, base, width, start, padded, pack, tile, width);
-                untile(pack, tile, 6, width, rest, c, cOffset + r * m + j, m);
-            }
-            for (; r + 4 <= n; r += 4) {
-                product4x2(a, aOffset + r * k, k, pack, base, width, start, padded, pack, tile, width);
-                untile(pack, tile, 4, width, rest, c, cOffset + r * m + j, m);
-            }
-            for (; r < n; r++) {
-                product1x2(a, aOffset + r * k, k, pack, base, width, start, padded, pack, tile);
-                untile(pack, tile, 1, width, rest, c, cOffset + r * m + j, m);
+            return;
+        }
+        for (int i = 0; i < k; i++) {
+            int to = p0 + ROWS * i;
+            for (int t = 0; t < ROWS; t++) {
+                pack[to + t] = t < valid ? a[a0 + t * k + i] : 0.0;
             }
         }
+    }
+
+    /**
+     * The register block of the packed products: C (6 rows {@code cStride} apart from c0, 2L columns) gets, per
+     * output, the chain continued over i = 0 … count−1 of fma(x[6i + t], y[2L·i + lane], ·), x a micro-panel of 6
+     * interleaved rows at x0 and y a panel of 2L columns at y0. Both are read through the one loop index, which
+     * lets the compiler drop the bounds checks and keep the loop to loads, broadcasts and fused multiply-adds.
+     */
+    private static void block6x2(double[] x, int x0, int count, double[] y, int y0, double[] c, int c0, int cStride) {
+        DoubleVector c00 = DoubleVector.fromArray(S, c, c0);
+        DoubleVector c01 = DoubleVector.fromArray(S, c, c0 + L);
+        DoubleVector c10 = DoubleVector.fromArray(S, c, c0 + cStride);
+        DoubleVector c11 = DoubleVector.fromArray(S, c, c0 + cStride + L);
+        DoubleVector c20 = DoubleVector.fromArray(S, c, c0 + 2 * cStride);
+        DoubleVector c21 = DoubleVector.fromArray(S, c, c0 + 2 * cStride + L);
+        DoubleVector c30 = DoubleVector.fromArray(S, c, c0 + 3 * cStride);
+        DoubleVector c31 = DoubleVector.fromArray(S, c, c0 + 3 * cStride + L);
+        DoubleVector c40 = DoubleVector.fromArray(S, c, c0 + 4 * cStride);
+        DoubleVector c41 = DoubleVector.fromArray(S, c, c0 + 4 * cStride + L);
+        DoubleVector c50 = DoubleVector.fromArray(S, c, c0 + 5 * cStride);
+        DoubleVector c51 = DoubleVector.fromArray(S, c, c0 + 5 * cStride + L);
+        for (int i = 0; i < count; i++) {
+            int xi = x0 + ROWS * i;
+            int yi = y0 + 2 * L * i;
+            DoubleVector v0 = DoubleVector.fromArray(S, y, yi);
+            DoubleVector v1 = DoubleVector.fromArray(S, y, yi + L);
+            DoubleVector b0 = DoubleVector.broadcast(S, x[xi]);
+            c00 = b0.fma(v0, c00);
+            c01 = b0.fma(v1, c01);
+            DoubleVector b1 = DoubleVector.broadcast(S, x[xi + 1]);
+            c10 = b1.fma(v0, c10);
+            c11 = b1.fma(v1, c11);
+            DoubleVector b2 = DoubleVector.broadcast(S, x[xi + 2]);
+            c20 = b2.fma(v0, c20);
+            c21 = b2.fma(v1, c21);
+            DoubleVector b3 = DoubleVector.broadcast(S, x[xi + 3]);
+            c30 = b3.fma(v0, c30);
+            c31 = b3.fma(v1, c31);
+            DoubleVector b4 = DoubleVector.broadcast(S, x[xi + 4]);
+            c40 = b4.fma(v0, c40);
+            c41 = b4.fma(v1, c41);
+            DoubleVector b5 = DoubleVector.broadcast(S, x[xi + 5]);
+            c50 = b5.fma(v0, c50);
+            c51 = b5.fma(v1, c51);
+        }
+        c00.intoArray(c, c0);
+        c01.intoArray(c, c0 + L);
+        c10.intoArray(c, c0 + cStride);
+        c11.intoArray(c, c0 + cStride + L);
+        c20.intoArray(c, c0 + 2 * cStride);
+        c21.intoArray(c, c0 + 2 * cStride + L);
+        c30.intoArray(c, c0 + 3 * cStride);
+        c31.intoArray(c, c0 + 3 * cStride + L);
+        c40.intoArray(c, c0 + 4 * cStride);
+        c41.intoArray(c, c0 + 4 * cStride + L);
+        c50.intoArray(c, c0 + 5 * cStride);
+        c51.intoArray(c, c0 + 5 * cStride + L);
     }
 
     /** Copies the first {@code valid} columns of a rows × width tile into C. */
@@ -200,65 +296,6 @@ final class VectorKernels {
         c31.intoArray(c, c0 + 3 * cStride + L);
     }
 
-    /** 6 rows × 2L columns, twelve accumulators; B rows {@code bStride} apart, C rows {@code cStride} apart. */
-    private static void product6x2(double[] a, int a0, int k, double[] b, int b0, int bStride, double[] init, int i0,
-            double[] c, int c0, int cStride) {
-        DoubleVector s0 = start(init, i0);
-        DoubleVector s1 = start(init, i0 + L);
-        DoubleVector c00 = s0;
-        DoubleVector c01 = s1;
-        DoubleVector c10 = s0;
-        DoubleVector c11 = s1;
-        DoubleVector c20 = s0;
-        DoubleVector c21 = s1;
-        DoubleVector c30 = s0;
-        DoubleVector c31 = s1;
-        DoubleVector c40 = s0;
-        DoubleVector c41 = s1;
-        DoubleVector c50 = s0;
-        DoubleVector c51 = s1;
-        int a1 = a0 + k;
-        int a2 = a1 + k;
-        int a3 = a2 + k;
-        int a4 = a3 + k;
-        int a5 = a4 + k;
-        for (int i = 0; i < k; i++) {
-            int bi = b0 + i * bStride;
-            DoubleVector v0 = DoubleVector.fromArray(S, b, bi);
-            DoubleVector v1 = DoubleVector.fromArray(S, b, bi + L);
-            DoubleVector x0 = DoubleVector.broadcast(S, a[a0 + i]);
-            c00 = x0.fma(v0, c00);
-            c01 = x0.fma(v1, c01);
-            DoubleVector x1 = DoubleVector.broadcast(S, a[a1 + i]);
-            c10 = x1.fma(v0, c10);
-            c11 = x1.fma(v1, c11);
-            DoubleVector x2 = DoubleVector.broadcast(S, a[a2 + i]);
-            c20 = x2.fma(v0, c20);
-            c21 = x2.fma(v1, c21);
-            DoubleVector x3 = DoubleVector.broadcast(S, a[a3 + i]);
-            c30 = x3.fma(v0, c30);
-            c31 = x3.fma(v1, c31);
-            DoubleVector x4 = DoubleVector.broadcast(S, a[a4 + i]);
-            c40 = x4.fma(v0, c40);
-            c41 = x4.fma(v1, c41);
-            DoubleVector x5 = DoubleVector.broadcast(S, a[a5 + i]);
-            c50 = x5.fma(v0, c50);
-            c51 = x5.fma(v1, c51);
-        }
-        c00.intoArray(c, c0);
-        c01.intoArray(c, c0 + L);
-        c10.intoArray(c, c0 + cStride);
-        c11.intoArray(c, c0 + cStride + L);
-        c20.intoArray(c, c0 + 2 * cStride);
-        c21.intoArray(c, c0 + 2 * cStride + L);
-        c30.intoArray(c, c0 + 3 * cStride);
-        c31.intoArray(c, c0 + 3 * cStride + L);
-        c40.intoArray(c, c0 + 4 * cStride);
-        c41.intoArray(c, c0 + 4 * cStride + L);
-        c50.intoArray(c, c0 + 5 * cStride);
-        c51.intoArray(c, c0 + 5 * cStride + L);
-    }
-
     private static void product1x2(double[] a, int a0, int k, double[] b, int b0, int bStride, double[] init, int i0,
             double[] c, int c0) {
         DoubleVector c00 = start(init, i0);
@@ -284,193 +321,82 @@ final class VectorKernels {
     }
 
     /**
-     * See {@link Kernels#addTransposedProduct}: lanes run over the k columns of A and G. D is transposed into
-     * {@code pack} (Dᵀ, m × n) and A's columns are packed {@link Kernels#GROUP} panels of 2L at a time (panel q
-     * holds A[r][..] for r = 0 … n−1, contiguous), so that every block of 4 rows of G reuses a packed group from
-     * cache; the last k mod 2L columns go through a zero-padded panel and a tile.
+     * See {@link Kernels#addTransposedProduct}: lanes run over the k columns of A and G. D's columns are packed
+     * into micro-panels of {@link #ROWS} interleaved columns (micro-panel q holds D[r][6q + t] at 6r + t, the last
+     * one zero-padded), and A's columns {@link Kernels#GROUP} panels of 2L at a time (panel q holds A[r][..] for
+     * r = 0 … n−1, contiguous), so that every block of 6 rows of G reuses a packed group from cache. The last
+     * m mod 6 rows and k mod 2L columns of G (a zero-padded panel of A) go through a tile.
      */
     static void addTransposedProduct(double[] d, int dOffset, int n, int m, double[] a, int aOffset, int k,
             double[] g, int gOffset, double[] pack) {
         int width = 2 * L;
         int full = k / width * width;
-        for (int r = 0; r < n; r++) {
-            int dr = dOffset + r * m;
-            for (int j = 0; j < m; j++) {
-                pack[j * n + r] = d[dr + j];
+        int blocks = (m + ROWS - 1) / ROWS;
+        for (int q = 0; q < blocks; q++) {
+            int j = q * ROWS;
+            int valid = Math.min(ROWS, m - j);
+            int to = j * n;
+            int from = dOffset + j;
+            if (valid == ROWS) {
+                for (int r = 0; r < n; r++, to += ROWS, from += m) {
+                    pack[to] = d[from];
+                    pack[to + 1] = d[from + 1];
+                    pack[to + 2] = d[from + 2];
+                    pack[to + 3] = d[from + 3];
+                    pack[to + 4] = d[from + 4];
+                    pack[to + 5] = d[from + 5];
+                }
+            } else {
+                for (int r = 0; r < n; r++, to += ROWS, from += m) {
+                    for (int t = 0; t < ROWS; t++) {
+                        pack[to + t] = t < valid ? d[from + t] : 0.0;
+                    }
+                }
             }
         }
-        int packA = m * n;
-        for (int g0 = 0; g0 < full; g0 += Kernels.GROUP * width) {
-            int g1 = Math.min(full, g0 + Kernels.GROUP * width);
+        int packA = blocks * ROWS * n;
+        int tile = packA + Kernels.GROUP * width * n;
+        for (int g0 = 0; g0 < k; g0 += Kernels.GROUP * width) {
+            int g1 = Math.min(k, g0 + Kernels.GROUP * width);
             for (int i0 = g0; i0 < g1; i0 += width) {
                 int base = packA + (i0 - g0) * n;
+                int valid = Math.min(width, k - i0);
                 for (int r = 0; r < n; r++) {
-                    System.arraycopy(a, aOffset + r * k + i0, pack, base + r * width, width);
+                    int from = aOffset + r * k + i0;
+                    int to = base + r * width;
+                    if (valid == width) {
+                        DoubleVector.fromArray(S, a, from).intoArray(pack, to);
+                        DoubleVector.fromArray(S, a, from + L).intoArray(pack, to + L);
+                    } else {
+                        System.arraycopy(a, from, pack, to, valid);
+                        java.util.Arrays.fill(pack, to + valid, to + width, 0.0);
+                    }
                 }
             }
-            int j = 0;
-            for (; j + 6 <= m; j += 6) {
+            for (int q = 0; q < blocks; q++) {
+                int j = q * ROWS;
+                int rows = Math.min(ROWS, m - j);
                 for (int i0 = g0; i0 < g1; i0 += width) {
-                    gradient6x2(pack, j * n, n, pack, packA + (i0 - g0) * n, g, gOffset + j * k + i0, k);
+                    int panel = packA + (i0 - g0) * n;
+                    int valid = Math.min(width, k - i0);
+                    int at = gOffset + j * k + i0;
+                    if (rows == ROWS && valid == width) {
+                        block6x2(pack, j * n, n, pack, panel, g, at, k);
+                    } else {
+                        toTile(g, at, k, rows, valid, pack, tile, width);
+                        block6x2(pack, j * n, n, pack, panel, pack, tile, width);
+                        untile(pack, tile, rows, width, valid, g, at, k);
+                    }
                 }
-            }
-            for (; j + 4 <= m; j += 4) {
-                for (int i0 = g0; i0 < g1; i0 += width) {
-                    gradient4x2(pack, j * n, n, pack, packA + (i0 - g0) * n, g, gOffset + j * k + i0, k);
-                }
-            }
-            for (; j < m; j++) {
-                for (int i0 = g0; i0 < g1; i0 += width) {
-                    gradient1x2(pack, j * n, n, pack, packA + (i0 - g0) * n, g, gOffset + j * k + i0);
-                }
-            }
-        }
-        int rest = k - full;
-        if (rest > 0) {
-            // the last, partial panel of A, zero-padded; each block of G goes through a tile in pack
-            for (int r = 0; r < n; r++) {
-                int to = packA + r * width;
-                System.arraycopy(a, aOffset + r * k + full, pack, to, rest);
-                for (int ii = rest; ii < width; ii++) {
-                    pack[to + ii] = 0.0;
-                }
-            }
-            int tile = packA + n * width;
-            int j = 0;
-            for (; j + 6 <= m; j += 6) {
-                toTile(g, gOffset + j * k + full, k, 6, rest, pack, tile, width);
-                gradient6x2(pack, j * n, n, pack, packA, pack, tile, width);
-                untile(pack, tile, 6, width, rest, g, gOffset + j * k + full, k);
-            }
-            for (; j + 4 <= m; j += 4) {
-                toTile(g, gOffset + j * k + full, k, 4, rest, pack, tile, width);
-                gradient4x2(pack, j * n, n, pack, packA, pack, tile, width);
-                untile(pack, tile, 4, width, rest, g, gOffset + j * k + full, k);
-            }
-            for (; j < m; j++) {
-                toTile(g, gOffset + j * k + full, k, 1, rest, pack, tile, width);
-                gradient1x2(pack, j * n, n, pack, packA, pack, tile);
-                untile(pack, tile, 1, width, rest, g, gOffset + j * k + full, k);
             }
         }
     }
 
-    /** Copies {@code valid} columns of {@code rows} rows of G into a zero-padded rows × width tile. */
+    /** Copies {@code valid} columns of {@code rows} ≤ 6 rows of G into a 6 × width tile, zero elsewhere. */
     private static void toTile(double[] g, int g0, int gStride, int rows, int valid, double[] tile, int t0, int width) {
+        java.util.Arrays.fill(tile, t0, t0 + ROWS * width, 0.0);
         for (int q = 0; q < rows; q++) {
             System.arraycopy(g, g0 + q * gStride, tile, t0 + q * width, valid);
-            for (int ii = valid; ii < width; ii++) {
-                tile[t0 + q * width + ii] = 0.0;
-            }
         }
-    }
-
-    /** G rows j … j+3 (k apart from g0) += over r of Dᵀ rows (n apart from d0) times the packed panel at p0. */
-    private static void gradient4x2(double[] dt, int d0, int n, double[] pack, int p0, double[] g, int g0, int k) {
-        DoubleVector g00 = DoubleVector.fromArray(S, g, g0);
-        DoubleVector g01 = DoubleVector.fromArray(S, g, g0 + L);
-        DoubleVector g10 = DoubleVector.fromArray(S, g, g0 + k);
-        DoubleVector g11 = DoubleVector.fromArray(S, g, g0 + k + L);
-        DoubleVector g20 = DoubleVector.fromArray(S, g, g0 + 2 * k);
-        DoubleVector g21 = DoubleVector.fromArray(S, g, g0 + 2 * k + L);
-        DoubleVector g30 = DoubleVector.fromArray(S, g, g0 + 3 * k);
-        DoubleVector g31 = DoubleVector.fromArray(S, g, g0 + 3 * k + L);
-        int d1 = d0 + n;
-        int d2 = d1 + n;
-        int d3 = d2 + n;
-        int ap = p0;
-        for (int r = 0; r < n; r++, ap += 2 * L) {
-            DoubleVector v0 = DoubleVector.fromArray(S, pack, ap);
-            DoubleVector v1 = DoubleVector.fromArray(S, pack, ap + L);
-            DoubleVector x0 = DoubleVector.broadcast(S, dt[d0 + r]);
-            g00 = x0.fma(v0, g00);
-            g01 = x0.fma(v1, g01);
-            DoubleVector x1 = DoubleVector.broadcast(S, dt[d1 + r]);
-            g10 = x1.fma(v0, g10);
-            g11 = x1.fma(v1, g11);
-            DoubleVector x2 = DoubleVector.broadcast(S, dt[d2 + r]);
-            g20 = x2.fma(v0, g20);
-            g21 = x2.fma(v1, g21);
-            DoubleVector x3 = DoubleVector.broadcast(S, dt[d3 + r]);
-            g30 = x3.fma(v0, g30);
-            g31 = x3.fma(v1, g31);
-        }
-        g00.intoArray(g, g0);
-        g01.intoArray(g, g0 + L);
-        g10.intoArray(g, g0 + k);
-        g11.intoArray(g, g0 + k + L);
-        g20.intoArray(g, g0 + 2 * k);
-        g21.intoArray(g, g0 + 2 * k + L);
-        g30.intoArray(g, g0 + 3 * k);
-        g31.intoArray(g, g0 + 3 * k + L);
-    }
-
-    /** G rows j … j+5 (k apart from g0) += over r of Dᵀ rows (n apart from d0) times the packed panel at p0. */
-    private static void gradient6x2(double[] dt, int d0, int n, double[] pack, int p0, double[] g, int g0, int k) {
-        DoubleVector g00 = DoubleVector.fromArray(S, g, g0);
-        DoubleVector g01 = DoubleVector.fromArray(S, g, g0 + L);
-        DoubleVector g10 = DoubleVector.fromArray(S, g, g0 + k);
-        DoubleVector g11 = DoubleVector.fromArray(S, g, g0 + k + L);
-        DoubleVector g20 = DoubleVector.fromArray(S, g, g0 + 2 * k);
-        DoubleVector g21 = DoubleVector.fromArray(S, g, g0 + 2 * k + L);
-        DoubleVector g30 = DoubleVector.fromArray(S, g, g0 + 3 * k);
-        DoubleVector g31 = DoubleVector.fromArray(S, g, g0 + 3 * k + L);
-        DoubleVector g40 = DoubleVector.fromArray(S, g, g0 + 4 * k);
-        DoubleVector g41 = DoubleVector.fromArray(S, g, g0 + 4 * k + L);
-        DoubleVector g50 = DoubleVector.fromArray(S, g, g0 + 5 * k);
-        DoubleVector g51 = DoubleVector.fromArray(S, g, g0 + 5 * k + L);
-        int d1 = d0 + n;
-        int d2 = d1 + n;
-        int d3 = d2 + n;
-        int d4 = d3 + n;
-        int d5 = d4 + n;
-        int ap = p0;
-        for (int r = 0; r < n; r++, ap += 2 * L) {
-            DoubleVector v0 = DoubleVector.fromArray(S, pack, ap);
-            DoubleVector v1 = DoubleVector.fromArray(S, pack, ap + L);
-            DoubleVector x0 = DoubleVector.broadcast(S, dt[d0 + r]);
-            g00 = x0.fma(v0, g00);
-            g01 = x0.fma(v1, g01);
-            DoubleVector x1 = DoubleVector.broadcast(S, dt[d1 + r]);
-            g10 = x1.fma(v0, g10);
-            g11 = x1.fma(v1, g11);
-            DoubleVector x2 = DoubleVector.broadcast(S, dt[d2 + r]);
-            g20 = x2.fma(v0, g20);
-            g21 = x2.fma(v1, g21);
-            DoubleVector x3 = DoubleVector.broadcast(S, dt[d3 + r]);
-            g30 = x3.fma(v0, g30);
-            g31 = x3.fma(v1, g31);
-            DoubleVector x4 = DoubleVector.broadcast(S, dt[d4 + r]);
-            g40 = x4.fma(v0, g40);
-            g41 = x4.fma(v1, g41);
-            DoubleVector x5 = DoubleVector.broadcast(S, dt[d5 + r]);
-            g50 = x5.fma(v0, g50);
-            g51 = x5.fma(v1, g51);
-        }
-        g00.intoArray(g, g0);
-        g01.intoArray(g, g0 + L);
-        g10.intoArray(g, g0 + k);
-        g11.intoArray(g, g0 + k + L);
-        g20.intoArray(g, g0 + 2 * k);
-        g21.intoArray(g, g0 + 2 * k + L);
-        g30.intoArray(g, g0 + 3 * k);
-        g31.intoArray(g, g0 + 3 * k + L);
-        g40.intoArray(g, g0 + 4 * k);
-        g41.intoArray(g, g0 + 4 * k + L);
-        g50.intoArray(g, g0 + 5 * k);
-        g51.intoArray(g, g0 + 5 * k + L);
-    }
-
-    private static void gradient1x2(double[] dt, int d0, int n, double[] pack, int p0, double[] g, int g0) {
-        DoubleVector g00 = DoubleVector.fromArray(S, g, g0);
-        DoubleVector g01 = DoubleVector.fromArray(S, g, g0 + L);
-        int ap = p0;
-        for (int r = 0; r < n; r++, ap += 2 * L) {
-            DoubleVector x0 = DoubleVector.broadcast(S, dt[d0 + r]);
-            g00 = x0.fma(DoubleVector.fromArray(S, pack, ap), g00);
-            g01 = x0.fma(DoubleVector.fromArray(S, pack, ap + L), g01);
-        }
-        g00.intoArray(g, g0);
-        g01.intoArray(g, g0 + L);
     }
 }

@@ -292,7 +292,8 @@ public final class Trainer {
 
         private Wander wander(double[] tailMean) {
             double tailRadius = tail.radius(scratch);
-            double averagedObjective = onTrain.objective(tailMean);
+            // a tail of one update (or of identical iterates) has the last iterate as its mean: F is already known
+            double averagedObjective = Arrays.equals(tailMean, theta) ? objectiveAt(total) : onTrain.objective(tailMean);
             double[] finalTheta = settings.averageTail() ? tailMean : theta;
             double finalObjective = settings.averageTail() ? averagedObjective : objectiveAt(total);
             double finalGap = Double.NaN;

@@ -19,7 +19,7 @@ class KernelsTest {
 
     private static final int[][] SHAPES = {
         {1, 1, 1}, {3, 5, 7}, {4, 8, 8}, {5, 9, 10}, {7, 13, 17}, {8, 16, 3}, {13, 50, 10}, {64, 31, 33}, {9, 2, 64},
-        {37, 70, 45}, {101, 530, 19}};
+        {37, 70, 45}, {101, 530, 19}, {110, 41, 36}, {54, 12, 24}};
 
     @Test
     void theSurefireRunUsesTheVectorPath() {
