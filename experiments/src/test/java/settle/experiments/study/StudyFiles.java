@@ -14,12 +14,28 @@ public final class StudyFiles {
     private StudyFiles() {
     }
 
-    /** @return every replicate file under {@code study/arms}, sorted by path */
+    /**
+     * @return every replicate file {@code study/arms/ARM/R.json}, sorted by path. Reads names only (no file
+     *     attributes), so a run writing beside it cannot make it fail: a partial file renamed between the listing
+     *     and a stat would otherwise vanish under the walk.
+     */
     public static List<Path> replicateFiles(Path study) throws Exception {
         List<Path> files = new ArrayList<>();
-        try (var walk = Files.walk(study.resolve("arms"))) {
-            walk.filter(p -> p.toString().endsWith(".json")).sorted().forEach(files::add);
+        try (var arms = Files.newDirectoryStream(study.resolve("arms"))) {
+            for (Path arm : arms) {
+                if (!Files.isDirectory(arm)) {
+                    continue;
+                }
+                try (var entries = Files.newDirectoryStream(arm)) {
+                    for (Path entry : entries) {
+                        if (entry.getFileName().toString().endsWith(".json")) {
+                            files.add(entry);
+                        }
+                    }
+                }
+            }
         }
+        files.sort(null);
         return files;
     }
 
