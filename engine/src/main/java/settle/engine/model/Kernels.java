@@ -86,9 +86,10 @@ public final class Kernels {
         }
         long width = 2L * VectorKernels.lanes();
         long panels = (outputs + width - 1) / width;
-        long packedRows = (Math.min(rows, ROW_BLOCK) + 5L) / 6 * 6;
-        long forward = panels * width * inputs + panels * width + 6 * width + packedRows * inputs;
-        long gradient = (outputs + 5L) / 6 * 6 * rows + GROUP * width * rows + 6 * width;
+        long six = VectorKernels.ROWS;
+        long packedRows = (Math.min(rows, ROW_BLOCK) + six - 1) / six * six;
+        long forward = panels * width * inputs + panels * width + six * width + packedRows * inputs;
+        long gradient = (outputs + six - 1) / six * six * rows + GROUP * width * rows + six * width;
         return Math.toIntExact(Math.max(forward, gradient));
     }
 

@@ -5,9 +5,10 @@ import jdk.incubator.vector.VectorOperators;
 import jdk.incubator.vector.VectorSpecies;
 
 /**
- * The vector path of {@link Kernels}: register blocks of 6 (or, at the edges, 4 or 1) rows × 2 vectors of
- * independent outputs, each lane one output's fused multiply-add chain in the summed index's ascending order (see {@link Kernels} for the
- * contract). Loaded only when {@code jdk.incubator.vector} is in the boot layer.
+ * The vector path of {@link Kernels}: register blocks of rows × 2 vectors of independent outputs (6 rows over
+ * packed operands, 4 or 1 in {@link #product}), each lane one output's fused multiply-add chain in the summed
+ * index's ascending order (see {@link Kernels} for the contract). Loaded only when {@code jdk.incubator.vector}
+ * is in the boot layer.
  */
 final class VectorKernels {
 
@@ -114,7 +115,7 @@ final class VectorKernels {
             int blocks = (r1 - r0 + ROWS - 1) / ROWS;
             for (int q = 0; q < blocks; q++) {
                 int first = r0 + q * ROWS;
-                packRows(a, aOffset + first * k, k, Math.min(ROWS, n - first), pack, packedA + q * ROWS * k);
+                packSix(a, aOffset + first * k, k, 1, k, Math.min(ROWS, n - first), pack, packedA + q * ROWS * k);
             }
             for (int p = 0; p < all; p++) {
                 for (int q = 0; q < blocks; q++) {
@@ -156,31 +157,26 @@ final class VectorKernels {
     }
 
     /**
-     * Packs {@code valid} ≤ 6 rows of A (k apart from a0) into one micro-panel at p0, A[t][i] at p0 + 6i + t,
-     * zero-padded to 6 rows.
+     * Packs {@code valid} ≤ 6 interleaved lines of {@code count} values into one micro-panel at p0, zero-padded
+     * to 6 lines: value i of line t, {@code src[s0 + t·across + i·along]}, goes to p0 + 6i + t. Rows of A are
+     * lines with across = k, along = 1; columns of D are lines with across = 1, along = m.
      */
-    private static void packRows(double[] a, int a0, int k, int valid, double[] pack, int p0) {
+    private static void packSix(double[] src, int s0, int across, int along, int count, int valid, double[] pack,
+            int p0) {
         if (valid == ROWS) {
-            int a1 = a0 + k;
-            int a2 = a1 + k;
-            int a3 = a2 + k;
-            int a4 = a3 + k;
-            int a5 = a4 + k;
-            for (int i = 0; i < k; i++) {
-                int to = p0 + ROWS * i;
-                pack[to] = a[a0 + i];
-                pack[to + 1] = a[a1 + i];
-                pack[to + 2] = a[a2 + i];
-                pack[to + 3] = a[a3 + i];
-                pack[to + 4] = a[a4 + i];
-                pack[to + 5] = a[a5 + i];
+            for (int i = 0, from = s0, to = p0; i < count; i++, from += along, to += ROWS) {
+                pack[to] = src[from];
+                pack[to + 1] = src[from + across];
+                pack[to + 2] = src[from + 2 * across];
+                pack[to + 3] = src[from + 3 * across];
+                pack[to + 4] = src[from + 4 * across];
+                pack[to + 5] = src[from + 5 * across];
             }
             return;
         }
-        for (int i = 0; i < k; i++) {
-            int to = p0 + ROWS * i;
+        for (int i = 0, from = s0, to = p0; i < count; i++, from += along, to += ROWS) {
             for (int t = 0; t < ROWS; t++) {
-                pack[to + t] = t < valid ? a[a0 + t * k + i] : 0.0;
+                pack[to + t] = t < valid ? src[from + t * across] : 0.0;
             }
         }
     }
@@ -330,29 +326,10 @@ final class VectorKernels {
     static void addTransposedProduct(double[] d, int dOffset, int n, int m, double[] a, int aOffset, int k,
             double[] g, int gOffset, double[] pack) {
         int width = 2 * L;
-        int full = k / width * width;
         int blocks = (m + ROWS - 1) / ROWS;
         for (int q = 0; q < blocks; q++) {
             int j = q * ROWS;
-            int valid = Math.min(ROWS, m - j);
-            int to = j * n;
-            int from = dOffset + j;
-            if (valid == ROWS) {
-                for (int r = 0; r < n; r++, to += ROWS, from += m) {
-                    pack[to] = d[from];
-                    pack[to + 1] = d[from + 1];
-                    pack[to + 2] = d[from + 2];
-                    pack[to + 3] = d[from + 3];
-                    pack[to + 4] = d[from + 4];
-                    pack[to + 5] = d[from + 5];
-                }
-            } else {
-                for (int r = 0; r < n; r++, to += ROWS, from += m) {
-                    for (int t = 0; t < ROWS; t++) {
-                        pack[to + t] = t < valid ? d[from + t] : 0.0;
-                    }
-                }
-            }
+            packSix(d, dOffset + j, 1, m, n, Math.min(ROWS, m - j), pack, j * n);
         }
         int packA = blocks * ROWS * n;
         int tile = packA + Kernels.GROUP * width * n;
