@@ -90,12 +90,14 @@ public final class Kernels {
         long packedRows = (Math.min(rows, ROW_BLOCK) + six - 1) / six * six;
         long forward = panels * width * inputs + panels * width + six * width + packedRows * inputs;
         long gradient = (outputs + six - 1) / six * six * rows + GROUP * width * rows + six * width;
-        return Math.toIntExact(Math.max(forward, gradient));
+        long narrow = (outputs + six - 1) / six * six * inputs + width * inputs + six * width;
+        return Math.toIntExact(Math.max(Math.max(forward, gradient), narrow));
     }
 
     /**
      * C (n × m) = init + A (n × k) · Wᵀ with W (m × k) row-major (a layer's weights): the same chains as
-     * {@link #product} with B = Wᵀ. The vector path packs W into column panels in {@code pack} first.
+     * {@link #product} with B = Wᵀ. The vector path packs W into column panels in {@code pack} first; outputs
+     * narrower than one register block (e.g. a layer of 10 classes) run with lanes over the rows instead.
      *
      * @param w W, row j at {@code wOffset + j·k}; not modified
      * @param pack scratch of at least {@link #packLength} values; modified
@@ -104,6 +106,8 @@ public final class Kernels {
             double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
         if (VECTOR && n >= 4 && m >= VECTOR_COLUMNS) {
             VectorKernels.multiplyByTransposed(a, aOffset, n, k, w, wOffset, m, init, initOffset, c, cOffset, pack);
+        } else if (VECTOR && n >= VECTOR_COLUMNS) {
+            VectorKernels.narrowByTransposed(a, aOffset, n, k, w, wOffset, m, init, initOffset, c, cOffset, pack);
         } else {
             productTransposed(a, aOffset, n, k, w, wOffset, m, init, initOffset, c, cOffset);
         }

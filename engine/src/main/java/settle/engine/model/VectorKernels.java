@@ -137,6 +137,58 @@ final class VectorKernels {
         }
     }
 
+    /**
+     * See {@link Kernels#multiplyByTransposed}, for outputs narrower than one register block (m < 2L): lanes run
+     * over the rows of A and C instead. Cᵀ (m × n) = W (m × k) · Aᵀ has the gradient's shape, so W's rows are
+     * packed into micro-panels of {@link #ROWS} interleaved rows (micro-panel q holds W[6q + t][i] at 6i + t, the
+     * last one zero-padded) and 2L rows of A at a time into a panel of Aᵀ (A[r0 + lane][i] at 2L·i + lane, rows past
+     * n zero), and each 6 × 2L block of Cᵀ starts from the initial values, runs its chains over all k in one pass
+     * (fma(w, a, ·) is fma(a, w, ·): the product is exact) and is copied out transposed. Padded rows and lanes are
+     * outputs of their own that are never copied out.
+     */
+    static void narrowByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
+            double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
+        int width = 2 * L;
+        int blocks = (m + ROWS - 1) / ROWS;
+        for (int q = 0; q < blocks; q++) {
+            int j = q * ROWS;
+            packSix(w, wOffset + j * k, k, 1, k, Math.min(ROWS, m - j), pack, j * k);
+        }
+        int panel = blocks * ROWS * k;
+        int tile = panel + width * k;
+        for (int r0 = 0; r0 < n; r0 += width) {
+            int rows = Math.min(width, n - r0);
+            for (int lane = 0; lane < width; lane++) {
+                int to = panel + lane;
+                if (lane < rows) {
+                    for (int i = 0, from = aOffset + (r0 + lane) * k; i < k; i++, to += width) {
+                        pack[to] = a[from + i];
+                    }
+                } else {
+                    for (int i = 0; i < k; i++, to += width) {
+                        pack[to] = 0.0;
+                    }
+                }
+            }
+            for (int q = 0; q < blocks; q++) {
+                int j0 = q * ROWS;
+                int columns = Math.min(ROWS, m - j0);
+                for (int t = 0; t < ROWS; t++) {
+                    double start = init != null && t < columns ? init[initOffset + j0 + t] : 0.0;
+                    java.util.Arrays.fill(pack, tile + t * width, tile + (t + 1) * width, start);
+                }
+                block6x2(pack, j0 * k, k, pack, panel, pack, tile, width);
+                for (int t = 0; t < columns; t++) {
+                    int from = tile + t * width;
+                    int to = cOffset + r0 * m + j0 + t;
+                    for (int lane = 0; lane < rows; lane++, to += m) {
+                        c[to] = pack[from + lane];
+                    }
+                }
+            }
+        }
+    }
+
     /** Rows per register block of the packed products. */
     static final int ROWS = 6;
 

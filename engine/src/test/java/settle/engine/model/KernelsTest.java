@@ -19,7 +19,9 @@ class KernelsTest {
 
     private static final int[][] SHAPES = {
         {1, 1, 1}, {3, 5, 7}, {4, 8, 8}, {5, 9, 10}, {7, 13, 17}, {8, 16, 3}, {13, 50, 10}, {64, 31, 33}, {9, 2, 64},
-        {37, 70, 45}, {101, 530, 19}, {110, 41, 36}, {54, 12, 24}};
+        {37, 70, 45}, {101, 530, 19}, {110, 41, 36}, {54, 12, 24},
+        // outputs narrower than a register block, rows as lanes: whole and partial row panels
+        {64, 50, 10}, {70, 128, 10}, {33, 7, 13}, {16, 3, 1}, {19, 30, 6}};
 
     @Test
     void theSurefireRunUsesTheVectorPath() {
@@ -54,22 +56,20 @@ class KernelsTest {
                 Kernels.scalarProduct(a, 3, n, k, b, 5, m, withInit ? init : null, 2, scalar, 1);
                 assertArrayEquals(expected, vector, EXACT, () -> "product " + n + "x" + k + "x" + m);
                 assertArrayEquals(expected, scalar, EXACT, () -> "scalar product " + n + "x" + k + "x" + m);
-                if (withInit) {
-                    // the same chains taken from W = Bᵀ (m × k) without a transpose
-                    double[] w = new double[4 + m * k];
-                    for (int i = 0; i < k; i++) {
-                        for (int j = 0; j < m; j++) {
-                            w[4 + j * k + i] = b[5 + i * m + j];
-                        }
+                // the same chains taken from W = Bᵀ (m × k) without a transpose
+                double[] w = new double[4 + m * k];
+                for (int i = 0; i < k; i++) {
+                    for (int j = 0; j < m; j++) {
+                        w[4 + j * k + i] = b[5 + i * m + j];
                     }
-                    double[] direct = new double[1 + n * m];
-                    Kernels.productTransposed(a, 3, n, k, w, 4, m, init, 2, direct, 1);
-                    assertArrayEquals(expected, direct, EXACT, () -> "productTransposed " + n + "x" + k + "x" + m);
-                    double[] packed = new double[1 + n * m];
-                    double[] pack = new double[Kernels.packLength(n, m, k)];
-                    Kernels.multiplyByTransposed(a, 3, n, k, w, 4, m, init, 2, packed, 1, pack);
-                    assertArrayEquals(expected, packed, EXACT, () -> "multiplyByTransposed " + n + "x" + k + "x" + m);
                 }
+                double[] direct = new double[1 + n * m];
+                Kernels.productTransposed(a, 3, n, k, w, 4, m, withInit ? init : null, 2, direct, 1);
+                assertArrayEquals(expected, direct, EXACT, () -> "productTransposed " + n + "x" + k + "x" + m);
+                double[] packed = new double[1 + n * m];
+                double[] pack = new double[Kernels.packLength(n, m, k)];
+                Kernels.multiplyByTransposed(a, 3, n, k, w, 4, m, withInit ? init : null, 2, packed, 1, pack);
+                assertArrayEquals(expected, packed, EXACT, () -> "multiplyByTransposed " + n + "x" + k + "x" + m);
             }
         }
     }
