@@ -156,18 +156,22 @@ public final class Mlp implements Model {
     /**
      * Per layer l = 1 … L: its outputs a_l (capacity × s_l; post-activation for hidden layers, the logits and
      * then the probabilities for the output layer) and the loss's gradient with respect to its pre-activations
-     * δ_l (capacity × s_l); and the products' packing buffer.
+     * δ_l (capacity × s_l); each row's target logit and log-sum-exp (capacity); and the products' packing buffer.
      */
     private static final class Scratch implements Workspace {
         private final int capacity;
         private final int[] sizes;
         private final double[][] out;
         private final double[][] delta;
+        private final double[] targets;
+        private final double[] logSumExp;
         private final double[] pack;
 
         Scratch(int capacity, int[] sizes) {
             this.capacity = capacity;
             this.sizes = sizes;
+            this.targets = new double[capacity];
+            this.logSumExp = new double[capacity];
             this.out = new double[sizes.length][];
             this.delta = new double[sizes.length][];
             int largest = 0;
@@ -227,28 +231,21 @@ public final class Mlp implements Model {
     }
 
     /**
-     * Turns row r of the logits (n, K) in {@code logits} into probabilities in place.
-     *
-     * @return that row's log-sum-exp of the logits (read the target logit before calling)
+     * Keeps each row's target logit, turns the logits (n, K) in s.out[L] into probabilities in place and returns
+     * Σ_r (log-sum-exp_r − logit_{r,y_r}).
      */
-    private double softmaxRow(double[] logits, int r) {
+    private double softmax(int[] y, int n, Scratch s) {
+        double[] logits = s.out[layers];
         int k = sizes[layers];
-        int base = r * k;
-        double max = logits[base];
-        for (int c = 1; c < k; c++) {
-            max = Math.max(max, logits[base + c]);
+        for (int r = 0; r < n; r++) {
+            s.targets[r] = logits[r * k + y[r]];
         }
+        Softmax.probabilities(logits, n, k, s.logSumExp);
         double sum = 0;
-        for (int c = 0; c < k; c++) {
-            double e = Math.exp(logits[base + c] - max);
-            logits[base + c] = e;
-            sum += e;
+        for (int r = 0; r < n; r++) {
+            sum += s.logSumExp[r] - s.targets[r];
         }
-        double inverse = 1.0 / sum;
-        for (int c = 0; c < k; c++) {
-            logits[base + c] *= inverse;
-        }
-        return max + Math.log(sum);
+        return sum;
     }
 
     /** Adds the gradient of Σ_r loss_r into gradientSum, starting from δ_L in s.delta[L]. */
@@ -283,14 +280,7 @@ public final class Mlp implements Model {
     public double lossSum(double[] theta, double[] x, int[] y, int n, Workspace workspace) {
         Scratch s = scratch(theta, n, workspace);
         forward(theta, x, n, s);
-        double[] logits = s.out[layers];
-        int k = sizes[layers];
-        double sum = 0;
-        for (int r = 0; r < n; r++) {
-            double target = logits[r * k + y[r]];
-            sum += softmaxRow(logits, r) - target;
-        }
-        return sum;
+        return softmax(y, n, s);
     }
 
     @Override
@@ -299,18 +289,12 @@ public final class Mlp implements Model {
         Scratch s = scratch(theta, n, workspace);
         Starts.checkLength("gradient", gradientSum, parameterCount);
         forward(theta, x, n, s);
-        double[] logits = s.out[layers];
+        double sum = softmax(y, n, s);
         double[] delta = s.delta[layers];
         int k = sizes[layers];
-        double sum = 0;
+        System.arraycopy(s.out[layers], 0, delta, 0, n * k);
         for (int r = 0; r < n; r++) {
-            int label = y[r];
-            double target = logits[r * k + label];
-            sum += softmaxRow(logits, r) - target;
-            int base = r * k;
-            for (int c = 0; c < k; c++) {
-                delta[base + c] = logits[base + c] - (c == label ? 1.0 : 0.0);
-            }
+            delta[r * k + y[r]] -= 1.0;
         }
         backward(theta, x, n, gradientSum, s);
         return sum;
@@ -333,9 +317,7 @@ public final class Mlp implements Model {
         Scratch s = scratch(theta, n, workspace);
         forward(theta, x, n, s);
         double[] logits = s.out[layers];
-        for (int r = 0; r < n; r++) {
-            softmaxRow(logits, r);
-        }
+        Softmax.probabilities(logits, n, sizes[layers], s.logSumExp);
         System.arraycopy(logits, 0, out, 0, n * sizes[layers]);
     }
 

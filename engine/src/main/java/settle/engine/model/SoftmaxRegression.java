@@ -90,17 +90,24 @@ public final class SoftmaxRegression implements Model {
         return new Scratch(maxBatch, inputs, classes);
     }
 
-    /** The batch's scores, then exponentials, then deltas (capacity × K), and the products' packing buffer. */
+    /**
+     * The batch's scores, then probabilities, then deltas (capacity × K); each row's target score and
+     * log-sum-exp (capacity); and the products' packing buffer.
+     */
     private static final class Scratch implements Workspace {
         private final int capacity;
         private final int classes;
         private final double[] scores;
+        private final double[] targets;
+        private final double[] logSumExp;
         private final double[] pack;
 
         Scratch(int capacity, int inputs, int classes) {
             this.capacity = capacity;
             this.classes = classes;
             this.scores = new double[Math.multiplyExact(capacity, classes)];
+            this.targets = new double[capacity];
+            this.logSumExp = new double[capacity];
             this.pack = new double[Kernels.packLength(capacity, classes, inputs)];
         }
 
@@ -121,46 +128,30 @@ public final class SoftmaxRegression implements Model {
     }
 
     // Forward and backward, side by side. x is (n, d) row-major, W is (K, d) row-major at θ[0], b (K) at θ[K·d].
-    // Forward:  Z = X Wᵀ + b (n, K),  per row m = max z,  s = Σ exp(z_k − m),  loss_r = m + log s − z_y.
-    // Backward: Δ_rk = exp(z_k − m)/s − [k = y_r],  ∂/∂W += Δᵀ X,  ∂/∂b += column sums of Δ.
-
-    /** Fills s.scores with Z = X Wᵀ + b for the n rows of x (one fused multiply-add chain per score). */
-    private void scores(double[] theta, double[] x, int n, Scratch s) {
-        Kernels.multiplyByTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0, s.pack);
-    }
+    // Forward:  Z = X Wᵀ + b (n, K),  per row the soft-max p and log-sum-exp (Softmax),  loss_r = lse_r − z_y.
+    // Backward: Δ_rk = p_rk − [k = y_r],  ∂/∂W += Δᵀ X,  ∂/∂b += column sums of Δ.
 
     /**
-     * Replaces each score z_k of row r by exp(z_k − max z) (callers read z_y first).
-     *
-     * @param z the batch's scores (n × K); row r modified
-     * @return max z + log Σ exp(z_k − max z), the log-sum-exp of the row
+     * Fills s.scores with Z = X Wᵀ + b for the n rows of x (one fused multiply-add chain per score), keeps each
+     * row's target score, turns the scores into probabilities and returns Σ_r (log-sum-exp_r − z_{r,y_r}).
      */
-    private double logSumExp(double[] z, int r) {
-        int base = r * classes;
-        double max = z[base];
-        for (int k = 1; k < classes; k++) {
-            max = Math.max(max, z[base + k]);
+    private double forward(double[] theta, double[] x, int[] y, int n, Scratch s) {
+        Kernels.multiplyByTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0, s.pack);
+        double[] z = s.scores;
+        for (int r = 0; r < n; r++) {
+            s.targets[r] = z[r * classes + y[r]];
         }
+        Softmax.probabilities(z, n, classes, s.logSumExp);
         double sum = 0;
-        for (int k = 0; k < classes; k++) {
-            double e = Math.exp(z[base + k] - max);
-            z[base + k] = e;
-            sum += e;
+        for (int r = 0; r < n; r++) {
+            sum += s.logSumExp[r] - s.targets[r];
         }
-        return max + Math.log(sum);
+        return sum;
     }
 
     @Override
     public double lossSum(double[] theta, double[] x, int[] y, int n, Workspace workspace) {
-        Scratch s = scratch(theta, n, workspace);
-        scores(theta, x, n, s);
-        double[] z = s.scores;
-        double sum = 0;
-        for (int r = 0; r < n; r++) {
-            double target = z[r * classes + y[r]];
-            sum += logSumExp(z, r) - target;
-        }
-        return sum;
+        return forward(theta, x, y, n, scratch(theta, n, workspace));
     }
 
     @Override
@@ -168,18 +159,10 @@ public final class SoftmaxRegression implements Model {
             Workspace workspace) {
         Scratch s = scratch(theta, n, workspace);
         Starts.checkLength("gradient", gradientSum, parameterCount());
-        scores(theta, x, n, s);
+        double sum = forward(theta, x, y, n, s);
         double[] z = s.scores;
-        double sum = 0;
         for (int r = 0; r < n; r++) {
-            int label = y[r];
-            int base = r * classes;
-            double target = z[base + label];
-            sum += logSumExp(z, r) - target;
-            double inverse = 1.0 / rowSum(z, base);
-            for (int k = 0; k < classes; k++) {
-                z[base + k] = z[base + k] * inverse - (k == label ? 1.0 : 0.0);
-            }
+            z[r * classes + y[r]] -= 1.0;
         }
         Kernels.addTransposedProduct(z, 0, n, classes, x, 0, inputs, gradientSum, 0, s.pack);
         Kernels.addColumnSums(z, n, classes, gradientSum, biasOffset);
@@ -198,27 +181,12 @@ public final class SoftmaxRegression implements Model {
         return Penalties.penalty(theta, weightRanges, l2);
     }
 
-    private double rowSum(double[] values, int base) {
-        double sum = 0;
-        for (int k = 0; k < classes; k++) {
-            sum += values[base + k];
-        }
-        return sum;
-    }
-
     @Override
     public void probabilities(double[] theta, double[] x, int n, double[] out, Workspace workspace) {
         Scratch s = scratch(theta, n, workspace);
-        scores(theta, x, n, s);
-        double[] z = s.scores;
-        for (int r = 0; r < n; r++) {
-            logSumExp(z, r);
-            int base = r * classes;
-            double inverse = 1.0 / rowSum(z, base);
-            for (int k = 0; k < classes; k++) {
-                out[base + k] = z[base + k] * inverse;
-            }
-        }
+        Kernels.multiplyByTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0, s.pack);
+        Softmax.probabilities(s.scores, n, classes, s.logSumExp);
+        System.arraycopy(s.scores, 0, out, 0, n * classes);
     }
 
     /**

@@ -1,6 +1,7 @@
 package settle.engine.model;
 
 import jdk.incubator.vector.DoubleVector;
+import jdk.incubator.vector.LongVector;
 import jdk.incubator.vector.VectorOperators;
 import jdk.incubator.vector.VectorSpecies;
 
@@ -44,6 +45,47 @@ final class VectorKernels {
         for (; i + L <= count; i += L) {
             DoubleVector x = DoubleVector.fromArray(S, a, i);
             DoubleVector.fromArray(S, d, i).blend(zero, x.compare(VectorOperators.GT, 0.0).not()).intoArray(d, i);
+        }
+        return i;
+    }
+
+    /**
+     * @return how many leading values from {@code offset} were replaced by their exponentials (whole vectors),
+     *     each lane the operations of {@link Kernels#exp(double)} in its order
+     */
+    static int exp(double[] v, int offset, int count) {
+        DoubleVector shifter = DoubleVector.broadcast(S, Kernels.SHIFTER);
+        DoubleVector zero = DoubleVector.zero(S);
+        DoubleVector infinity = DoubleVector.broadcast(S, Double.POSITIVE_INFINITY);
+        int i = 0;
+        for (; i + L <= count; i += L) {
+            DoubleVector x = DoubleVector.fromArray(S, v, offset + i);
+            DoubleVector t = x.fma(Kernels.LOG2E, Kernels.SHIFTER);
+            DoubleVector n = t.sub(shifter).neg();
+            DoubleVector r = n.fma(DoubleVector.broadcast(S, Kernels.LN2_HI), x);
+            r = n.fma(DoubleVector.broadcast(S, Kernels.LN2_LO), r);
+            DoubleVector p = DoubleVector.broadcast(S, Kernels.C14).fma(r, DoubleVector.broadcast(S, Kernels.C13));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C12));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C11));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C10));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C9));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C8));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C7));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C6));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C5));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C4));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C3));
+            p = p.fma(r, DoubleVector.broadcast(S, Kernels.C2));
+            p = p.fma(r, DoubleVector.broadcast(S, 1.0));
+            p = p.fma(r, DoubleVector.broadcast(S, 1.0));
+            LongVector whole = ((LongVector) t.reinterpretAsLongs()).sub(Kernels.SHIFTER_BITS);
+            LongVector half = whole.lanewise(VectorOperators.ASHR, 1);
+            DoubleVector low = half.add(1023).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
+            DoubleVector high = whole.sub(half).add(1023).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
+            DoubleVector e = p.mul(low).mul(high);
+            e = e.blend(zero, x.compare(VectorOperators.LT, Kernels.EXP_LOW));
+            e = e.blend(infinity, x.compare(VectorOperators.GT, Kernels.EXP_HIGH));
+            e.intoArray(v, offset + i);
         }
         return i;
     }

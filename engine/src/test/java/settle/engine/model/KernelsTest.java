@@ -1,6 +1,7 @@
 package settle.engine.model;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.SplittableRandom;
@@ -129,6 +130,46 @@ class KernelsTest {
         double[] kept = d.clone();
         Kernels.keepWherePositive(kept, relu, count, width);
         assertArrayEquals(masked, kept, EXACT, "mask");
+    }
+
+    @Test
+    void expMatchesStrictMathWithinOneUlpAndIsTheSameOnBothPaths() {
+        SplittableRandom random = new SplittableRandom(14);
+        int count = 200_003; // not a whole number of vectors: the scalar tail runs too
+        double[] x = new double[count];
+        for (int i = 0; i < count; i++) {
+            // mostly the soft-max's range (z − max z ≤ 0), some of the whole finite range
+            x[i] = i % 4 == 0 ? random.nextDouble(-745.2, 709.78) : random.nextDouble(-40, 0);
+        }
+        double[] special = {0.0, -0.0, 1.0, -1.0, Math.log(2) / 2, -Math.log(2) / 2, 1e-300, -1e-300, -707.99,
+            -708.0, -708.4, -740.0, -745.13, -745.2, -746.0, -746.1, -1e300, Double.NEGATIVE_INFINITY, 709.78,
+            Kernels.EXP_HIGH,
+            Math.nextUp(Kernels.EXP_HIGH), 710.0, Double.POSITIVE_INFINITY, Double.NaN};
+        System.arraycopy(special, 0, x, 1, special.length);
+        double[] vector = x.clone();
+        Kernels.exp(vector, 0, count);
+        double worst = 0;
+        for (int i = 0; i < count; i++) {
+            double scalar = Kernels.exp(x[i]);
+            int at = i;
+            assertEquals(Double.doubleToLongBits(scalar), Double.doubleToLongBits(vector[i]),
+                    () -> "exp(" + x[at] + "): scalar " + scalar + ", array " + vector[at]);
+            if (x[i] >= Kernels.EXP_LOW && x[i] <= Kernels.EXP_HIGH) {
+                // java.lang.StrictMath.exp (JDK 17): fdlibm 5.3's e_exp.c, documented error below 1 ulp
+                double reference = StrictMath.exp(x[i]);
+                worst = Math.max(worst, Math.abs(scalar - reference) / Math.ulp(reference));
+            }
+        }
+        assertTrue(worst <= 1.0, "largest difference from StrictMath.exp: " + worst + " ulp");
+        assertEquals(1.0, Kernels.exp(0.0), EXACT);
+        // e^−744 = 1.5528… · 2^−1074 (Python 3.11 decimal, 50 digits): rounds to 2 · 2^−1074
+        assertEquals(Double.MIN_VALUE * 2, Kernels.exp(-744.0), EXACT, "subnormal results round once");
+        assertEquals(0.0, Kernels.exp(-746.1), EXACT);
+        assertEquals(0.0, Kernels.exp(Double.NEGATIVE_INFINITY), EXACT);
+        assertEquals(Double.POSITIVE_INFINITY, Kernels.exp(710.0), EXACT);
+        assertEquals(Double.POSITIVE_INFINITY, Kernels.exp(Double.POSITIVE_INFINITY), EXACT);
+        assertTrue(Double.isNaN(Kernels.exp(Double.NaN)));
+        assertTrue(Kernels.exp(Kernels.EXP_HIGH) <= Double.MAX_VALUE, "ln(MAX_VALUE) stays finite");
     }
 
     private static double[] gaussian(SplittableRandom random, int count) {
