@@ -13,7 +13,9 @@ clock and by this process's CPU time (time.process_time, which a shared machine'
 
 Protocol (one line per command on stdin, one line of reply on stdout):
   load KEY DIR D HIDDEN K B N EPOCHS RATE   (HIDDEN: comma-separated sizes or '-'; DIR holds KEY.x and KEY.y)
-  run KEY VARIANT SEED                      -> "ok WALL_SECONDS CPU_SECONDS FINAL_OBJECTIVE"
+  run KEY VARIANT SEED [COUNT]              -> "ok WALL_SECONDS CPU_SECONDS FINAL_OBJECTIVE"
+                                               (COUNT replicates back to back, seeds SEED, SEED + 1, ...: the
+                                               seconds are their sum, the objective the last one's)
   quit
 The caller sets OMP_NUM_THREADS=1 OPENBLAS_NUM_THREADS=1 MKL_NUM_THREADS=1 in this process's environment.
 """
@@ -154,7 +156,11 @@ def main():
             elif parts[0] == "run":
                 w = workloads[parts[1]]
                 variant = {"idiomatic": idiomatic, "hand": hand}[parts[2]]
-                seconds, cpu, objective = variant(w, int(parts[3]))
+                seconds = cpu = 0.0
+                for seed in range(int(parts[3]), int(parts[3]) + (int(parts[4]) if len(parts) > 4 else 1)):
+                    wall, used, objective = variant(w, seed)
+                    seconds += wall
+                    cpu += used
                 print("ok %.9f %.9f %.17g" % (seconds, cpu, objective), flush=True)
             elif parts[0] == "version":
                 print("ok torch %s numpy %s threads %d blas %s" % (torch.__version__, np.__version__,

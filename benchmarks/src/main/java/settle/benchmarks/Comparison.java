@@ -24,9 +24,10 @@ import settle.engine.train.Trainer;
 /**
  * End-to-end speed comparison: each {@link Workload} trained by settle's {@link Trainer} in this JVM and by the
  * PyTorch peer ({@code peer.py}, idiomatic and hand-written variants) in one persistent python process pinned to
- * one thread, interleaved settle, idiomatic, hand, settle, … over several rounds after one discarded warm-up
- * round. Prints per workload the examples/s of each side, the settle/peer ratios (median and min–max over rounds)
- * and settle's GFLOP/s of needed work against the measured peak.
+ * one thread, interleaved settle, idiomatic, hand, settle, … over several rounds after discarded warm-up rounds
+ * (until settle has trained {@link #WARM_UP_SECONDS} s). Each timing is the mean of back-to-back replicates
+ * lasting at least {@link #TIMING_SECONDS} s. Prints per workload the examples/s of each side, the settle/peer
+ * ratios (median and min–max over rounds) and settle's GFLOP/s of needed work against the measured peak.
  *
  * <p>Usage: {@code java --add-modules jdk.incubator.vector -cp benchmarks.jar settle.benchmarks.Comparison
  * [--rounds R] [--peer PATH/peer.py] [--python /usr/bin/python3] [--only KEY,KEY]}.
@@ -80,7 +81,8 @@ public final class Comparison {
                 BufferedReader from = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8))) {
             System.out.println("peer: " + ask(to, from, "version") + " (OMP/OPENBLAS/MKL_NUM_THREADS=1)");
             System.out.println("both sides: float64, 1 thread, shuffle each epoch, rate/(1 + 0.5 e), full-batch objective "
-                    + "at the start and after each epoch; " + rounds + " interleaved rounds after a warm-up round");
+                    + "at the start and after each epoch; " + rounds + " interleaved rounds after warm-up rounds (until settle has "
+                    + "trained " + WARM_UP_SECONDS + " s)");
             System.out.println();
             for (Workload w : workloads) {
                 table.add(compare(w, rounds, dir, to, from, peak));
@@ -109,6 +111,19 @@ public final class Comparison {
                 + "peak %.1f GFLOP/s measured above.%n", peak);
     }
 
+    /**
+     * Warm-up rounds run until settle has trained this long on the workload: its JIT compiles the kernels during
+     * the first runs (the peer's rounds are repeated alongside and discarded too).
+     */
+    private static final double WARM_UP_SECONDS = 2.0;
+
+    /**
+     * Each timing runs back-to-back replicates of one side for at least this long (the counts are set from the
+     * last warm-up round): a core that has just been idle, waiting for the other side, runs its first tens of
+     * milliseconds slower, which would otherwise penalise whichever side runs shorter.
+     */
+    private static final double TIMING_SECONDS = 0.5;
+
     /** Wall-clock and CPU seconds of one run. */
     private record Timing(double wall, double cpu) {
     }
@@ -128,17 +143,30 @@ public final class Comparison {
         Timing[] settle = new Timing[rounds];
         Timing[] idiomatic = new Timing[rounds];
         Timing[] hand = new Timing[rounds];
-        for (int round = 0; round <= rounds; round++) {
-            Timing s = runSettle(trainer, round + 1);
-            Timing i = runPeer(to, from, w, "idiomatic", round + 1);
-            Timing h = runPeer(to, from, w, "hand", round + 1);
-            System.out.printf(Locale.ROOT, "  %s: settle %.3f s (cpu %.3f), idiomatic %.3f s (cpu %.3f), hand %.3f s "
-                    + "(cpu %.3f)%n", round == 0 ? "warm-up" : "round " + round, s.wall, s.cpu, i.wall, i.cpu, h.wall,
-                    h.cpu);
-            if (round > 0) {
+        double warmed = 0;
+        int seed = 1;
+        int[] count = {1, 1, 1};
+        for (int round = 0; round <= rounds; ) {
+            boolean warmUp = warmed < WARM_UP_SECONDS;
+            Timing s = runSettle(trainer, seed, count[0]);
+            Timing i = runPeer(to, from, w, "idiomatic", seed, count[1]);
+            Timing h = runPeer(to, from, w, "hand", seed, count[2]);
+            seed += Math.max(count[0], Math.max(count[1], count[2]));
+            System.out.printf(Locale.ROOT, "  %s: settle %.4f s (cpu %.4f), idiomatic %.4f s (cpu %.4f), hand %.4f s "
+                    + "(cpu %.4f) per replicate%s%n", warmUp ? "warm-up" : "round " + round, s.wall, s.cpu, i.wall,
+                    i.cpu, h.wall, h.cpu, warmUp ? "" : String.format(Locale.ROOT, ", of %d, %d and %d back to back",
+                            count[0], count[1], count[2]));
+            if (warmUp) {
+                warmed += s.wall;
+                if (warmed >= WARM_UP_SECONDS) {
+                    round = 1;
+                    count = new int[] {replicates(s), replicates(i), replicates(h)};
+                }
+            } else {
                 settle[round - 1] = s;
                 idiomatic[round - 1] = i;
                 hand[round - 1] = h;
+                round++;
             }
         }
         double evaluation = evaluationSeconds(w, data);
@@ -180,16 +208,24 @@ public final class Comparison {
         return median(values);
     }
 
-    private static Timing runSettle(Trainer trainer, int replicate) {
+    /** @return how many back-to-back replicates make one timing of at least {@link #TIMING_SECONDS} */
+    private static int replicates(Timing one) {
+        return (int) Math.max(1, Math.ceil(TIMING_SECONDS / one.wall));
+    }
+
+    /** @return the mean time per replicate of {@code count} replicates from seed {@code first} on, back to back */
+    private static Timing runSettle(Trainer trainer, int first, int count) {
         long cpu = Clock.cpuNanos();
         long start = System.nanoTime();
-        ReplicateResult result = trainer.run(ReplicateSeeds.derive(20260101L, replicate));
+        for (int replicate = first; replicate < first + count; replicate++) {
+            ReplicateResult result = trainer.run(ReplicateSeeds.derive(20260101L, replicate));
+            if (result.status() != ReplicateResult.Status.FINISHED) {
+                throw new IllegalStateException("settle's replicate diverged at update " + result.divergedAt());
+            }
+        }
         double seconds = (System.nanoTime() - start) * 1e-9;
         double cpuSeconds = (Clock.cpuNanos() - cpu) * 1e-9;
-        if (result.status() != ReplicateResult.Status.FINISHED) {
-            throw new IllegalStateException("settle's replicate diverged at update " + result.divergedAt());
-        }
-        return new Timing(seconds, cpuSeconds);
+        return new Timing(seconds / count, cpuSeconds / count);
     }
 
     /** @return the best of three CPU timings of one full-batch objective, in seconds */
@@ -206,10 +242,10 @@ public final class Comparison {
         return best;
     }
 
-    private static Timing runPeer(PrintWriter to, BufferedReader from, Workload w, String variant, int seed)
-            throws IOException {
-        String[] reply = ask(to, from, "run " + w.key() + " " + variant + " " + seed).split(" ");
-        return new Timing(Double.parseDouble(reply[0]), Double.parseDouble(reply[1]));
+    private static Timing runPeer(PrintWriter to, BufferedReader from, Workload w, String variant, int first,
+            int count) throws IOException {
+        String[] reply = ask(to, from, "run " + w.key() + " " + variant + " " + first + " " + count).split(" ");
+        return new Timing(Double.parseDouble(reply[0]) / count, Double.parseDouble(reply[1]) / count);
     }
 
     private static String ask(PrintWriter to, BufferedReader from, String command) throws IOException {
