@@ -162,21 +162,35 @@ public final class Scaling {
             System.out.printf(Locale.ROOT, "  %6d rows: %d updates, %d snapshots%n", sizes[s],
                     trainers[s].tailPlan().totalUpdates(), trainers[s].tailPlan().snapshots());
         }
-        double[][] perRow = new double[sizes.length][rounds];
-        for (int round = -1; round < rounds; round++) {
+        // warm-up until the JIT has compiled the kernels (2 s of training), then each timing is the mean of
+        // back-to-back replicates lasting at least 0.5 s, so that short runs are not dominated by noise
+        int[] count = new int[sizes.length];
+        int seed = 1;
+        for (double warmed = 0; warmed < 2.0; ) {
             for (int s = 0; s < sizes.length; s++) {
                 long cpu = Clock.cpuNanos();
-                trainers[s].run(ReplicateSeeds.derive(20260101L, round + 2));
+                trainers[s].run(ReplicateSeeds.derive(20260101L, seed++));
                 double seconds = (Clock.cpuNanos() - cpu) * 1e-9;
-                if (round >= 0) {
-                    perRow[s][round] = seconds / ((double) sizes[s] * w.epochs());
+                warmed += seconds;
+                count[s] = (int) Math.max(1, Math.ceil(0.5 / seconds));
+            }
+        }
+        double[][] perRow = new double[sizes.length][rounds];
+        for (int round = 0; round < rounds; round++) {
+            for (int s = 0; s < sizes.length; s++) {
+                long cpu = Clock.cpuNanos();
+                for (int c = 0; c < count[s]; c++) {
+                    trainers[s].run(ReplicateSeeds.derive(20260101L, seed++));
                 }
+                double seconds = (Clock.cpuNanos() - cpu) * 1e-9 / count[s];
+                perRow[s][round] = seconds / ((double) sizes[s] * w.epochs());
             }
         }
         double[] medians = new double[sizes.length];
         for (int s = 0; s < sizes.length; s++) {
             medians[s] = Comparison.median(perRow[s]);
-            System.out.printf(Locale.ROOT, "  %6d rows: %.3f µs per row × epoch (rounds: %s)%n", sizes[s], medians[s] * 1e6,
+            System.out.printf(Locale.ROOT, "  %6d rows: %.3f µs per row × epoch (rounds of %d replicates: %s)%n",
+                    sizes[s], medians[s] * 1e6, count[s],
                     Arrays.toString(Arrays.stream(perRow[s]).map(v -> Math.round(v * 1e9) / 1e3).toArray()));
         }
         double min = Arrays.stream(medians).min().orElseThrow();

@@ -254,10 +254,9 @@ public final class Kernels {
     /** 1.5 · 2^52: adding it rounds to an integer held in the low bits of the sum's representation. */
     static final double SHIFTER = 0x1.8p52;
     static final long SHIFTER_BITS = 0x4338000000000000L;
-    /** Below this exp(x) is under 2^−1076 and rounds to 0. */
+    /** x is clamped to [EXP_LOW, EXP_HIGH] first: e^−746 is under 2^−1075 and rounds to 0, e^710 overflows to +∞. */
     static final double EXP_LOW = -746.0;
-    /** Above ln(Double.MAX_VALUE) exp(x) overflows to +∞. */
-    static final double EXP_HIGH = 709.782712893384;
+    static final double EXP_HIGH = 710.0;
     // 1/j!, j = 2 … 14: the Taylor polynomial of exp on |r| ≤ ln 2 / 2, truncation error below 5e-18 (relative)
     static final double C2 = 1.0 / 2;
     static final double C3 = 1.0 / 6;
@@ -279,15 +278,11 @@ public final class Kernels {
      * nearest x·log2 e (|r| ≤ ln 2 / 2, r from two fused multiply-adds with ln 2 split in two), e^r by its
      * degree-14 Taylor polynomial in Horner form, then e^r · 2^h · 2^(n−h) with h = ⌊n/2⌋: both factors are normal
      * numbers for every n in range, so the only rounding of the scaling is the last one, into the subnormals if
-     * the result is that small. Below {@link #EXP_LOW} it returns 0, above {@link #EXP_HIGH} +∞; NaN gives NaN.
+     * the result is that small. x is first clamped to [−746, 710], which gives 0 below (the true value rounds to
+     * 0) and +∞ above, without a branch; NaN stays NaN.
      */
-    public static double exp(double x) {
-        if (x < EXP_LOW) {
-            return 0.0;
-        }
-        if (x > EXP_HIGH) {
-            return Double.POSITIVE_INFINITY;
-        }
+    public static double exp(double value) {
+        double x = Math.min(Math.max(value, EXP_LOW), EXP_HIGH);
         double t = Math.fma(x, LOG2E, SHIFTER);
         double n = t - SHIFTER;
         double r = Math.fma(-n, LN2_HI, x);

@@ -15,6 +15,8 @@ final class VectorKernels {
 
     private static final VectorSpecies<Double> S = DoubleVector.SPECIES_PREFERRED;
     private static final int L = S.length();
+    /** Longs of the same vector size, for the exponent arithmetic of {@link #exp}. */
+    private static final VectorSpecies<Long> LS = LongVector.SPECIES_PREFERRED;
 
     private VectorKernels() {
     }
@@ -54,13 +56,17 @@ final class VectorKernels {
      *     each lane the operations of {@link Kernels#exp(double)} in its order
      */
     static int exp(double[] v, int offset, int count) {
-        DoubleVector shifter = DoubleVector.broadcast(S, Kernels.SHIFTER);
-        DoubleVector zero = DoubleVector.zero(S);
-        DoubleVector infinity = DoubleVector.broadcast(S, Double.POSITIVE_INFINITY);
+        // Every operand is a vector made inside the loop (the compiler hoists the constants), and there is no
+        // blend: in some compiled contexts the JDK 17 compiler boxed a vector per iteration for a blend, and for
+        // vector constants made before the loop.
         int i = 0;
         for (; i + L <= count; i += L) {
-            DoubleVector x = DoubleVector.fromArray(S, v, offset + i);
-            DoubleVector t = x.fma(Kernels.LOG2E, Kernels.SHIFTER);
+            DoubleVector shifter = DoubleVector.broadcast(S, Kernels.SHIFTER);
+            DoubleVector one = DoubleVector.broadcast(S, 1.0);
+            DoubleVector x = DoubleVector.fromArray(S, v, offset + i)
+                    .max(DoubleVector.broadcast(S, Kernels.EXP_LOW))
+                    .min(DoubleVector.broadcast(S, Kernels.EXP_HIGH));
+            DoubleVector t = x.fma(DoubleVector.broadcast(S, Kernels.LOG2E), shifter);
             DoubleVector n = t.sub(shifter).neg();
             DoubleVector r = n.fma(DoubleVector.broadcast(S, Kernels.LN2_HI), x);
             r = n.fma(DoubleVector.broadcast(S, Kernels.LN2_LO), r);
@@ -76,16 +82,14 @@ final class VectorKernels {
             p = p.fma(r, DoubleVector.broadcast(S, Kernels.C4));
             p = p.fma(r, DoubleVector.broadcast(S, Kernels.C3));
             p = p.fma(r, DoubleVector.broadcast(S, Kernels.C2));
-            p = p.fma(r, DoubleVector.broadcast(S, 1.0));
-            p = p.fma(r, DoubleVector.broadcast(S, 1.0));
-            LongVector whole = ((LongVector) t.reinterpretAsLongs()).sub(Kernels.SHIFTER_BITS);
+            p = p.fma(r, one);
+            p = p.fma(r, one);
+            LongVector bias = LongVector.broadcast(LS, 1023L);
+            LongVector whole = ((LongVector) t.reinterpretAsLongs()).sub(LongVector.broadcast(LS, Kernels.SHIFTER_BITS));
             LongVector half = whole.lanewise(VectorOperators.ASHR, 1);
-            DoubleVector low = half.add(1023).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
-            DoubleVector high = whole.sub(half).add(1023).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
-            DoubleVector e = p.mul(low).mul(high);
-            e = e.blend(zero, x.compare(VectorOperators.LT, Kernels.EXP_LOW));
-            e = e.blend(infinity, x.compare(VectorOperators.GT, Kernels.EXP_HIGH));
-            e.intoArray(v, offset + i);
+            DoubleVector low = half.add(bias).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
+            DoubleVector high = whole.sub(half).add(bias).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
+            p.mul(low).mul(high).intoArray(v, offset + i);
         }
         return i;
     }
