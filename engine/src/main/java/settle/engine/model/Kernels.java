@@ -21,7 +21,7 @@ public final class Kernels {
     /**
      * The vector path takes products whose lane dimension has at least one full register block (2 vectors);
      * narrower ones run scalar (same results; the vector setup would cost more than it saves, and code the JIT has
-     * not compiled yet boxes vectors).
+     * not compiled yet boxes vectors), except the forward product of a narrow layer over at least this many rows.
      */
     private static final int VECTOR_COLUMNS = VECTOR ? 2 * VectorKernels.lanes() : Integer.MAX_VALUE;
 
@@ -90,14 +90,15 @@ public final class Kernels {
         long packedRows = (Math.min(rows, ROW_BLOCK) + six - 1) / six * six;
         long forward = panels * width * inputs + panels * width + six * width + packedRows * inputs;
         long gradient = (outputs + six - 1) / six * six * rows + GROUP * width * rows + six * width;
-        long narrow = (outputs + six - 1) / six * six * inputs + width * inputs + six * width;
+        long narrow = width * inputs + width + 4 * width;
         return Math.toIntExact(Math.max(Math.max(forward, gradient), narrow));
     }
 
     /**
      * C (n × m) = init + A (n × k) · Wᵀ with W (m × k) row-major (a layer's weights): the same chains as
      * {@link #product} with B = Wᵀ. The vector path packs W into column panels in {@code pack} first; outputs
-     * narrower than one register block (e.g. a layer of 10 classes) run with lanes over the rows instead.
+     * narrower than one register block (e.g. a layer of 10 classes) go through one zero-padded panel, with A read
+     * in place.
      *
      * @param w W, row j at {@code wOffset + j·k}; not modified
      * @param pack scratch of at least {@link #packLength} values; modified

@@ -184,55 +184,90 @@ final class VectorKernels {
     }
 
     /**
-     * See {@link Kernels#multiplyByTransposed}, for outputs narrower than one register block (m < 2L): lanes run
-     * over the rows of A and C instead. Cᵀ (m × n) = W (m × k) · Aᵀ has the gradient's shape, so W's rows are
-     * packed into micro-panels of {@link #ROWS} interleaved rows (micro-panel q holds W[6q + t][i] at 6i + t, the
-     * last one zero-padded) and 2L rows of A at a time into a panel of Aᵀ (A[r0 + lane][i] at 2L·i + lane, rows past
-     * n zero), and each 6 × 2L block of Cᵀ starts from the initial values, runs its chains over all k in one pass
-     * (fma(w, a, ·) is fma(a, w, ·): the product is exact) and is copied out transposed. Padded rows and lanes are
-     * outputs of their own that are never copied out.
+     * See {@link Kernels#multiplyByTransposed}, for outputs narrower than one register block (m < 2L): W is packed
+     * into one zero-padded panel of 2L columns of Wᵀ, and blocks of {@link #NARROW_ROWS} rows of A, read in place,
+     * run their chains over all k with one broadcast per row and i, into a tile whose first m columns are copied
+     * out. Padded lanes are outputs of their own that are never copied out. (Packing A, as the wide products do,
+     * would cost as much as the multiply-adds here: there are only m of them per value of A.)
      */
     static void narrowByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
             double[] init, int initOffset, double[] c, int cOffset, double[] pack) {
         int width = 2 * L;
-        int blocks = (m + ROWS - 1) / ROWS;
-        for (int q = 0; q < blocks; q++) {
-            int j = q * ROWS;
-            packSix(w, wOffset + j * k, k, 1, k, Math.min(ROWS, m - j), pack, j * k);
+        packPanel(w, wOffset, k, m, pack, 0, width);
+        int starts = k * width;
+        int tile = starts + width;
+        for (int j = 0; j < width; j++) {
+            pack[starts + j] = init != null && j < m ? init[initOffset + j] : 0.0;
         }
-        int panel = blocks * ROWS * k;
-        int tile = panel + width * k;
-        for (int r0 = 0; r0 < n; r0 += width) {
-            int rows = Math.min(width, n - r0);
-            for (int lane = 0; lane < width; lane++) {
-                int to = panel + lane;
-                if (lane < rows) {
-                    for (int i = 0, from = aOffset + (r0 + lane) * k; i < k; i++, to += width) {
-                        pack[to] = a[from + i];
-                    }
-                } else {
-                    for (int i = 0; i < k; i++, to += width) {
-                        pack[to] = 0.0;
-                    }
-                }
-            }
-            for (int q = 0; q < blocks; q++) {
-                int j0 = q * ROWS;
-                int columns = Math.min(ROWS, m - j0);
-                for (int t = 0; t < ROWS; t++) {
-                    double start = init != null && t < columns ? init[initOffset + j0 + t] : 0.0;
-                    java.util.Arrays.fill(pack, tile + t * width, tile + (t + 1) * width, start);
-                }
-                block6x2(pack, j0 * k, k, pack, panel, pack, tile, width);
-                for (int t = 0; t < columns; t++) {
-                    int from = tile + t * width;
-                    int to = cOffset + r0 * m + j0 + t;
-                    for (int lane = 0; lane < rows; lane++, to += m) {
-                        c[to] = pack[from + lane];
-                    }
-                }
+        int r = 0;
+        for (; r + NARROW_ROWS <= n; r += NARROW_ROWS) {
+            narrowBlock(a, aOffset + r * k, k, pack, starts, tile);
+            for (int t = 0; t < NARROW_ROWS; t++) {
+                System.arraycopy(pack, tile + t * width, c, cOffset + (r + t) * m, m);
             }
         }
+        for (; r < n; r++) {
+            int ar = aOffset + r * k;
+            DoubleVector c0 = DoubleVector.fromArray(S, pack, starts);
+            DoubleVector c1 = DoubleVector.fromArray(S, pack, starts + L);
+            for (int i = 0, p = 0; i < k; i++, p += width) {
+                DoubleVector x = DoubleVector.broadcast(S, a[ar + i]);
+                c0 = x.fma(DoubleVector.fromArray(S, pack, p), c0);
+                c1 = x.fma(DoubleVector.fromArray(S, pack, p + L), c1);
+            }
+            c0.intoArray(pack, tile);
+            c1.intoArray(pack, tile + L);
+            System.arraycopy(pack, tile, c, cOffset + r * m, m);
+        }
+    }
+
+    /** Rows per block of {@link #narrowByTransposed}. */
+    private static final int NARROW_ROWS = 4;
+
+    /**
+     * 4 rows of A (k apart from a0) × the 2L-column panel at the start of {@code pack}, from the starting values at
+     * {@code starts}, into a 4 × 2L tile at {@code tile}.
+     */
+    private static void narrowBlock(double[] a, int a0, int k, double[] pack, int starts, int tile) {
+        DoubleVector s0 = DoubleVector.fromArray(S, pack, starts);
+        DoubleVector s1 = DoubleVector.fromArray(S, pack, starts + L);
+        DoubleVector c00 = s0;
+        DoubleVector c01 = s1;
+        DoubleVector c10 = s0;
+        DoubleVector c11 = s1;
+        DoubleVector c20 = s0;
+        DoubleVector c21 = s1;
+        DoubleVector c30 = s0;
+        DoubleVector c31 = s1;
+        int a1 = a0 + k;
+        int a2 = a1 + k;
+        int a3 = a2 + k;
+        for (int i = 0; i < k; i++) {
+            int p = 2 * L * i;
+            DoubleVector v0 = DoubleVector.fromArray(S, pack, p);
+            DoubleVector v1 = DoubleVector.fromArray(S, pack, p + L);
+            DoubleVector x0 = DoubleVector.broadcast(S, a[a0 + i]);
+            c00 = x0.fma(v0, c00);
+            c01 = x0.fma(v1, c01);
+            DoubleVector x1 = DoubleVector.broadcast(S, a[a1 + i]);
+            c10 = x1.fma(v0, c10);
+            c11 = x1.fma(v1, c11);
+            DoubleVector x2 = DoubleVector.broadcast(S, a[a2 + i]);
+            c20 = x2.fma(v0, c20);
+            c21 = x2.fma(v1, c21);
+            DoubleVector x3 = DoubleVector.broadcast(S, a[a3 + i]);
+            c30 = x3.fma(v0, c30);
+            c31 = x3.fma(v1, c31);
+        }
+        int width = 2 * L;
+        c00.intoArray(pack, tile);
+        c01.intoArray(pack, tile + L);
+        c10.intoArray(pack, tile + width);
+        c11.intoArray(pack, tile + width + L);
+        c20.intoArray(pack, tile + 2 * width);
+        c21.intoArray(pack, tile + 2 * width + L);
+        c30.intoArray(pack, tile + 3 * width);
+        c31.intoArray(pack, tile + 3 * width + L);
     }
 
     /** Rows per register block of the packed products. */

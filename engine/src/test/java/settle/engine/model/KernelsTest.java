@@ -21,7 +21,7 @@ class KernelsTest {
     private static final int[][] SHAPES = {
         {1, 1, 1}, {3, 5, 7}, {4, 8, 8}, {5, 9, 10}, {7, 13, 17}, {8, 16, 3}, {13, 50, 10}, {64, 31, 33}, {9, 2, 64},
         {37, 70, 45}, {101, 530, 19}, {110, 41, 36}, {54, 12, 24},
-        // outputs narrower than a register block, rows as lanes: whole and partial row panels
+        // outputs narrower than a register block: whole and partial blocks of rows
         {64, 50, 10}, {70, 128, 10}, {33, 7, 13}, {16, 3, 1}, {19, 30, 6}};
 
     @Test
