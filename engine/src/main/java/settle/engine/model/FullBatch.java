@@ -106,6 +106,29 @@ public final class FullBatch {
     }
 
     /**
+     * F at several parameter vectors in one pass over the data: each chunk of rows is gathered once and evaluated
+     * at every θ while it is in cache, so a table larger than the cache is read once instead of once per θ. Each
+     * value is summed in the same order as {@link #objective}, so it is the same bit for bit.
+     *
+     * @param thetas the parameter vectors, each of length P; not modified
+     * @param count how many of them, from index 0
+     * @param out receives F(θ_s) at index s; modified
+     */
+    public void objectives(double[][] thetas, int count, double[] out) {
+        Arrays.fill(out, 0, count, 0.0);
+        for (int first = 0; first < rows; first += chunk) {
+            int n = Math.min(chunk, rows - first);
+            data.copyRange(first, n, x, y);
+            for (int s = 0; s < count; s++) {
+                out[s] += model.lossSum(thetas[s], x, y, n, workspace);
+            }
+        }
+        for (int s = 0; s < count; s++) {
+            out[s] = out[s] / rows + model.penalty(thetas[s]);
+        }
+    }
+
+    /**
      * F(θ) and its gradient (1/N) Σ_i ∇loss_i(θ) + λ·weights.
      *
      * @param theta parameters; not modified

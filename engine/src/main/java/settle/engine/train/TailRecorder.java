@@ -62,7 +62,7 @@ final class TailRecorder {
      * Records the next snapshot.
      *
      * @param gaugeFree the iterate projected onto the gauge-free subspace; not modified
-     * @param objective F at the iterate
+     * @param objective F at the iterate, or NaN when it is evaluated later ({@link #setObjective})
      */
     void addSnapshot(double[] gaugeFree, double objective) {
         if (snapshotCount == objectives.length) {
@@ -87,6 +87,11 @@ final class TailRecorder {
             }
             distanceSquaredSum += sum;
         }
+    }
+
+    /** Sets F at snapshot {@code index} when it was recorded as not yet known (NaN) by {@link #addSnapshot}. */
+    void setObjective(int index, double objective) {
+        objectives[index] = objective;
     }
 
     /** @return the number of tail iterates averaged so far */

@@ -171,6 +171,15 @@ public final class Trainer {
         private final double[] scratch = new double[p];
         private final TailRecorder tail = new TailRecorder(tailPlan, p, reference == null ? null : reference.theta(),
                 SNAPSHOT_LIMIT);
+        /**
+         * While K·P is within {@link #SNAPSHOT_LIMIT}, the snapshots' raw iterates wait here and F is evaluated at
+         * all of them in one pass over the data after training (the same values; a training table larger than the
+         * cache is then read once rather than K times). Beyond it, F is evaluated at each snapshot as it is taken.
+         */
+        private final double[][] pending = (long) tailPlan.snapshots() * p <= SNAPSHOT_LIMIT
+                ? new double[tailPlan.snapshots()][p] : null;
+        private final long[] pendingUpdate = pending == null ? null : new long[pending.length];
+        private int pendingCount;
         private final long total = tailPlan.totalUpdates();
         private final double[] rates = new double[(int) total];
         private final List<EpochRecord> epochs = new ArrayList<>(settings.epochs());
@@ -238,7 +247,13 @@ public final class Trainer {
                     if (tail.inTail(t)) {
                         tail.addIterate(theta);
                         if (tail.snapshotDue(t)) {
-                            double objective = objectiveAt(t);
+                            double objective = Double.NaN;
+                            if (pending == null) {
+                                objective = objectiveAt(t);
+                            } else {
+                                System.arraycopy(theta, 0, pending[pendingCount], 0, p);
+                                pendingUpdate[pendingCount++] = t;
+                            }
                             System.arraycopy(theta, 0, scratch, 0, p);
                             model.removeGauge(scratch);
                             tail.addSnapshot(scratch, objective);
@@ -269,9 +284,32 @@ public final class Trainer {
                 return new ReplicateResult(seeds, ReplicateResult.Status.DIVERGED, divergedAt, total,
                         settings.averageTail(), appliedRates, epochs, f0, initial, theta.clone(), null, null);
             }
+            evaluatePendingSnapshots();
             double[] tailMean = tail.tailMean().clone();
             return new ReplicateResult(seeds, ReplicateResult.Status.FINISHED, 0, total, settings.averageTail(),
                     appliedRates, epochs, f0, initial, theta.clone(), tailMean, wander(tailMean));
+        }
+
+        /**
+         * Fills in F at the snapshots taken with F pending: the one at the last evaluated update (usually the last
+         * update, an epoch end) from that evaluation, the others in one pass over the training rows.
+         */
+        private void evaluatePendingSnapshots() {
+            if (pending == null || pendingCount == 0) {
+                return;
+            }
+            int first = tail.snapshotCount() - pendingCount;
+            int count = pendingCount;
+            if (pendingUpdate[count - 1] == evaluatedAt) {
+                tail.setObjective(first + count - 1, evaluatedObjective);
+                count--;
+            }
+            double[] values = new double[count];
+            onTrain.objectives(pending, count, values);
+            for (int s = 0; s < count; s++) {
+                tail.setObjective(first + s, values[s]);
+            }
+            pendingCount = 0;
         }
 
         /** @return F(θ) for the iterate after {@code update} updates, evaluated once per update number */

@@ -187,6 +187,26 @@ class FullBatchTest {
     }
 
     @Test
+    void manyParametersInOnePassGiveTheSameBitsAsOneAtATime() {
+        SplittableRandom rng = new SplittableRandom(43);
+        for (Model model : models()) {
+            Dataset data = dataset(rng, 70, 4, model.classes());
+            FullBatch full = new FullBatch(model, data, 16); // several chunks, the last one partial
+            double[][] thetas = new double[5][];
+            for (int s = 0; s < thetas.length; s++) {
+                thetas[s] = FiniteDifferences.point(rng, model.parameterCount(), 0.5 + s);
+            }
+            double[] out = new double[thetas.length + 1];
+            out[4] = 99;
+            full.objectives(thetas, 4, out);
+            for (int s = 0; s < 4; s++) {
+                assertEquals(full.objective(thetas[s]), out[s], 0.0, model.describe() + ", θ_" + s);
+            }
+            assertEquals(99, out[4], 0.0, "only count values are written");
+        }
+    }
+
+    @Test
     void nothingIsAllocatedPerCall() {
         java.lang.management.ThreadMXBean bean = ManagementFactory.getThreadMXBean();
         assumeTrue(bean instanceof com.sun.management.ThreadMXBean, "no per-thread allocation counter");

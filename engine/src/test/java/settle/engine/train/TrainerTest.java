@@ -199,6 +199,21 @@ class TrainerTest {
     }
 
     @Test
+    void snapshotObjectivesEvaluatedAfterTrainingAreFAtEachSnapshot() {
+        // the binary model has no gauge, so the stored snapshots are the raw iterates F was evaluated at
+        Model model = new BinaryLogistic(3, 0.01);
+        TrainingSettings settings = TrainingSettings.of(6, 4).withTail(0.5, 9);
+        Wander w = Trainer.builder(model, binary, CONSTANT, settings).build().run(ReplicateSeeds.derive(3, 1)).wander();
+        int k = w.tail().snapshots();
+        int p = model.parameterCount();
+        FullBatch full = new FullBatch(model, binary);
+        for (int s = 0; s < k; s++) {
+            double[] snapshot = Arrays.copyOfRange(w.snapshots(), s * p, (s + 1) * p);
+            assertEquals(full.objective(snapshot), w.snapshotObjectives()[s], 0.0, "snapshot " + s);
+        }
+    }
+
+    @Test
     void tailDistanceSplitsIntoRadiusAndOffset() {
         // θ* here is any fixed gauge-free point: the identity (1/K)Σ‖θ_k − θ*‖² = radius² + ‖θ̄_K − θ*‖² is algebra
         Model model = new SoftmaxRegression(4, 3, 0.01);
