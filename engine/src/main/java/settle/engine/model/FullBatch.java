@@ -115,6 +115,9 @@ public final class FullBatch {
      * @param out receives F(θ_s) at index s; modified
      */
     public void objectives(double[][] thetas, int count, double[] out) {
+        if (count == 0) {
+            return;
+        }
         Arrays.fill(out, 0, count, 0.0);
         for (int first = 0; first < rows; first += chunk) {
             int n = Math.min(chunk, rows - first);

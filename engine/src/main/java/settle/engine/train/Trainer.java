@@ -304,6 +304,10 @@ public final class Trainer {
                 tail.setObjective(first + count - 1, evaluatedObjective);
                 count--;
             }
+            if (count == 0) {
+                pendingCount = 0;
+                return;
+            }
             double[] values = new double[count];
             onTrain.objectives(pending, count, values);
             for (int s = 0; s < count; s++) {
