@@ -24,9 +24,10 @@ import settle.engine.train.TrainingSettings;
  *   <li>{@code threads [--workload KEY] [--replicates R] [--rounds N]}: R replicates on 1 thread, then on 2, interleaved
  *       over N rounds; prints the wall-clock speedup and checks that every replicate's final θ is bit-identical
  *       between the two;</li>
- *   <li>{@code rows [--workload KEY] [--epochs E]}: one replicate at 10k, 20k and 40k rows (interleaved, 3 rounds,
- *       the plan's default tail: τ = 0.1, 50 snapshots; the default 5 epochs make the tail at least 50 updates
- *       long at every size, so K = 50 everywhere); prints CPU time per row × epoch;</li>
+ *   <li>{@code rows [--workload KEY] [--epochs E] [--rounds N]}: 10k, 20k and 40k rows, interleaved over N rounds
+ *       after 2 s of warm-up, each timing the mean of back-to-back replicates lasting at least 0.5 s (the plan's
+ *       default tail: τ = 0.1, 50 snapshots; the default 5 epochs make the tail at least 50 updates long at every
+ *       size, so K = 50 everywhere); prints CPU time per row × epoch;</li>
  *   <li>{@code memory [--replicates R] [--rows N] [--epochs E]}: an MLP 784-256-10 study (default 200 replicates,
  *       20 000 rows, 5 epochs, the plan's default tail) on 2 threads; run it with {@code -Xmx1g}; prints the heap in
  *       use after each replicate and the pools' peak.</li>
