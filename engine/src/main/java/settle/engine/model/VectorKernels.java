@@ -16,7 +16,7 @@ final class VectorKernels {
     private static final VectorSpecies<Double> S = DoubleVector.SPECIES_PREFERRED;
     private static final int L = S.length();
     /** Longs of the same vector size, for the exponent arithmetic of {@link #exp}. */
-    private static final VectorSpecies<Long> LS = LongVector.SPECIES_PREFERRED;
+    private static final VectorSpecies<Long> LS = S.withLanes(long.class);
 
     private VectorKernels() {
     }
@@ -56,9 +56,9 @@ final class VectorKernels {
      *     each lane the operations of {@link Kernels#exp(double)} in its order
      */
     static int exp(double[] v, int offset, int count) {
-        // Every operand is a vector made inside the loop (the compiler hoists the constants), and there is no
-        // blend: in some compiled contexts the JDK 17 compiler boxed a vector per iteration for a blend, and for
-        // vector constants made before the loop.
+        // No blend: compiled after the ReLU, a blend here boxed one vector per iteration under the JDK 17 compiler
+        // (KernelsAllocationTest); clamping x gives 0 and +∞ at the ends instead. The constants are made inside
+        // the loop (the compiler hoists them).
         int i = 0;
         for (; i + L <= count; i += L) {
             DoubleVector shifter = DoubleVector.broadcast(S, Kernels.SHIFTER);
@@ -85,7 +85,8 @@ final class VectorKernels {
             p = p.fma(r, one);
             p = p.fma(r, one);
             LongVector bias = LongVector.broadcast(LS, 1023L);
-            LongVector whole = ((LongVector) t.reinterpretAsLongs()).sub(LongVector.broadcast(LS, Kernels.SHIFTER_BITS));
+            LongVector whole = ((LongVector) t.reinterpretAsLongs())
+                    .sub(LongVector.broadcast(LS, Kernels.SHIFTER_BITS));
             LongVector half = whole.lanewise(VectorOperators.ASHR, 1);
             DoubleVector low = half.add(bias).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
             DoubleVector high = whole.sub(half).add(bias).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
