@@ -302,17 +302,36 @@ public final class Kernels {
         p = Math.fma(p, r, C2);
         p = Math.fma(p, r, 1.0);
         p = Math.fma(p, r, 1.0);
+        return scale(p, t);
+    }
+
+    /**
+     * @return p · 2^n, n the integer held in the low bits of t = fma(x, log2 e, 1.5 · 2^52), in two normal factors
+     *     2^h · 2^(n−h), h = ⌊n/2⌋, so that only the last multiplication rounds
+     */
+    static double scale(double p, double t) {
         long whole = Double.doubleToRawLongBits(t) - SHIFTER_BITS;
         long half = whole >> 1;
         return p * Double.longBitsToDouble((half + 1023) << 52) * Double.longBitsToDouble((whole - half + 1023) << 52);
     }
 
     /**
-     * v ← e^v in place for {@code count} values from {@code offset}, each by {@link #exp(double)}: whole vectors on
-     * the vector path, the rest scalar, the same bits either way.
+     * v ← e^v in place for {@code count} values from {@code offset}, each by {@link #exp(double)}, the same bits on
+     * either path. The vector path computes the polynomial p in whole vectors and keeps t (the reduction's
+     * shifted n) in {@code scratch}; the scaling p · 2^n, integer work on t's bits, then runs scalar: vector code
+     * for it (long lanes reinterpreted from double lanes) was compiled in some JVM runs into code that boxed a
+     * vector on every iteration.
+     *
+     * @param scratch at least {@code count} values; modified
      */
-    public static void exp(double[] v, int offset, int count) {
-        int i = VECTOR ? VectorKernels.exp(v, offset, count) : 0;
+    public static void exp(double[] v, int offset, int count, double[] scratch) {
+        int i = 0;
+        if (VECTOR) {
+            i = VectorKernels.expPolynomial(v, offset, count, scratch);
+            for (int j = 0; j < i; j++) {
+                v[offset + j] = scale(v[offset + j], scratch[j]);
+            }
+        }
         for (; i < count; i++) {
             v[offset + i] = exp(v[offset + i]);
         }

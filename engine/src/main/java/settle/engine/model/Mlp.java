@@ -156,7 +156,8 @@ public final class Mlp implements Model {
     /**
      * Per layer l = 1 … L: its outputs a_l (capacity × s_l; post-activation for hidden layers, the logits and
      * then the probabilities for the output layer) and the loss's gradient with respect to its pre-activations
-     * δ_l (capacity × s_l); each row's target logit and log-sum-exp (capacity); and the products' packing buffer.
+     * δ_l (capacity × s_l); the soft-max's scratch (capacity × K); each row's target logit and log-sum-exp
+     * (capacity); and the products' packing buffer.
      */
     private static final class Scratch implements Workspace {
         private final int capacity;
@@ -165,6 +166,7 @@ public final class Mlp implements Model {
         private final double[][] delta;
         private final double[] targets;
         private final double[] logSumExp;
+        private final double[] exponents;
         private final double[] pack;
 
         Scratch(int capacity, int[] sizes) {
@@ -172,6 +174,7 @@ public final class Mlp implements Model {
             this.sizes = sizes;
             this.targets = new double[capacity];
             this.logSumExp = new double[capacity];
+            this.exponents = new double[Math.multiplyExact(capacity, sizes[sizes.length - 1])];
             this.out = new double[sizes.length][];
             this.delta = new double[sizes.length][];
             int largest = 0;
@@ -240,7 +243,7 @@ public final class Mlp implements Model {
         for (int r = 0; r < n; r++) {
             s.targets[r] = logits[r * k + y[r]];
         }
-        Softmax.probabilities(logits, n, k, s.logSumExp);
+        Softmax.probabilities(logits, n, k, s.logSumExp, s.exponents);
         double sum = 0;
         for (int r = 0; r < n; r++) {
             sum += s.logSumExp[r] - s.targets[r];
@@ -317,7 +320,7 @@ public final class Mlp implements Model {
         Scratch s = scratch(theta, n, workspace);
         forward(theta, x, n, s);
         double[] logits = s.out[layers];
-        Softmax.probabilities(logits, n, sizes[layers], s.logSumExp);
+        Softmax.probabilities(logits, n, sizes[layers], s.logSumExp, s.exponents);
         System.arraycopy(logits, 0, out, 0, n * sizes[layers]);
     }
 

@@ -16,8 +16,9 @@ final class Softmax {
      *
      * @param z the scores, row r at r·K; modified
      * @param logSumExp receives each row's log-sum-exp in [0, n); modified
+     * @param scratch at least n·K values for {@link Kernels#exp(double[], int, int, double[])}; modified
      */
-    static void probabilities(double[] z, int n, int k, double[] logSumExp) {
+    static void probabilities(double[] z, int n, int k, double[] logSumExp, double[] scratch) {
         for (int r = 0; r < n; r++) {
             int base = r * k;
             // two running maxima halve the dependent chain; max is exact, so any grouping gives the same value
@@ -37,7 +38,7 @@ final class Softmax {
             }
             logSumExp[r] = max;
         }
-        Kernels.exp(z, 0, n * k);
+        Kernels.exp(z, 0, n * k, scratch);
         for (int r = 0; r < n; r++) {
             int base = r * k;
             double sum = 0;

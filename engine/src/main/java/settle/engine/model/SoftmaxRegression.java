@@ -91,8 +91,8 @@ public final class SoftmaxRegression implements Model {
     }
 
     /**
-     * The batch's scores, then probabilities, then deltas (capacity × K); each row's target score and
-     * log-sum-exp (capacity); and the products' packing buffer.
+     * The batch's scores, then probabilities, then deltas (capacity × K), and the soft-max's scratch of the same
+     * size; each row's target score and log-sum-exp (capacity); and the products' packing buffer.
      */
     private static final class Scratch implements Workspace {
         private final int capacity;
@@ -100,6 +100,7 @@ public final class SoftmaxRegression implements Model {
         private final double[] scores;
         private final double[] targets;
         private final double[] logSumExp;
+        private final double[] exponents;
         private final double[] pack;
 
         Scratch(int capacity, int inputs, int classes) {
@@ -108,6 +109,7 @@ public final class SoftmaxRegression implements Model {
             this.scores = new double[Math.multiplyExact(capacity, classes)];
             this.targets = new double[capacity];
             this.logSumExp = new double[capacity];
+            this.exponents = new double[scores.length];
             this.pack = new double[Kernels.packLength(capacity, classes, inputs)];
         }
 
@@ -141,7 +143,7 @@ public final class SoftmaxRegression implements Model {
         for (int r = 0; r < n; r++) {
             s.targets[r] = z[r * classes + y[r]];
         }
-        Softmax.probabilities(z, n, classes, s.logSumExp);
+        Softmax.probabilities(z, n, classes, s.logSumExp, s.exponents);
         double sum = 0;
         for (int r = 0; r < n; r++) {
             sum += s.logSumExp[r] - s.targets[r];
@@ -185,7 +187,7 @@ public final class SoftmaxRegression implements Model {
     public void probabilities(double[] theta, double[] x, int n, double[] out, Workspace workspace) {
         Scratch s = scratch(theta, n, workspace);
         Kernels.multiplyByTransposed(x, 0, n, inputs, theta, 0, classes, theta, biasOffset, s.scores, 0, s.pack);
-        Softmax.probabilities(s.scores, n, classes, s.logSumExp);
+        Softmax.probabilities(s.scores, n, classes, s.logSumExp, s.exponents);
         System.arraycopy(s.scores, 0, out, 0, n * classes);
     }
 

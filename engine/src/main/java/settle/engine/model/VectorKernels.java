@@ -1,7 +1,6 @@
 package settle.engine.model;
 
 import jdk.incubator.vector.DoubleVector;
-import jdk.incubator.vector.LongVector;
 import jdk.incubator.vector.VectorOperators;
 import jdk.incubator.vector.VectorSpecies;
 
@@ -15,8 +14,6 @@ final class VectorKernels {
 
     private static final VectorSpecies<Double> S = DoubleVector.SPECIES_PREFERRED;
     private static final int L = S.length();
-    /** Longs of the same vector size, for the exponent arithmetic of {@link #exp}. */
-    private static final VectorSpecies<Long> LS = S.withLanes(long.class);
 
     private VectorKernels() {
     }
@@ -52,13 +49,15 @@ final class VectorKernels {
     }
 
     /**
-     * @return how many leading values from {@code offset} were replaced by their exponentials (whole vectors),
-     *     each lane the operations of {@link Kernels#exp(double)} in its order
+     * The vector part of {@link Kernels#exp(double[], int, int, double[])}: for whole vectors from {@code offset},
+     * each lane the operations of {@link Kernels#exp(double)} in its order up to the scaling, p into v and t into
+     * {@code scratch} from 0.
+     *
+     * @return how many leading values were done
      */
-    static int exp(double[] v, int offset, int count) {
-        // No blend: compiled after the ReLU, a blend here boxed one vector per iteration under the JDK 17 compiler
-        // (KernelsAllocationTest); clamping x gives 0 and +∞ at the ends instead. The constants are made inside
-        // the loop (the compiler hoists them).
+    static int expPolynomial(double[] v, int offset, int count, double[] scratch) {
+        // clamping x gives 0 and +∞ at the ends without a blend (a blend here also boxed a vector per iteration in
+        // some compiled contexts: KernelsAllocationTest); the constants are made inside the loop (hoisted)
         int i = 0;
         for (; i + L <= count; i += L) {
             DoubleVector shifter = DoubleVector.broadcast(S, Kernels.SHIFTER);
@@ -84,13 +83,8 @@ final class VectorKernels {
             p = p.fma(r, DoubleVector.broadcast(S, Kernels.C2));
             p = p.fma(r, one);
             p = p.fma(r, one);
-            LongVector bias = LongVector.broadcast(LS, 1023L);
-            LongVector whole = ((LongVector) t.reinterpretAsLongs())
-                    .sub(LongVector.broadcast(LS, Kernels.SHIFTER_BITS));
-            LongVector half = whole.lanewise(VectorOperators.ASHR, 1);
-            DoubleVector low = half.add(bias).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
-            DoubleVector high = whole.sub(half).add(bias).lanewise(VectorOperators.LSHL, 52).reinterpretAsDoubles();
-            p.mul(low).mul(high).intoArray(v, offset + i);
+            p.intoArray(v, offset + i);
+            t.intoArray(scratch, i);
         }
         return i;
     }

@@ -35,6 +35,7 @@ class KernelsAllocationTest {
         double[] h = new double[n * k];
         double[] g = new double[m * k];
         double[] z = new double[n * m];
+        double[] scratch = new double[n * m];
         double[] pack = new double[Math.max(Kernels.packLength(n, m, k), Kernels.packLength(n, k, 64))];
         Map<String, Runnable> kernels = new LinkedHashMap<>();
         kernels.put("narrow forward", () -> Kernels.multiplyByTransposed(x, 0, n, k, w, 0, m, bias, 0, c, 0, pack));
@@ -45,7 +46,7 @@ class KernelsAllocationTest {
         kernels.put("mask", () -> Kernels.keepWherePositive(h, x, n * k, k));
         kernels.put("exp", () -> {
             System.arraycopy(x, 0, z, 0, n * m);
-            Kernels.exp(z, 0, n * m);
+            Kernels.exp(z, 0, n * m, scratch);
         });
         long thread = Thread.currentThread().getId();
         for (Map.Entry<String, Runnable> kernel : kernels.entrySet()) {

@@ -146,7 +146,7 @@ class KernelsTest {
             709.782712893384, 709.8, 710.0, 711.0, Double.POSITIVE_INFINITY, Double.NaN};
         System.arraycopy(special, 0, x, 1, special.length);
         double[] vector = x.clone();
-        Kernels.exp(vector, 0, count);
+        Kernels.exp(vector, 0, count, new double[count]);
         double worst = 0;
         for (int i = 0; i < count; i++) {
             double scalar = Kernels.exp(x[i]);
