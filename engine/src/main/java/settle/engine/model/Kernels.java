@@ -275,7 +275,7 @@ public final class Kernels {
 
     /**
      * e^x within about one ulp, as a fixed sequence of IEEE operations that the vector path repeats lane by lane,
-     * so {@link #exp(double[], int, int)} gives the same bits on either path. x = n·ln 2 + r with n the integer
+     * so {@link #exp(double[], int, int, double[])} gives the same bits on either path. x = n·ln 2 + r with n the integer
      * nearest x·log2 e (|r| ≤ ln 2 / 2, r from two fused multiply-adds with ln 2 split in two), e^r by its
      * degree-14 Taylor polynomial in Horner form, then e^r · 2^h · 2^(n−h) with h = ⌊n/2⌋: both factors are normal
      * numbers for every n in range, so the only rounding of the scaling is the last one, into the subnormals if

@@ -295,25 +295,19 @@ public final class Trainer {
          * update, an epoch end) from that evaluation, the others in one pass over the training rows.
          */
         private void evaluatePendingSnapshots() {
-            if (pending == null || pendingCount == 0) {
-                return;
-            }
-            int first = tail.snapshotCount() - pendingCount;
+            // called once, after training: pending holds every snapshot, in order
             int count = pendingCount;
-            if (pendingUpdate[count - 1] == evaluatedAt) {
-                tail.setObjective(first + count - 1, evaluatedObjective);
+            if (count > 0 && pendingUpdate[count - 1] == evaluatedAt) {
+                tail.setObjective(count - 1, evaluatedObjective);
                 count--;
             }
-            if (count == 0) {
-                pendingCount = 0;
-                return;
+            if (count > 0) {
+                double[] values = new double[count];
+                onTrain.objectives(pending, count, values);
+                for (int s = 0; s < count; s++) {
+                    tail.setObjective(s, values[s]);
+                }
             }
-            double[] values = new double[count];
-            onTrain.objectives(pending, count, values);
-            for (int s = 0; s < count; s++) {
-                tail.setObjective(first + s, values[s]);
-            }
-            pendingCount = 0;
         }
 
         /** @return F(θ) for the iterate after {@code update} updates, evaluated once per update number */
