@@ -180,9 +180,8 @@ final class VectorKernels {
 
     /**
      * See {@link Kernels#multiplyByTransposed}, for outputs narrower than one register block (m < 2L): W is packed
-     * into one zero-padded panel of 2L columns of Wᵀ, and blocks of {@link #NARROW_ROWS} rows of A, read in place,
-     * run their chains over all k with one broadcast per row and i, into a tile whose first m columns are copied
-     * out. Padded lanes are outputs of their own that are never copied out. (Packing A, as the wide products do,
+     * into one zero-padded panel of 2L columns of Wᵀ, and blocks of 4 rows of A, read in place, run their chains
+     * over all k through {@link #product}'s register blocks, into a tile whose first m columns are copied out. Padded lanes are outputs of their own that are never copied out. (Packing A, as the wide products do,
      * would cost as much as the multiply-adds here: there are only m of them per value of A.)
      */
     static void narrowByTransposed(double[] a, int aOffset, int n, int k, double[] w, int wOffset, int m,
@@ -194,75 +193,18 @@ final class VectorKernels {
         for (int j = 0; j < width; j++) {
             pack[starts + j] = init != null && j < m ? init[initOffset + j] : 0.0;
         }
+        // the panel is B = Wᵀ (k × 2L, rows 2L apart) of the plain product's register blocks
         int r = 0;
-        for (; r + NARROW_ROWS <= n; r += NARROW_ROWS) {
-            narrowBlock(a, aOffset + r * k, k, pack, starts, tile);
-            for (int t = 0; t < NARROW_ROWS; t++) {
+        for (; r + 4 <= n; r += 4) {
+            product4x2(a, aOffset + r * k, k, pack, 0, width, pack, starts, pack, tile, width);
+            for (int t = 0; t < 4; t++) {
                 System.arraycopy(pack, tile + t * width, c, cOffset + (r + t) * m, m);
             }
         }
         for (; r < n; r++) {
-            int ar = aOffset + r * k;
-            DoubleVector c0 = DoubleVector.fromArray(S, pack, starts);
-            DoubleVector c1 = DoubleVector.fromArray(S, pack, starts + L);
-            for (int i = 0, p = 0; i < k; i++, p += width) {
-                DoubleVector x = DoubleVector.broadcast(S, a[ar + i]);
-                c0 = x.fma(DoubleVector.fromArray(S, pack, p), c0);
-                c1 = x.fma(DoubleVector.fromArray(S, pack, p + L), c1);
-            }
-            c0.intoArray(pack, tile);
-            c1.intoArray(pack, tile + L);
+            product1x2(a, aOffset + r * k, k, pack, 0, width, pack, starts, pack, tile);
             System.arraycopy(pack, tile, c, cOffset + r * m, m);
         }
-    }
-
-    /** Rows per block of {@link #narrowByTransposed}. */
-    private static final int NARROW_ROWS = 4;
-
-    /**
-     * 4 rows of A (k apart from a0) × the 2L-column panel at the start of {@code pack}, from the starting values at
-     * {@code starts}, into a 4 × 2L tile at {@code tile}.
-     */
-    private static void narrowBlock(double[] a, int a0, int k, double[] pack, int starts, int tile) {
-        DoubleVector s0 = DoubleVector.fromArray(S, pack, starts);
-        DoubleVector s1 = DoubleVector.fromArray(S, pack, starts + L);
-        DoubleVector c00 = s0;
-        DoubleVector c01 = s1;
-        DoubleVector c10 = s0;
-        DoubleVector c11 = s1;
-        DoubleVector c20 = s0;
-        DoubleVector c21 = s1;
-        DoubleVector c30 = s0;
-        DoubleVector c31 = s1;
-        int a1 = a0 + k;
-        int a2 = a1 + k;
-        int a3 = a2 + k;
-        for (int i = 0; i < k; i++) {
-            int p = 2 * L * i;
-            DoubleVector v0 = DoubleVector.fromArray(S, pack, p);
-            DoubleVector v1 = DoubleVector.fromArray(S, pack, p + L);
-            DoubleVector x0 = DoubleVector.broadcast(S, a[a0 + i]);
-            c00 = x0.fma(v0, c00);
-            c01 = x0.fma(v1, c01);
-            DoubleVector x1 = DoubleVector.broadcast(S, a[a1 + i]);
-            c10 = x1.fma(v0, c10);
-            c11 = x1.fma(v1, c11);
-            DoubleVector x2 = DoubleVector.broadcast(S, a[a2 + i]);
-            c20 = x2.fma(v0, c20);
-            c21 = x2.fma(v1, c21);
-            DoubleVector x3 = DoubleVector.broadcast(S, a[a3 + i]);
-            c30 = x3.fma(v0, c30);
-            c31 = x3.fma(v1, c31);
-        }
-        int width = 2 * L;
-        c00.intoArray(pack, tile);
-        c01.intoArray(pack, tile + L);
-        c10.intoArray(pack, tile + width);
-        c11.intoArray(pack, tile + width + L);
-        c20.intoArray(pack, tile + 2 * width);
-        c21.intoArray(pack, tile + 2 * width + L);
-        c30.intoArray(pack, tile + 3 * width);
-        c31.intoArray(pack, tile + 3 * width + L);
     }
 
     /** Rows per register block of the packed products. */
