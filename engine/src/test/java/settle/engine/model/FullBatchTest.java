@@ -4,9 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
-import java.lang.management.ManagementFactory;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.SplittableRandom;
@@ -208,10 +206,6 @@ class FullBatchTest {
 
     @Test
     void nothingIsAllocatedPerCall() {
-        java.lang.management.ThreadMXBean bean = ManagementFactory.getThreadMXBean();
-        assumeTrue(bean instanceof com.sun.management.ThreadMXBean, "no per-thread allocation counter");
-        com.sun.management.ThreadMXBean counter = (com.sun.management.ThreadMXBean) bean;
-        assumeTrue(counter.isThreadAllocatedMemorySupported() && counter.isThreadAllocatedMemoryEnabled());
         SplittableRandom rng = new SplittableRandom(47);
         for (Model model : models()) {
             Dataset data = dataset(rng, 60, 4, model.classes());
@@ -228,19 +222,11 @@ class FullBatchTest {
                 full.accuracy(theta);
                 full.probabilities(theta, p);
             };
-            // Steady state is what counts: vector code the JIT has not compiled yet boxes its vectors, so rounds
-            // of 200 × 4 calls run until one allocates nothing (up to 100 rounds, a few seconds at most).
-            long thread = Thread.currentThread().getId();
-            long allocated = Long.MAX_VALUE;
-            for (int round = 0; round < 100 && allocated >= 4096; round++) {
-                long before = counter.getThreadAllocatedBytes(thread);
-                for (int i = 0; i < 200; i++) {
-                    calls.run();
-                }
-                allocated = counter.getThreadAllocatedBytes(thread) - before;
-            }
+            // steady state is what counts: rounds of 200 × 4 calls until one allocates nothing
+            long allocated = SteadyAllocation.bytes(calls, 200);
             // One allocation per call would be ≥ 16 bytes × 800 calls = 12 800 bytes; allow the counter's own noise.
-            assertTrue(allocated < 4096, model.describe() + " still allocated " + allocated + " bytes in 800 calls");
+            assertTrue(allocated < SteadyAllocation.NOISE,
+                    model.describe() + " still allocated " + allocated + " bytes in 800 calls");
         }
     }
 }

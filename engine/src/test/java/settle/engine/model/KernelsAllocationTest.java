@@ -1,9 +1,7 @@
 package settle.engine.model;
 
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
-import java.lang.management.ManagementFactory;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.SplittableRandom;
@@ -19,10 +17,6 @@ class KernelsAllocationTest {
 
     @Test
     void noKernelAllocatesOnceCompiled() {
-        java.lang.management.ThreadMXBean bean = ManagementFactory.getThreadMXBean();
-        assumeTrue(bean instanceof com.sun.management.ThreadMXBean, "no per-thread allocation counter");
-        com.sun.management.ThreadMXBean counter = (com.sun.management.ThreadMXBean) bean;
-        assumeTrue(counter.isThreadAllocatedMemorySupported() && counter.isThreadAllocatedMemoryEnabled());
         int n = 64;
         int k = 128;
         int m = 10;
@@ -48,18 +42,11 @@ class KernelsAllocationTest {
             System.arraycopy(x, 0, z, 0, n * m);
             Kernels.exp(z, 0, n * m, scratch);
         });
-        long thread = Thread.currentThread().getId();
         for (Map.Entry<String, Runnable> kernel : kernels.entrySet()) {
-            long allocated = Long.MAX_VALUE;
-            for (int round = 0; round < 100 && allocated >= 4096; round++) {
-                long before = counter.getThreadAllocatedBytes(thread);
-                for (int i = 0; i < 2000; i++) {
-                    kernel.getValue().run();
-                }
-                allocated = counter.getThreadAllocatedBytes(thread) - before;
-            }
+            long allocated = SteadyAllocation.bytes(kernel.getValue(), 2000);
             // one object per call would be ≥ 16 bytes × 2000 calls; allow the counter's own noise
-            assertTrue(allocated < 4096, kernel.getKey() + " still allocated " + allocated + " bytes in 2000 calls");
+            assertTrue(allocated < SteadyAllocation.NOISE,
+                    kernel.getKey() + " still allocated " + allocated + " bytes in 2000 calls");
         }
     }
 
