@@ -6,22 +6,21 @@ import org.ejml.data.DMatrixRMaj;
 import org.ejml.dense.row.CommonOps_DDRM;
 
 /**
- * The predicted noise ball of SGD linearised at θ*: with e_t = θ_t − θ*, H = ∇²F(θ*) and C the
- * per-example gradient covariance at θ* (divisor N), the deviation has mean m_{t+1} = (I − α_t H) m_t
- * and covariance Σ_{t+1} = (I − α_t H) Σ_t (I − α_t H) + α_t² C_B, from m_0 = θ_0 − θ*, Σ_0 = 0, with
- * C_B = C/B (replacement) or C/B·(N − B)/(N − 1) (reshuffling, approximate) for each update's own B.
+ * The predicted noise ball of SGD linearised at θ*: with e_t = θ_t − θ*, H = ∇²F(θ*) and C the per-example gradient
+ * covariance at θ* (divisor N), the exact mean and covariance recursions of THEORY.md §3.2 (batches drawn with
+ * replacement) and §3.5 (batches cut from one permutation per epoch, the last one short; heavy-ball momentum as a
+ * 2×2 block per eigen-direction), run for one replicate's actual rates from m_0 = θ_0 − θ* (velocity 0), Σ_0 = 0.
  *
- * <p>In H's eigenbasis (H = QΛQᵀ, C̃ = Qᵀ C Q, S = Qᵀ Σ Q, m̃ = Qᵀ m) the recursion is elementwise:
- * S_ij ← (1 − α λ_i)(1 − α λ_j) S_ij + α² f_B C̃_ij and m̃_i ← (1 − α λ_i) m̃_i. Predicted
- * E‖θ_t − θ*‖² = ‖m̃_t‖² + Σ S_ii and excess loss ½ Σ λ_i S_ii + ½ Σ λ_i m̃_i². Because the recursion
- * is elementwise, the diagonal S_ii evolves on its own, so {@link #predict} (which needs only traces)
- * costs O(P) per update; {@link #covarianceAfter} runs the full O(P²) recursion for the whole Σ.
- * Neither allocates per update. The eigen-decomposition and C̃ (O(P³)) are computed once here and
- * shared by every replicate; an instance is immutable and may be used from several threads.
+ * <p>Every operator of the recursion is diagonal (2×2-block-diagonal with momentum) in H's eigenbasis, so the
+ * diagonal of the covariance, which is all E‖θ_t − θ*‖² = ‖m_t‖² + tr Σ_t and the excess loss
+ * ½ Σ λ_i (m̃_i² + S_ii) need, evolves direction by direction ({@link Recursion}): {@link #predict} costs O(P) per
+ * update and allocates nothing per update. {@link #covarianceAfter} runs the full O(P²) recursion for the whole Σ
+ * (replacement sampling without momentum). The eigen-decomposition and C̃ = Qᵀ C Q (O(P³)) are computed once here
+ * and shared by every replicate; an instance is immutable and may be used from several threads.
  *
- * <p>Exact for a quadratic with state-independent noise (Liu, Ziyin &amp; Ueda, "Noise and Fluctuation
- * of Finite Learning Rate Stochastic Gradient Descent", ICML 2021), first-order for logistic
- * regression, approximate under reshuffling. Skipped when momentum ≠ 0 or P &gt; {@link #MAX_PARAMETERS}.
+ * <p>Exact for a quadratic whose examples share one Hessian (the gradient noise at θ is then the noise at θ*); first
+ * order for logistic regression, whose examples' curvatures differ. Guarded: from the first update whose rate makes
+ * the linearised mean unstable (α_t·λmax ≥ 2(1 + β)) the prediction has no numbers, only that update.
  */
 public final class NoiseBallTheory {
 
@@ -40,6 +39,7 @@ public final class NoiseBallTheory {
     private final int examples;
     private final int p;
     private final double noiseScale;     // max |C̃_ij|
+    private final double[] diagonal;     // C̃_ii
 
     private NoiseBallTheory(EigenBasis basis, double[] covariance, int examples) {
         this.basis = basis;
@@ -76,19 +76,17 @@ public final class NoiseBallTheory {
             }
         }
         this.noiseScale = scale;
+        this.diagonal = new double[p];
+        for (int i = 0; i < p; i++) {
+            diagonal[i] = noise[i * p + i];
+        }
     }
 
     /**
      * @param parameters P, the dimension of the (gauge-free) parameter space
-     * @param momentum heavy-ball β of the study
      * @return the reason the prediction must be skipped, or empty
      */
-    public static Optional<String> skipReason(int parameters, double momentum) {
-        if (momentum != 0.0) {
-            return Optional.of(String.format(Locale.ROOT, "momentum %s ≠ 0: the prediction needs the augmented"
-                    + " (position, velocity) recursion, which is not implemented (with momentum the mean is"
-                    + " stable for α < 2(1+β)/λmax)", momentum));
-        }
+    public static Optional<String> skipReason(int parameters) {
         if (parameters > MAX_PARAMETERS) {
             return Optional.of(String.format(Locale.ROOT, "the model has %d parameters; the theory is computed up"
                     + " to %d (a dense P×P eigen-decomposition and noise matrix)", parameters, MAX_PARAMETERS));
@@ -105,7 +103,7 @@ public final class NoiseBallTheory {
      * @throws IllegalArgumentException when {@link #skipReason} gives a reason or the matrices are invalid
      */
     public static NoiseBallTheory of(int parameters, double[] hessian, double[] covariance, int examples) {
-        Optional<String> skip = skipReason(parameters, 0.0);
+        Optional<String> skip = skipReason(parameters);
         if (skip.isPresent()) {
             throw new IllegalArgumentException(skip.get());
         }
@@ -136,7 +134,7 @@ public final class NoiseBallTheory {
      * @return the theory
      */
     public static NoiseBallTheory of(EigenBasis basis, double[] covariance, int examples) {
-        Optional<String> skip = skipReason(basis.dimension(), 0.0);
+        Optional<String> skip = skipReason(basis.dimension());
         if (skip.isPresent()) {
             throw new IllegalArgumentException(skip.get());
         }
@@ -153,34 +151,59 @@ public final class NoiseBallTheory {
         return p;
     }
 
-    /** @return 2/λ_max, the stability bound of the mean (+∞ when H is zero) */
+    /** @return 2/λ_max, the stability bound of the mean without momentum (+∞ when H is zero) */
     public double stabilityBound() {
+        return stabilityBound(0.0);
+    }
+
+    /**
+     * @param momentum heavy-ball β in [0, 1)
+     * @return 2(1 + β)/λ_max, the largest constant rate at which the linearised mean is stable (+∞ when H is zero):
+     *     the eigenvalues of the 2×2 block [[1 − αλ, −αβ], [λ, β]] lie inside the unit circle iff 0 &lt; αλ &lt; 2(1 + β)
+     */
+    public double stabilityBound(double momentum) {
         double top = lambda[p - 1];
-        return top > 0 ? 2.0 / top : Double.POSITIVE_INFINITY;
+        return top > 0 ? 2.0 * (1.0 + momentum) / top : Double.POSITIVE_INFINITY;
     }
 
     /**
      * @return C̃_ii, the per-example noise variance along eigenvector i (ascending λ), as a copy
      */
     public double[] noiseAlongEigenvectors() {
-        double[] d = new double[p];
-        for (int i = 0; i < p; i++) {
-            d[i] = noise[i * p + i];
-        }
-        return d;
+        return diagonal.clone();
     }
 
     /**
-     * Runs the mean and variance recursion over one replicate's updates.
+     * Runs the mean and covariance recursion over one replicate's updates.
      *
-     * @param updates the actual rates and batch sizes, with epoch ends
+     * <p>From the first update t whose α_t·λmax reaches 2(1 + β) the linearised mean is unstable: the prediction
+     * records t and that product, and has no number from t on (per-epoch values of the epochs ending at or after t
+     * are NaN, as are the tail and final values). A value that is not finite for any other reason is treated the
+     * same way.
+     *
+     * @param updates the actual rates and batch sizes, with epoch ends, sampler and momentum
      * @param initialOffset m_0 = θ_0 − θ* (zeros for {@code init: reference}). Not modified.
      * @param tailUpdates L, 1 ≤ L ≤ T: the tail averages run over updates T − L + 1 … T
      * @param objective the objective near θ* (decides the label)
-     * @return the predicted curves, tail averages, fixed point and stability figures
+     * @return the predicted curves, tail averages, bias and ball, fixed point and stability figures
      */
     public NoiseBallPrediction predict(UpdateSequence updates, double[] initialOffset, int tailUpdates,
             ObjectiveKind objective) {
+        return run(updates, initialOffset, tailUpdates, objective, null);
+    }
+
+    /**
+     * @return the predicted E‖θ_t − θ*‖² after every update t = 1 … T (NaN from an unstable update on), for checks
+     *     of the recursion at every update
+     */
+    double[] distanceAfterEveryUpdate(UpdateSequence updates, double[] initialOffset) {
+        double[] out = new double[updates.length()];
+        run(updates, initialOffset, 1, ObjectiveKind.QUADRATIC, out);
+        return out;
+    }
+
+    private NoiseBallPrediction run(UpdateSequence updates, double[] initialOffset, int tailUpdates,
+            ObjectiveKind objective, double[] perUpdate) {
         int steps = updates.length();
         if (initialOffset.length != p) {
             throw new IllegalArgumentException("θ_0 − θ* has " + initialOffset.length + " entries; H is " + p + "×" + p);
@@ -188,43 +211,56 @@ public final class NoiseBallTheory {
         if (tailUpdates < 1 || tailUpdates > steps) {
             throw new IllegalArgumentException("the tail must hold between 1 and " + steps + " updates: " + tailUpdates);
         }
+        double beta = updates.momentum();
         BatchSampling sampling = updates.sampling();
-        double[] mean = rotateIn(initialOffset);
-        double[] variance = new double[p];
+        Recursion recursion = new Recursion(lambda, diagonal, examples, beta, sampling);
+        recursion.start(rotateIn(initialOffset));
+        double top = Math.max(0.0, lambda[p - 1]);
+        double limit = 2.0 * (1.0 + beta);
         double[] epochDistance = new double[updates.epochs()];
         double[] epochLoss = new double[updates.epochs()];
-        int nextEpoch = 0;
+        java.util.Arrays.fill(epochDistance, Double.NaN);
+        java.util.Arrays.fill(epochLoss, Double.NaN);
         int tailFrom = steps - tailUpdates;
-        double tailDistance = 0;
-        double tailLoss = 0;
-        double distance = sumSquares(mean);
-        double loss = 0.5 * weightedSquares(mean);
-        double top = Math.max(0.0, lambda[p - 1]);
+        int tailEpochEnds = 0;
+        for (int e = 0; e < updates.epochs(); e++) {
+            tailEpochEnds += updates.epochEnd(e) > tailFrom ? 1 : 0;
+        }
+        Tail tail = new Tail();
+        long unstableFrom = 0;
+        double unstableProduct = Double.NaN;
         double worst = 0;
+        int nextEpoch = 0;
         for (int t = 0; t < steps; t++) {
             double a = updates.rate(t);
-            double f = a * a * sampling.noiseFactor(checkBatch(updates.batch(t), t), examples);
-            worst = Math.max(worst, a * top);
-            distance = 0;
-            loss = 0;
-            for (int i = 0; i < p; i++) {
-                double g = 1.0 - a * lambda[i];
-                double mi = g * mean[i];
-                double si = g * g * variance[i] + f * noise[i * p + i];
-                mean[i] = mi;
-                variance[i] = si;
-                double both = mi * mi + si;
-                distance += both;
-                loss += lambda[i] * both;
+            double product = a * top;
+            worst = Math.max(worst, product);
+            if (unstableFrom == 0) {
+                if (product >= limit) {
+                    unstableFrom = t + 1;
+                    unstableProduct = product;
+                } else {
+                    recursion.step(a, checkBatch(updates.batch(t), t));
+                    if (!Double.isFinite(recursion.distance()) || !Double.isFinite(recursion.loss())) {
+                        unstableFrom = t + 1;
+                        unstableProduct = product;
+                    } else if (t >= tailFrom) {
+                        tail.update(recursion);
+                    }
+                }
             }
-            loss *= 0.5;
-            if (t >= tailFrom) {
-                tailDistance += distance;
-                tailLoss += loss;
+            if (perUpdate != null) {
+                perUpdate[t] = unstableFrom == 0 ? recursion.distance() : Double.NaN;
             }
             if (nextEpoch < epochDistance.length && updates.epochEnd(nextEpoch) == t + 1) {
-                epochDistance[nextEpoch] = distance;
-                epochLoss[nextEpoch] = loss;
+                if (unstableFrom == 0) {
+                    epochDistance[nextEpoch] = recursion.distance();
+                    epochLoss[nextEpoch] = recursion.loss();
+                    if (t >= tailFrom) {
+                        tail.epochEnd(recursion);
+                    }
+                    recursion.endEpoch();
+                }
                 nextEpoch++;
             }
         }
@@ -232,26 +268,57 @@ public final class NoiseBallTheory {
         for (int t = 0; t < steps; t++) {
             nominal = Math.max(nominal, updates.batch(t));
         }
-        FixedPoint fixed = steps == 0 ? null : fixedPoint(updates.rate(steps - 1), nominal, sampling);
-        return new NoiseBallPrediction(true, "", PredictionKind.of(objective, sampling),
-                PredictionKind.label(objective, sampling), epochDistance, epochLoss, tailUpdates,
-                tailDistance / tailUpdates, tailLoss / tailUpdates, distance, loss, fixed, stabilityBound(), worst);
+        FixedPoint fixed = fixedPoint(updates.rate(steps - 1), nominal, sampling, beta);
+        PredictionKind kind = PredictionKind.of(objective);
+        String label = PredictionKind.label(objective, sampling, beta);
+        double bound = stabilityBound(beta);
+        if (unstableFrom != 0) {
+            return NoiseBallPrediction.unstable(kind, label, sampling, beta, epochDistance, epochLoss, tailUpdates,
+                    tailEpochEnds, fixed, bound, worst, unstableFrom, unstableProduct);
+        }
+        return new NoiseBallPrediction(true, "", kind, label, sampling, beta, bound, worst, 0, Double.NaN,
+                epochDistance, epochLoss, tailUpdates, tail.distance / tailUpdates, tailEpochEnds,
+                tailEpochEnds == 0 ? Double.NaN : tail.epochEndDistance / tailEpochEnds, tail.loss / tailUpdates,
+                tail.bias / tailUpdates, tail.ball / tailUpdates, recursion.distance(), recursion.loss(),
+                recursion.bias(), recursion.ball(), fixed);
+    }
+
+    /** Sums over the tail's updates and over its epoch ends. */
+    private static final class Tail {
+        double distance;
+        double loss;
+        double bias;
+        double ball;
+        double epochEndDistance;
+
+        void update(Recursion r) {
+            distance += r.distance();
+            loss += r.loss();
+            bias += r.bias();
+            ball += r.ball();
+        }
+
+        void epochEnd(Recursion r) {
+            epochEndDistance += r.distance();
+        }
     }
 
     /**
      * The full covariance after the run, by the O(P²)-per-update elementwise recursion in the eigenbasis,
-     * rotated back: Σ_T = Q S_T Qᵀ.
+     * S_ij ← (1 − α λ_i)(1 − α λ_j) S_ij + α² C̃_ij / B, rotated back: Σ_T = Q S_T Qᵀ. Batches drawn with
+     * replacement and no momentum: the full matrix is not needed by the prediction, which runs the diagonal only.
      *
      * @param updates the rates and batch sizes
      * @return Σ_T, row-major P×P, in the original coordinates
+     * @throws IllegalArgumentException for reshuffled batches or momentum
      */
     public double[] covarianceAfter(UpdateSequence updates) {
+        requireReplacementWithoutMomentum(updates.sampling(), updates.momentum());
         double[] s = new double[p * p];
         double[] g = new double[p];
-        BatchSampling sampling = updates.sampling();
         for (int t = 0; t < updates.length(); t++) {
             double a = updates.rate(t);
-            double f = a * a * sampling.noiseFactor(checkBatch(updates.batch(t), t), examples);
+            double f = a * a / checkBatch(updates.batch(t), t);
             for (int i = 0; i < p; i++) {
                 g[i] = 1.0 - a * lambda[i];
             }
@@ -268,84 +335,118 @@ public final class NoiseBallTheory {
     }
 
     /**
+     * The stationary noise ball of a constant rate: the covariance that one period of the recursion maps onto
+     * itself (a period is one update with replacement, one epoch of ⌈N/B⌉ batches, the last one short, under
+     * reshuffling, where the ball pulses within the epoch), the mean having decayed to 0 along every curved
+     * direction. Direction by direction the period maps the carried covariance as T ← Φ T Φᵀ + K, Φ the product of
+     * the period's M and K what the period adds from T = 0; the fixed point solves that discrete Lyapunov equation
+     * (a scalar without momentum, three unknowns with it). Its E‖θ − θ*‖² is averaged over the period's updates,
+     * and also given at the period's end (an epoch end).
+     *
      * @param rate a constant α ≥ 0
      * @param batch B
      * @param sampling how batches are drawn
+     * @param momentum heavy-ball β in [0, 1)
      * @return the stationary E‖θ − θ*‖² and excess loss for that rate, or why none exists
      */
-    public FixedPoint fixedPoint(double rate, int batch, BatchSampling sampling) {
+    public FixedPoint fixedPoint(double rate, int batch, BatchSampling sampling, double momentum) {
         if (!(rate >= 0) || !Double.isFinite(rate)) {
             throw new IllegalArgumentException("the rate must be a finite number ≥ 0: " + rate);
         }
-        double f = sampling.noiseFactor(checkBatch(batch, -1), examples);
-        double distance = 0;
-        double loss = 0;
-        StringBuilder note = new StringBuilder();
+        checkMomentum(momentum);
+        checkBatch(batch, -1);
+        int[] period = sampling == BatchSampling.SHUFFLE
+                ? UpdateSequence.epochBatches(examples, batch) : new int[] {batch};
+        double product = rate * lambda[p - 1];
+        double limit = 2.0 * (1.0 + momentum);
+        boolean unstable = rate > 0 && product >= limit;
         boolean flatNoise = false;
-        boolean unstable = false;
-        if (rate > 0) {
-            for (int i = 0; i < p; i++) {
-                double c = f * noise[i * p + i];
-                double l = lambda[i];
-                if (l == 0.0) {
-                    if (c > FLAT_TOLERANCE * f * noiseScale) {
-                        flatNoise = true;
-                    }
-                    continue; // a flat direction without noise never moves: skipped
-                }
-                double den = l + l - rate * l * l;
-                if (!(den > 0)) {
-                    unstable = true;
-                    continue;
-                }
-                double s = rate * c / den;
-                distance += s;
-                loss += 0.5 * l * s;
-            }
-        }
-        if (unstable) {
-            note.append(String.format(Locale.ROOT, "α·λmax = %.4g ≥ 2: the spread grows without bound",
-                    rate * lambda[p - 1]));
-        }
-        if (flatNoise) {
-            note.append(note.length() > 0 ? "; " : "")
-                    .append("a flat direction of H receives noise: the spread along it grows without bound");
+        for (int i = 0; i < p && rate > 0; i++) {
+            flatNoise |= lambda[i] == 0.0 && diagonal[i] > FLAT_TOLERANCE * noiseScale;
         }
         if (unstable || flatNoise) {
-            return new FixedPoint(rate, batch, false, Double.POSITIVE_INFINITY,
-                    unstable ? Double.POSITIVE_INFINITY : loss, note.toString());
+            StringBuilder note = new StringBuilder();
+            if (unstable) {
+                note.append(String.format(Locale.ROOT, "α·λmax = %.4g ≥ %s: the spread grows without bound", product,
+                        momentum == 0.0 ? "2" : String.format(Locale.ROOT, "2(1 + β) = %.4g", limit)));
+            }
+            if (flatNoise) {
+                note.append(note.length() > 0 ? "; " : "")
+                        .append("a flat direction of H receives noise: the spread along it grows without bound");
+            }
+            return new FixedPoint(rate, batch, false, Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY,
+                    unstable ? Double.POSITIVE_INFINITY : Double.NaN, note.toString());
         }
-        return new FixedPoint(rate, batch, true, distance, loss, "");
+        if (rate == 0) {
+            return new FixedPoint(rate, batch, true, 0.0, 0.0, 0.0, "");
+        }
+        Recursion recursion = new Recursion(lambda, diagonal, examples, momentum, sampling);
+        recursion.start(new double[p]);
+        for (int b : period) {
+            recursion.step(rate, b);
+        }
+        recursion.endEpoch();
+        for (int i = 0; i < p; i++) {
+            double[] k = recursion.carried(i);
+            if (lambda[i] == 0.0) {
+                recursion.carry(i, 0, 0, 0); // a flat direction without noise never moves
+                continue;
+            }
+            double[] phi = recursion.power(rate, period.length, i);
+            double[] t = recursion.momentum() ? Lyapunov.solve2(phi, k) : new double[] {k[0] / (1 - phi[0] * phi[0]), 0, 0};
+            recursion.carry(i, t[0], t[1], t[2]);
+        }
+        recursion.refresh();
+        double atEnd = recursion.distance();
+        double distance = 0;
+        double loss = 0;
+        for (int b : period) {
+            recursion.step(rate, b);
+            distance += recursion.distance();
+            loss += recursion.loss();
+        }
+        return new FixedPoint(rate, batch, true, distance / period.length, atEnd, loss / period.length, "");
     }
 
     /**
-     * The stationary covariance S_ij = α C̃_ij / (λ_i + λ_j − α λ_i λ_j), rotated back to Σ = Q S Qᵀ.
-     * Pairs of flat directions without noise contribute zero.
+     * The stationary covariance of replacement sampling without momentum, S_ij = α C̃_ij / (B(λ_i + λ_j − α λ_i λ_j))
+     * in H's eigenbasis, rotated back to Σ = Q S Qᵀ. Pairs of flat directions without noise contribute zero.
      *
      * @param rate α &gt; 0
      * @param batch B
-     * @param sampling how batches are drawn
      * @return Σ, row-major P×P
      * @throws IllegalArgumentException when {@link #fixedPoint} says none exists
      */
-    public double[] fixedPointCovariance(double rate, int batch, BatchSampling sampling) {
-        FixedPoint fp = fixedPoint(rate, batch, sampling);
+    public double[] fixedPointCovariance(double rate, int batch) {
+        FixedPoint fp = fixedPoint(rate, batch, BatchSampling.REPLACEMENT, 0.0);
         if (!fp.exists() || !(rate > 0)) {
             throw new IllegalArgumentException("no stationary covariance at α = " + rate + ": "
                     + (fp.note().isEmpty() ? "the rate must be positive" : fp.note()));
         }
-        double f = sampling.noiseFactor(batch, examples);
         double[] s = new double[p * p];
         for (int i = 0; i < p; i++) {
             for (int j = i; j < p; j++) {
                 double den = lambda[i] + lambda[j] - rate * lambda[i] * lambda[j];
-                double c = f * noise[i * p + j];
+                double c = noise[i * p + j] / batch;
                 // one flat direction: its noise is zero (checked above), so the entry is 0 too
                 s[i * p + j] = den > 0 ? rate * c / den : 0.0;
             }
         }
         mirrorUpper(s);
         return rotateOut(s);
+    }
+
+    private static void requireReplacementWithoutMomentum(BatchSampling sampling, double momentum) {
+        if (sampling != BatchSampling.REPLACEMENT || momentum != 0.0) {
+            throw new IllegalArgumentException("the full covariance is computed for batches drawn with replacement and"
+                    + " no momentum; the prediction itself covers every sampler and momentum");
+        }
+    }
+
+    private static void checkMomentum(double momentum) {
+        if (!(momentum >= 0.0 && momentum < 1.0)) {
+            throw new IllegalArgumentException("momentum β must be in [0, 1): " + momentum);
+        }
     }
 
     private int checkBatch(int batch, int update) {
@@ -388,21 +489,5 @@ public final class NoiseBallTheory {
                 s[i * p + j] = s[j * p + i];
             }
         }
-    }
-
-    private static double sumSquares(double[] v) {
-        double s = 0;
-        for (double x : v) {
-            s += x * x;
-        }
-        return s;
-    }
-
-    private double weightedSquares(double[] v) {
-        double s = 0;
-        for (int i = 0; i < p; i++) {
-            s += lambda[i] * v[i] * v[i];
-        }
-        return s;
     }
 }

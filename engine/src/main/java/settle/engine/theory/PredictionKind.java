@@ -1,43 +1,47 @@
 package settle.engine.theory;
 
+import java.util.Locale;
+
 /** How far to trust a predicted noise ball. */
 public enum PredictionKind {
-    /** Exact: a quadratic objective with state-independent noise, batches drawn with replacement. */
+    /** Exact: a quadratic objective whose examples share one Hessian (the recursion has no approximation). */
     EXACT,
-    /** First-order: logistic regression linearised at θ*, batches drawn with replacement. */
-    FIRST_ORDER,
-    /** Approximate: reshuffled batches modelled as independent (and first-order for logistic models). */
-    APPROXIMATE;
+    /** First order: logistic regression linearised at θ*, whose examples' curvatures differ. */
+    FIRST_ORDER;
 
     /**
      * @param objective the objective near θ*
-     * @param sampling how batches were drawn
-     * @return the kind of prediction the recursion gives
+     * @return the kind of prediction the recursion gives, whatever the sampler and momentum
      */
-    public static PredictionKind of(ObjectiveKind objective, BatchSampling sampling) {
-        if (sampling == BatchSampling.SHUFFLE) {
-            return APPROXIMATE;
-        }
+    public static PredictionKind of(ObjectiveKind objective) {
         return objective == ObjectiveKind.QUADRATIC ? EXACT : FIRST_ORDER;
     }
 
     /**
      * @param objective the objective near θ*
      * @param sampling how batches were drawn
+     * @param momentum heavy-ball β
      * @return a plain sentence saying what the prediction is, for the report
      */
-    public static String label(ObjectiveKind objective, BatchSampling sampling) {
-        String base;
+    public static String label(ObjectiveKind objective, BatchSampling sampling, double momentum) {
+        StringBuilder b = new StringBuilder();
         if (objective == ObjectiveKind.QUADRATIC) {
-            base = "exact for a quadratic objective with state-independent gradient noise";
+            b.append("exact for a quadratic objective whose examples share one Hessian");
         } else {
-            base = "first-order: logistic regression linearised at θ* (H and C taken at θ*)";
+            b.append("first order: logistic regression linearised at θ* (H and C taken at θ*; exact only for a"
+                    + " quadratic whose examples share one Hessian)");
         }
         if (sampling == BatchSampling.SHUFFLE) {
-            return "approximate: reshuffled batches modelled as independent draws with noise C/B·(N−B)/(N−1),"
-                    + " which ignores the correlation between the batches of an epoch (reshuffling usually wanders"
-                    + " less); otherwise " + base;
+            b.append("; batches cut from a fresh permutation each epoch, the last one short, by the exact"
+                    + " without-replacement recursion (the batches of an epoch are negatively correlated, so the"
+                    + " iterates pulse within each epoch)");
+        } else {
+            b.append("; batches drawn with replacement (noise C/B)");
         }
-        return base + "; batches drawn with replacement (noise C/B)";
+        if (momentum != 0.0) {
+            b.append(String.format(Locale.ROOT, "; heavy-ball momentum β = %s, by the position–velocity recursion",
+                    momentum));
+        }
+        return b.toString();
     }
 }

@@ -8,13 +8,17 @@ package settle.engine.theory;
  * @param batches B_t for every update, ≥ 1. Copied.
  * @param epochEnds the number of updates done at the end of epoch 1, 2, …: strictly increasing, the
  *     last ≤ T (a run cut short has no entry for its unfinished epoch). Copied.
- * @param sampling how batches were drawn
+ * @param sampling how batches were drawn; under {@code shuffle} the batches of one epoch draw at most N examples
+ * @param momentum heavy-ball β in [0, 1) (0: plain SGD)
  */
-public record UpdateSequence(double[] rates, int[] batches, int[] epochEnds, BatchSampling sampling) {
+public record UpdateSequence(double[] rates, int[] batches, int[] epochEnds, BatchSampling sampling, double momentum) {
 
     public UpdateSequence {
         if (sampling == null) {
             throw new IllegalArgumentException("the sampling mode must be given");
+        }
+        if (!(momentum >= 0.0 && momentum < 1.0)) {
+            throw new IllegalArgumentException("momentum β must be in [0, 1): " + momentum);
         }
         if (rates.length != batches.length) {
             throw new IllegalArgumentException(rates.length + " rates but " + batches.length + " batch sizes");
@@ -42,6 +46,16 @@ public record UpdateSequence(double[] rates, int[] batches, int[] epochEnds, Bat
         }
     }
 
+    /** A sequence without momentum. */
+    public UpdateSequence(double[] rates, int[] batches, int[] epochEnds, BatchSampling sampling) {
+        this(rates, batches, epochEnds, sampling, 0.0);
+    }
+
+    /** As {@link #of(double[], int, int, BatchSampling, double)} without momentum. */
+    public static UpdateSequence of(double[] rates, int examples, int batch, BatchSampling sampling) {
+        return of(rates, examples, batch, sampling, 0.0);
+    }
+
     /**
      * The sequence of a run as DESIGN.md's training semantics define it: ⌈N/B⌉ updates per epoch; with
      * replacement every batch has B examples, with reshuffling the last batch of an epoch has
@@ -51,24 +65,37 @@ public record UpdateSequence(double[] rates, int[] batches, int[] epochEnds, Bat
      * @param examples N
      * @param batch B, 1 ≤ B ≤ N
      * @param sampling how batches were drawn
+     * @param momentum heavy-ball β in [0, 1)
      * @return the sequence
      */
-    public static UpdateSequence of(double[] rates, int examples, int batch, BatchSampling sampling) {
-        if (examples < 1 || batch < 1 || batch > examples) {
-            throw new IllegalArgumentException("batch size must be in [1, " + examples + "]: " + batch);
-        }
-        int perEpoch = (examples + batch - 1) / batch;
-        int last = examples - (perEpoch - 1) * batch;
+    public static UpdateSequence of(double[] rates, int examples, int batch, BatchSampling sampling, double momentum) {
+        int[] epoch = epochBatches(examples, batch);
+        int perEpoch = epoch.length;
         int[] batches = new int[rates.length];
         for (int t = 0; t < rates.length; t++) {
-            boolean lastOfEpoch = (t + 1) % perEpoch == 0;
-            batches[t] = sampling == BatchSampling.SHUFFLE && lastOfEpoch ? last : batch;
+            batches[t] = sampling == BatchSampling.SHUFFLE ? epoch[t % perEpoch] : batch;
         }
         int[] ends = new int[rates.length / perEpoch];
         for (int e = 0; e < ends.length; e++) {
             ends[e] = (e + 1) * perEpoch;
         }
-        return new UpdateSequence(rates, batches, ends, sampling);
+        return new UpdateSequence(rates, batches, ends, sampling, momentum);
+    }
+
+    /**
+     * @param examples N
+     * @param batch B, 1 ≤ B ≤ N
+     * @return the batch sizes of one reshuffled epoch: ⌈N/B⌉ batches of B, the last N − (⌈N/B⌉ − 1)·B
+     */
+    public static int[] epochBatches(int examples, int batch) {
+        if (examples < 1 || batch < 1 || batch > examples) {
+            throw new IllegalArgumentException("batch size must be in [1, " + examples + "]: " + batch);
+        }
+        int perEpoch = (examples + batch - 1) / batch;
+        int[] sizes = new int[perEpoch];
+        java.util.Arrays.fill(sizes, batch);
+        sizes[perEpoch - 1] = examples - (perEpoch - 1) * batch;
+        return sizes;
     }
 
     /** @return T, the number of updates */

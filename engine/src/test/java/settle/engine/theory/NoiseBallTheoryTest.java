@@ -32,7 +32,7 @@ class NoiseBallTheoryTest {
         // a = 0.1, h = 2, c = 1, B = 4, replacement: a c / (B h (2 − a h)) = 0.0069444 (THEORY.md §7.2);
         // numpy 1.24.2 (make_check_values.py): 0.0069444444444444484.
         NoiseBallTheory theory = NoiseBallTheory.of(1, new double[] {2.0}, new double[] {1.0}, 400);
-        FixedPoint fp = theory.fixedPoint(0.1, 4, BatchSampling.REPLACEMENT);
+        FixedPoint fp = theory.fixedPoint(0.1, 4, BatchSampling.REPLACEMENT, 0.0);
         assertTrue(fp.exists());
         assertRelative(0.0069444444444444484, fp.distanceSq(), "fixed point");
         assertRelative(0.5 * 2.0 * 0.0069444444444444484, fp.excessLoss(), "½ h S");
@@ -72,11 +72,11 @@ class NoiseBallTheoryTest {
         double[] expected = {0.0016742583509130151, -0.00010155233245028907, -0.00010155233245028904,
             0.0016627707411354803};
         NoiseBallTheory theory = NoiseBallTheory.of(2, h, c, 800);
-        double[] sigma = theory.fixedPointCovariance(0.05, 8, BatchSampling.REPLACEMENT);
+        double[] sigma = theory.fixedPointCovariance(0.05, 8);
         for (int k = 0; k < 4; k++) {
             assertEquals(expected[k], sigma[k], RELATIVE * 0.0017, "Σ entry " + k);
         }
-        FixedPoint fp = theory.fixedPoint(0.05, 8, BatchSampling.REPLACEMENT);
+        FixedPoint fp = theory.fixedPoint(0.05, 8, BatchSampling.REPLACEMENT, 0.0);
         assertRelative(expected[0] + expected[3], fp.distanceSq(), "trace");
         assertRelative(0.0024548675552556109, fp.excessLoss(), "½ tr(HΣ), scipy");
         // The full O(P²) recursion reaches the same Σ: λmin ≈ 0.79, (1 − 0.05·0.79)² ≈ 0.92 per update.
@@ -122,7 +122,7 @@ class NoiseBallTheoryTest {
         assertRelative((4.9 + 2.951) / 2, p.tailDistanceSq(), "two-update tail mean");
         // Fixed point, hand-computed: S_ii = α C̃_ii / (λ_i (2 − αλ_i)) = 0.1/1.9, 0.4/3.6, 0.4/6.4
         // = 1/19, 1/9, 1/16 → Σ = 619/2736; ½ Σ λ_i S_ii = ½(1/19 + 2/9 + 1/4) = 359/1368.
-        FixedPoint fp = theory.fixedPoint(0.1, 1, BatchSampling.REPLACEMENT);
+        FixedPoint fp = theory.fixedPoint(0.1, 1, BatchSampling.REPLACEMENT, 0.0);
         assertRelative(619.0 / 2736.0, fp.distanceSq(), "fixed-point distance²");
         assertRelative(359.0 / 1368.0, fp.excessLoss(), "fixed-point excess loss");
         assertEquals(0.5, theory.stabilityBound(), 1e-12, "2/λmax = 2/4");
@@ -136,29 +136,54 @@ class NoiseBallTheoryTest {
 
     @Test
     void shortLastBatchOfAReshuffledEpochUsesItsOwnSize() {
-        // N = 10, B = 4, shuffle: batches 4, 4, 2 with noise factors (N−B)/((N−1)B) = 6/36 = 1/6 and
-        // 8/18 = 4/9. h = 1, c = 1, α = 0.1 (g = 0.9), m_0 = 0; hand-computed after the epoch:
-        // S = 0.01·(0.9⁴/6 + 0.9²/6 + 4/9) = 0.01·(1.4661/6 + 4/9).
+        // N = 10, B = 4, shuffle: batches 4, 4, 2. h = 1, c = 1, α = 0.1 (g = 0.9), m_0 = 0. Hand-computed from
+        // THEORY.md §3.5: D = 0.01·(0.9⁴/4 + 0.9²/4 + 1/2)·N/(N − 1), G = 0.1·(0.9² + 0.9 + 1) = 0.271, and after the
+        // epoch E e² = D − c G²/(N − 1) = (0.01·(0.6561/4 + 0.81/4 + 0.5)·10 − 0.271²)/9.
         NoiseBallTheory theory = NoiseBallTheory.of(1, new double[] {1.0}, new double[] {1.0}, 10);
         UpdateSequence epoch = UpdateSequence.of(constant(0.1, 3), 10, 4, BatchSampling.SHUFFLE);
         assertEquals(2, epoch.batches()[2]);
         NoiseBallPrediction p = theory.predict(epoch, new double[] {0.0}, 3, ObjectiveKind.LOGISTIC);
-        assertRelative(0.01 * (1.4661 / 6 + 4.0 / 9), p.epochDistanceSq()[0], "after one reshuffled epoch");
-        assertEquals(PredictionKind.APPROXIMATE, p.kind());
-        assertTrue(p.label().startsWith("approximate"), p.label());
-        assertTrue(p.label().contains("logistic"), p.label());
-        // Finite-population factor N = 100, B = 10: (N − B)/(N − 1) = 0.909091 (THEORY.md §7.2).
-        NoiseBallTheory big = NoiseBallTheory.of(1, new double[] {1.0}, new double[] {1.0}, 100);
-        double ratio = big.fixedPoint(0.1, 10, BatchSampling.SHUFFLE).distanceSq()
-                / big.fixedPoint(0.1, 10, BatchSampling.REPLACEMENT).distanceSq();
-        assertEquals(0.90909090909090906, ratio, 1e-15);
+        double expected = (0.01 * (0.6561 / 4 + 0.81 / 4 + 0.5) * 10 - 0.271 * 0.271) / 9;
+        assertRelative(expected, p.epochDistanceSq()[0], "after one reshuffled epoch");
+        assertEquals(PredictionKind.FIRST_ORDER, p.kind());
+        assertTrue(p.label().startsWith("first order"), p.label());
+        assertTrue(p.label().contains("permutation"), p.label());
+        // One batch alone has the finite-population variance α² c (N − B)/(B(N − 1)) = 0.01·6/36 (THEORY.md §3.3).
+        NoiseBallPrediction one = theory.predict(UpdateSequence.of(constant(0.1, 1), 10, 4, BatchSampling.SHUFFLE),
+                new double[] {0.0}, 1, ObjectiveKind.QUADRATIC);
+        assertRelative(0.01 * 6 / 36, one.finalDistanceSq(), "the first batch of an epoch");
+        // A batch of the whole split has no noise: N = B, one update per epoch, E e² stays 0.
+        NoiseBallPrediction full = theory.predict(UpdateSequence.of(constant(0.1, 5), 10, 10, BatchSampling.SHUFFLE),
+                new double[] {0.0}, 5, ObjectiveKind.QUADRATIC);
+        assertEquals(0.0, full.finalDistanceSq(), 1e-18, "full-batch gradient descent does not wander");
+    }
+
+    @Test
+    void reshuffledFixedPointAgreesWithTheLongRunRecursion() {
+        // The period map's fixed point against 400 epochs of the recursion at a constant rate: (1 − αλmin)^(2·2 800)
+        // ≈ 1e-24, so the run has forgotten its start. Both the epoch-mean and the epoch-end values; with momentum too.
+        double[] c = ReshufflingRecursionTest.covariance(ReshufflingRecursionTest.gradients());
+        NoiseBallTheory theory = NoiseBallTheory.of(3, ReshufflingRecursionTest.H, c, 50);
+        for (double beta : new double[] {0.0, 0.9}) {
+            for (BatchSampling sampling : BatchSampling.values()) {
+                double rate = beta == 0 ? 0.1 : 0.01;
+                UpdateSequence run = UpdateSequence.of(constant(rate, 400 * 7), 50, 8, sampling, beta);
+                NoiseBallPrediction p = theory.predict(run, new double[3], 7, ObjectiveKind.QUADRATIC);
+                FixedPoint fp = theory.fixedPoint(rate, 8, sampling, beta);
+                String what = sampling + ", β = " + beta;
+                assertTrue(fp.exists(), what);
+                assertEquals(p.tailDistanceSq(), fp.distanceSq(), 1e-9 * fp.distanceSq(), what + ": epoch mean");
+                assertEquals(p.finalDistanceSq(), fp.distanceSqEpochEnd(), 1e-9 * fp.distanceSq(), what + ": epoch end");
+                assertEquals(p.tailExcessLoss(), fp.excessLoss(), 1e-9 * fp.excessLoss(), what + ": excess loss");
+            }
+        }
     }
 
     @Test
     void flatAndUnstableDirections() {
         // H = diag(0, 1): a flat direction without noise is skipped; its mean offset stays put.
         NoiseBallTheory quiet = NoiseBallTheory.of(2, new double[] {0, 0, 0, 1}, new double[] {0, 0, 0, 1}, 100);
-        FixedPoint fp = quiet.fixedPoint(0.1, 1, BatchSampling.REPLACEMENT);
+        FixedPoint fp = quiet.fixedPoint(0.1, 1, BatchSampling.REPLACEMENT, 0.0);
         assertTrue(fp.exists());
         assertRelative(0.1 / 1.9, fp.distanceSq(), "α c / (λ(2 − αλ)) along the curved direction");
         NoiseBallPrediction p = quiet.predict(UpdateSequence.of(constant(0.1, 500), 100, 1,
@@ -166,24 +191,24 @@ class NoiseBallTheoryTest {
         assertRelative(4.0 + 0.1 / 1.9, p.finalDistanceSq(), "flat offset 2² stays, plus the stationary spread");
         // With noise along the flat direction there is no fixed point.
         NoiseBallTheory walk = NoiseBallTheory.of(2, new double[] {0, 0, 0, 1}, new double[] {1, 0, 0, 1}, 100);
-        FixedPoint none = walk.fixedPoint(0.1, 1, BatchSampling.REPLACEMENT);
+        FixedPoint none = walk.fixedPoint(0.1, 1, BatchSampling.REPLACEMENT, 0.0);
         assertFalse(none.exists());
         assertTrue(none.note().contains("flat direction"), none.note());
-        assertThrows(IllegalArgumentException.class, () -> walk.fixedPointCovariance(0.1, 1, BatchSampling.REPLACEMENT));
+        assertThrows(IllegalArgumentException.class, () -> walk.fixedPointCovariance(0.1, 1));
         // α λ = 1.1 · 2 = 2.2 ≥ 2: unstable.
         NoiseBallTheory one = NoiseBallTheory.of(1, new double[] {2.0}, new double[] {1.0}, 10);
-        FixedPoint unstable = one.fixedPoint(1.1, 1, BatchSampling.REPLACEMENT);
+        FixedPoint unstable = one.fixedPoint(1.1, 1, BatchSampling.REPLACEMENT, 0.0);
         assertFalse(unstable.exists());
         assertTrue(unstable.note().contains("≥ 2"), unstable.note());
     }
 
     @Test
     void skippedWithAReason() {
-        assertTrue(NoiseBallTheory.skipReason(30, 0.9).orElseThrow().contains("momentum 0.9"));
-        assertTrue(NoiseBallTheory.skipReason(2_001, 0.0).orElseThrow().contains("2001 parameters"));
-        assertTrue(NoiseBallTheory.skipReason(2_000, 0.0).isEmpty());
-        NoiseBallPrediction s = NoiseBallPrediction.skipped(NoiseBallTheory.skipReason(30, 0.9).orElseThrow());
+        assertTrue(NoiseBallTheory.skipReason(2_001).orElseThrow().contains("2001 parameters"));
+        assertTrue(NoiseBallTheory.skipReason(2_000).isEmpty());
+        NoiseBallPrediction s = NoiseBallPrediction.skipped(NoiseBallTheory.skipReason(2_001).orElseThrow());
         assertFalse(s.predicted());
+        assertFalse(s.stable());
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                 () -> NoiseBallTheory.of(2_001, new double[1], new double[1], 10));
         assertTrue(e.getMessage().contains("2000"), e.getMessage());
