@@ -180,6 +180,24 @@ public final class Curvature {
 
     /** @return 2/λmax, the largest constant rate at which the linearised mean iterate is stable */
     public double stabilityBound() {
-        return 2.0 / lambdaMax();
+        return stabilityBound(0.0);
+    }
+
+    /**
+     * @param momentum heavy-ball β in [0, 1)
+     * @return 2(1 + β)/λmax: the largest constant rate at which the linearised mean iterate is stable with heavy-ball
+     *     momentum (the 2×2 block [[1 − αλ, −αβ], [λ, β]] of each eigen-direction has both eigenvalues inside the
+     *     unit circle iff 0 &lt; αλ &lt; 2(1 + β)); 2/λmax without momentum
+     */
+    public double stabilityBound(double momentum) {
+        return 2.0 * (1.0 + momentum) / lambdaMax();
+    }
+
+    /**
+     * @param momentum heavy-ball β
+     * @return the bound's formula in words, "2/λmax(H)" or "2(1 + β)/λmax(H)"
+     */
+    public static String boundFormula(double momentum) {
+        return momentum == 0.0 ? "2/λmax(H)" : "2(1 + β)/λmax(H)";
     }
 }

@@ -238,15 +238,13 @@ public final class CheckCommand implements Callable<Integer> {
         Curvature c = Curvature.at(model, train, minimum.theta());
         double lambdaMax = c.lambdaMax();
         double beta = plan.training().momentum();
-        // the mean iterate of the linearised update is stable for α < 2/λmax; heavy-ball momentum β widens it
-        // to α < 2(1 + β)/λmax (DESIGN.md, "Theory")
-        double bound = 2 * (1 + beta) / lambdaMax;
+        double bound = c.stabilityBound(beta);
         out.printf(Locale.ROOT, "reference minimiser: F(θ*) = %s, ‖∇F‖∞ = %.2e (%s, %d iterations)%n",
                 rate(minimum.objective()), minimum.gradientNorm(), minimum.method().name().toLowerCase(Locale.ROOT),
                 minimum.iterations());
         out.printf(Locale.ROOT, "curvature at θ*: λmin(H) = %s, λmax(H) = %s%n", rate(c.lambdaMin()), rate(lambdaMax));
-        out.printf(Locale.ROOT, "stability bound of the mean: α < %s%s = %s%n", beta == 0 ? "2" : "2(1 + β)",
-                "/λmax", rate(bound));
+        out.printf(Locale.ROOT, "stability bound of the mean: α < %s = %s%n", Curvature.boundFormula(beta),
+                rate(bound));
         out.printf(Locale.ROOT, "  %-4s %12s %10s%n", "arm", "max α", "max α·λmax");
         for (int i = 0; i < plan.arms().size(); i++) {
             double max = 0;
@@ -259,8 +257,8 @@ public final class CheckCommand implements Callable<Integer> {
             if (max >= bound) {
                 flag = "ABOVE the stability bound: the mean iterate oscillates or diverges along H's top direction";
                 warnings.add(parsed.error(parsed.armPath(i) + ".schedule", "arm '" + a.name() + "': its largest"
-                        + " rate " + rate(max) + " is above the stability bound " + rate(bound) + " = 2"
-                        + (beta == 0 ? "" : "(1 + β)") + "/λmax(H)").getMessage());
+                        + " rate " + rate(max) + " is above the stability bound " + rate(bound) + " = "
+                        + Curvature.boundFormula(beta)).getMessage());
             } else if (product > ROUGH_PREDICTION) {
                 flag = "α·λmax > " + ROUGH_PREDICTION + ": the noise-ball prediction is rough";
                 warnings.add(parsed.error(parsed.armPath(i) + ".schedule", "arm '" + a.name() + "': α·λmax = "
@@ -271,9 +269,6 @@ public final class CheckCommand implements Callable<Integer> {
             }
             out.println(String.format(Locale.ROOT, "  %-4s %12s %10s  %s", "#" + (i + 1), rate(max), rate(product),
                     flag).stripTrailing());
-        }
-        if (beta != 0) {
-            out.println("  (momentum " + beta + ": the noise-ball prediction is skipped for this plan)");
         }
         out.println();
         printBound(out, plan, model, train, minimum, rates);

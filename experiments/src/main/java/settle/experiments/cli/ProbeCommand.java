@@ -7,6 +7,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import settle.engine.minimum.Curvature;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
@@ -89,7 +90,8 @@ public final class ProbeCommand implements Callable<Integer> {
         out.println(stable);
         out.println("largest stable rate (median over the seeds): " + num(r.upper()));
         if (Double.isFinite(r.stabilityBound())) {
-            out.println("stability bound of the mean at θ*, 2/λmax(H): " + num(r.stabilityBound()));
+            out.println("stability bound of the mean at θ*, " + Curvature.boundFormula(r.momentum()) + ": "
+                    + num(r.stabilityBound()));
         } else {
             out.println("stability bound: not computed (" + r.boundNote() + ")");
         }

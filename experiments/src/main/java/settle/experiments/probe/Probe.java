@@ -40,9 +40,10 @@ public final class Probe {
      * @param lower {@code upper / 10}
      * @param stabilityBound 2(1 + β)/λmax(H) at θ* for convex models, NaN otherwise
      * @param boundNote why the bound is missing, or ""
+     * @param momentum the plan's heavy-ball β (the bound's formula depends on it)
      */
     public record Result(List<RangeTest.Sweep> sweeps, double[] largestStable, double upper, double lower,
-            double stabilityBound, String boundNote, double from, double to, int updates) {
+            double stabilityBound, String boundNote, double from, double to, int updates, double momentum) {
     }
 
     private Probe() {
@@ -85,8 +86,7 @@ public final class Probe {
                 if (skip.isPresent()) {
                     boundNote = skip.get();
                 } else {
-                    double lambdaMax = Curvature.at(model, data.train(), minimum.theta()).lambdaMax();
-                    bound = 2 * (1 + plan.training().momentum()) / lambdaMax;
+                    bound = Curvature.at(model, data.train(), minimum.theta()).stabilityBound(plan.training().momentum());
                 }
             } catch (NoMinimiserException e) {
                 boundNote = e.getMessage();
@@ -107,7 +107,8 @@ public final class Probe {
             stable[k - 1] = s.largestStableRate();
         }
         double upper = median(stable);
-        return new Result(sweeps, stable, upper, upper / DECADE, bound, boundNote, from, to, updates);
+        return new Result(sweeps, stable, upper, upper / DECADE, bound, boundNote, from, to, updates,
+                plan.training().momentum());
     }
 
     /** @return the median of the finite values (NaN when none); not modified */

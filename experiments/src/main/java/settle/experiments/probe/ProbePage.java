@@ -2,6 +2,7 @@ package settle.experiments.probe;
 
 import java.util.List;
 import java.util.Locale;
+import settle.engine.minimum.Curvature;
 import settle.engine.probe.RangeTest;
 
 /**
@@ -65,7 +66,8 @@ public final class ProbePage {
                 .append("</b>. Upper end: the median over the seeds of the largest stable rate; lower end: a tenth"
                         + " of it.</p>\n");
         if (Double.isFinite(r.stabilityBound())) {
-            b.append("<p>Stability bound of the mean iterate at θ*, 2/λmax(H): ").append(num(r.stabilityBound()))
+            b.append("<p>Stability bound of the mean iterate at θ*, ").append(Curvature.boundFormula(r.momentum()))
+                    .append(": ").append(num(r.stabilityBound()))
                     .append(" (dashed).</p>\n");
         } else {
             b.append("<p>No stability bound: ").append(escape(r.boundNote())).append(".</p>\n");
@@ -123,7 +125,8 @@ public final class ProbePage {
         if (Double.isFinite(r.stabilityBound()) && r.stabilityBound() > r.from() && r.stabilityBound() < r.to()) {
             double x = LEFT + (Math.log10(r.stabilityBound()) - xmin) / (xmax - xmin) * w;
             b.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"%d\" x2=\"%.1f\" y2=\"%d\" stroke=\"#333\""
-                    + " stroke-dasharray=\"5,4\"><title>2/λmax(H)</title></line>%n", x, TOP, x, TOP + h));
+                    + " stroke-dasharray=\"5,4\"><title>%s</title></line>%n", x, TOP, x, TOP + h,
+                    Curvature.boundFormula(r.momentum())));
         }
         for (int k = 0; k < r.sweeps().size(); k++) {
             RangeTest.Sweep s = r.sweeps().get(k);

@@ -205,24 +205,41 @@ public final class ReplicateFile {
         }
         g.writeStringField("kind", p.kind().name().toLowerCase(Locale.ROOT).replace('_', '-'));
         g.writeStringField("label", p.label());
+        g.writeStringField("sampling", p.sampling().name().toLowerCase(Locale.ROOT));
+        Json.number(g, "momentum", p.momentum());
+        Json.number(g, "stability_bound", p.stabilityBound());
+        Json.number(g, "largest_rate_times_curvature", p.largestRateTimesCurvature());
+        g.writeBooleanField("stable", p.stable());
+        g.writeFieldName("unstable_from_update");
+        if (p.stable()) {
+            g.writeNull();
+        } else {
+            g.writeNumber(p.unstableFromUpdate());
+        }
+        Json.number(g, "unstable_rate_times_curvature", p.unstableRateTimesCurvature());
         Json.array(g, "epoch_distance_sq", p.epochDistanceSq());
         Json.array(g, "epoch_excess_loss", p.epochExcessLoss());
         g.writeNumberField("tail_updates", p.tailUpdates());
         Json.number(g, "tail_distance_sq", p.tailDistanceSq());
+        g.writeNumberField("tail_epoch_ends", p.tailEpochEnds());
+        Json.number(g, "tail_distance_sq_epoch_ends", p.tailDistanceSqEpochEnds());
         Json.number(g, "tail_excess_loss", p.tailExcessLoss());
         Json.number(g, "final_distance_sq", p.finalDistanceSq());
         Json.number(g, "final_excess_loss", p.finalExcessLoss());
+        Json.number(g, "final_bias_sq", p.finalBiasSq());
+        Json.number(g, "final_ball", p.finalBall());
+        Json.number(g, "tail_bias_sq", p.tailBiasSq());
+        Json.number(g, "tail_ball", p.tailBall());
         FixedPoint f = p.fixedPoint();
         g.writeObjectFieldStart("fixed_point");
         Json.number(g, "rate", f.rate());
         g.writeNumberField("batch", f.batch());
         g.writeBooleanField("exists", f.exists());
         Json.number(g, "distance_sq", f.distanceSq());
+        Json.number(g, "distance_sq_epoch_end", f.distanceSqEpochEnd());
         Json.number(g, "excess_loss", f.excessLoss());
         g.writeStringField("note", f.note());
         g.writeEndObject();
-        Json.number(g, "stability_bound", p.stabilityBound());
-        Json.number(g, "largest_rate_times_curvature", p.largestRateTimesCurvature());
         g.writeEndObject();
     }
 }

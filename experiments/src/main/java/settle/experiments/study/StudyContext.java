@@ -94,7 +94,7 @@ public final class StudyContext {
             theorySkipped = "no prediction: " + model.describe() + " is not convex, so there is no reference minimiser";
         } else {
             Optional<String> skip = Curvature.skipReason(model)
-                    .or(() -> NoiseBallTheory.skipReason(model.parameterCount(), plan.training().momentum()));
+                    .or(() -> NoiseBallTheory.skipReason(model.parameterCount()));
             if (skip.isPresent()) {
                 theorySkipped = skip.get();
             } else {
@@ -173,8 +173,8 @@ public final class StudyContext {
     /**
      * The predicted noise ball of one replicate for its actual rate sequence (DESIGN.md "Theory").
      *
-     * @return the prediction, or a skipped one with the reason (not convex, momentum, too many parameters,
-     *     or a replicate that diverged)
+     * @return the prediction, or a skipped one with the reason (not convex, too many parameters, or a replicate
+     *     that diverged)
      */
     public NoiseBallPrediction predict(ReplicateResult result) {
         if (theory == null) {
@@ -186,15 +186,14 @@ public final class StudyContext {
         TrainingPlan t = plan().training();
         int n = data.train().rows();
         BatchSampling sampling = t.sampling() == Sampling.SHUFFLE ? BatchSampling.SHUFFLE : BatchSampling.REPLACEMENT;
-        UpdateSequence updates = UpdateSequence.of(result.rates(), n, Math.min(t.batch(), n), sampling);
+        UpdateSequence updates = UpdateSequence.of(result.rates(), n, Math.min(t.batch(), n), sampling, t.momentum());
         double[] offset = result.start().clone();
         model.removeGauge(offset);
         double[] star = minimum.theta();
         for (int i = 0; i < offset.length; i++) {
             offset[i] -= star[i];
         }
-        int tail = (int) Math.min(result.rates().length, (long) Math.ceil(t.tail() * result.rates().length - 1e-9));
-        return theory.predict(updates, offset, Math.max(1, tail), ObjectiveKind.LOGISTIC);
+        return theory.predict(updates, offset, (int) trainer(1).tailPlan().length(), ObjectiveKind.LOGISTIC);
     }
 
     /**

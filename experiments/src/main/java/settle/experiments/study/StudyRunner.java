@@ -396,7 +396,7 @@ public final class StudyRunner {
                 Json.array(g, "eigenvalues", c.eigenvalues());
                 Json.number(g, "lambda_min", c.lambdaMin());
                 Json.number(g, "lambda_max", c.lambdaMax());
-                Json.number(g, "stability_bound", c.stabilityBound());
+                Json.number(g, "stability_bound", c.stabilityBound(plan.training().momentum()));
             }
             bound.write(g, names);
             g.writeEndObject();
