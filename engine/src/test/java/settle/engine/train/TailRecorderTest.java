@@ -11,6 +11,7 @@ import java.util.function.Consumer;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
+import settle.engine.model.SteadyAllocation;
 
 /** The tail metric definitions of DESIGN.md "Wander metrics" on hand-made sequences of iterates. */
 class TailRecorderTest {
@@ -194,6 +195,23 @@ class TailRecorderTest {
         recorder.addIterate(2, ITERATES[1]);
         assertThrows(IllegalStateException.class, () -> recorder.addSnapshot(ITERATES[1], 1), "none due at 2");
         assertThrows(IllegalStateException.class, () -> recorder.addIterate(2, ITERATES[1]), "2 again");
+    }
+
+    /** Once compiled, adding a tail iterate allocates nothing, with and without a gauge (DEVELOPERS.md: hot loops). */
+    @Test
+    void addingAnIterateAllocatesNothing() {
+        for (Consumer<double[]> gauge : java.util.Arrays.asList(null, CENTRE)) {
+            TailPlan plan = TailPlan.of(1_000_000, 1.0, 2, 10);
+            TailRecorder recorder = new TailRecorder(plan, 2, new double[] {0, 0}, gauge, 0);
+            double[] theta = {1, 2};
+            long[] t = {0};
+            long bytes = SteadyAllocation.bytes(() -> {
+                t[0]++;
+                theta[0] = 1.0 / t[0];
+                recorder.addIterate(t[0], theta);
+            }, 1_000);
+            assertTrue(bytes < SteadyAllocation.NOISE, (gauge == null ? "no gauge: " : "gauge: ") + bytes + " bytes");
+        }
     }
 
     /** Feeds {@link #ITERATES} as updates 1…4, taking each due snapshot with the given objective. */
