@@ -292,8 +292,8 @@ public final class Trainer {
 
         /**
          * Fills in F at the snapshots taken with F pending: the last one from the last evaluation when that was at
-         * its update (the last epoch end, T, when the placement put the last snapshot there; evaluations are keyed
-         * by update number, so the value is F at the same iterate), the others in one pass over the training rows.
+         * its update (TailPlan puts the last snapshot at T, which the last epoch end evaluated; evaluations are
+         * keyed by update number, so the value is F at the same iterate), the others in one pass over the rows.
          */
         private void evaluatePendingSnapshots() {
             // called once, after training: pending holds every snapshot, in order
