@@ -55,6 +55,12 @@ public final class BinaryLogistic implements Model {
         return true;
     }
 
+    /** @return false: a single sigmoid score has no gauge ({@link #removeGauge} is the identity) */
+    @Override
+    public boolean hasGauge() {
+        return false;
+    }
+
     @Override
     public boolean penalised(int index) {
         return index < inputs;

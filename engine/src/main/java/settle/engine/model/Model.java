@@ -111,6 +111,16 @@ public interface Model {
     default void removeGauge(double[] theta) {
     }
 
+    /**
+     * Whether {@link #removeGauge} can change a vector. False promises that it is the identity, so callers may
+     * skip the copy and the projection; true (the default) is always safe.
+     *
+     * @return false only for a model whose {@link #removeGauge} is the identity
+     */
+    default boolean hasGauge() {
+        return true;
+    }
+
     /** Per-thread scratch buffers of a model; opaque to callers. */
     interface Workspace {
         /** @return the largest batch these buffers hold */

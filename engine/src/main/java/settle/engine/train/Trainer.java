@@ -24,6 +24,8 @@ import settle.engine.schedule.Schedule;
  * α_t = driver.rate(epoch, t): θ ← θ − α_t g_t; with momentum β: v ← βv + g_t, θ ← θ − α_t v, v₀ = 0.
  * After each epoch the full-batch objective and, where given, the holdout loss, test loss and accuracy and the
  * distance to θ* are recorded, and the objective and holdout loss are passed to {@link RateDriver#epochEnded}.
+ * Each of the last L updates (the tail) feeds the online tail statistics, O(P) per update; the K snapshots fall
+ * where {@link TailPlan} places them.
  *
  * <p>Divergence: when a batch objective (taken before its update) or an epoch-end objective is NaN, infinite or
  * above 1e6·F(θ₀) the replicate stops and is recorded as diverged at that update (a bad batch's update is not
@@ -73,7 +75,7 @@ public final class Trainer {
             throw new IllegalArgumentException("training.epochs × ⌈N/B⌉ = " + planned + " updates; at most "
                     + MAX_UPDATES + " are supported");
         }
-        this.tailPlan = TailPlan.of(planned, settings.tail(), settings.snapshots());
+        this.tailPlan = TailPlan.of(planned, settings.tail(), settings.snapshots(), updatesPerEpoch);
         checkShape("training split", train);
         if (test != null) {
             checkShape("test split", test);
@@ -170,7 +172,7 @@ public final class Trainer {
         private final int[] order = new int[orderLength()];
         private final double[] scratch = new double[p];
         private final TailRecorder tail = new TailRecorder(tailPlan, p, reference == null ? null : reference.theta(),
-                SNAPSHOT_LIMIT);
+                model.hasGauge() ? model::removeGauge : null, SNAPSHOT_LIMIT);
         /**
          * While K·P is within {@link #SNAPSHOT_LIMIT}, the snapshots' raw iterates wait here and F is evaluated at
          * all of them in one pass over the data after training (the same values; a training table larger than the
@@ -245,7 +247,7 @@ public final class Trainer {
                     t = update;
                     rates[(int) (t - 1)] = rate;
                     if (tail.inTail(t)) {
-                        tail.addIterate(theta);
+                        tail.addIterate(t, theta);
                         if (tail.snapshotDue(t)) {
                             double objective = Double.NaN;
                             if (pending == null) {
@@ -254,9 +256,7 @@ public final class Trainer {
                                 System.arraycopy(theta, 0, pending[pendingCount], 0, p);
                                 pendingUpdate[pendingCount++] = t;
                             }
-                            System.arraycopy(theta, 0, scratch, 0, p);
-                            model.removeGauge(scratch);
-                            tail.addSnapshot(scratch, objective);
+                            tail.addSnapshot(theta, objective);
                         }
                     }
                 }
@@ -291,8 +291,9 @@ public final class Trainer {
         }
 
         /**
-         * Fills in F at the snapshots taken with F pending: the one at the last evaluated update (usually the last
-         * update, an epoch end) from that evaluation, the others in one pass over the training rows.
+         * Fills in F at the snapshots taken with F pending: the last one from the last evaluation when that was at
+         * its update (TailPlan puts the last snapshot at T, which the last epoch end evaluated; evaluations are
+         * keyed by update number, so the value is F at the same iterate), the others in one pass over the rows.
          */
         private void evaluatePendingSnapshots() {
             // called once, after training: pending holds every snapshot, in order
@@ -327,7 +328,6 @@ public final class Trainer {
         }
 
         private Wander wander(double[] tailMean) {
-            double tailRadius = tail.radius(scratch);
             // a tail of one update (or of identical iterates) has the last iterate as its mean: F is already known
             double averagedObjective = Arrays.equals(tailMean, theta) ? objectiveAt(total) : onTrain.objective(tailMean);
             double[] finalTheta = settings.averageTail() ? tailMean : theta;
@@ -350,10 +350,10 @@ public final class Trainer {
                 onTest.probabilities(finalTheta, probabilities);
             }
             double[] stored = tail.stored();
-            return new Wander(tailPlan, tail.tailCount(), tailPlan.snapshotUpdates(), tail.objectives().clone(),
-                    stored == null ? null : stored.clone(), tailRadius, tail.distance(), tail.lossSpread(),
-                    finalObjective, finalGap, finalDistance, averagedObjective, averagedGap, testLoss, testAccuracy,
-                    probabilities);
+            return new Wander(tailPlan, tail.tailCount(), tail.snapshotUpdates().clone(), tail.objectives().clone(),
+                    stored == null ? null : stored.clone(), tail.radius(), tail.distance(), tail.epochEndRadius(),
+                    tail.epochEndDistance(), tail.epochEndCount(), tail.lossSpread(), finalObjective, finalGap,
+                    finalDistance, averagedObjective, averagedGap, testLoss, testAccuracy, probabilities);
         }
     }
 

@@ -11,7 +11,8 @@ import java.util.Objects;
  * @param sampling shuffle or replacement
  * @param momentum heavy-ball β in [0, 1); 0 is plain SGD
  * @param tail τ in (0, 1]: the tail is the last ⌈τT⌉ updates
- * @param snapshots K ≥ 1 evenly spaced tail snapshots (reduced to the tail length when the tail is shorter)
+ * @param snapshots K ≥ 1 tail snapshots, placed by {@link TailPlan} (reduced to the tail length when the tail is
+ *     shorter)
  * @param averageTail true for an arm with {@code average: tail}: its "final" iterate is the tail mean θ̄
  */
 public record TrainingSettings(int epochs, int batch, Sampling sampling, double momentum, double tail, int snapshots,

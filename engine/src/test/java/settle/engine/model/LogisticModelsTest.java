@@ -2,6 +2,7 @@ package settle.engine.model;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -135,6 +136,25 @@ class LogisticModelsTest {
         Model.Workspace ws = model.workspace(1);
         assertEquals(1000.0, model.lossSum(theta, new double[] {1.0}, new int[] {1}, 1, ws), 0.0);
         assertEquals(0.0, model.lossSum(theta, new double[] {1.0}, new int[] {0}, 1, ws), 0.0);
+    }
+
+    /**
+     * hasGauge() = false lets the trainer skip the projection, so it must mean that removeGauge is the identity: the
+     * binary model leaves every vector alone; softmax moves one whose class biases do not average to 0.
+     */
+    @Test
+    void onlyTheBinaryModelDeclaresNoGauge() {
+        BinaryLogistic binary = new BinaryLogistic(3, 0.0);
+        double[] theta = {1.5, -2, 0.25, 7};
+        double[] copy = theta.clone();
+        binary.removeGauge(copy);
+        assertArrayEquals(theta, copy, 0.0);
+        assertFalse(binary.hasGauge());
+        SoftmaxRegression softmax = new SoftmaxRegression(1, 3, 0.1);
+        double[] biased = {0, 0, 0, 1, 2, 6};
+        softmax.removeGauge(biased);
+        assertArrayEquals(new double[] {0, 0, 0, -2, -1, 3}, biased, 0.0);
+        assertTrue(softmax.hasGauge());
     }
 
     @Test

@@ -217,6 +217,7 @@ class MlpTest {
         for (double lambda : new double[] {0.0, 0.1}) {
             Mlp model = new Mlp(3, new int[] {4}, Activation.TANH, 3, lambda);
             int[] y = FiniteDifferences.labels(rng, n, 3);
+            assertTrue(model.hasGauge(), "the output softmax has a gauge");
             double[] theta = FiniteDifferences.point(rng, model.parameterCount(), 1.0);
             Model.Workspace ws = model.workspace(n);
             double[] gradient = new double[model.parameterCount()];

@@ -9,16 +9,16 @@ import java.lang.management.ManagementFactory;
  * vectors, so the code runs in rounds until one round allocates less than {@link #NOISE} bytes, for at most 100
  * rounds (a few seconds). Skips the calling test where the JVM has no per-thread allocation counter.
  */
-final class SteadyAllocation {
+public final class SteadyAllocation {
 
     /** Below this a round counts as allocating nothing: the counter's own noise (one object a call is ≥ 16 bytes). */
-    static final long NOISE = 4096;
+    public static final long NOISE = 4096;
 
     private SteadyAllocation() {
     }
 
     /** @return the bytes allocated by the last round of {@code calls} runs of {@code code} */
-    static long bytes(Runnable code, int calls) {
+    public static long bytes(Runnable code, int calls) {
         java.lang.management.ThreadMXBean bean = ManagementFactory.getThreadMXBean();
         assumeTrue(bean instanceof com.sun.management.ThreadMXBean, "no per-thread allocation counter");
         com.sun.management.ThreadMXBean counter = (com.sun.management.ThreadMXBean) bean;

@@ -48,12 +48,12 @@ import settle.engine.train.Wander;
  * the spread along eigenvector i grows as 1 − (1 − αλ_i)^{2t}; the slowest mode's mean relaxation time
  * 1/(αλmin) is 521 updates at α and 1 043 at α/2. The run is 1 000 epochs × ⌈456/32⌉ = 15 000 updates (28.8
  * and 14.4 such times); the first 150 epochs (2 250 updates: 4.3 and 2.2 times, i.e. 8.6 and 4.3 relaxation
- * times of the slowest variance) are left out, and the tail is the last 850 epochs (τ = 0.85, one snapshot per
- * epoch end). Stationarity is measured, not assumed: the predicted curve at the tail's first epoch and its
+ * times of the slowest variance) are left out, and the tail is the last 850 epochs (τ = 0.85, measured at its 850
+ * epoch ends). Stationarity is measured, not assumed: the predicted curve at the tail's first epoch and its
  * tail mean must lie within {@link #STATIONARY} of the constant-rate fixed point.
  *
  * <p>Standard error: the per-replicate tail distance² (the mean of ‖θ_k − θ*‖² over the replicate's 850
- * snapshots, {@link Wander#tailDistance()} squared) is one number per replicate; replicates are independent
+ * tail epoch ends, {@link Wander#tailDistanceEpochEnds()} squared) is one number per replicate; replicates are independent
  * (their batches come from separate streams derived from the root seed and the replicate index, the start θ* is
  * the same fixed point), so SE = sd / √R over the R = 20 replicate means, which carries every autocorrelation
  * inside a replicate. It assumes each replicate mean is close to normal: the tail spans many integrated
@@ -96,7 +96,7 @@ class NoiseBallOnWdbcTest {
     private static final double STATIONARY = 0.005;
     /** The tail holds at least this many integrated autocorrelation times. */
     private static final double MIN_TAU_RATIO = 20.0;
-    /** Tail distance² from the snapshots against the epoch-end distances: the same iterates, summed apart. */
+    /** Tail distance² over the epoch ends against the epoch records' distances: the same iterates, summed apart. */
     private static final double SAME_ITERATES = 1e-9;
 
     private static Problem problem;
@@ -110,7 +110,7 @@ class NoiseBallOnWdbcTest {
     /**
      * One arm's replicates.
      *
-     * @param tailDistanceSq per replicate: the mean of ‖θ_k − θ*‖² over its tail snapshots
+     * @param tailDistanceSq per replicate: the mean of ‖θ_k − θ*‖² over its tail epoch ends
      * @param predicted the predicted tail mean of E‖θ_t − θ*‖² (the same for every replicate: a constant rate)
      * @param predictedAtTailStart the predicted E‖θ_t − θ*‖² at the tail's first epoch end
      * @param fixedPoint the stationary E‖θ − θ*‖² at this rate
@@ -172,9 +172,7 @@ class NoiseBallOnWdbcTest {
                 .build();
         int perEpoch = updatesPerEpoch();
         assertEquals((long) TAIL_EPOCHS * perEpoch, trainer.tailPlan().length(), "the tail is the last 850 epochs");
-        assertEquals(TAIL_EPOCHS, trainer.tailPlan().snapshots(), "one snapshot per tail epoch");
-        assertEquals((long) (BURN_IN_EPOCHS + 1) * perEpoch, trainer.tailPlan().snapshotUpdate(1),
-                "the first snapshot falls on the tail's first epoch end");
+        assertEquals(TAIL_EPOCHS, trainer.tailPlan().epochEnds(), "the tail holds 850 epoch ends");
 
         double[] tailDistanceSq = new double[REPLICATES];
         double[] values = new double[REPLICATES * TAIL_EPOCHS];
@@ -185,28 +183,16 @@ class NoiseBallOnWdbcTest {
             ReplicateResult result = trainer.run(ReplicateSeeds.derive(ROOT_SEED, r + 1));
             assertFalse(result.diverged(), "replicate " + (r + 1) + " at α = " + rate + " diverged");
             Wander wander = result.wander();
-            double[] snapshots = wander.snapshots();
-            double sum = 0;
-            for (int k = 0; k < TAIL_EPOCHS; k++) {
-                double d = 0;
-                for (int i = 0; i < p; i++) {
-                    double delta = snapshots[k * p + i] - star[i];
-                    d += delta * delta;
-                }
-                values[r * TAIL_EPOCHS + k] = d;
-                sum += d;
-            }
-            tailDistanceSq[r] = wander.tailDistance() * wander.tailDistance();
-            assertEquals(tailDistanceSq[r], sum / TAIL_EPOCHS, SAME_ITERATES * tailDistanceSq[r],
-                    "tail distance² is the snapshot mean of ‖θ_k − θ*‖²");
+            tailDistanceSq[r] = wander.tailDistanceEpochEnds() * wander.tailDistanceEpochEnds();
             List<EpochRecord> epochs = result.epochs();
             double fromEpochs = 0;
             for (int e = BURN_IN_EPOCHS; e < EPOCHS; e++) {
                 double d = epochs.get(e).distance();
+                values[r * TAIL_EPOCHS + e - BURN_IN_EPOCHS] = d * d;
                 fromEpochs += d * d;
             }
             assertEquals(tailDistanceSq[r], fromEpochs / TAIL_EPOCHS, SAME_ITERATES * tailDistanceSq[r],
-                    "the snapshots are the tail's epoch ends");
+                    "tail distance² over the epoch ends is their mean of ‖θ_e − θ*‖²");
 
             double[] offset = result.start().clone();
             for (int i = 0; i < p; i++) {

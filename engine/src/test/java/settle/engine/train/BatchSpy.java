@@ -106,4 +106,9 @@ final class BatchSpy implements Model {
     public void removeGauge(double[] theta) {
         model.removeGauge(theta);
     }
+
+    @Override
+    public boolean hasGauge() {
+        return model.hasGauge();
+    }
 }

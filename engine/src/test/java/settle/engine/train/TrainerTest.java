@@ -71,6 +71,9 @@ class TrainerTest {
         assertArrayEquals(first.rates(), second.rates());
         assertEquals(first.epochs(), second.epochs());
         assertEquals(first.wander().tailRadius(), second.wander().tailRadius());
+        assertEquals(first.wander().tailDistanceEpochEnds(), second.wander().tailDistanceEpochEnds());
+        assertEquals(first.wander().tailRadiusEpochEnds(), second.wander().tailRadiusEpochEnds());
+        assertArrayEquals(first.wander().snapshotObjectives(), second.wander().snapshotObjectives());
         assertArrayEquals(first.wander().testProbabilities(), second.wander().testProbabilities());
     }
 
@@ -198,24 +201,109 @@ class TrainerTest {
         assertTrue(Double.isNaN(calm.wander().finalGap()), "no reference for an MLP");
     }
 
+    /**
+     * N = 45, B = 4: U = ⌈45/4⌉ = 12, T = 6·12 = 72, τ = 0.5: L = 36, K = 9 slots of 4 updates. TailPlan puts the
+     * last snapshot at T, whose F the trainer reuses from the last epoch's evaluation, and the others at spread
+     * phases inside their epochs, whose F it evaluates in one pass after training.
+     */
     @Test
     void snapshotObjectivesEvaluatedAfterTrainingAreFAtEachSnapshot() {
         // the binary model has no gauge, so the stored snapshots are the raw iterates F was evaluated at
         Model model = new BinaryLogistic(3, 0.01);
         TrainingSettings settings = TrainingSettings.of(6, 4).withTail(0.5, 9);
-        Wander w = Trainer.builder(model, binary, CONSTANT, settings).build().run(ReplicateSeeds.derive(3, 1)).wander();
+        ReplicateResult r = Trainer.builder(model, binary, CONSTANT, settings).build().run(ReplicateSeeds.derive(3, 1));
+        Wander w = r.wander();
         int k = w.tail().snapshots();
+        assertEquals(9, k);
         int p = model.parameterCount();
         FullBatch full = new FullBatch(model, binary);
+        int epochEnds = 0;
         for (int s = 0; s < k; s++) {
             double[] snapshot = Arrays.copyOfRange(w.snapshots(), s * p, (s + 1) * p);
             assertEquals(full.objective(snapshot), w.snapshotObjectives()[s], 0.0, "snapshot " + s);
+            epochEnds += w.snapshotUpdates()[s] % 12 == 0 ? 1 : 0;
         }
+        assertEquals(1, epochEnds, "only the last snapshot, T, ends an epoch");
+        assertEquals(72, w.snapshotUpdates()[k - 1]);
+        assertArrayEquals(r.last(), Arrays.copyOfRange(w.snapshots(), (k - 1) * p, k * p));
+        assertEquals(r.epochs().get(5).objective(), w.snapshotObjectives()[k - 1]);
+    }
+
+    /**
+     * The tail metrics against their definitions, computed here from the iterates the spy saw: θ_t for the L = 30
+     * tail updates (T = 10·⌈60/6⌉ = 100, τ = 0.3), projected onto the gauge-free subspace (softmax biases
+     * centred), two passes (mean first). Epoch ends are every 10th update: 80, 90, 100 in the tail (71–100).
+     */
+    @Test
+    void tailMetricsAreTheirDefinitionsOverEveryTailIterate() {
+        Model model = new SoftmaxRegression(4, 3, 0.01);
+        double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainingSettings.of(30, 60)).build()
+                .run(ReplicateSeeds.derive(1, 9)).last();
+        model.removeGauge(point);
+        ReferencePoint reference = new ReferencePoint(point, new FullBatch(model, threeClasses).objective(point));
+        BatchSpy spy = new BatchSpy(model, threeClasses);
+        TrainingSettings settings = TrainingSettings.of(10, 6).withTail(0.3, 7);
+        ReplicateResult r = Trainer.builder(spy, threeClasses, CONSTANT, settings).reference(reference).build()
+                .run(ReplicateSeeds.derive(1, 2));
+        Wander w = r.wander();
+        assertEquals(100, r.totalUpdates());
+        assertEquals(30, w.tailIterates());
+        assertEquals(3, w.tailEpochEnds());
+        int p = model.parameterCount();
+        List<double[]> every = new ArrayList<>();
+        List<double[]> ends = new ArrayList<>();
+        for (int t = 71; t <= 100; t++) {
+            double[] theta = (t == 100 ? r.last() : spy.iterates.get(t)).clone();
+            model.removeGauge(theta);
+            every.add(theta);
+            if (t % 10 == 0) {
+                ends.add(theta);
+            }
+        }
+        double[] all = radiusAndDistance(every, point);
+        double[] atEnds = radiusAndDistance(ends, point);
+        assertEquals(all[0], w.tailRadius(), IDENTITY_TOLERANCE * all[0]);
+        assertEquals(all[1], w.tailDistance(), IDENTITY_TOLERANCE * all[1]);
+        assertEquals(atEnds[0], w.tailRadiusEpochEnds(), IDENTITY_TOLERANCE * atEnds[0]);
+        assertEquals(atEnds[1], w.tailDistanceEpochEnds(), IDENTITY_TOLERANCE * atEnds[1]);
+        // θ̄ is the raw mean (the softmax biases' common shift kept)
+        double[] rawMean = new double[p];
+        for (int t = 71; t <= 100; t++) {
+            double[] theta = t == 100 ? r.last() : spy.iterates.get(t);
+            for (int i = 0; i < p; i++) {
+                rawMean[i] += theta[i] / 30;
+            }
+        }
+        assertArrayEquals(rawMean, r.tailMean(), IDENTITY_TOLERANCE);
+    }
+
+    /** One replicate (same seeds) with K = 10 and K = 37: the tail metrics agree to the bit, the snapshots not. */
+    @Test
+    void tailMetricsDoNotDependOnTheSnapshotCount() {
+        Model model = new SoftmaxRegression(4, 3, 0.01);
+        ReferencePoint reference = new ReferencePoint(new double[model.parameterCount()], 1.0);
+        ReplicateResult ten = Trainer.builder(model, threeClasses, DECAY, TrainingSettings.of(10, 6).withTail(0.4, 10))
+                .reference(reference).build().run(ReplicateSeeds.derive(6, 2));
+        ReplicateResult many = Trainer.builder(model, threeClasses, DECAY, TrainingSettings.of(10, 6).withTail(0.4, 37))
+                .reference(reference).build().run(ReplicateSeeds.derive(6, 2));
+        Wander a = ten.wander();
+        Wander b = many.wander();
+        assertEquals(10, a.tail().snapshots());
+        assertEquals(37, b.tail().snapshots());
+        assertEquals(a.tailRadius(), b.tailRadius());
+        assertEquals(a.tailDistance(), b.tailDistance());
+        assertEquals(a.tailRadiusEpochEnds(), b.tailRadiusEpochEnds());
+        assertEquals(a.tailDistanceEpochEnds(), b.tailDistanceEpochEnds());
+        assertEquals(a.tailEpochEnds(), b.tailEpochEnds());
+        assertArrayEquals(ten.tailMean(), many.tailMean());
+        assertEquals(a.averagedObjective(), b.averagedObjective());
+        assertTrue(a.tailRadius() > 0 && a.tailRadiusEpochEnds() > 0);
     }
 
     @Test
     void tailDistanceSplitsIntoRadiusAndOffset() {
-        // θ* here is any fixed gauge-free point: the identity (1/K)Σ‖θ_k − θ*‖² = radius² + ‖θ̄_K − θ*‖² is algebra
+        // θ* here is any fixed gauge-free point: (1/L)Σ‖x_t − θ*‖² = radius² + ‖x̄ − θ*‖² over the gauge-free tail
+        // iterates x_t is algebra, and x̄ is the projection of θ̄ (the projection is linear)
         Model model = new SoftmaxRegression(4, 3, 0.01);
         double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainingSettings.of(30, 60)).build()
                 .run(ReplicateSeeds.derive(1, 9)).last();
@@ -226,19 +314,13 @@ class TrainerTest {
         ReplicateResult r = Trainer.builder(model, threeClasses, CONSTANT, settings).reference(reference).build()
                 .run(ReplicateSeeds.derive(1, 2));
         Wander w = r.wander();
-        int k = w.tail().snapshots();
-        assertEquals(7, k);
+        assertEquals(7, w.tail().snapshots());
         assertEquals(30, w.tail().length()); // τT = 0.3 · 10 · ⌈60/6⌉ = 30
         assertEquals(30, w.tailIterates());
-        double[] snapshots = w.snapshots();
-        assertNotNull(snapshots);
+        assertNotNull(w.snapshots());
         int p = model.parameterCount();
-        double[] mean = new double[p];
-        for (int s = 0; s < k; s++) {
-            for (int i = 0; i < p; i++) {
-                mean[i] += snapshots[s * p + i] / k;
-            }
-        }
+        double[] mean = r.tailMean().clone();
+        model.removeGauge(mean);
         double offset = 0;
         for (int i = 0; i < p; i++) {
             offset += (mean[i] - point[i]) * (mean[i] - point[i]);
@@ -247,9 +329,6 @@ class TrainerTest {
         double rhs = w.tailRadius() * w.tailRadius() + offset;
         assertEquals(lhs, rhs, IDENTITY_TOLERANCE * lhs);
         assertTrue(w.tailRadius() > 0);
-        // the last snapshot is θ_T, and its objective is the last epoch's
-        assertEquals(r.totalUpdates(), w.snapshotUpdates()[k - 1]);
-        assertEquals(r.epochs().get(9).objective(), w.snapshotObjectives()[k - 1]);
         assertEquals(w.finalObjective() - objective, w.finalGap());
         assertEquals(w.averagedObjective() - objective, w.averagedGap());
         double[] last = r.last().clone();
@@ -281,6 +360,8 @@ class TrainerTest {
         assertEquals(a.wander().finalDistance(), b.wander().finalDistance(), IDENTITY_TOLERANCE);
         assertEquals(a.wander().tailDistance(), b.wander().tailDistance(), IDENTITY_TOLERANCE);
         assertEquals(a.wander().tailRadius(), b.wander().tailRadius(), IDENTITY_TOLERANCE);
+        assertEquals(a.wander().tailDistanceEpochEnds(), b.wander().tailDistanceEpochEnds(), IDENTITY_TOLERANCE);
+        assertEquals(a.wander().tailRadiusEpochEnds(), b.wander().tailRadiusEpochEnds(), IDENTITY_TOLERANCE);
         assertEquals(5.0, b.last()[12] - a.last()[12], IDENTITY_TOLERANCE);
     }
 
@@ -362,6 +443,26 @@ class TrainerTest {
                 () -> Trainer.builder(model, threeClasses, CONSTANT, settings).build());
         assertMessage("model.init: reference", () -> Trainer.builder(model, binary, CONSTANT, settings)
                 .initialisation(Initialisation.REFERENCE).build());
+    }
+
+    /** @return {sqrt(mean ‖x − x̄‖²), sqrt(mean ‖x − θ*‖²)} over the vectors, two passes (x̄ first) */
+    private static double[] radiusAndDistance(List<double[]> vectors, double[] star) {
+        int p = star.length;
+        double[] mean = new double[p];
+        for (double[] x : vectors) {
+            for (int i = 0; i < p; i++) {
+                mean[i] += x[i] / vectors.size();
+            }
+        }
+        double deviations = 0;
+        double distances = 0;
+        for (double[] x : vectors) {
+            for (int i = 0; i < p; i++) {
+                deviations += (x[i] - mean[i]) * (x[i] - mean[i]);
+                distances += (x[i] - star[i]) * (x[i] - star[i]);
+            }
+        }
+        return new double[] {Math.sqrt(deviations / vectors.size()), Math.sqrt(distances / vectors.size())};
     }
 
     private static void assertMessage(String expected, org.junit.jupiter.api.function.Executable call) {

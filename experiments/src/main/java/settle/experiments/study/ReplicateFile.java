@@ -106,6 +106,8 @@ public final class ReplicateFile {
         Json.number(g, "final_distance", w == null ? Double.NaN : w.finalDistance());
         Json.number(g, "tail_radius", w == null ? Double.NaN : w.tailRadius());
         Json.number(g, "tail_distance", w == null ? Double.NaN : w.tailDistance());
+        Json.number(g, "tail_radius_epoch_ends", w == null ? Double.NaN : w.tailRadiusEpochEnds());
+        Json.number(g, "tail_distance_epoch_ends", w == null ? Double.NaN : w.tailDistanceEpochEnds());
         Json.number(g, "tail_loss_spread", w == null ? Double.NaN : w.tailLossSpread());
         Json.number(g, "averaged_objective", w == null ? Double.NaN : w.averagedObjective());
         Json.number(g, "averaged_gap", w == null ? Double.NaN : w.averagedGap());
@@ -121,6 +123,7 @@ public final class ReplicateFile {
             g.writeStartObject();
             g.writeNumberField("first_update", tail.firstUpdate());
             g.writeNumberField("length", tail.length());
+            g.writeNumberField("epoch_ends", w.tailEpochEnds());
             g.writeNumberField("snapshots", tail.snapshots());
             Json.array(g, "snapshot_updates", w.snapshotUpdates());
             Json.array(g, "snapshot_objectives", w.snapshotObjectives());

@@ -8,6 +8,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.List;
 
 /**
@@ -17,6 +18,14 @@ import java.util.List;
 final class StudySchema {
 
     private static final ObjectMapper MAPPER = new ObjectMapper();
+
+    /** The keys of a replicate's {@code metrics}, in the order written (README, replicate file). */
+    static final List<String> METRICS = List.of("final_objective", "final_gap", "final_distance", "tail_radius",
+            "tail_distance", "tail_radius_epoch_ends", "tail_distance_epoch_ends", "tail_loss_spread",
+            "averaged_objective", "averaged_gap", "test_loss", "test_accuracy");
+    /** The keys of a finished replicate's {@code tail}, in the order written. */
+    static final List<String> TAIL = List.of("first_update", "length", "epoch_ends", "snapshots", "snapshot_updates",
+            "snapshot_objectives");
 
     private StudySchema() {
     }
@@ -126,16 +135,34 @@ final class StudySchema {
                 assertTrue(cut.path("from_epoch").asInt() > previousCut, "plateau cuts in epoch order, from epoch 2");
                 previousCut = cut.path("from_epoch").asInt();
             }
+            JsonNode metrics = r.path("metrics");
+            assertEquals(METRICS, fieldNames(metrics), "metrics keys in order");
             if (status.equals("finished")) {
                 assertEquals(r.path("total_updates").asLong(), updates);
                 assertEquals(parameters, r.path("tail_mean").size());
-                JsonNode metrics = r.path("metrics");
-                assertTrue(metrics.path("tail_radius").isNumber(), "tail radius");
+                for (String key : List.of("tail_radius", "tail_radius_epoch_ends", "tail_loss_spread")) {
+                    assertTrue(metrics.path(key).isNumber(), key);
+                }
                 assertTrue(metrics.path("test_accuracy").isNumber(), "test accuracy");
                 assertEquals(convex, metrics.path("final_gap").isNumber(), "final gap iff convex");
+                assertEquals(convex, metrics.path("tail_distance").isNumber(), "tail distance iff convex");
+                assertEquals(convex, metrics.path("tail_distance_epoch_ends").isNumber(), "epoch-end form iff convex");
                 JsonNode tail = r.path("tail");
+                assertEquals(TAIL, fieldNames(tail), "tail keys in order");
+                long first = tail.path("first_update").asLong();
+                long total = r.path("total_updates").asLong();
+                assertEquals(total - first + 1, tail.path("length").asLong());
+                int perEpoch = data.path("updates_per_epoch").asInt();
+                assertEquals(total / perEpoch - (first - 1) / perEpoch, tail.path("epoch_ends").asLong(),
+                        "epoch ends in the tail");
                 assertEquals(tail.path("snapshots").asInt(), tail.path("snapshot_updates").size());
                 assertEquals(tail.path("snapshots").asInt(), tail.path("snapshot_objectives").size());
+                long previous = first - 1;
+                for (JsonNode update : tail.path("snapshot_updates")) {
+                    assertTrue(update.asLong() > previous, "snapshot updates strictly increasing, in the tail");
+                    previous = update.asLong();
+                }
+                assertEquals(total, previous, "the last snapshot is the last update");
                 JsonNode probabilities = r.path("test_probabilities");
                 assertEquals(classes, probabilities.path("columns").asInt());
                 assertEquals(data.path("test_rows").asInt(), probabilities.path("rows").asInt());
@@ -153,5 +180,11 @@ final class StudySchema {
         List<String> lines = Files.readAllLines(dir.resolve("epochs.csv"), StandardCharsets.UTF_8);
         assertEquals(EpochsTable.HEADER, lines.get(0));
         assertEquals(epochRows, lines.size() - 1, "one epochs.csv row per recorded epoch");
+    }
+
+    private static List<String> fieldNames(JsonNode node) {
+        List<String> names = new ArrayList<>();
+        node.fieldNames().forEachRemaining(names::add);
+        return names;
     }
 }
