@@ -36,8 +36,10 @@ final class SyntheticStudy {
         List<String> nudgeNotes = new ArrayList<>();
         /** Plateau cuts: {from_epoch, rate}. */
         List<double[]> plateauCuts = new ArrayList<>();
-        /** ‖θ − θ*‖ at each epoch end, or null for 1/(epoch). */
+        /** ‖θ − θ*‖ at each epoch end, or null for 1/(epoch); NaN is written as null. */
         double[] distance;
+        /** The rate of every update, or null for the arm's default schedule. */
+        double[] rates;
         /** The prediction's {@code epoch_distance_sq}, or null for 1.2/epoch²; NaN is written as null. */
         double[] predictedEpochs;
         /** The prediction's {@code tail_distance_sq}, {@code tail_distance_sq_epoch_ends}. */
@@ -268,14 +270,14 @@ final class SyntheticStudy {
             testLoss.add(0.3);
             testAccuracy.add(0.9);
             if (convex) {
-                distance.add(rep.distance != null ? rep.distance[i] : 1.0 / (i + 1));
+                add(distance, rep.distance != null ? rep.distance[i] : 1.0 / (i + 1));
             } else {
                 distance.addNull();
             }
         }
         ArrayNode rates = r.putArray("rates");
         for (int u = 0; u < (diverged ? 7 : epochs * updatesPerEpoch); u++) {
-            rates.add(0.5 / (1 + a * (u / updatesPerEpoch)));
+            rates.add(rep.rates != null ? rep.rates[u] : 0.5 / (1 + a * (u / updatesPerEpoch)));
         }
         ArrayNode nudges = r.putArray("nudges");
         for (int i = 0; i < rep.nudges.size(); i++) {
@@ -299,7 +301,10 @@ final class SyntheticStudy {
             ObjectNode s = r.putObject("snapshots");
             s.put("rows", rep.snapshotRows);
             s.put("columns", p);
-            array(s.putArray("values"), rep.snapshots);
+            ArrayNode values = s.putArray("values");
+            for (double v : rep.snapshots) {
+                add(values, v);
+            }
         }
         if (diverged || rep.probabilities == null) {
             r.putNull("test_probabilities");

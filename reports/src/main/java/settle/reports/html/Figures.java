@@ -379,6 +379,7 @@ final class Figures {
         }
         Axis y = Axis.log(measured[0], measured[1], predicted[0], predicted[1], "‖θ − θ*‖²");
         int hidden = 0;
+        int hiddenMeasured = 0;
         w.open("div", "class", "multiples");
         Palette.Style predictedStyle = new Palette.Style("#333333", "5 3", Palette.Shape.CIRCLE);
         for (int a = 0; a < arms; a++) {
@@ -391,7 +392,7 @@ final class Figures {
                 xs[e] = e + 1;
             }
             hidden += c.line(xs, curves[a][1], predictedStyle, "series predicted");
-            c.line(xs, curves[a][0], Palette.style(a), "series measured");
+            hiddenMeasured += c.line(xs, curves[a][0], Palette.style(a), "series measured");
             c.end();
             int unstable = unstableEpoch(study, a);
             String caption = study.armName(a);
@@ -419,11 +420,14 @@ final class Figures {
         w.text("predicted E‖θ − θ*‖² at each epoch end, averaged over the replicates' own rate sequences");
         w.close("li");
         w.close("ul");
-        if (hidden > 0) {
-            w.element("p", hidden + " predicted point" + (hidden == 1 ? " lies" : "s lie") + " outside the drawn range ("
-                    + Axis.format(y.min()) + " to " + Axis.format(y.max()) + ", at most " + Axis.MAX_DECADES
-                    + " decades, chosen from the measured values first) and " + (hidden == 1 ? "is" : "are")
-                    + " not drawn.", "class", "note chart-note");
+        if (hidden + hiddenMeasured > 0) {
+            String what = hiddenMeasured == 0 ? hidden + " predicted point" + (hidden == 1 ? " lies" : "s lie")
+                    : hidden == 0 ? hiddenMeasured + " measured point" + (hiddenMeasured == 1 ? " lies" : "s lie")
+                    : hiddenMeasured + " measured and " + hidden + " predicted points lie";
+            w.element("p", what + " outside the drawn range (" + Axis.format(y.min()) + " to " + Axis.format(y.max())
+                    + ": the axis spans at most " + Axis.MAX_DECADES + " decades, chosen from the measured values "
+                    + "first) and " + (hidden + hiddenMeasured == 1 ? "is" : "are") + " not drawn.", "class",
+                    "note chart-note");
         }
     }
 

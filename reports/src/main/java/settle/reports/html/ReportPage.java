@@ -620,12 +620,17 @@ public final class ReportPage {
         w.element("h3", "Has each arm reached its ball?");
         para("A ratio of measured to predicted tests the theory only where the arm has reached its noise ball. The "
                 + "prediction at the last update splits E‖θ_T − θ*‖² into bias², the squared mean offset still left "
-                + "from the start, and the ball, the spread around that mean. In order: an arm is unstable when some "
-                + "update's α·λmax reaches 2(1 + β)" + bound(label) + "; it has not reached its ball when bias² ≥ "
-                + "ball; it is farther than the theory allows when its measured ‖θ_T − θ*‖² exceeds "
-                + Format.sig(BallDiagnosis.FARTHER_FACTOR) + "× the prediction at the last update; it is still "
-                + "approaching when bias² is " + Math.round(100 * BallDiagnosis.LOOSE_FROM) + "–100 % of the ball; "
-                + "otherwise it has reached its ball. Only the last two print a ratio.");
+                + "from the start, and the ball, the spread around that mean. The first rule that holds decides:");
+        w.open("ol", "class", "rules");
+        w.element("li", "unstable: some update's α·λmax reaches 2(1 + β)" + bound(label) + "; no ratio, and no "
+                + "predicted curve from there;");
+        w.element("li", "has not reached its ball: bias² ≥ ball; no ratio;");
+        w.element("li", "farther than the theory allows: the measured ‖θ_T − θ*‖² exceeds "
+                + Format.sig(BallDiagnosis.FARTHER_FACTOR) + "× the prediction at the last update; no ratio;");
+        w.element("li", "still approaching its ball: bias² is " + Math.round(100 * BallDiagnosis.LOOSE_FROM)
+                + "–100 % of the ball; the ratio is a loose test;");
+        w.element("li", "otherwise it has reached its ball, and the ratio tests the theory.");
+        w.close("ol");
         w.open("div", "class", "scroll");
         w.open("table", "class", "compact ball-table", "id", "ball-table");
         w.open("thead").open("tr");
@@ -661,7 +666,9 @@ public final class ReportPage {
             w.close("tr");
             w.open("tr", "class", "diagnosis");
             w.open("td", "colspan", "6");
-            w.element("strong", d.ratioShown() ? "Reached its ball? " : "No ratio: ");
+            if (!d.ratioShown()) {
+                w.element("strong", "No ratio: ");
+            }
             w.text(capitalised(d.sentence()) + ".");
             w.close("td");
             w.close("tr");
