@@ -40,6 +40,7 @@ final class Css {
             tr.diverged td { color: #B00000; }
             tr.missing td { color: var(--muted); font-style: italic; }
             table.ball-table tbody { border-bottom: 2px solid #b8b8c0; }
+            table.ball-table td.over { white-space: nowrap; }
             tr.diagnosis td { color: var(--ink); white-space: normal; max-width: 70ch; padding-bottom: 6px; }
             tbody[data-state="reached"] tr.diagnosis td { color: #006b3c; }
             .chart-note { margin-top: 0; }

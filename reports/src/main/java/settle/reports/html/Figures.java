@@ -391,8 +391,9 @@ final class Figures {
             for (int e = 0; e < xs.length; e++) {
                 xs[e] = e + 1;
             }
-            hidden += c.line(xs, curves[a][1], predictedStyle, "series predicted");
+            // The measured curve first, the dashed prediction over it: where they agree both stay visible.
             hiddenMeasured += c.line(xs, curves[a][0], Palette.style(a), "series measured");
+            hidden += c.line(xs, curves[a][1], predictedStyle, "series predicted");
             c.end();
             int unstable = unstableEpoch(study, a);
             String caption = study.armName(a);

@@ -649,7 +649,7 @@ public final class ReportPage {
             swatch(a);
             w.text(study.armName(a));
             w.close("th");
-            w.element("td", "every tail update" + (tail == null ? "" : " (" + tail.length() + ")"));
+            w.element("td", "every tail update" + (tail == null ? "" : " (L = " + tail.length() + ")"), "class", "over");
             w.element("td", Format.sig(d.measuredTail()), "class", "num");
             w.element("td", Format.sig(shownPrediction(d, d.predictedTail())), "class", "num");
             w.element("td", Format.sig(d.tailRatio()), "class", "num ratio");
@@ -658,8 +658,9 @@ public final class ReportPage {
             w.element("td", Format.sig(d.largestProduct()), "class", "num", "rowspan", "2");
             w.close("tr");
             w.open("tr");
-            w.element("td", "the tail's epoch ends" + (tail == null || tail.epochEnds() < 0 ? ""
-                    : " (" + tail.epochEnds() + ")"));
+            w.element("td", tail == null || tail.epochEnds() < 0 ? "the tail's epoch ends"
+                    : "the tail's " + tail.epochEnds() + " epoch end" + (tail.epochEnds() == 1 ? "" : "s"), "class",
+                    "over");
             w.element("td", Format.sig(d.measuredEpochEnds()), "class", "num");
             w.element("td", Format.sig(shownPrediction(d, d.predictedEpochEnds())), "class", "num");
             w.element("td", Format.sig(d.epochEndsRatio()), "class", "num ratio");
@@ -677,8 +678,8 @@ public final class ReportPage {
         w.close("table");
         w.close("div");
         para("Measured over every tail update: the mean of tail distance² = (1/L) Σ ‖θ_t − θ*‖² over the tail's L "
-                + "updates; over the epoch ends: the same over the tail's epoch ends. The count in brackets is L, or "
-                + "the number of epoch ends in the tail (replicate 1's). Bias² and ball are means over the "
+                + "updates; over the epoch ends: the same over the tail's epoch ends (L and the number of epoch ends "
+                + "are those of the arm's first finished replicate). Bias² and ball are means over the "
                 + "replicates' predictions at their last update; "
                 + "largest α·λmax is the largest over the run and the replicates.");
         endSection();
