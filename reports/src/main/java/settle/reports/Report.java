@@ -2,6 +2,7 @@ package settle.reports;
 
 import java.io.IOException;
 import java.nio.file.Path;
+import java.util.List;
 import settle.reports.html.ReportPage;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.VerdictOptions;
@@ -11,7 +12,7 @@ import settle.reports.study.StudyReader;
 
 /**
  * Builds {@code report.html} and {@code summary.csv} in a study directory, from its files only (study
- * directory format 1).
+ * directory format 2).
  */
 public final class Report {
 
@@ -28,8 +29,15 @@ public final class Report {
      * @param replicates replicates planned (arms × replicates)
      * @param missing replicate files missing (a partial study)
      * @param diverged replicates that diverged
+     * @param failedSections "id (what went wrong)" for each section of the report that could not be drawn (it says so
+     *     in its place; a fault in settle); empty when the whole report was drawn
      */
-    public record Outcome(Path report, Path summary, int replicates, int missing, int diverged) {
+    public record Outcome(Path report, Path summary, int replicates, int missing, int diverged,
+            List<String> failedSections) {
+
+        public Outcome {
+            failedSections = List.copyOf(failedSections);
+        }
 
         /** @return true when some replicate files are missing */
         public boolean partial() {
@@ -59,8 +67,9 @@ public final class Report {
         Path summary = directory.resolve(SUMMARY);
         Path report = directory.resolve(REPORT);
         AtomicWrite.text(summary, SummaryCsv.render(analysis));
-        AtomicWrite.text(report, ReportPage.render(analysis));
+        ReportPage.Rendered page = ReportPage.renderPage(analysis);
+        AtomicWrite.text(report, page.html());
         return new Outcome(report, summary, study.armCount() * study.replicateCount(), study.missing(),
-                study.diverged());
+                study.diverged(), page.failedSections());
     }
 }

@@ -1,17 +1,23 @@
 package settle.reports;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.reports.study.Metric;
+import settle.reports.study.Prediction;
+import settle.reports.study.Replicate;
 import settle.reports.study.Study;
 import settle.reports.study.StudyFormatException;
 import settle.reports.study.StudyReader;
@@ -66,15 +72,122 @@ class StudyReaderTest {
 
         Path study = twoArms().write(dir.resolve("s"));
         Path file = study.resolve("arms/1/2.json");
-        Files.writeString(file, "{\"format\": 1,\n  \"arm\": oops}");
+        Files.writeString(file, "{\"format\": 2,\n  \"arm\": oops}");
         String message = assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage();
         assertTrue(message.startsWith(file + ": not valid JSON at line 2, column"), message);
         assertEquals(-1, message.indexOf('\n'), "one line");
 
         Path manifest = study.resolve("manifest.json");
-        Files.writeString(manifest, Files.readString(manifest).replace("\"format\":1", "\"format\":2"));
-        assertEquals(manifest + ": study directory format 2 is not supported; this settle reads format 1",
+        Files.writeString(manifest, Files.readString(manifest).replace("\"format\":2", "\"format\":3"));
+        assertEquals(manifest + ": study directory format 3 is not supported; this settle reads format 2",
                 assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
+    }
+
+    @Test
+    void aFormatOneDirectoryGetsOneClearLineAndNoNumber() throws Exception {
+        SyntheticStudy old = twoArms();
+        old.format = 1;
+        Path study = old.write(dir.resolve("old"));
+        String expected = study.resolve("manifest.json") + ": this study directory is in format 1, written by an"
+                + " earlier settle whose tail metrics came from snapshots and whose reshuffling prediction was"
+                + " approximate; rerun it with `settle run " + study.resolve("plan.yaml") + " --out " + study
+                + " --fresh` to rewrite it in format 2";
+        assertEquals(expected, assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
+        assertEquals(expected, assertThrows(StudyFormatException.class, () -> Report.write(study)).getMessage());
+        assertFalse(Files.exists(study.resolve("report.html")), "no report from numbers that mean something else");
+        assertFalse(Files.exists(study.resolve("summary.csv")));
+
+        // A format-1 replicate file left in a format-2 directory is refused the same way, naming the file.
+        Path mixed = twoArms().write(dir.resolve("mixed"));
+        Path file = mixed.resolve("arms/2/1.json");
+        Files.writeString(file, Files.readString(file).replace("\"format\":2", "\"format\":1"));
+        String message = assertThrows(StudyFormatException.class, () -> StudyReader.read(mixed)).getMessage();
+        assertEquals(file + ": this file is in format 1, written by an earlier settle whose tail metrics came from"
+                + " snapshots and whose reshuffling prediction was approximate; rerun it with `settle run "
+                + mixed.resolve("plan.yaml") + " --out " + mixed + " --fresh` to rewrite it in format 2", message);
+    }
+
+    @Test
+    void readsTheFormatTwoPredictionTailAndEpochEndMetrics() throws Exception {
+        SyntheticStudy s = twoArms();
+        s.momentum = 0.5;
+        SyntheticStudy.Rep r = s.replicates.get(0).get(1);
+        r.finalBiasSq = 0.25;
+        r.finalBall = 0.75;
+        r.metrics.put("tail_distance_epoch_ends", 0.125);
+        SyntheticStudy.Rep unstable = s.replicates.get(1).get(0);
+        unstable.unstableFrom = 7;
+        unstable.unstableProduct = 3.5;
+        Study study = StudyReader.read(s.write(dir.resolve("s")));
+
+        Replicate one = study.replicate(0, 1);
+        assertEquals(0.125, one.metric(Metric.TAIL_DISTANCE_EPOCH_ENDS));
+        assertEquals(0.55, one.metric(Metric.TAIL_RADIUS_EPOCH_ENDS), "the fixture sets half the tail radius 1.1");
+        assertEquals(new Replicate.Tail(19, 2, 1, 0), one.tail());
+        Prediction p = one.prediction();
+        assertTrue(p.predicted() && p.stable());
+        assertEquals("first-order", p.kind());
+        assertEquals("shuffle", p.sampling());
+        assertEquals(0.5, p.momentum());
+        assertEquals(3.0, p.stabilityLimit());
+        assertEquals(3.0 / 0.3, p.stabilityBound(), 1e-12);
+        assertEquals(0, p.unstableFromUpdate());
+        assertEquals(0.25, p.finalBiasSq());
+        assertEquals(0.75, p.finalBall());
+        assertEquals(1.0, p.finalDistanceSq());
+        assertEquals(0.05, p.tailDistanceSq());
+        assertEquals(0.04, p.tailDistanceSqEpochEnds());
+        assertEquals(2, p.tailUpdates());
+        assertEquals(1, p.tailEpochEnds());
+        assertEquals(0.04, p.fixedPoint().distanceSqEpochEnd());
+        assertTrue(p.fixedPoint().exists());
+
+        Prediction q = study.replicate(1, 0).prediction();
+        assertFalse(q.stable());
+        assertEquals(7, q.unstableFromUpdate());
+        assertEquals(3.5, q.unstableRateTimesCurvature());
+        assertEquals(2, q.unstableEpoch(5), "update 7 lies in epoch 2 of 5 updates each");
+        assertTrue(Double.isNaN(q.tailDistanceSq()), "null when unstable");
+        assertTrue(Double.isNaN(q.epochDistanceSq()[1]) && Double.isFinite(q.epochDistanceSq()[0]));
+        assertFalse(study.replicate(1, 2).prediction().predicted(), "the diverged replicate has none");
+        assertNull(study.replicate(1, 2).tail());
+    }
+
+    /**
+     * A file that records the prediction without {@code stable} (the runner's files while it moved to format 2) gets
+     * it from its own numbers: rate 50 with 2/λmax = 8.8 is unstable from the first update at α ≥ 8.8.
+     */
+    @Test
+    void aPredictionThatDoesNotRecordStabilityGetsItFromItsRatesAndBound() throws Exception {
+        Path study = twoArms().write(dir.resolve("s"));
+        Path file = study.resolve("arms/1/1.json");
+        ObjectMapper mapper = new ObjectMapper();
+        ObjectNode root = (ObjectNode) mapper.readTree(file.toFile());
+        ObjectNode p = (ObjectNode) root.get("prediction");
+        for (String key : List.of("stable", "unstable_from_update", "unstable_rate_times_curvature", "momentum",
+                "final_bias_sq", "final_ball")) {
+            p.remove(key);
+        }
+        p.put("stability_bound", 8.8);
+        p.put("largest_rate_times_curvature", 50 * 2 / 8.8);
+        p.put("tail_distance_sq", 4.04e303);
+        ArrayNode e = p.putArray("epoch_distance_sq");
+        for (double v : new double[] {3.2e29, 9.2e59, 2.6e90, 7.5e120}) {
+            e.add(v);
+        }
+        ArrayNode rates = root.putArray("rates");
+        for (int u = 0; u < 20; u++) {
+            rates.add(u < 6 ? 1.0 : 50.0);
+        }
+        mapper.writeValue(file.toFile(), root);
+        Prediction q = StudyReader.read(study).replicate(0, 0).prediction();
+        assertFalse(q.stable());
+        assertEquals(7, q.unstableFromUpdate(), "the first update at a rate ≥ 8.8");
+        assertEquals(50 * 2 / 8.8, q.unstableRateTimesCurvature(), 1e-12);
+        assertEquals(3.2e29, q.epochDistanceSq()[0], "epoch 1 ends before the unstable update");
+        assertTrue(Double.isNaN(q.epochDistanceSq()[1]) && Double.isNaN(q.epochDistanceSq()[3]));
+        assertTrue(Double.isNaN(q.tailDistanceSq()), "no tail value from an unstable recursion");
+        assertTrue(Double.isNaN(q.finalBiasSq()));
     }
 
     @Test

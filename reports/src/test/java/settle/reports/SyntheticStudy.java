@@ -12,10 +12,10 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Writes a study directory in the documented format 1 (the JSON of the README's study-directory schema) with
+ * Writes a study directory in the documented format 2 (the JSON of the README's study-directory schema) with
  * values chosen by a test: the reports module reads it exactly as it reads a real study. Binary logistic
- * regression with {@code features} weights and a bias; every replicate gets the same per-epoch series unless
- * set.
+ * regression with {@code features} weights and a bias; every replicate gets the same per-epoch series and the
+ * same prediction unless set. {@link #format} writes an older directory for the tests that refuse one.
  */
 final class SyntheticStudy {
 
@@ -36,6 +36,23 @@ final class SyntheticStudy {
         List<String> nudgeNotes = new ArrayList<>();
         /** Plateau cuts: {from_epoch, rate}. */
         List<double[]> plateauCuts = new ArrayList<>();
+        /** ‖θ − θ*‖ at each epoch end, or null for 1/(epoch); NaN is written as null. */
+        double[] distance;
+        /** The rate of every update, or null for the arm's default schedule. */
+        double[] rates;
+        /** The prediction's {@code epoch_distance_sq}, or null for 1.2/epoch²; NaN is written as null. */
+        double[] predictedEpochs;
+        /** The prediction's {@code tail_distance_sq}, {@code tail_distance_sq_epoch_ends}. */
+        double predictedTail = 0.05;
+        double predictedTailEpochEnds = 0.04;
+        /** The prediction's {@code final_bias_sq} and {@code final_ball}; {@code final_distance_sq} is their sum. */
+        double finalBiasSq = 0.001;
+        double finalBall = 0.05;
+        /** The prediction's {@code largest_rate_times_curvature}. */
+        double largest = 0.15;
+        /** When positive: the prediction is unstable from this update, with this α·λmax there. */
+        long unstableFrom;
+        double unstableProduct = Double.NaN;
     }
 
     final List<String> arms = new ArrayList<>();
@@ -53,6 +70,12 @@ final class SyntheticStudy {
     double[] bound;
     /** When set, reference.json's bound block says it was skipped, for this reason. */
     String boundSkipped;
+    /** The format every file records. */
+    int format = 2;
+    /** The plan's momentum β, as the predictions record it. */
+    double momentum;
+    /** The plan's sampling, as the predictions record it. */
+    String sampling = "shuffle";
 
     /** Adds an arm whose replicates are filled in by the test. */
     List<Rep> arm(String name, boolean average, int count) {
@@ -79,6 +102,8 @@ final class SyntheticStudy {
             r.metrics.putIfAbsent("final_gap", 1e-3);
             r.metrics.putIfAbsent("final_distance", 0.1);
             r.metrics.putIfAbsent("tail_distance", 0.2);
+            r.metrics.putIfAbsent("tail_radius_epoch_ends", values[k] / 2);
+            r.metrics.putIfAbsent("tail_distance_epoch_ends", 0.18);
             r.metrics.putIfAbsent("tail_loss_spread", 1e-3);
             r.metrics.putIfAbsent("averaged_gap", 1e-4);
             r.metrics.putIfAbsent("test_loss", 0.3);
@@ -95,7 +120,7 @@ final class SyntheticStudy {
         int count = replicates.get(0).size();
         int p = featureNames.size() + 1;
         ObjectNode m = MAPPER.createObjectNode();
-        m.put("format", 1);
+        m.put("format", format);
         ObjectNode tool = m.putObject("tool");
         tool.put("name", "settle");
         tool.put("version", "0.1.0");
@@ -144,7 +169,7 @@ final class SyntheticStudy {
                 : "study: synthetic\nseed: 7\nreplicates: " + count + "\nmodel:\n  kind: logistic\n  l2: 0.01\n");
         if (convex) {
             ObjectNode r = MAPPER.createObjectNode();
-            r.put("format", 1);
+            r.put("format", format);
             r.put("model", "binary logistic regression");
             r.put("method", "newton");
             r.put("iterations", 5);
@@ -196,7 +221,7 @@ final class SyntheticStudy {
         Rep rep = replicates.get(a).get(k);
         boolean diverged = rep.status.equals("diverged");
         ObjectNode r = MAPPER.createObjectNode();
-        r.put("format", 1);
+        r.put("format", format);
         r.put("arm", a + 1);
         r.put("arm_name", arms.get(a));
         r.put("replicate", k + 1);
@@ -210,13 +235,10 @@ final class SyntheticStudy {
         r.put("initial_objective", 0.69);
         ObjectNode metrics = r.putObject("metrics");
         for (String key : List.of("final_objective", "final_gap", "final_distance", "tail_radius", "tail_distance",
-                "tail_loss_spread", "averaged_objective", "averaged_gap", "test_loss", "test_accuracy")) {
+                "tail_radius_epoch_ends", "tail_distance_epoch_ends", "tail_loss_spread", "averaged_objective",
+                "averaged_gap", "test_loss", "test_accuracy")) {
             Double v = rep.metrics.get(key);
-            if (diverged || v == null) {
-                metrics.putNull(key);
-            } else {
-                metrics.put(key, v);
-            }
+            number(metrics, key, diverged || v == null ? Double.NaN : v);
         }
         if (diverged) {
             r.putNull("tail");
@@ -224,6 +246,7 @@ final class SyntheticStudy {
             ObjectNode tail = r.putObject("tail");
             tail.put("first_update", epochs * updatesPerEpoch - 1);
             tail.put("length", 2);
+            tail.put("epoch_ends", 1);
             tail.put("snapshots", rep.snapshotRows);
             tail.putArray("snapshot_updates");
             tail.putArray("snapshot_objectives");
@@ -247,14 +270,14 @@ final class SyntheticStudy {
             testLoss.add(0.3);
             testAccuracy.add(0.9);
             if (convex) {
-                distance.add(1.0 / (i + 1));
+                add(distance, rep.distance != null ? rep.distance[i] : 1.0 / (i + 1));
             } else {
                 distance.addNull();
             }
         }
         ArrayNode rates = r.putArray("rates");
         for (int u = 0; u < (diverged ? 7 : epochs * updatesPerEpoch); u++) {
-            rates.add(0.5 / (1 + a * (u / updatesPerEpoch)));
+            rates.add(rep.rates != null ? rep.rates[u] : 0.5 / (1 + a * (u / updatesPerEpoch)));
         }
         ArrayNode nudges = r.putArray("nudges");
         for (int i = 0; i < rep.nudges.size(); i++) {
@@ -278,7 +301,10 @@ final class SyntheticStudy {
             ObjectNode s = r.putObject("snapshots");
             s.put("rows", rep.snapshotRows);
             s.put("columns", p);
-            array(s.putArray("values"), rep.snapshots);
+            ArrayNode values = s.putArray("values");
+            for (double v : rep.snapshots) {
+                add(values, v);
+            }
         }
         if (diverged || rep.probabilities == null) {
             r.putNull("test_probabilities");
@@ -290,23 +316,74 @@ final class SyntheticStudy {
         }
         ObjectNode pr = r.putObject("prediction");
         if (convex && !diverged) {
+            boolean stable = rep.unstableFrom <= 0;
+            double limit = 2 * (1 + momentum);
             pr.put("predicted", true);
             pr.put("kind", "first-order");
             pr.put("label", "first-order: logistic regression linearised at θ*");
-            ArrayNode d = pr.putArray("epoch_distance_sq");
-            for (int i = 0; i < epochs; i++) {
-                d.add(1.2 / ((i + 1) * (i + 1)));
+            pr.put("sampling", sampling);
+            pr.put("momentum", momentum);
+            pr.put("stability_bound", limit / 0.3);
+            pr.put("largest_rate_times_curvature", rep.largest);
+            pr.put("stable", stable);
+            if (stable) {
+                pr.putNull("unstable_from_update");
+                pr.putNull("unstable_rate_times_curvature");
+            } else {
+                pr.put("unstable_from_update", rep.unstableFrom);
+                number(pr, "unstable_rate_times_curvature", rep.unstableProduct);
             }
-            pr.putArray("epoch_excess_loss");
+            ArrayNode d = pr.putArray("epoch_distance_sq");
+            ArrayNode excess = pr.putArray("epoch_excess_loss");
+            for (int i = 0; i < epochs; i++) {
+                double v = rep.predictedEpochs != null ? rep.predictedEpochs[i] : 1.2 / ((i + 1) * (i + 1));
+                if (!stable && (i + 1) * (long) updatesPerEpoch >= rep.unstableFrom) {
+                    v = Double.NaN;
+                }
+                add(d, v);
+                add(excess, v * 0.15);
+            }
             pr.put("tail_updates", 2);
-            pr.put("tail_distance_sq", 0.05);
-            pr.put("stability_bound", 2 / 0.3);
-            pr.put("largest_rate_times_curvature", 0.15);
+            number(pr, "tail_distance_sq", stable ? rep.predictedTail : Double.NaN);
+            pr.put("tail_epoch_ends", 1);
+            number(pr, "tail_distance_sq_epoch_ends", stable ? rep.predictedTailEpochEnds : Double.NaN);
+            number(pr, "tail_excess_loss", stable ? rep.predictedTail * 0.15 : Double.NaN);
+            number(pr, "final_distance_sq", stable ? rep.finalBiasSq + rep.finalBall : Double.NaN);
+            number(pr, "final_excess_loss", stable ? (rep.finalBiasSq + rep.finalBall) * 0.15 : Double.NaN);
+            number(pr, "final_bias_sq", stable ? rep.finalBiasSq : Double.NaN);
+            number(pr, "final_ball", stable ? rep.finalBall : Double.NaN);
+            number(pr, "tail_bias_sq", stable ? rep.finalBiasSq : Double.NaN);
+            number(pr, "tail_ball", stable ? rep.finalBall : Double.NaN);
+            ObjectNode f = pr.putObject("fixed_point");
+            f.put("rate", 0.5);
+            f.put("batch", 16);
+            f.put("exists", stable);
+            number(f, "distance_sq", stable ? rep.predictedTail : Double.NaN);
+            number(f, "distance_sq_epoch_end", stable ? rep.predictedTailEpochEnds : Double.NaN);
+            number(f, "excess_loss", stable ? rep.predictedTail * 0.15 : Double.NaN);
+            f.put("note", stable ? "the stationary ball at the last rate" : "α·λmax ≥ 2(1 + β): no stationary ball");
         } else {
             pr.put("predicted", false);
             pr.put("skipped", convex ? "the replicate diverged" : "the model is not convex");
         }
         return r;
+    }
+
+    /** Writes v, or null when it is not finite (as the runner does). */
+    private static void number(ObjectNode node, String key, double v) {
+        if (Double.isFinite(v)) {
+            node.put(key, v);
+        } else {
+            node.putNull(key);
+        }
+    }
+
+    private static void add(ArrayNode node, double v) {
+        if (Double.isFinite(v)) {
+            node.add(v);
+        } else {
+            node.addNull();
+        }
     }
 
     private static void array(ArrayNode node, double[] values) {

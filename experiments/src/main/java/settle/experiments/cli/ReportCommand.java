@@ -9,11 +9,13 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import settle.reports.Report;
+import settle.reports.study.StudyFormatException;
 
 /**
  * {@code settle report STUDY_DIR}: (re)builds {@code report.html} and {@code summary.csv} from a study
  * directory. Exit 0; 3 when replicates are missing (a partial study still gets its report) or diverged; 2 for a
- * missing or malformed study directory; 1 when a file cannot be read or written.
+ * missing or malformed study directory, or one in an older format; 1 when a file cannot be read or written, or the
+ * report could not be drawn whole (a fault in settle; one line says what, and the sections drawn are written).
  */
 @Command(name = "report", mixinStandardHelpOptions = true,
         description = "(Re)build report.html and summary.csv from a study directory.")
@@ -32,11 +34,15 @@ public final class ReportCommand implements Callable<Integer> {
         Report.Outcome outcome;
         try {
             outcome = Report.write(directory);
-        } catch (IllegalArgumentException e) {
+        } catch (StudyFormatException e) {
             err.println("settle report: " + e.getMessage());
             return Main.BAD_INPUT;
         } catch (IOException e) {
             err.println("settle report: " + directory + ": " + e.getMessage());
+            return Main.FAILED;
+        } catch (RuntimeException e) {
+            err.println("settle report: the report was not written: " + e + " (a fault in settle, not in the study "
+                    + directory + ")");
             return Main.FAILED;
         }
         out.println("report written to " + outcome.report().toAbsolutePath().normalize());
@@ -47,6 +53,11 @@ public final class ReportCommand implements Callable<Integer> {
         }
         if (outcome.diverged() > 0) {
             err.println("settle report: " + outcome.diverged() + " of " + outcome.replicates() + " replicates diverged");
+        }
+        if (!outcome.failedSections().isEmpty()) {
+            err.println("settle report: the report was written, but these sections could not be drawn: "
+                    + String.join("; ", outcome.failedSections()) + " (a fault in settle: each says so in its place)");
+            return Main.FAILED;
         }
         return outcome.partial() || outcome.diverged() > 0 ? Main.INCOMPLETE : Main.OK;
     }

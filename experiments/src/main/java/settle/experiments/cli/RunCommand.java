@@ -26,7 +26,8 @@ import settle.experiments.study.StudyRunner;
 /**
  * {@code settle run PLAN}: trains every arm × replicate of a plan into its study directory, resuming what a
  * killed run left. Exit 0 when every replicate finished, 3 when some diverged, 1 when all diverged or the
- * work failed, 2 for bad input.
+ * work failed (the report not written whole included: one line says why), 2 for bad input (a directory in an older
+ * format included).
  */
 @Command(name = "run", mixinStandardHelpOptions = true,
         description = "Run a plan: every arm over the same seeds, into a study directory.")
@@ -145,6 +146,9 @@ public final class RunCommand implements Callable<Integer> {
         }
         int code = outcome.exitCode();
         String where = outcome.directory().toString();
+        if (!outcome.reportProblem().isEmpty()) {
+            stderr.println("settle run: " + outcome.reportProblem());
+        }
         if (json) {
             stdout.printf(java.util.Locale.ROOT,
                     "{\"study\": \"%s\", \"replicates\": %d, \"finished\": %d, \"diverged\": %d, \"missing\": %d, "

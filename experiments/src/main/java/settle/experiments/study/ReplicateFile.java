@@ -17,14 +17,14 @@ import settle.experiments.plan.ArmPlan;
 import settle.experiments.run.ReplicateKey;
 
 /**
- * The replicate file {@code arms/<arm>/<replicate>.json} (study directory format 1; every field is
+ * The replicate file {@code arms/<arm>/<replicate>.json} (study directory format 2; every field is
  * described in the README's study-directory schema). It holds no wall-clock time, so the same plan and
  * seeds give the same bytes on any machine, thread count or executor.
  */
 public final class ReplicateFile {
 
     /** The study directory format these files belong to. */
-    public static final int FORMAT = 1;
+    public static final int FORMAT = 2;
 
     private ReplicateFile() {
     }

@@ -49,12 +49,21 @@ import settle.reports.Report;
  */
 public final class StudyRunner {
 
-    /** What a run ended with. */
-    public record Outcome(Path directory, int total, int finished, int diverged, int missing, int ranNow) {
+    /**
+     * What a run ended with.
+     *
+     * @param reportProblem one line saying why report.html was not written, or which of its sections could not be
+     *     drawn; "" when the whole report was written
+     */
+    public record Outcome(Path directory, int total, int finished, int diverged, int missing, int ranNow,
+            String reportProblem) {
 
-        /** @return 0 all finished; 3 some diverged or missing; 1 every replicate diverged */
+        /**
+         * @return 0 all finished; 3 some diverged or missing; 1 every replicate diverged, or the report was not
+         *     written whole (the replicates are kept either way)
+         */
         public int exitCode() {
-            if (diverged == total && total > 0) {
+            if (diverged == total && total > 0 || !reportProblem.isEmpty()) {
                 return 1;
             }
             return diverged > 0 || missing > 0 ? 3 : 0;
@@ -64,6 +73,16 @@ public final class StudyRunner {
     /** The plan or its data changed under an existing study directory. */
     public static final class ChangedPlanException extends IllegalArgumentException {
         ChangedPlanException(String message) {
+            super(message);
+        }
+    }
+
+    /**
+     * An existing study directory (or a replicate file in it) written in an older format: its numbers mean something
+     * else, so this run neither resumes it nor writes beside it.
+     */
+    public static final class OlderFormatException extends IllegalArgumentException {
+        OlderFormatException(String message) {
             super(message);
         }
     }
@@ -122,6 +141,9 @@ public final class StudyRunner {
         String splitHash = splitHash(context.data());
         try (StudyLock lock = StudyLock.acquire(directory)) {
             Path manifestFile = directory.resolve("manifest.json");
+            if (!fresh) {
+                refuseOlderFormat(manifestFile);
+            }
             if (Files.exists(manifestFile) && !fresh) {
                 refuseChanged(manifestFile, planHash, dataHash, splitHash);
             }
@@ -204,20 +226,73 @@ public final class StudyRunner {
             missing.addAll(manualMissing);
             EpochsTable.write(directory, plan, all);
             Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash);
-            writeReport();
             return new Outcome(directory, outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
-                    missing.size());
+                    missing.size(), writeReport());
         }
     }
 
-    /** Builds report.html and summary.csv from the finished study directory; a failure is a warning. */
-    private void writeReport() {
+    /**
+     * Builds report.html and summary.csv from the finished study directory.
+     *
+     * @return "" when the whole report was written, else one line saying what was not (the run then exits 1: a
+     *     study whose report is missing has not finished its work, though its replicates are kept)
+     */
+    private String writeReport() {
+        String rebuild = "the replicates are kept; rebuild it with settle report " + directory;
         try {
-            Report.write(directory);
-        } catch (IOException | IllegalArgumentException e) {
-            err.println("warning: the report was not written: " + e.getMessage()
-                    + " (rebuild it with settle report " + directory + ")");
+            Report.Outcome written = Report.write(directory);
+            if (!written.failedSections().isEmpty()) {
+                return "the report was written, but these sections could not be drawn: "
+                        + String.join("; ", written.failedSections()) + " (a fault in settle: each says so in its place)";
+            }
+            return "";
+        } catch (IOException | RuntimeException e) {
+            String why = e.getMessage() == null ? e.toString() : e.getMessage();
+            return "the report was not written: " + why.replace('\n', ' ') + "; " + rebuild;
         }
+    }
+
+    /**
+     * Refuses to resume a study directory whose manifest or replicate files are in an older format than this settle
+     * writes, before anything is written into it.
+     */
+    private void refuseOlderFormat(Path manifestFile) throws IOException {
+        List<Path> files = new ArrayList<>();
+        if (Files.isRegularFile(manifestFile)) {
+            files.add(manifestFile);
+        }
+        Path arms = directory.resolve("arms");
+        if (Files.isDirectory(arms)) {
+            try (var walk = Files.walk(arms, 2)) {
+                walk.filter(f -> f.getFileName().toString().endsWith(".json") && Files.isRegularFile(f)).sorted()
+                        .forEach(files::add);
+            }
+        }
+        for (Path file : files) {
+            JsonNode node;
+            try {
+                node = MAPPER.readTree(file.toFile());
+            } catch (IOException e) {
+                continue; // an unreadable manifest is refused as such below; a broken replicate file is retrained
+            }
+            int format = node.path("format").asInt(ReplicateFile.FORMAT);
+            if (format < ReplicateFile.FORMAT) {
+                throw new OlderFormatException(settle.reports.study.StudyReader.olderFormat(file, format, rerun()));
+            }
+        }
+    }
+
+    /** @return the command as typed with {@code --fresh} added: what rewrites the study in this format */
+    private String rerun() {
+        if (commandLine.isEmpty()) {
+            return "settle run PLAN --fresh";
+        }
+        StringBuilder b = new StringBuilder();
+        for (String arg : commandLine) {
+            b.append(b.length() == 0 ? "" : " ")
+                    .append(arg.isEmpty() || arg.matches(".*[\\s'\"].*") ? "'" + arg.replace("'", "'\\''") + "'" : arg);
+        }
+        return b.append(" --fresh").toString();
     }
 
     /** Trains replicates in this JVM from a shared context. */
@@ -515,6 +590,6 @@ public final class StudyRunner {
             g.writeEndObject();
         });
         AtomicFiles.write(directory.resolve("manifest.json"), manifest);
-        return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0);
+        return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "");
     }
 }

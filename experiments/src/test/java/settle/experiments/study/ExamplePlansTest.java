@@ -11,7 +11,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import settle.experiments.cli.Main;
 
-/** Every example plan under experiments/plans runs at a reduced budget into a study directory of format 1. */
+/** Every example plan under experiments/plans runs at a reduced budget into a study directory of format 2. */
 class ExamplePlansTest {
 
     @TempDir

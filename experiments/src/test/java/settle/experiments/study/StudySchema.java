@@ -12,7 +12,7 @@ import java.util.ArrayList;
 import java.util.List;
 
 /**
- * Checks a study directory against the written schema of format 1 (README, "Study directory"): every file
+ * Checks a study directory against the written schema of format 2 (README, "Study directory"): every file
  * present, every field there with its type, sizes consistent across files.
  */
 final class StudySchema {
@@ -35,7 +35,7 @@ final class StudySchema {
             assertTrue(Files.isRegularFile(dir.resolve(file)), dir + " lacks " + file);
         }
         JsonNode m = MAPPER.readTree(dir.resolve("manifest.json").toFile());
-        assertEquals(1, m.path("format").asInt(), "manifest format");
+        assertEquals(ReplicateFile.FORMAT, m.path("format").asInt(), "manifest format");
         for (String key : List.of("plan_sha256", "data_sha256", "split_sha256")) {
             assertTrue(m.path(key).asText().matches("[0-9a-f]{64}"), key);
         }
@@ -107,7 +107,7 @@ final class StudySchema {
             }
             Path file = dir.resolve("arms/" + rep.path("arm").asInt() + "/" + rep.path("replicate").asInt() + ".json");
             JsonNode r = MAPPER.readTree(file.toFile());
-            assertEquals(1, r.path("format").asInt());
+            assertEquals(ReplicateFile.FORMAT, r.path("format").asInt());
             assertEquals(rep.path("arm").asInt(), r.path("arm").asInt());
             assertEquals(m.path("arms").get(r.path("arm").asInt() - 1).path("name").asText(), r.path("arm_name").asText());
             assertEquals(status, r.path("status").asText());

@@ -39,6 +39,11 @@ final class Css {
             tr.baseline th, tr.baseline td { background: #fafafa; }
             tr.diverged td { color: #B00000; }
             tr.missing td { color: var(--muted); font-style: italic; }
+            table.ball-table tbody { border-bottom: 2px solid #b8b8c0; }
+            table.ball-table td.over { white-space: nowrap; }
+            tr.diagnosis td { color: var(--ink); white-space: normal; max-width: 70ch; padding-bottom: 6px; }
+            tbody[data-state="reached"] tr.diagnosis td { color: #006b3c; }
+            .chart-note { margin-top: 0; }
             .scroll { overflow-x: auto; }
             .scroll.tall { max-height: 520px; overflow-y: auto; }
             svg.swatch { vertical-align: -2px; margin-right: 6px; }

@@ -77,14 +77,16 @@ final class Figures {
                 xMax = Math.max(xMax, 1 + (double) Math.max(r.rates().length, r.totalUpdates()) / perEpoch);
             }
         }
+        Axis y = Axis.log(lo, hi, "rate α");
         SvgChart c = new SvgChart(w, "chart-rates", "chart", WIDE, 340, 70, Axis.fixed(1, xMax, "epoch (epoch 1 = the "
-                + "first pass; update u at 1 + (u − 1)/" + perEpoch + ")"), Axis.log(lo, hi, "rate α"),
+                + "first pass; update u at 1 + (u − 1)/" + perEpoch + ")"), y,
                 "Learning rate of every update, per arm, on a log scale");
+        int hidden = 0;
         for (int a = 0; a < study.armCount(); a++) {
             boolean cut = Marks.cut(study, a);
             for (Replicate r : drawnRates(study, a)) {
                 double[][] xy = downsampleRates(r.rates(), perEpoch, MAX_BUCKETS);
-                c.line(xy[0], xy[1], Palette.style(a), cut ? "series rate-replicate" : "series rate");
+                hidden += c.line(xy[0], xy[1], Palette.style(a), cut ? "series rate-replicate" : "series rate");
                 if (cut) {
                     for (var k : r.plateauCuts()) {
                         c.tick(k.fromEpoch(), k.rate(), Palette.style(a), "cut",
@@ -96,6 +98,20 @@ final class Figures {
         nudgeMarkers(c, study, 0);
         c.end();
         legend(w, study, true);
+        offAxisNote(w, hidden, "rate", y);
+    }
+
+    /**
+     * A note under a log chart whose axis could not hold every value (it spans at most {@value Axis#MAX_DECADES}
+     * decades, keeping the largest): how many points are not drawn. Nothing when none.
+     */
+    static void offAxisNote(HtmlWriter w, int hidden, String what, Axis y) {
+        if (hidden > 0) {
+            w.element("p", hidden + " " + what + (hidden == 1 ? " lies" : "s lie") + " outside the drawn range ("
+                    + Axis.format(y.min()) + " to " + Axis.format(y.max()) + ": a log axis spans at most "
+                    + Axis.MAX_DECADES + " decades) and " + (hidden == 1 ? "is" : "are") + " not drawn.", "class",
+                    "note chart-note");
+        }
     }
 
     /**
@@ -236,6 +252,7 @@ final class Figures {
                 "training objective F(θ) at the epoch's end");
         SvgChart c = new SvgChart(w, "chart-objective", "chart", WIDE, 340, 70, Axis.fixed(1, Math.max(2, epochs),
                 "epoch (1 = the first pass)"), y, "Training objective per epoch: median and interquartile band per arm");
+        int hidden = 0;
         for (int a = 0; a < study.armCount(); a++) {
             int n = q[a].length;
             int stride = Math.max(1, (n + 3 * MAX_BUCKETS - 1) / (3 * MAX_BUCKETS));
@@ -251,7 +268,7 @@ final class Figures {
                 q3[i] = q[a][e][2];
             }
             c.band(xs, q1, q3, Palette.style(a), "band");
-            c.line(xs, med, Palette.style(a), "series median");
+            hidden += c.line(xs, med, Palette.style(a), "series median");
         }
         // Plateau cuts: a tick per replicate per cut, on that replicate's objective at the end of the epoch whose
         // plateau triggered the cut (the epoch before the first one at the reduced rate).
@@ -272,11 +289,34 @@ final class Figures {
         nudgeMarkers(c, study, 1);
         c.end();
         legend(w, study, true);
+        offAxisNote(w, hidden, "median point", y);
     }
 
     // ---------------------------------------------------------------- distance
 
-    /** Measured mean of ‖θ_t − θ*‖² and predicted E‖θ_t − θ*‖² per epoch for arm a (finished replicates). */
+    /**
+     * @return the first epoch (from 1) at which some replicate of arm a has an unstable prediction, or 0 when every
+     *     prediction is stable: the arm's predicted curve is drawn only before it
+     */
+    static int unstableEpoch(Study study, int a) {
+        int first = 0;
+        for (Replicate r : study.replicates().get(a)) {
+            if (r == null || r.diverged() || !r.prediction().predicted()) {
+                continue;
+            }
+            int e = r.prediction().unstableEpoch(study.manifest().updatesPerEpoch());
+            if (e > 0 && (first == 0 || e < first)) {
+                first = e;
+            }
+        }
+        return first;
+    }
+
+    /**
+     * Measured mean of ‖θ_t − θ*‖² and predicted E‖θ_t − θ*‖² per epoch end for arm a, over its finished replicates
+     * (each a mean of the finite values; NaN where none). The predicted curve stops before the arm's
+     * {@link #unstableEpoch}.
+     */
     static double[][] distanceCurves(Study study, int a) {
         int epochs = 0;
         for (Replicate r : study.replicates().get(a)) {
@@ -284,6 +324,8 @@ final class Figures {
                 epochs = Math.max(epochs, r.epochs().size());
             }
         }
+        int unstable = unstableEpoch(study, a);
+        int predictedEpochs = unstable > 0 ? Math.min(epochs, unstable - 1) : epochs;
         double[] measured = new double[epochs];
         double[] predicted = new double[epochs];
         int[] nm = new int[epochs];
@@ -294,15 +336,16 @@ final class Figures {
             }
             double[] d = r.epochs().distance();
             for (int e = 0; e < d.length; e++) {
-                if (Double.isFinite(d[e])) {
-                    measured[e] += d[e] * d[e];
+                double sq = d[e] * d[e];
+                if (Double.isFinite(sq)) {
+                    measured[e] += sq;
                     nm[e]++;
                 }
             }
             Prediction p = r.prediction();
             if (p.predicted() && p.epochDistanceSq() != null) {
                 double[] s = p.epochDistanceSq();
-                for (int e = 0; e < Math.min(epochs, s.length); e++) {
+                for (int e = 0; e < Math.min(predictedEpochs, s.length); e++) {
                     if (Double.isFinite(s[e])) {
                         predicted[e] += s[e];
                         np[e]++;
@@ -311,45 +354,55 @@ final class Figures {
             }
         }
         for (int e = 0; e < epochs; e++) {
-            measured[e] = nm[e] == 0 ? Double.NaN : measured[e] / nm[e];
-            predicted[e] = np[e] == 0 ? Double.NaN : predicted[e] / np[e];
+            measured[e] = nm[e] == 0 || !Double.isFinite(measured[e]) ? Double.NaN : measured[e] / nm[e];
+            predicted[e] = np[e] == 0 || !Double.isFinite(predicted[e]) ? Double.NaN : predicted[e] / np[e];
         }
         return new double[][] {measured, predicted};
     }
 
+    /**
+     * One small panel per arm on shared axes: the measured mean ‖θ − θ*‖² at each epoch end (arm colour) and the
+     * predicted curve (dashed). The log axis is chosen from the measured values first and spans at most
+     * {@value Axis#MAX_DECADES} decades; predicted points off it are not drawn, and a note says how many.
+     */
     static void distance(HtmlWriter w, Study study) {
         int arms = study.armCount();
         double[][][] curves = new double[arms][][];
-        double lo = Double.POSITIVE_INFINITY;
-        double hi = 0;
+        double[] measured = {Double.POSITIVE_INFINITY, 0};
+        double[] predicted = {Double.POSITIVE_INFINITY, 0};
         int epochs = 1;
         for (int a = 0; a < arms; a++) {
             curves[a] = distanceCurves(study, a);
             epochs = Math.max(epochs, curves[a][0].length);
-            for (double[] s : curves[a]) {
-                for (double v : s) {
-                    if (v > 0 && Double.isFinite(v)) {
-                        lo = Math.min(lo, v);
-                        hi = Math.max(hi, v);
-                    }
-                }
-            }
+            extend(measured, curves[a][0]);
+            extend(predicted, curves[a][1]);
         }
+        Axis y = Axis.log(measured[0], measured[1], predicted[0], predicted[1], "‖θ − θ*‖²");
+        int hidden = 0;
+        int hiddenMeasured = 0;
         w.open("div", "class", "multiples");
         Palette.Style predictedStyle = new Palette.Style("#333333", "5 3", Palette.Shape.CIRCLE);
         for (int a = 0; a < arms; a++) {
             w.open("figure", "class", "panel");
             SvgChart c = new SvgChart(w, "chart-distance-" + (a + 1), "chart small", 290, 220, 58,
-                    Axis.fixed(1, Math.max(2, epochs), "epoch"), Axis.log(lo, hi, "‖θ − θ*‖²"),
+                    Axis.fixed(1, Math.max(2, epochs), "epoch"), y,
                     "Distance to the reference minimiser per epoch for arm " + study.armName(a));
             double[] xs = new double[curves[a][0].length];
             for (int e = 0; e < xs.length; e++) {
                 xs[e] = e + 1;
             }
-            c.line(xs, curves[a][1], predictedStyle, "series predicted");
-            c.line(xs, curves[a][0], Palette.style(a), "series measured");
+            // The measured curve first, the dashed prediction over it: where they agree both stay visible.
+            hiddenMeasured += c.line(xs, curves[a][0], Palette.style(a), "series measured");
+            hidden += c.line(xs, curves[a][1], predictedStyle, "series predicted");
             c.end();
-            w.element("figcaption", study.armName(a));
+            int unstable = unstableEpoch(study, a);
+            String caption = study.armName(a);
+            if (xs.length == 0) {
+                caption += " (no finished replicate: nothing to draw)";
+            } else if (unstable > 0) {
+                caption += " (prediction unstable from epoch " + unstable + ": not drawn from there)";
+            }
+            w.element("figcaption", caption);
             w.close("figure");
         }
         w.close("div");
@@ -358,16 +411,35 @@ final class Figures {
         w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
         w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", "#555555", "stroke-width", "2");
         w.close("svg");
-        w.text("measured: mean over the arm's finished replicates of ‖θ_t − θ*‖² (arm colour)");
+        w.text("measured: mean over the arm's finished replicates of ‖θ − θ*‖² at each epoch end (arm colour)");
         w.close("li");
         w.open("li");
         w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
         w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", "#333333", "stroke-width", "2",
                 "stroke-dasharray", "5 3");
         w.close("svg");
-        w.text("predicted E‖θ_t − θ*‖², averaged over the replicates' own rate sequences");
+        w.text("predicted E‖θ − θ*‖² at each epoch end, averaged over the replicates' own rate sequences");
         w.close("li");
         w.close("ul");
+        if (hidden + hiddenMeasured > 0) {
+            String what = hiddenMeasured == 0 ? hidden + " predicted point" + (hidden == 1 ? " lies" : "s lie")
+                    : hidden == 0 ? hiddenMeasured + " measured point" + (hiddenMeasured == 1 ? " lies" : "s lie")
+                    : hiddenMeasured + " measured and " + hidden + " predicted points lie";
+            w.element("p", what + " outside the drawn range (" + Axis.format(y.min()) + " to " + Axis.format(y.max())
+                    + ": the axis spans at most " + Axis.MAX_DECADES + " decades, chosen from the measured values "
+                    + "first) and " + (hidden + hiddenMeasured == 1 ? "is" : "are") + " not drawn.", "class",
+                    "note chart-note");
+        }
+    }
+
+    /** Widens range {low, high} to the positive finite values of v. */
+    private static void extend(double[] range, double[] v) {
+        for (double x : v) {
+            if (x > 0 && Double.isFinite(x)) {
+                range[0] = Math.min(range[0], x);
+                range[1] = Math.max(range[1], x);
+            }
+        }
     }
 
     // ---------------------------------------------------------------- strip plots
@@ -383,6 +455,8 @@ final class Figures {
         double lo = Double.POSITIVE_INFINITY;
         double hi = Double.NEGATIVE_INFINITY;
         boolean anyDiverged = false;
+        int unmeasured = 0;
+        int offAxis = 0;
         for (int a = 0; a < arms; a++) {
             for (Replicate r : study.replicates().get(a)) {
                 if (r == null) {
@@ -393,8 +467,12 @@ final class Figures {
                     continue;
                 }
                 double v = Math.max(floor, r.metric(metric));
-                lo = Math.min(lo, v);
-                hi = Math.max(hi, v);
+                if (Double.isFinite(v)) {
+                    lo = Math.min(lo, v);
+                    hi = Math.max(hi, v);
+                } else {
+                    unmeasured++;
+                }
             }
         }
         boolean log = lo > 0 && hi / lo > 20;
@@ -440,11 +518,19 @@ final class Figures {
                     continue;
                 }
                 double v = r.metric(metric);
+                if (!Double.isFinite(v)) {
+                    continue;
+                }
+                if (!x.contains(Math.max(floor, v))) {
+                    offAxis++;
+                    continue;
+                }
                 double px = c.px(Math.max(floor, v));
                 SvgChart.marker(w, px, cy + jitter, 3.4, style.shape(), style.colour(), false, "replicate",
                         name + ", replicate " + (k + 1) + ": " + Format.sig(v));
             }
-            if (summaries != null && Double.isFinite(summaries[a].median())) {
+            if (summaries != null && Double.isFinite(summaries[a].median())
+                    && x.contains(Math.max(floor, summaries[a].median()))) {
                 double m = c.px(Math.max(floor, summaries[a].median()));
                 w.empty("line", "class", "median", "x1", SvgChart.n(m), "x2", SvgChart.n(m), "y1",
                         SvgChart.n(cy - row * 0.42), "y2", SvgChart.n(cy + row * 0.42), "stroke", style.colour());
@@ -455,6 +541,17 @@ final class Figures {
                     SvgChart.n(c.plotTop() - 2), "text-anchor", "middle");
         }
         c.end();
+        if (offAxis > 0) {
+            w.element("p", offAxis + " replicate" + (offAxis == 1 ? " lies" : "s lie") + " below the drawn range ("
+                    + Axis.format(x.min()) + " to " + Axis.format(x.max()) + ": a log axis spans at most "
+                    + Axis.MAX_DECADES + " decades) and " + (offAxis == 1 ? "is" : "are") + " not drawn.", "class",
+                    "note chart-note");
+        }
+        if (unmeasured > 0) {
+            w.element("p", unmeasured + " finished replicate" + (unmeasured == 1 ? " has" : "s have") + " no finite "
+                    + metric.words() + " and " + (unmeasured == 1 ? "is" : "are") + " not drawn.", "class",
+                    "note chart-note");
+        }
     }
 
     // ---------------------------------------------------------------- tail cloud
@@ -498,7 +595,10 @@ final class Figures {
                 int take = Math.min(per, k);
                 for (int j = 0; j < take; j++) {
                     int row = (int) ((long) j * k / take);
-                    points.add(Arrays.copyOfRange(r.snapshots(), row * p, (row + 1) * p));
+                    double[] point = Arrays.copyOfRange(r.snapshots(), row * p, (row + 1) * p);
+                    if (Arrays.stream(point).allMatch(Double::isFinite)) {
+                        points.add(point);
+                    }
                 }
             }
             chosen.add(points);
@@ -534,6 +634,11 @@ final class Figures {
                 cov[j][i] = cov[i][j];
             }
             trace += cov[i][i];
+        }
+        if (total < 2 || !Double.isFinite(trace)) {
+            w.element("p", "Not drawn: " + (total < 2 ? "fewer than two tail snapshots have finite values"
+                    : "the tail snapshots are too far apart for their spread to be computed") + ".", "class", "note");
+            return;
         }
         EigenDecomposition eig = new EigenDecomposition(new Array2DRowRealMatrix(cov, false));
         double[] values = eig.getRealEigenvalues();

@@ -21,10 +21,8 @@ public final class Format {
         if (a >= 1e5 || a < 1e-3) {
             s = String.format(Locale.ROOT, "%.2e", v).replace("e-0", "e-").replace("e+0", "e").replace("e+", "e");
         } else {
-            s = String.format(Locale.ROOT, "%.3g", v);
-            if (s.contains(".") && !s.contains("e")) {
-                s = s.replaceAll("0+$", "").replaceAll("\\.$", "");
-            }
+            // Three significant digits in plain notation (%g would write 1530 as "1.53e+03").
+            s = new java.math.BigDecimal(v).round(new java.math.MathContext(3)).stripTrailingZeros().toPlainString();
         }
         return s.replace('-', '−');
     }

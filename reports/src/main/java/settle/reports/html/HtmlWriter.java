@@ -143,6 +143,36 @@ public final class HtmlWriter {
         return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z');
     }
 
+    /**
+     * A point of the document to go back to.
+     *
+     * @param length characters written
+     * @param depth elements open
+     */
+    public record Mark(int length, int depth) {
+    }
+
+    /** @return the present point of the document, for {@link #rollback} */
+    public Mark mark() {
+        return new Mark(out.length(), open.size());
+    }
+
+    /**
+     * Drops everything written after the mark, and closes nothing: the elements open at the mark are open again,
+     * those opened after it are forgotten.
+     *
+     * @param mark a point returned by {@link #mark()} on this writer, with nothing before it dropped since
+     */
+    public void rollback(Mark mark) {
+        if (mark.length() > out.length() || mark.depth() > open.size()) {
+            throw new IllegalArgumentException("the mark lies beyond the document: " + mark);
+        }
+        out.setLength(mark.length());
+        while (open.size() > mark.depth()) {
+            open.pop();
+        }
+    }
+
     /** @return the document written so far; every element must be closed */
     @Override
     public String toString() {

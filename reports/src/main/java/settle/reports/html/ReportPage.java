@@ -7,6 +7,7 @@ import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import settle.reports.metrics.ArmLevel;
+import settle.reports.metrics.BallDiagnosis;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
@@ -29,6 +30,10 @@ public final class ReportPage {
     public static final List<String> SECTIONS = List.of("verdict", "rates", "objective", "distance", "wander",
             "a-priori", "tail-cloud", "grid", "replicates", "provenance", "limits");
 
+    /** The sections' titles in the page's navigation, in the order of {@link #SECTIONS}. */
+    private static final List<String> TITLES = List.of("Verdict", "Rates", "Training objective", "Distance to θ*",
+            "Wander per replicate", "A-priori bound", "Tail cloud", "Grid", "Replicates", "Provenance", "Limits");
+
     /** The Content-Security-Policy of the page: nothing may be fetched; inline style and data images only. */
     public static final String CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:";
 
@@ -39,6 +44,21 @@ public final class ReportPage {
     private final Study study;
     private final Manifest manifest;
     private final HtmlWriter w;
+    private final List<String> failed = new ArrayList<>();
+
+    /**
+     * A rendered page.
+     *
+     * @param html the page
+     * @param failedSections "id (what went wrong)" for each section that could not be drawn (and says so on the
+     *     page); empty when every section was drawn
+     */
+    public record Rendered(String html, List<String> failedSections) {
+
+        public Rendered {
+            failedSections = List.copyOf(failedSections);
+        }
+    }
 
     private ReportPage(StudyAnalysis analysis) {
         this.analysis = analysis;
@@ -52,9 +72,20 @@ public final class ReportPage {
      * @return the page
      */
     public static String render(StudyAnalysis analysis) {
+        return renderPage(analysis).html();
+    }
+
+    /**
+     * Renders every section; a section that fails (a fault in settle, not in the study) is replaced by one that
+     * says so, so the rest of the report is still written.
+     *
+     * @param analysis the analysed study
+     * @return the page and the sections that could not be drawn
+     */
+    public static Rendered renderPage(StudyAnalysis analysis) {
         ReportPage page = new ReportPage(analysis);
         page.page();
-        return page.w.toString();
+        return new Rendered(page.w.toString(), page.failed);
     }
 
     /** @return the study's name from the plan text, or the directory's name */
@@ -103,26 +134,18 @@ public final class ReportPage {
         }
         w.open("nav");
         w.open("ul");
-        String[] titles = {"Verdict", "Rates", "Training objective", "Distance to θ*", "Wander per replicate",
-            "A-priori bound", "Tail cloud", "Grid", "Replicates", "Provenance", "Limits"};
         for (int i = 0; i < SECTIONS.size(); i++) {
-            w.open("li").element("a", titles[i], "href", "#" + SECTIONS.get(i)).close("li");
+            w.open("li").element("a", TITLES.get(i), "href", "#" + SECTIONS.get(i)).close("li");
         }
         w.close("ul");
         w.close("nav");
         w.close("header").newline();
         w.open("main").newline();
-        verdict();
-        rates();
-        objective();
-        distance();
-        wander();
-        apriori();
-        cloud();
-        grid();
-        replicates();
-        provenance();
-        limits();
+        Runnable[] sections = {this::verdict, this::rates, this::objective, this::distance, this::wander,
+            this::apriori, this::cloud, this::grid, this::replicates, this::provenance, this::limits};
+        for (int i = 0; i < sections.length; i++) {
+            guarded(i, sections[i]);
+        }
         w.close("main").newline();
         w.open("footer");
         w.text("Written by settle " + manifest.toolVersion() + " from the study directory; rebuild with "
@@ -130,6 +153,24 @@ public final class ReportPage {
         w.close("footer").newline();
         w.close("body").newline();
         w.close("html").newline();
+    }
+
+    /**
+     * Writes section i; when it throws, drops what it wrote and writes in its place a section that says it could not
+     * be drawn, and records it in {@link #failed}.
+     */
+    private void guarded(int i, Runnable section) {
+        HtmlWriter.Mark mark = w.mark();
+        try {
+            section.run();
+        } catch (RuntimeException e) {
+            w.rollback(mark);
+            section(SECTIONS.get(i), TITLES.get(i));
+            w.element("p", "This section could not be drawn (" + e + "). That is a fault in settle, not in the study; "
+                    + "the other sections stand.", "class", "warning");
+            endSection();
+            failed.add(SECTIONS.get(i) + " (" + e + ")");
+        }
     }
 
     private int epochs() {
@@ -526,6 +567,11 @@ public final class ReportPage {
         endSection();
     }
 
+    /**
+     * The distance section: what the prediction is, the chart of measured and predicted ‖θ − θ*‖² per epoch end,
+     * and per arm the measured against the predicted mean over every tail update and over the tail's epoch ends,
+     * with the arm's {@link BallDiagnosis}: a ratio is printed only when the diagnosis says it tests the theory.
+     */
     private void distance() {
         section("distance", "Distance to θ*: measured and predicted");
         if (!study.convex()) {
@@ -547,11 +593,17 @@ public final class ReportPage {
                 }
             }
         }
-        para("Squared distances are compared: the measured mean over replicates of ‖θ_t − θ*‖² at the end of each epoch "
-                + "(solid, arm colour) beside the predicted E‖θ_t − θ*‖² from the linearised mean and covariance "
-                + "recursion for each replicate's own rate sequence, averaged over the replicates (dashed). The "
-                + "prediction is set against the distance to θ*, not against the tail radius: a short tail sees only "
-                + "part of the stationary spread.");
+        boolean replacement = label != null && label.sampling().equals("replacement");
+        para("Squared distances to θ* are compared: measured, the mean over an arm's finished replicates of ‖θ_t − θ*‖²; "
+                + "predicted, the mean of the replicates' predicted E‖θ_t − θ*‖² from the mean and covariance recursion "
+                + "linearised at θ*, run on each replicate's own rates. The prediction is set against the distance to "
+                + "θ*, not against the tail radius: a short tail sees only part of the stationary spread.");
+        para(replacement
+                ? "This study samples with replacement: every batch is an independent draw, the epoch ends are not "
+                        + "special, and the two rows of each arm below should agree."
+                : "Under shuffle a run pulses within each epoch: the batches of an epoch partition the training rows, "
+                        + "their noise cancels over the epoch, and the run is closest to θ* at epoch ends. Hence two "
+                        + "rows per arm below: over every update of the tail, and over the tail's epoch ends only.");
         if (label != null) {
             w.open("p", "class", "note");
             w.element("strong", "What the prediction is: ");
@@ -565,50 +617,100 @@ public final class ReportPage {
             w.close("p");
         }
         Figures.distance(w, study);
-        w.open("table", "class", "compact");
+        w.element("h3", "Has each arm reached its ball?");
+        para("A ratio of measured to predicted tests the theory only where the arm has reached its noise ball. The "
+                + "prediction at the last update splits E‖θ_T − θ*‖² into bias², the squared mean offset still left "
+                + "from the start, and the ball, the spread around that mean. The first rule that holds decides:");
+        w.open("ol", "class", "rules");
+        w.element("li", "unstable: some update's α·λmax reaches 2(1 + β)" + bound(label) + "; no ratio, and no "
+                + "predicted curve from there;");
+        w.element("li", "has not reached its ball: bias² ≥ ball; no ratio;");
+        w.element("li", "farther than the theory allows: the measured ‖θ_T − θ*‖² exceeds "
+                + Format.sig(BallDiagnosis.FARTHER_FACTOR) + "× the prediction at the last update; no ratio;");
+        w.element("li", "still approaching its ball: bias² is " + Math.round(100 * BallDiagnosis.LOOSE_FROM)
+                + "–100 % of the ball; the ratio is a loose test;");
+        w.element("li", "otherwise it has reached its ball, and the ratio tests the theory.");
+        w.close("ol");
+        w.open("div", "class", "scroll");
+        w.open("table", "class", "compact ball-table", "id", "ball-table");
         w.open("thead").open("tr");
-        for (String h : new String[] {"arm", "measured tail distance² (mean)", "predicted over the tail (mean)",
-            "measured / predicted", "largest α·λmax"}) {
+        for (String h : new String[] {"arm", "over", "measured mean ‖θ − θ*‖²", "predicted", "measured / predicted",
+            "predicted bias² / ball at the last update", "largest α·λmax"}) {
             w.element("th", h, "scope", "col");
         }
-        w.close("tr").close("thead").open("tbody");
+        w.close("tr").close("thead");
         for (int a = 0; a < study.armCount(); a++) {
-            double measured = 0;
-            int nm = 0;
-            double predicted = 0;
-            int np = 0;
-            double largest = Double.NaN;
-            for (Replicate r : study.replicates().get(a)) {
-                if (r == null || r.diverged()) {
-                    continue;
-                }
-                double t = r.metric(Metric.TAIL_DISTANCE);
-                if (Double.isFinite(t)) {
-                    measured += t * t;
-                    nm++;
-                }
-                if (r.prediction().predicted() && Double.isFinite(r.prediction().tailDistanceSq())) {
-                    predicted += r.prediction().tailDistanceSq();
-                    np++;
-                    largest = Double.isNaN(largest) ? r.prediction().largestRateTimesCurvature()
-                            : Math.max(largest, r.prediction().largestRateTimesCurvature());
-                }
-            }
-            measured = nm == 0 ? Double.NaN : measured / nm;
-            predicted = np == 0 ? Double.NaN : predicted / np;
+            BallDiagnosis d = BallDiagnosis.of(study, a);
+            Replicate.Tail tail = tail(a);
+            w.open("tbody", "class", "arm-ball", "data-state", d.state().name().toLowerCase(java.util.Locale.ROOT)
+                    .replace('_', '-'));
             w.open("tr");
-            w.open("th", "scope", "row");
+            w.open("th", "scope", "rowgroup", "rowspan", "3", "class", "arm");
             swatch(a);
             w.text(study.armName(a));
             w.close("th");
-            w.element("td", Format.sig(measured), "class", "num");
-            w.element("td", Format.sig(predicted), "class", "num");
-            w.element("td", Format.sig(measured / predicted), "class", "num");
-            w.element("td", Format.sig(largest), "class", "num");
+            w.element("td", "every tail update" + (tail == null ? "" : " (L = " + tail.length() + ")"), "class", "over");
+            w.element("td", Format.sig(d.measuredTail()), "class", "num");
+            w.element("td", Format.sig(shownPrediction(d, d.predictedTail())), "class", "num");
+            w.element("td", Format.sig(d.tailRatio()), "class", "num ratio");
+            w.element("td", d.state() == BallDiagnosis.State.UNSTABLE || Double.isNaN(d.biasSq() + d.ball()) ? "—"
+                    : Format.sig(d.biasSq()) + " / " + Format.sig(d.ball()), "class", "num", "rowspan", "2");
+            w.element("td", Format.sig(d.largestProduct()), "class", "num", "rowspan", "2");
             w.close("tr");
+            w.open("tr");
+            w.element("td", tail == null || tail.epochEnds() < 0 ? "the tail's epoch ends"
+                    : "the tail's " + tail.epochEnds() + " epoch end" + (tail.epochEnds() == 1 ? "" : "s"), "class",
+                    "over");
+            w.element("td", Format.sig(d.measuredEpochEnds()), "class", "num");
+            w.element("td", Format.sig(shownPrediction(d, d.predictedEpochEnds())), "class", "num");
+            w.element("td", Format.sig(d.epochEndsRatio()), "class", "num ratio");
+            w.close("tr");
+            w.open("tr", "class", "diagnosis");
+            w.open("td", "colspan", "6");
+            if (!d.ratioShown()) {
+                w.element("strong", "No ratio: ");
+            }
+            w.text(capitalised(d.sentence()) + ".");
+            w.close("td");
+            w.close("tr");
+            w.close("tbody");
         }
-        w.close("tbody").close("table");
+        w.close("table");
+        w.close("div");
+        para("Measured over every tail update: the mean of tail distance² = (1/L) Σ ‖θ_t − θ*‖² over the tail's L "
+                + "updates; over the epoch ends: the same over the tail's epoch ends (L and the number of epoch ends "
+                + "are those of the arm's first finished replicate). Bias² and ball are means over the "
+                + "replicates' predictions at their last update; "
+                + "largest α·λmax is the largest over the run and the replicates.");
         endSection();
+    }
+
+    /** @return the predicted value shown: none for an unstable arm */
+    private static double shownPrediction(BallDiagnosis d, double value) {
+        return d.state() == BallDiagnosis.State.UNSTABLE ? Double.NaN : value;
+    }
+
+    /** @return " (in rate units, 2(1 + β)/λmax = x)" from a prediction, or "" */
+    private static String bound(Prediction p) {
+        if (p == null || !Double.isFinite(p.stabilityBound())) {
+            return "";
+        }
+        return ", that is when its rate reaches the stability bound 2(1 + β)/λmax = " + Format.sig(p.stabilityBound())
+                + (p.momentum() == 0 ? "" : " (β = " + Format.sig(p.momentum()) + ")");
+    }
+
+    /** @return the tail of arm a's first finished replicate that records one, or null */
+    private Replicate.Tail tail(int a) {
+        for (Replicate r : study.replicates().get(a)) {
+            if (r != null && !r.diverged() && r.tail() != null) {
+                return r.tail();
+            }
+        }
+        return null;
+    }
+
+    private static String capitalised(String s) {
+        return s.isEmpty() ? s : Character.toUpperCase(s.charAt(0)) + s.substring(1);
     }
 
     // ---------------------------------------------------------------- wander
@@ -616,7 +718,8 @@ public final class ReportPage {
     private void wander() {
         section("wander", "Wander of every replicate");
         para("Each mark is one replicate (hover for its number and value); the bar is the arm's median. Tail radius: "
-                + "sqrt((1/K) Σ ‖θ_(k) − θ̄_K‖²) over the K tail snapshots, the noise ball seen inside one run"
+                + "sqrt((1/L) Σ ‖θ_t − θ̄‖²) over every one of the L tail updates, θ̄ their mean: how much the run "
+                + "still moves"
                 + (study.convex() ? ". Final gap: F(θ_F) − F(θ*), θ_F the last iterate (the tail average for "
                         + "averaged arms); values below 1e-12 are drawn at 1e-12." : ".")
                 + " Diverged replicates are drawn as red × marks right of the plot.");
@@ -965,10 +1068,13 @@ public final class ReportPage {
                 + "verdicts: with " + analysis.comparedArms() + " arm(s) compared, at least "
                 + analysis.replicatesNeeded() + " are needed before any difference can be declared, and \"no "
                 + "difference detected\" is never evidence of no difference.");
-        w.element("li", "The tail radius measures the wander inside the last " + "tail of each run, from evenly "
-                + "spaced snapshots; a short tail under a small rate sees only part of the stationary noise ball.");
-        w.element("li", "The predicted noise ball linearises SGD at θ*: exact only for a quadratic objective with "
-                + "state-independent noise, first-order for logistic regression, approximate under reshuffling.");
+        w.element("li", "The tail radius measures the wander inside the last tail of each run, over every tail update; "
+                + "a short tail under a small rate sees only part of the stationary noise ball, and a rate that ends "
+                + "near zero makes it small wherever the run froze.");
+        w.element("li", "The predicted noise ball linearises SGD at θ*: exact for a quadratic objective (reshuffled "
+                + "batches and momentum included), first-order for logistic regression, whose curvature varies over "
+                + "the ball. Measured against predicted tests the theory only for an arm that has reached its ball; "
+                + "the distance section says which did.");
         w.element("li", "Test metrics are measured on one test split of " + manifest.testRows() + " rows.");
         w.close("ul");
         endSection();

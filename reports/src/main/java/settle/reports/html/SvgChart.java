@@ -1,10 +1,16 @@
 package settle.reports.html;
 
+import java.util.List;
+
 /**
  * An inline SVG chart on two numeric axes: frame, grid, ticks and axis titles, then lines, bands and marks
- * in data coordinates. Every text goes through the escaping {@link HtmlWriter}.
+ * in data coordinates. Every text goes through the escaping {@link HtmlWriter}. A value that is not finite, or
+ * that lies off an axis, is not drawn (lines break there), so no coordinate leaves the picture.
  */
 public final class SvgChart {
+
+    /** Largest |pixel coordinate| written. */
+    static final double PIXEL_LIMIT = 100_000;
 
     private final HtmlWriter w;
     private final double width;
@@ -105,27 +111,55 @@ public final class SvgChart {
     }
 
     /**
-     * A line through the points whose coordinates are both drawable (NaN or, on a log axis, non-positive
-     * values break the line).
+     * A line through the points whose coordinates are both drawable: NaN, infinite, off-axis and (on a log axis)
+     * non-positive values break the line. A point with no drawable neighbour gets a small dot, so it is seen.
+     *
+     * @return the number of points with finite coordinates that lie off the axes and are not drawn
      */
-    public void line(double[] xs, double[] ys, Palette.Style style, String cssClass) {
+    public int line(double[] xs, double[] ys, Palette.Style style, String cssClass) {
         StringBuilder d = new StringBuilder(xs.length * 14);
+        int off = 0;
         boolean pen = false;
-        for (int i = 0; i < xs.length; i++) {
-            double a = px(xs[i]);
-            double b = py(ys[i]);
-            if (!Double.isFinite(a) || !Double.isFinite(b)) {
+        int run = 0;
+        double lastA = Double.NaN;
+        double lastB = Double.NaN;
+        List<double[]> single = new java.util.ArrayList<>();
+        for (int i = 0; i <= xs.length; i++) {
+            boolean drawable = false;
+            double a = Double.NaN;
+            double b = Double.NaN;
+            if (i < xs.length) {
+                a = px(xs[i]);
+                b = py(ys[i]);
+                drawable = Double.isFinite(a) && Double.isFinite(b) && x.contains(xs[i]) && y.contains(ys[i]);
+                if (!drawable && Double.isFinite(xs[i]) && Double.isFinite(ys[i]) && (!y.isLog() || ys[i] > 0)) {
+                    off++;
+                }
+            }
+            if (!drawable) {
+                if (run == 1) {
+                    single.add(new double[] {lastA, lastB});
+                }
                 pen = false;
+                run = 0;
                 continue;
             }
-            d.append(pen ? 'L' : 'M').append(n(a)).append(' ').append(n(clampY(b))).append(' ');
+            d.append(pen ? 'L' : 'M').append(n(a)).append(' ').append(n(b)).append(' ');
             pen = true;
+            run++;
+            lastA = a;
+            lastB = b;
         }
         if (d.length() == 0) {
-            return;
+            return off;
         }
         w.empty("path", "class", cssClass, "d", d.toString().trim(), "fill", "none", "stroke", style.colour(),
                 "stroke-dasharray", style.dash());
+        for (double[] p : single) {
+            w.empty("circle", "class", cssClass + " point", "cx", n(p[0]), "cy", n(p[1]), "r", "2.2", "fill",
+                    style.colour());
+        }
+        return off;
     }
 
     /** A filled band between lo and hi (the IQR of a median line). */
@@ -247,11 +281,11 @@ public final class SvgChart {
         }
     }
 
-    /** A marker at data coordinates (vx, vy); nothing when off the axes. */
+    /** A marker at data coordinates (vx, vy); nothing when not finite or off the axes. */
     public void mark(double vx, double vy, Palette.Style style, boolean filled, String cssClass, String tooltip) {
         double a = px(vx);
         double b = py(vy);
-        if (!Double.isFinite(a) || !Double.isFinite(b)) {
+        if (!Double.isFinite(a) || !Double.isFinite(b) || !x.contains(vx) || !y.contains(vy)) {
             return;
         }
         marker(w, a, b, 3.6, style.shape(), style.colour(), filled, cssClass, tooltip);
@@ -285,11 +319,15 @@ public final class SvgChart {
         w.close("svg");
     }
 
-    /** @return a pixel coordinate with one decimal */
+    /**
+     * @return a pixel coordinate with one decimal. Callers draw only what lies on the axes; as a last guard a
+     *     non-finite value is written as 0 and a finite one is held within ±{@value #PIXEL_LIMIT}.
+     */
     static String n(double v) {
         if (!Double.isFinite(v)) {
             return "0";
         }
+        v = Math.max(-PIXEL_LIMIT, Math.min(PIXEL_LIMIT, v));
         long tenths = Math.round(v * 10);
         long whole = tenths / 10;
         int frac = (int) Math.abs(tenths % 10);

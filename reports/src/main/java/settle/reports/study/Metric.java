@@ -1,15 +1,22 @@
 package settle.reports.study;
 
-/** The per-replicate metrics of a replicate file (DESIGN.md "Wander metrics"), with their file keys. */
+/**
+ * The per-replicate metrics of a replicate file (DESIGN.md "Wander metrics"), with their file keys, in the file's
+ * order (study directory format 2).
+ */
 public enum Metric {
     /** F(θ_F) − F(θ*). */
     FINAL_GAP("final_gap", "final gap", true, false),
     /** ‖θ_F − θ*‖. */
     FINAL_DISTANCE("final_distance", "final distance", true, false),
-    /** sqrt((1/K) Σ ‖θ_(k) − θ̄_K‖²): the primary metric. */
+    /** sqrt((1/L) Σ ‖θ_t − θ̄‖²) over every tail update, θ̄ the tail mean: the primary metric. */
     TAIL_RADIUS("tail_radius", "tail radius", false, false),
-    /** sqrt((1/K) Σ ‖θ_(k) − θ*‖²). */
+    /** sqrt((1/L) Σ ‖θ_t − θ*‖²) over every tail update. */
     TAIL_DISTANCE("tail_distance", "tail distance", true, false),
+    /** The tail radius over the epoch ends in the tail only (descriptive). */
+    TAIL_RADIUS_EPOCH_ENDS("tail_radius_epoch_ends", "tail radius at epoch ends", false, false),
+    /** The tail distance over the epoch ends in the tail only (descriptive). */
+    TAIL_DISTANCE_EPOCH_ENDS("tail_distance_epoch_ends", "tail distance at epoch ends", true, false),
     /** standard deviation of F over the tail snapshots. */
     TAIL_LOSS_SPREAD("tail_loss_spread", "tail loss spread", false, false),
     /** F(θ̄) − F(θ*). */

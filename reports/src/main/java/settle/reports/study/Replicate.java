@@ -13,6 +13,7 @@ package settle.reports.study;
  * @param totalUpdates the planned number of updates
  * @param averageTail true for an {@code average: tail} arm
  * @param initialObjective F(θ₀)
+ * @param tail where the tail lies, or null when the file has none (a diverged replicate)
  * @param metrics the per-replicate metrics, indexed by {@link Metric#ordinal()}; NaN where the file has null
  * @param epochs the per-epoch series
  * @param rates the rate of every update run
@@ -28,7 +29,7 @@ package settle.reports.study;
  */
 public record Replicate(int arm, String armName, int replicate, long initialisationSeed, long samplingSeed,
         String status, long divergedAtUpdate, long totalUpdates, boolean averageTail, double initialObjective,
-        double[] metrics, Epochs epochs, double[] rates, double[] last, double[] tailMean, int snapshotRows,
+        Tail tail, double[] metrics, Epochs epochs, double[] rates, double[] last, double[] tailMean, int snapshotRows,
         double[] snapshots, int testClasses, double[] testProbabilities, Prediction prediction,
         java.util.List<Nudge> nudges, java.util.List<PlateauCut> plateauCuts) {
 
@@ -55,6 +56,17 @@ public record Replicate(int arm, String armName, int replicate, long initialisat
     /** @return the number of test examples with probabilities (0 when none) */
     public int testRows() {
         return testProbabilities == null || testClasses == 0 ? 0 : testProbabilities.length / testClasses;
+    }
+
+    /**
+     * The replicate file's {@code tail}: the last L updates, over which the tail metrics are taken.
+     *
+     * @param firstUpdate the tail's first update (from 1)
+     * @param length L, its number of updates
+     * @param epochEnds the epoch ends among them (−1 when the file does not record it)
+     * @param snapshots K, the snapshots taken in it
+     */
+    public record Tail(long firstUpdate, long length, int epochEnds, int snapshots) {
     }
 
     /**

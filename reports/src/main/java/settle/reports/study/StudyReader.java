@@ -13,26 +13,62 @@ import java.util.Map;
 import java.util.Set;
 
 /**
- * Reads a study directory through its documented format (version 1: {@code manifest.json}, {@code plan.yaml},
+ * Reads a study directory through its documented format (version 2: {@code manifest.json}, {@code plan.yaml},
  * {@code reference.json}, {@code arms/<arm>/<replicate>.json}). A missing or malformed directory or file gives
  * a {@link StudyFormatException} with a one-line message naming the file and key; a missing replicate file
- * is not an error (the study is partial and its slot is null).
+ * is not an error (the study is partial and its slot is null). A directory in format 1 is refused with
+ * {@link #olderFormat}: its tail metrics and reshuffling prediction mean something else, so none of its numbers is
+ * shown beside format 2's. Keys of format 2 that a file leaves out read as null ("does not apply").
  */
 public final class StudyReader {
 
     /** The study directory format this reader understands. */
-    public static final int FORMAT = 1;
+    public static final int FORMAT = 2;
 
     /** The header of {@code nudges.csv}. */
     public static final String NUDGES_HEADER = "arm_index,arm,from_epoch,factor,rate,note,time,request";
 
     /** Keys of a replicate file the report does not read: skipped unparsed. */
-    private static final Set<String> REPLICATE_SKIP = Set.of("tail", "holdout_loss", "start", "epoch_excess_loss",
-            "fixed_point");
+    private static final Set<String> REPLICATE_SKIP = Set.of("holdout_loss", "start", "epoch_excess_loss",
+            "snapshot_updates", "snapshot_objectives");
     /** Keys of the manifest the report does not read. */
     private static final Set<String> MANIFEST_SKIP = Set.of("standardisation");
 
     private StudyReader() {
+    }
+
+    /**
+     * The one-line refusal of a file written in format 1 (or any older format): its tail radius and distance came
+     * from the snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside format 2's.
+     *
+     * @param file the manifest (or the file) in the older format
+     * @param format the format it records
+     * @param rerun the command that rewrites the study, e.g. {@code settle run plan.yaml --out DIR --fresh}
+     * @return the message
+     */
+    public static String olderFormat(Path file, int format, String rerun) {
+        String what = file.getFileName() != null && file.getFileName().toString().equals("manifest.json")
+                ? "this study directory" : "this file";
+        return file + ": " + what + " is in format " + format + ", written by an earlier settle whose tail metrics came"
+                + " from snapshots and whose reshuffling prediction was approximate; rerun it with `" + rerun
+                + "` to rewrite it in format " + FORMAT;
+    }
+
+    /** @return the command that rewrites a study directory from its own plan */
+    static String rerun(Path directory) {
+        return "settle run " + directory.resolve("plan.yaml") + " --out " + directory + " --fresh";
+    }
+
+    /** Refuses a file whose format is not {@link #FORMAT}: an older one with {@link #olderFormat}. */
+    private static void checkFormat(Path file, Map<String, Object> node, Path directory) {
+        int format = integer(file, node, "format");
+        if (format < FORMAT) {
+            throw new StudyFormatException(olderFormat(file, format, rerun(directory)));
+        }
+        if (format != FORMAT) {
+            throw new StudyFormatException(file + ": study directory format " + format
+                    + " is not supported; this settle reads format " + FORMAT);
+        }
     }
 
     /**
@@ -51,6 +87,7 @@ public final class StudyReader {
                     + "a study directory is made by settle run)");
         }
         Map<String, Object> m = parse(manifestFile, MANIFEST_SKIP);
+        checkFormat(manifestFile, m, directory);
         Manifest manifest = manifest(manifestFile, m);
         Path planFile = directory.resolve("plan.yaml");
         String planText;
@@ -60,7 +97,8 @@ public final class StudyReader {
             throw new StudyFormatException(planFile + ": missing; every study directory has its resolved plan");
         }
         Path referenceFile = directory.resolve("reference.json");
-        Reference reference = Files.isRegularFile(referenceFile) ? reference(referenceFile, parse(referenceFile, Set.of())) : null;
+        Reference reference = Files.isRegularFile(referenceFile)
+                ? reference(referenceFile, parse(referenceFile, Set.of()), directory) : null;
         int arms = manifest.arms().size();
         int count = manifest.replicates();
         Replicate[] files = new Replicate[arms * count];
@@ -72,7 +110,7 @@ public final class StudyReader {
                 Path file = directory.resolve("arms").resolve(Integer.toString(a)).resolve(k + ".json");
                 if (Files.isRegularFile(file)) {
                     try {
-                        files[i] = replicate(file, parse(file, REPLICATE_SKIP), a, k, manifest);
+                        files[i] = replicate(file, parse(file, REPLICATE_SKIP), a, k, manifest, directory);
                     } catch (IOException e) {
                         throw new java.io.UncheckedIOException(e);
                     }
@@ -104,10 +142,6 @@ public final class StudyReader {
 
     private static Manifest manifest(Path file, Map<String, Object> m) {
         int format = integer(file, m, "format");
-        if (format != FORMAT) {
-            throw new StudyFormatException(file + ": study directory format " + format
-                    + " is not supported; this settle reads format " + FORMAT);
-        }
         Map<String, Object> tool = object(file, m, "tool");
         Map<String, Object> jvm = optionalObject(m, "jvm");
         Map<String, Object> cpu = optionalObject(m, "cpu");
@@ -161,11 +195,8 @@ public final class StudyReader {
         return b.toString();
     }
 
-    private static Reference reference(Path file, Map<String, Object> r) {
-        int format = integer(file, r, "format");
-        if (format != FORMAT) {
-            throw new StudyFormatException(file + ": format " + format + " is not supported; expected " + FORMAT);
-        }
+    private static Reference reference(Path file, Map<String, Object> r, Path directory) {
+        checkFormat(file, r, directory);
         double[] theta = numbers(file, r, "theta", false);
         double[] eigen = r.containsKey("eigenvalues") ? numbers(file, r, "eigenvalues", false) : null;
         Object stability = r.get("stability_bound");
@@ -201,11 +232,9 @@ public final class StudyReader {
         return new Bound(source, number(file, b, "d"), number(file, b, "g"), values, skipped);
     }
 
-    private static Replicate replicate(Path file, Map<String, Object> r, int arm, int k, Manifest manifest) {
-        int format = integer(file, r, "format");
-        if (format != FORMAT) {
-            throw new StudyFormatException(file + ": format " + format + " is not supported; expected " + FORMAT);
-        }
+    private static Replicate replicate(Path file, Map<String, Object> r, int arm, int k, Manifest manifest,
+            Path directory) {
+        checkFormat(file, r, directory);
         if (integer(file, r, "arm") != arm || integer(file, r, "replicate") != k) {
             throw new StudyFormatException(file + ": holds arm " + asLong(r.get("arm"), 0) + " replicate "
                     + asLong(r.get("replicate"), 0) + "; its path says arm " + arm + " replicate " + k);
@@ -245,7 +274,7 @@ public final class StudyReader {
         if (snap instanceof Map) {
             Map<String, Object> s = cast(snap);
             snapshotRows = integer(file, s, "rows");
-            snapshots = numbers(file, s, "values", false);
+            snapshots = numbers(file, s, "values", true);
             if (snapshotRows > 0 && snapshots.length != (long) snapshotRows * last.length) {
                 throw new StudyFormatException(file + ": 'snapshots' has " + snapshots.length + " values for "
                         + snapshotRows + " rows of " + last.length + " parameters");
@@ -270,12 +299,14 @@ public final class StudyReader {
                 probabilities = null;
             }
         }
+        double[] rates = numbers(file, r, "rates", true);
         return new Replicate(arm, text(file, r, "arm_name"), k, asLong(seeds.get("initialisation"), 0),
                 asLong(seeds.get("sampling"), 0), status, asLong(r.get("diverged_at_update"), 0),
                 asLong(r.get("total_updates"), 0), "tail".equals(asText(r.get("average"), "none")),
-                asDouble(r.get("initial_objective"), Double.NaN), metrics, epochs,
-                numbers(file, r, "rates", true), last, tailMean, snapshotRows, snapshots, classes, probabilities,
-                prediction(file, r.get("prediction")), nudges(file, r), plateauCuts(file, r));
+                asDouble(r.get("initial_objective"), Double.NaN), tail(r.get("tail")), metrics, epochs, rates, last,
+                tailMean, snapshotRows, snapshots, classes, probabilities,
+                prediction(file, r.get("prediction"), rates, manifest.updatesPerEpoch()), nudges(file, r),
+                plateauCuts(file, r));
     }
 
     /** The replicate's {@code nudges}; a file written before they were recorded has none. */
@@ -322,16 +353,89 @@ public final class StudyReader {
         return e;
     }
 
-    private static Prediction prediction(Path file, Object node) {
+    /** The replicate file's {@code tail}, or null when it has none (a diverged replicate). */
+    private static Replicate.Tail tail(Object node) {
+        if (!(node instanceof Map)) {
+            return null;
+        }
+        Map<String, Object> t = cast(node);
+        return new Replicate.Tail(asLong(t.get("first_update"), 0), asLong(t.get("length"), 0),
+                (int) asLong(t.get("epoch_ends"), -1), (int) asLong(t.get("snapshots"), 0));
+    }
+
+    /**
+     * The replicate file's {@code prediction}. A file that does not record {@code stable} (one written while the
+     * runner moved to format 2) gets it from the numbers it does record, by the same rule: the prediction is
+     * unstable from the first update whose α_t·λmax reaches 2(1 + β), that is whose rate reaches
+     * {@code stability_bound}; its epoch distances from that epoch on and its tail and final values are then
+     * dropped, as format 2 writes them.
+     */
+    private static Prediction prediction(Path file, Object node, double[] rates, int updatesPerEpoch) {
         Map<String, Object> p = node instanceof Map ? cast(node) : null;
         if (p == null || !asBoolean(p.get("predicted"))) {
-            String reason = p != null ? asText(p.get("skipped"), "not recorded") : "not recorded";
-            return new Prediction(false, reason, "", "", null, Double.NaN, Double.NaN, Double.NaN);
+            return Prediction.skipped(p != null ? asText(p.get("skipped"), "not recorded") : "not recorded");
+        }
+        double momentum = asDouble(p.get("momentum"), 0);
+        double bound = asDouble(p.get("stability_bound"), Double.NaN);
+        double largest = asDouble(p.get("largest_rate_times_curvature"), Double.NaN);
+        double limit = 2 * (1 + momentum);
+        boolean stable;
+        long unstableFrom = 0;
+        double unstableProduct = Double.NaN;
+        boolean derived = !(p.get("stable") instanceof Boolean);
+        if (!derived) {
+            stable = asBoolean(p.get("stable"));
+            if (!stable) {
+                unstableFrom = Math.max(1, asLong(p.get("unstable_from_update"), 1));
+                unstableProduct = asDouble(p.get("unstable_rate_times_curvature"), Double.NaN);
+            }
+        } else {
+            stable = !(largest >= limit);
+            if (!stable) {
+                unstableFrom = 1;
+                for (int t = 0; t < rates.length; t++) {
+                    if (rates[t] >= bound) {
+                        unstableFrom = t + 1;
+                        unstableProduct = rates[t] * limit / bound;
+                        break;
+                    }
+                }
+            }
+        }
+        double[] epochDistanceSq = p.containsKey("epoch_distance_sq") ? numbers(file, p, "epoch_distance_sq", true)
+                : new double[0];
+        boolean drop = derived && !stable;
+        if (drop) {
+            epochDistanceSq = epochDistanceSq.clone();
+            int from = (int) ((unstableFrom - 1) / Math.max(1, updatesPerEpoch));
+            for (int e = from; e < epochDistanceSq.length; e++) {
+                epochDistanceSq[e] = Double.NaN;
+            }
+        }
+        Prediction.FixedPoint fixed = null;
+        if (p.get("fixed_point") instanceof Map) {
+            Map<String, Object> f = cast(p.get("fixed_point"));
+            fixed = new Prediction.FixedPoint(asDouble(f.get("rate"), Double.NaN), (int) asLong(f.get("batch"), 0),
+                    asBoolean(f.get("exists")), finite(f.get("distance_sq")), finite(f.get("distance_sq_epoch_end")),
+                    finite(f.get("excess_loss")), asText(f.get("note"), ""));
         }
         return new Prediction(true, "", asText(p.get("kind"), ""), asText(p.get("label"), ""),
-                numbers(file, p, "epoch_distance_sq", true), asDouble(p.get("tail_distance_sq"), Double.NaN),
-                asDouble(p.get("stability_bound"), Double.NaN),
-                asDouble(p.get("largest_rate_times_curvature"), Double.NaN));
+                asText(p.get("sampling"), ""), momentum, bound, largest, stable, unstableFrom, unstableProduct,
+                epochDistanceSq, (int) asLong(p.get("tail_updates"), -1),
+                drop ? Double.NaN : finite(p.get("tail_distance_sq")), (int) asLong(p.get("tail_epoch_ends"), -1),
+                drop ? Double.NaN : finite(p.get("tail_distance_sq_epoch_ends")),
+                drop ? Double.NaN : finite(p.get("tail_excess_loss")),
+                drop ? Double.NaN : finite(p.get("final_distance_sq")),
+                drop ? Double.NaN : finite(p.get("final_excess_loss")),
+                drop ? Double.NaN : finite(p.get("final_bias_sq")), drop ? Double.NaN : finite(p.get("final_ball")),
+                drop ? Double.NaN : finite(p.get("tail_bias_sq")), drop ? Double.NaN : finite(p.get("tail_ball")),
+                fixed);
+    }
+
+    /** @return the number, or NaN when absent, null or not a number */
+    private static double finite(Object v) {
+        double x = asDouble(v, Double.NaN);
+        return Double.isFinite(x) ? x : Double.NaN;
     }
 
     // ---------------------------------------------------------------- nudges.csv
