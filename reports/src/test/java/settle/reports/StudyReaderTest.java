@@ -153,41 +153,17 @@ class StudyReaderTest {
         assertNull(study.replicate(1, 2).tail());
     }
 
-    /**
-     * A file that records the prediction without {@code stable} (the runner's files while it moved to format 2) gets
-     * it from its own numbers: rate 50 with 2/λmax = 8.8 is unstable from the first update at α ≥ 8.8.
-     */
+    /** A predicted noise ball must say whether it stayed stable; a file without {@code stable} is refused by name. */
     @Test
-    void aPredictionThatDoesNotRecordStabilityGetsItFromItsRatesAndBound() throws Exception {
+    void aPredictionWithoutItsStabilityIsRefused() throws Exception {
         Path study = twoArms().write(dir.resolve("s"));
         Path file = study.resolve("arms/1/1.json");
         ObjectMapper mapper = new ObjectMapper();
         ObjectNode root = (ObjectNode) mapper.readTree(file.toFile());
-        ObjectNode p = (ObjectNode) root.get("prediction");
-        for (String key : List.of("stable", "unstable_from_update", "unstable_rate_times_curvature", "momentum",
-                "final_bias_sq", "final_ball")) {
-            p.remove(key);
-        }
-        p.put("stability_bound", 8.8);
-        p.put("largest_rate_times_curvature", 50 * 2 / 8.8);
-        p.put("tail_distance_sq", 4.04e303);
-        ArrayNode e = p.putArray("epoch_distance_sq");
-        for (double v : new double[] {3.2e29, 9.2e59, 2.6e90, 7.5e120}) {
-            e.add(v);
-        }
-        ArrayNode rates = root.putArray("rates");
-        for (int u = 0; u < 20; u++) {
-            rates.add(u < 6 ? 1.0 : 50.0);
-        }
+        ((ObjectNode) root.get("prediction")).remove("stable");
         mapper.writeValue(file.toFile(), root);
-        Prediction q = StudyReader.read(study).replicate(0, 0).prediction();
-        assertFalse(q.stable());
-        assertEquals(7, q.unstableFromUpdate(), "the first update at a rate ≥ 8.8");
-        assertEquals(50 * 2 / 8.8, q.unstableRateTimesCurvature(), 1e-12);
-        assertEquals(3.2e29, q.epochDistanceSq()[0], "epoch 1 ends before the unstable update");
-        assertTrue(Double.isNaN(q.epochDistanceSq()[1]) && Double.isNaN(q.epochDistanceSq()[3]));
-        assertTrue(Double.isNaN(q.tailDistanceSq()), "no tail value from an unstable recursion");
-        assertTrue(Double.isNaN(q.finalBiasSq()));
+        assertEquals(file + ": prediction.stable must be true or false in a predicted noise ball",
+                assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
     }
 
     @Test

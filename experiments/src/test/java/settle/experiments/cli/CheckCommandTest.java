@@ -123,7 +123,7 @@ class CheckCommandTest {
         Model model = parsed.plan().model().build(3, data.train().classes());
         double lambdaMax = Curvature.at(model, data.train(), new Minimiser().minimise(model, data.train()).theta())
                 .lambdaMax();
-        Matcher b = Pattern.compile("stability bound of the mean: α < 2/λmax = ([0-9.]+)").matcher(out);
+        Matcher b = Pattern.compile("stability bound of the mean: α < 2/λmax\\(H\\) = ([0-9.]+)").matcher(out);
         assertTrue(b.find(), out);
         assertEquals(2 / lambdaMax, Double.parseDouble(b.group(1)), 1e-4 * (2 / lambdaMax));
         assertTrue(out.contains("\n  #3 ") && out.contains("ABOVE the stability bound"), out);

@@ -305,7 +305,7 @@ public final class StudyReader {
                 asLong(r.get("total_updates"), 0), "tail".equals(asText(r.get("average"), "none")),
                 asDouble(r.get("initial_objective"), Double.NaN), tail(r.get("tail")), metrics, epochs, rates, last,
                 tailMean, snapshotRows, snapshots, classes, probabilities,
-                prediction(file, r.get("prediction"), rates, manifest.updatesPerEpoch()), nudges(file, r),
+                prediction(file, r.get("prediction")), nudges(file, r),
                 plateauCuts(file, r));
     }
 
@@ -364,54 +364,30 @@ public final class StudyReader {
     }
 
     /**
-     * The replicate file's {@code prediction}. A file that does not record {@code stable} (one written while the
-     * runner moved to format 2) gets it from the numbers it does record, by the same rule: the prediction is
-     * unstable from the first update whose α_t·λmax reaches 2(1 + β), that is whose rate reaches
-     * {@code stability_bound}; its epoch distances from that epoch on and its tail and final values are then
-     * dropped, as format 2 writes them.
+     * The replicate file's {@code prediction}: skipped with its reason, or predicted, then with {@code stable} and,
+     * when unstable, the update it became unstable at (the file has no numbers from there on: JSON null).
      */
-    private static Prediction prediction(Path file, Object node, double[] rates, int updatesPerEpoch) {
+    private static Prediction prediction(Path file, Object node) {
         Map<String, Object> p = node instanceof Map ? cast(node) : null;
         if (p == null || !asBoolean(p.get("predicted"))) {
             return Prediction.skipped(p != null ? asText(p.get("skipped"), "not recorded") : "not recorded");
         }
-        double momentum = asDouble(p.get("momentum"), 0);
-        double bound = asDouble(p.get("stability_bound"), Double.NaN);
-        double largest = asDouble(p.get("largest_rate_times_curvature"), Double.NaN);
-        double limit = 2 * (1 + momentum);
-        boolean stable;
+        if (!(p.get("stable") instanceof Boolean)) {
+            throw new StudyFormatException(file + ": prediction.stable must be true or false in a predicted noise ball");
+        }
+        boolean stable = asBoolean(p.get("stable"));
         long unstableFrom = 0;
         double unstableProduct = Double.NaN;
-        boolean derived = !(p.get("stable") instanceof Boolean);
-        if (!derived) {
-            stable = asBoolean(p.get("stable"));
-            if (!stable) {
-                unstableFrom = Math.max(1, asLong(p.get("unstable_from_update"), 1));
-                unstableProduct = asDouble(p.get("unstable_rate_times_curvature"), Double.NaN);
+        if (!stable) {
+            unstableFrom = asLong(p.get("unstable_from_update"), 0);
+            if (unstableFrom < 1) {
+                throw new StudyFormatException(file + ": prediction.unstable_from_update must name an update ≥ 1 when"
+                        + " the prediction is unstable");
             }
-        } else {
-            stable = !(largest >= limit);
-            if (!stable) {
-                unstableFrom = 1;
-                for (int t = 0; t < rates.length; t++) {
-                    if (rates[t] >= bound) {
-                        unstableFrom = t + 1;
-                        unstableProduct = rates[t] * limit / bound;
-                        break;
-                    }
-                }
-            }
+            unstableProduct = asDouble(p.get("unstable_rate_times_curvature"), Double.NaN);
         }
         double[] epochDistanceSq = p.containsKey("epoch_distance_sq") ? numbers(file, p, "epoch_distance_sq", true)
                 : new double[0];
-        boolean drop = derived && !stable;
-        if (drop) {
-            epochDistanceSq = epochDistanceSq.clone();
-            int from = (int) ((unstableFrom - 1) / Math.max(1, updatesPerEpoch));
-            for (int e = from; e < epochDistanceSq.length; e++) {
-                epochDistanceSq[e] = Double.NaN;
-            }
-        }
         Prediction.FixedPoint fixed = null;
         if (p.get("fixed_point") instanceof Map) {
             Map<String, Object> f = cast(p.get("fixed_point"));
@@ -420,16 +396,14 @@ public final class StudyReader {
                     finite(f.get("excess_loss")), asText(f.get("note"), ""));
         }
         return new Prediction(true, "", asText(p.get("kind"), ""), asText(p.get("label"), ""),
-                asText(p.get("sampling"), ""), momentum, bound, largest, stable, unstableFrom, unstableProduct,
-                epochDistanceSq, (int) asLong(p.get("tail_updates"), -1),
-                drop ? Double.NaN : finite(p.get("tail_distance_sq")), (int) asLong(p.get("tail_epoch_ends"), -1),
-                drop ? Double.NaN : finite(p.get("tail_distance_sq_epoch_ends")),
-                drop ? Double.NaN : finite(p.get("tail_excess_loss")),
-                drop ? Double.NaN : finite(p.get("final_distance_sq")),
-                drop ? Double.NaN : finite(p.get("final_excess_loss")),
-                drop ? Double.NaN : finite(p.get("final_bias_sq")), drop ? Double.NaN : finite(p.get("final_ball")),
-                drop ? Double.NaN : finite(p.get("tail_bias_sq")), drop ? Double.NaN : finite(p.get("tail_ball")),
-                fixed);
+                asText(p.get("sampling"), ""), asDouble(p.get("momentum"), 0),
+                asDouble(p.get("stability_bound"), Double.NaN),
+                asDouble(p.get("largest_rate_times_curvature"), Double.NaN), stable, unstableFrom, unstableProduct,
+                epochDistanceSq, (int) asLong(p.get("tail_updates"), -1), finite(p.get("tail_distance_sq")),
+                (int) asLong(p.get("tail_epoch_ends"), -1), finite(p.get("tail_distance_sq_epoch_ends")),
+                finite(p.get("tail_excess_loss")), finite(p.get("final_distance_sq")),
+                finite(p.get("final_excess_loss")), finite(p.get("final_bias_sq")), finite(p.get("final_ball")),
+                finite(p.get("tail_bias_sq")), finite(p.get("tail_ball")), fixed);
     }
 
     /** @return the number, or NaN when absent, null or not a number */
