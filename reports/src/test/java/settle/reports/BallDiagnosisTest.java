@@ -42,6 +42,8 @@ class BallDiagnosisTest {
                     case "bias-and-far" -> {
                         r.finalBiasSq = 0.4;
                         r.distance = new double[] {3, 3, 3, 3};
+                        r.rates = new double[20];
+                        java.util.Arrays.fill(r.rates, 0.5);
                     }
                     case "diverged" -> r.status = "diverged";
                     default -> {
@@ -79,8 +81,9 @@ class BallDiagnosisTest {
 
         BallDiagnosis notReached = BallDiagnosis.of(study, 2);
         assertEquals(State.NOT_REACHED, notReached.state());
-        assertEquals("has not reached its noise ball in this budget: the remaining bias is 8× the ball; train longer,"
-                + " or a larger l2", notReached.sentence());
+        assertEquals("has not reached its noise ball in this budget: the remaining bias is 8× the ball; its rate fell"
+                + " before it got there: train longer, decay more slowly, or use a larger l2", notReached.sentence(),
+                "the fixture's rates fall from 0.5 to 0.5/7");
         assertTrue(Double.isNaN(notReached.tailRatio()) && Double.isNaN(notReached.epochEndsRatio()));
 
         BallDiagnosis farther = BallDiagnosis.of(study, 3);
@@ -96,7 +99,10 @@ class BallDiagnosisTest {
                 unstable.sentence());
         assertTrue(Double.isNaN(unstable.tailRatio()));
 
-        assertEquals(State.NOT_REACHED, BallDiagnosis.of(study, 5).state(), "rule b comes before rule c");
+        BallDiagnosis constantRate = BallDiagnosis.of(study, 5);
+        assertEquals(State.NOT_REACHED, constantRate.state(), "rule b comes before rule c");
+        assertEquals("has not reached its noise ball in this budget: the remaining bias is 8× the ball; train longer,"
+                + " or use a larger l2", constantRate.sentence(), "a constant rate: no advice to decay more slowly");
 
         BallDiagnosis diverged = BallDiagnosis.of(study, 6);
         assertEquals(State.NO_PREDICTION, diverged.state());
@@ -123,7 +129,8 @@ class BallDiagnosisTest {
             assertTrue(g.contains("<strong>No ratio: </strong>"), state);
         }
         assertTrue(group(section, "not-reached").contains("Has not reached its noise ball in this budget: the remaining"
-                + " bias is 8× the ball; train longer, or a larger l2."));
+                + " bias is 8× the ball; its rate fell before it got there: train longer, decay more slowly, or use a"
+                + " larger l2."));
         assertTrue(section.contains("unstable (prediction unstable from epoch 2: not drawn from there)"),
                 "update 7 lies in epoch 2 of 5 updates");
         assertTrue(section.contains("Under shuffle a run pulses within each epoch"));

@@ -602,8 +602,10 @@ public final class ReportPage {
                 ? "This study samples with replacement: every batch is an independent draw, the epoch ends are not "
                         + "special, and the two rows of each arm below should agree."
                 : "Under shuffle a run pulses within each epoch: the batches of an epoch partition the training rows, "
-                        + "their noise cancels over the epoch, and the run is closest to θ* at epoch ends. Hence two "
-                        + "rows per arm below: over every update of the tail, and over the tail's epoch ends only.");
+                        + "so their noise largely cancels over the epoch, and the distance at epoch ends differs from "
+                        + "its mean over all updates (usually smaller; a short last batch or a large rate can make it "
+                        + "larger). Hence two rows per arm below: over every update of the tail, and over the tail's "
+                        + "epoch ends only.");
         if (label != null) {
             w.open("p", "class", "note");
             w.element("strong", "What the prediction is: ");

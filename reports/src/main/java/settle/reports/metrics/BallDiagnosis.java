@@ -15,7 +15,8 @@ import settle.reports.study.Study;
  *   <li>some replicate's prediction is unstable (α_t·λmax ≥ 2(1 + β) at some update t): {@link State#UNSTABLE},
  *   nothing is compared from that update on;</li>
  *   <li>mean final bias² ≥ mean final ball (the squared mean offset the prediction leaves at the last update is
- *   at least its spread): {@link State#NOT_REACHED};</li>
+ *   at least its spread): {@link State#NOT_REACHED}; the advice names slower decay when some replicate's last rate
+ *   is below half its largest;</li>
  *   <li>measured mean ‖θ_T − θ*‖² at the last update &gt; {@value #FARTHER_FACTOR} × the predicted one:
  *   {@link State#FARTHER_THAN_THEORY};</li>
  *   <li>{@value #LOOSE_FROM} ≤ bias²/ball &lt; 1: {@link State#APPROACHING}, the ratio shown as a loose test;</li>
@@ -106,11 +107,13 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         long unstableFrom = 0;
         double unstableProduct = Double.NaN;
         String skipped = null;
+        boolean decayed = false;
         for (Replicate r : reps) {
             if (r == null || r.diverged()) {
                 continue;
             }
             finished++;
+            decayed |= decayed(r.rates());
             tail.addSquare(r.metric(Metric.TAIL_DISTANCE));
             epochEnds.addSquare(r.metric(Metric.TAIL_DISTANCE_EPOCH_ENDS));
             double[] d = r.epochs().distance();
@@ -157,7 +160,8 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         } else if (b > 0 && b >= s) {
             state = State.NOT_REACHED;
             sentence = "has not reached its noise ball in this budget: the remaining bias is " + times(ratio)
-                    + " the ball; train longer, or a larger l2";
+                    + " the ball" + (decayed ? "; its rate fell before it got there: train longer, decay more slowly,"
+                            + " or use a larger l2" : "; train longer, or use a larger l2");
         } else if (last.value() > FARTHER_FACTOR * pLast.value()) {
             state = State.FARTHER_THAN_THEORY;
             sentence = "farther from θ* than the linearised theory allows (" + times(last.value() / pLast.value())
@@ -177,6 +181,15 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         }
         return new BallDiagnosis(state, sentence, finished, predicted, tail.value(), pTail.value(), epochEnds.value(),
                 pEpochEnds.value(), last.value(), pLast.value(), b, s, largest, limit, unstableFrom, unstableProduct);
+    }
+
+    /** @return true when the run's last rate is below half its largest: the rate fell over the run */
+    private static boolean decayed(double[] rates) {
+        double largest = 0;
+        for (double a : rates) {
+            largest = Math.max(largest, a);
+        }
+        return rates.length > 0 && rates[rates.length - 1] < 0.5 * largest;
     }
 
     /** A mean of the finite values added; NaN when none. */
