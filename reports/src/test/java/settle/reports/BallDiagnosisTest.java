@@ -27,11 +27,14 @@ class BallDiagnosisTest {
 
     private static final int REPLICATES = 3;
 
-    /** Arms: reached, approaching, not reached, farther, unstable, both b and c, every replicate diverged. */
+    /**
+     * Arms: reached, approaching, not reached, farther, unstable, both b and c, every replicate diverged, a bias
+     * that is small at the last update but not over the tail.
+     */
     private Path study() throws Exception {
         SyntheticStudy s = new SyntheticStudy();
         for (String name : List.of("reached", "approaching", "not-reached", "farther", "unstable", "bias-and-far",
-                "diverged")) {
+                "diverged", "tail-bias")) {
             List<SyntheticStudy.Rep> reps = s.arm(name, false, REPLICATES);
             s.tailRadius(reps, 0.1, 0.1, 0.1);
             for (SyntheticStudy.Rep r : reps) {
@@ -46,6 +49,7 @@ class BallDiagnosisTest {
                         java.util.Arrays.fill(r.rates, 0.5);
                     }
                     case "diverged" -> r.status = "diverged";
+                    case "tail-bias" -> r.tailBiasSq = 0.01;
                     default -> {
                     }
                 }
@@ -104,6 +108,11 @@ class BallDiagnosisTest {
         assertEquals("has not reached its noise ball in this budget: the remaining bias is 8× the ball; train longer,"
                 + " or use a larger l2", constantRate.sentence(), "a constant rate: no advice to decay more slowly");
 
+        BallDiagnosis tailBias = BallDiagnosis.of(study, 7);
+        assertEquals(State.APPROACHING, tailBias.state(), "0.001/0.05 at the last update, 0.01/0.05 over the tail");
+        assertEquals("still approaching its noise ball (remaining bias 20 % of the ball over the tail): the ratio tests"
+                + " the theory loosely", tailBias.sentence());
+
         BallDiagnosis diverged = BallDiagnosis.of(study, 6);
         assertEquals(State.NO_PREDICTION, diverged.state());
         assertEquals("no finished replicate: nothing to compare", diverged.sentence());
@@ -116,7 +125,7 @@ class BallDiagnosisTest {
         String html = Files.readString(path.resolve("report.html"));
         String section = html.substring(html.indexOf("<section id=\"distance\">"),
                 html.indexOf("<section id=\"wander\">"));
-        assertEquals(7, ReportHtmlTest.count(section, "<tbody class=\"arm-ball\""));
+        assertEquals(8, ReportHtmlTest.count(section, "<tbody class=\"arm-ball\""));
         String reached = group(section, "reached");
         assertTrue(reached.contains("<td class=\"num ratio\">0.8</td>"), reached);
         assertTrue(reached.contains("<td class=\"num ratio\">0.81</td>"), reached);

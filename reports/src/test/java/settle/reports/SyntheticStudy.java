@@ -48,6 +48,8 @@ final class SyntheticStudy {
         /** The prediction's {@code final_bias_sq} and {@code final_ball}; {@code final_distance_sq} is their sum. */
         double finalBiasSq = 0.001;
         double finalBall = 0.05;
+        /** The predicted bias² averaged over the tail; NaN: the same as at the last update. */
+        double tailBiasSq = Double.NaN;
         /** The prediction's {@code largest_rate_times_curvature}. */
         double largest = 0.15;
         /** When positive: the prediction is unstable from this update, with this α·λmax there. */
@@ -352,7 +354,8 @@ final class SyntheticStudy {
             number(pr, "final_excess_loss", stable ? (rep.finalBiasSq + rep.finalBall) * 0.15 : Double.NaN);
             number(pr, "final_bias_sq", stable ? rep.finalBiasSq : Double.NaN);
             number(pr, "final_ball", stable ? rep.finalBall : Double.NaN);
-            number(pr, "tail_bias_sq", stable ? rep.finalBiasSq : Double.NaN);
+            number(pr, "tail_bias_sq", stable ? (Double.isNaN(rep.tailBiasSq) ? rep.finalBiasSq : rep.tailBiasSq)
+                    : Double.NaN);
             number(pr, "tail_ball", stable ? rep.finalBall : Double.NaN);
             ObjectNode f = pr.putObject("fixed_point");
             f.put("rate", 0.5);

@@ -621,23 +621,24 @@ public final class ReportPage {
         Figures.distance(w, study);
         w.element("h3", "Has each arm reached its ball?");
         para("A ratio of measured to predicted tests the theory only where the arm has reached its noise ball. The "
-                + "prediction at the last update splits E‖θ_T − θ*‖² into bias², the squared mean offset still left "
-                + "from the start, and the ball, the spread around that mean. The first rule that holds decides:");
+                + "prediction splits E‖θ_t − θ*‖² into bias², the squared mean offset still left from the start, and "
+                + "the ball, the spread around that mean, both at the last update and averaged over the tail. The "
+                + "first rule that holds decides:");
         w.open("ol", "class", "rules");
         w.element("li", "unstable: some update's α·λmax reaches 2(1 + β)" + bound(label) + "; no ratio, and no "
                 + "predicted curve from there;");
-        w.element("li", "has not reached its ball: bias² ≥ ball; no ratio;");
+        w.element("li", "has not reached its ball: bias² ≥ ball at the last update; no ratio;");
         w.element("li", "farther than the theory allows: the measured ‖θ_T − θ*‖² exceeds "
                 + Format.sig(BallDiagnosis.FARTHER_FACTOR) + "× the prediction at the last update; no ratio;");
-        w.element("li", "still approaching its ball: bias² is " + Math.round(100 * BallDiagnosis.LOOSE_FROM)
-                + "–100 % of the ball; the ratio is a loose test;");
+        w.element("li", "still approaching its ball: bias² is at least " + Math.round(100 * BallDiagnosis.LOOSE_FROM)
+                + " % of the ball, at the last update or over the tail; the ratio is a loose test;");
         w.element("li", "otherwise it has reached its ball, and the ratio tests the theory.");
         w.close("ol");
         w.open("div", "class", "scroll");
         w.open("table", "class", "compact ball-table", "id", "ball-table");
         w.open("thead").open("tr");
         for (String h : new String[] {"arm", "over", "measured mean ‖θ − θ*‖²", "predicted", "measured / predicted",
-            "predicted bias² / ball at the last update", "largest α·λmax"}) {
+            "predicted bias² / ball", "largest α·λmax"}) {
             w.element("th", h, "scope", "col");
         }
         w.close("tr").close("thead");
@@ -655,8 +656,15 @@ public final class ReportPage {
             w.element("td", Format.sig(d.measuredTail()), "class", "num");
             w.element("td", Format.sig(shownPrediction(d, d.predictedTail())), "class", "num");
             w.element("td", Format.sig(d.tailRatio()), "class", "num ratio");
-            w.element("td", d.state() == BallDiagnosis.State.UNSTABLE || Double.isNaN(d.biasSq() + d.ball()) ? "—"
-                    : Format.sig(d.biasSq()) + " / " + Format.sig(d.ball()), "class", "num", "rowspan", "2");
+            if (d.state() == BallDiagnosis.State.UNSTABLE || Double.isNaN(d.biasSq() + d.ball())) {
+                w.element("td", "—", "class", "num", "rowspan", "2");
+            } else {
+                w.open("td", "class", "num", "rowspan", "2");
+                w.text("tail: " + Format.sig(d.tailBiasSq()) + " / " + Format.sig(d.tailBall()));
+                w.empty("br");
+                w.text("last update: " + Format.sig(d.biasSq()) + " / " + Format.sig(d.ball()));
+                w.close("td");
+            }
             w.element("td", Format.sig(d.largestProduct()), "class", "num", "rowspan", "2");
             w.close("tr");
             w.open("tr");
@@ -682,7 +690,7 @@ public final class ReportPage {
         para("Measured over every tail update: the mean of tail distance² = (1/L) Σ ‖θ_t − θ*‖² over the tail's L "
                 + "updates; over the epoch ends: the same over the tail's epoch ends (L and the number of epoch ends "
                 + "are those of the arm's first finished replicate). Bias² and ball are means over the "
-                + "replicates' predictions at their last update; "
+                + "replicates' predictions, averaged over the tail's updates and at the last update; "
                 + "largest α·λmax is the largest over the run and the replicates.");
         endSection();
     }

@@ -19,7 +19,9 @@ import settle.reports.study.Study;
  *   is below half its largest;</li>
  *   <li>measured mean ‖θ_T − θ*‖² at the last update &gt; {@value #FARTHER_FACTOR} × the predicted one:
  *   {@link State#FARTHER_THAN_THEORY};</li>
- *   <li>{@value #LOOSE_FROM} ≤ bias²/ball &lt; 1: {@link State#APPROACHING}, the ratio shown as a loose test;</li>
+ *   <li>bias²/ball ≥ {@value #LOOSE_FROM} at the last update or in the means over the tail (the ratio compares tail
+ *   means, so a bias the tail still holds weighs on it): {@link State#APPROACHING}, the ratio shown as a loose
+ *   test;</li>
  *   <li>otherwise {@link State#REACHED}, the ratio shown as a test of the theory ({@link State#UNJUDGED} instead
  *   when the files do not record bias and ball).</li>
  * </ol>
@@ -37,6 +39,8 @@ import settle.reports.study.Study;
  * @param predictedLast mean of the predicted final_distance_sq
  * @param biasSq mean of the predicted final_bias_sq
  * @param ball mean of the predicted final_ball
+ * @param tailBiasSq mean of the predicted tail_bias_sq (the squared bias averaged over the tail's updates)
+ * @param tailBall mean of the predicted tail_ball
  * @param largestProduct the largest α_t·λmax of any replicate
  * @param limit 2(1 + β), the stability limit of α·λmax
  * @param unstableFromUpdate the earliest unstable update of any replicate (0 when stable)
@@ -44,12 +48,13 @@ import settle.reports.study.Study;
  */
 public record BallDiagnosis(State state, String sentence, int replicates, int predictedReplicates,
         double measuredTail, double predictedTail, double measuredEpochEnds, double predictedEpochEnds,
-        double measuredLast, double predictedLast, double biasSq, double ball, double largestProduct, double limit,
+        double measuredLast, double predictedLast, double biasSq, double ball, double tailBiasSq, double tailBall,
+        double largestProduct, double limit,
         long unstableFromUpdate, double unstableProduct) {
 
     /** Rule 3: measured ‖θ_T − θ*‖² above this multiple of the predicted one is farther than the theory allows. */
     public static final double FARTHER_FACTOR = 3;
-    /** Rule 4: from this bias²/ball up to 1 the arm is still approaching its ball. */
+    /** Rule 4: from this bias²/ball (at the last update or over the tail) the arm is still approaching its ball. */
     public static final double LOOSE_FROM = 0.1;
 
     /** Which rule decided, in the order they are applied. */
@@ -62,7 +67,7 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         NOT_REACHED,
         /** Rule 3: measured far beyond the prediction at the last update. */
         FARTHER_THAN_THEORY,
-        /** Rule 4: the remaining bias is between 10 % and 100 % of the ball. */
+        /** Rule 4: the remaining bias is at least 10 % of the ball, at the last update or over the tail. */
         APPROACHING,
         /** Rule 5: at its ball; the ratio tests the theory. */
         REACHED,
@@ -100,6 +105,8 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         Mean pLast = new Mean();
         Mean bias = new Mean();
         Mean ball = new Mean();
+        Mean tailBias = new Mean();
+        Mean tailBall = new Mean();
         int finished = 0;
         int predicted = 0;
         double largest = Double.NaN;
@@ -131,6 +138,8 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
             pLast.add(p.finalDistanceSq());
             bias.add(p.finalBiasSq());
             ball.add(p.finalBall());
+            tailBias.add(p.tailBiasSq());
+            tailBall.add(p.tailBall());
             if (Double.isFinite(p.largestRateTimesCurvature())) {
                 largest = Double.isNaN(largest) ? p.largestRateTimesCurvature()
                         : Math.max(largest, p.largestRateTimesCurvature());
@@ -144,6 +153,8 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         double b = bias.value();
         double s = ball.value();
         double ratio = b / s;
+        double tailRatio = tailBias.value() / tailBall.value();
+        double loose = Double.isNaN(tailRatio) ? ratio : Math.max(ratio, tailRatio);
         State state;
         String sentence;
         if (finished == 0) {
@@ -167,10 +178,10 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
             sentence = "farther from θ* than the linearised theory allows (" + times(last.value() / pLast.value())
                     + " the prediction at the last update): it has likely not reached the region where the prediction"
                     + " holds";
-        } else if (ratio >= LOOSE_FROM && ratio < 1) {
+        } else if (loose >= LOOSE_FROM) {
             state = State.APPROACHING;
-            sentence = "still approaching its noise ball (remaining bias " + percent(ratio) + " of the ball): the ratio"
-                    + " tests the theory loosely";
+            sentence = "still approaching its noise ball (remaining bias " + percent(loose) + " of the ball"
+                    + (loose > ratio ? " over the tail" : "") + "): the ratio tests the theory loosely";
         } else if (Double.isNaN(ratio)) {
             state = State.UNJUDGED;
             sentence = "not judged: the replicate files do not record the predicted bias and ball, so the ratio is"
@@ -180,7 +191,8 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
             sentence = "reached its noise ball: the ratio tests the theory";
         }
         return new BallDiagnosis(state, sentence, finished, predicted, tail.value(), pTail.value(), epochEnds.value(),
-                pEpochEnds.value(), last.value(), pLast.value(), b, s, largest, limit, unstableFrom, unstableProduct);
+                pEpochEnds.value(), last.value(), pLast.value(), b, s, tailBias.value(), tailBall.value(), largest,
+                limit, unstableFrom, unstableProduct);
     }
 
     /** @return true when the run's last rate is below half its largest: the rate fell over the run */
