@@ -102,19 +102,21 @@ final class Recursion {
             throw new IllegalArgumentException("a reshuffled epoch draws " + (long) after + " examples, more than the "
                     + examples + " of the training split");
         }
+        // shuffle: the new coefficients' share of the epoch's draws, and the weights (per unit C̃_ii) of Welford's
+        // pooled increment and of the pending term n(1 − n/N)·ȳȳᵀ, both with the factor N/(N − 1)
+        double share = reshuffled ? batch / after : 0;
+        double pooled = reshuffled ? population * batch * before / after : 0;
+        double pending = reshuffled ? population * after * (1 - after / examples) : 0;
         if (beta == 0.0) {
-            stepPlain(a, batch, before, after);
+            stepPlain(a, batch, share, pooled, pending);
         } else {
-            stepMomentum(a, batch, before, after);
+            stepMomentum(a, batch, share, pooled, pending);
         }
         drawn = after;
     }
 
-    private void stepPlain(double a, int batch, double before, double after) {
+    private void stepPlain(double a, int batch, double share, double pooled, double pending) {
         double item = -a / batch;
-        double share = reshuffled ? batch / after : 0;
-        double pooled = reshuffled ? batch * before / after : 0;
-        double pending = reshuffled ? after * (1 - after / examples) : 0;
         double replaced = a * a / batch;
         double sumBias = 0;
         double sumBall = 0;
@@ -130,9 +132,9 @@ final class Recursion {
                 double y = g * yE[i];
                 double delta = item - y;
                 y += delta * share;
-                t += c * population * pooled * delta * delta;
+                t += c * pooled * delta * delta;
                 yE[i] = y;
-                cov = t + c * population * pending * y * y;
+                cov = t + c * pending * y * y;
             } else {
                 t += c * replaced;
                 cov = t;
@@ -144,15 +146,10 @@ final class Recursion {
             sumBall += cov;
             sumLoss += l * (mm + cov);
         }
-        bias = sumBias;
-        ball = sumBall;
-        loss = 0.5 * sumLoss;
+        totals(sumBias, sumBall, sumLoss);
     }
 
-    private void stepMomentum(double a, int batch, double before, double after) {
-        double share = reshuffled ? batch / after : 0;
-        double pooled = reshuffled ? batch * before / after : 0;
-        double pending = reshuffled ? after * (1 - after / examples) : 0;
+    private void stepMomentum(double a, int batch, double share, double pooled, double pending) {
         double itemE = -a / batch;
         double itemV = 1.0 / batch;
         double m12 = -a * beta;
@@ -186,13 +183,13 @@ final class Recursion {
                 double dv = itemV - yv;
                 ye += de * share;
                 yv += dv * share;
-                double w = c * population * pooled;
+                double w = c * pooled;
                 ee += w * de * de;
                 ev += w * de * dv;
                 vv += w * dv * dv;
                 yE[i] = ye;
                 yV[i] = yv;
-                cov = ee + c * population * pending * ye * ye;
+                cov = ee + c * pending * ye * ye;
             } else {
                 double w = c / batch;
                 ee += w * a * a;
@@ -210,6 +207,10 @@ final class Recursion {
             sumBall += cov;
             sumLoss += l * (mm + cov);
         }
+        totals(sumBias, sumBall, sumLoss);
+    }
+
+    private void totals(double sumBias, double sumBall, double sumLoss) {
         bias = sumBias;
         ball = sumBall;
         loss = 0.5 * sumLoss;
@@ -250,9 +251,7 @@ final class Recursion {
             sumBall += cov;
             sumLoss += lambda[i] * (mm + cov);
         }
-        bias = sumBias;
-        ball = sumBall;
-        loss = 0.5 * sumLoss;
+        totals(sumBias, sumBall, sumLoss);
     }
 
     /** @return ‖E e‖² = Σ m_e,i²: the predicted squared bias after the last update */
