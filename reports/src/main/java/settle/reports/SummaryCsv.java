@@ -13,22 +13,24 @@ import settle.reports.study.Study;
  * comma, quote, CR or LF). Columns:
  *
  * <ul>
- *   <li>{@code arm}: the arm's name; {@code metric}: the metric's key ({@code tail_radius}, …,
+ *   <li>{@code arm}: the arm's name; {@code metric}: the metric's key ({@code final_gap}, …,
  *       {@code seed_spread}, {@code prediction_spread}, {@code disagreement});</li>
  *   <li>{@code median}, {@code iqm}: over the arm's finished replicates (per-replicate metrics); for an
  *       arm-level metric {@code median} holds its one value and {@code iqm} is empty;</li>
- *   <li>{@code effect}, {@code ci_low}, {@code ci_high}: the Hodges–Lehmann % change against the baseline
- *       and its exact 95 % interval, for the verdict's metrics on non-baseline arms; for arm-level metrics
- *       {@code ci_low}/{@code ci_high} hold the joint bootstrap interval of the value;</li>
- *   <li>{@code p}, {@code p_holm}: the exact signed-rank p and its Holm adjustment across arms, for the
- *       primary metric (tail radius) only.</li>
+ *   <li>{@code effect}, {@code unit}, {@code ci_low}, {@code ci_high}, {@code ci_level}: for the verdict's metrics
+ *       on non-baseline arms, the Hodges–Lehmann change against the baseline in {@code unit} ({@code %} for a
+ *       log-ratio, {@code pp} for test accuracy's paired difference in percentage points) and its exact interval
+ *       at level {@code ci_level}, 1 − 0.05/m for m arms (adjusted like the p); for arm-level metrics
+ *       {@code ci_low}/{@code ci_high} hold the bootstrap interval of the value at level {@code ci_level};</li>
+ *   <li>{@code p}, {@code p_adjusted}: the exact signed-rank p and its Bonferroni adjustment across the arms, for
+ *       the verdict's metrics (the first, final gap or final objective, is primary; the rest are descriptive).</li>
  * </ul>
  * An empty field means "does not apply". Numbers are written in full precision (Java's shortest repr).
  */
 public final class SummaryCsv {
 
     /** The header line. */
-    public static final String HEADER = "arm,metric,median,iqm,effect,ci_low,ci_high,p,p_holm";
+    public static final String HEADER = "arm,metric,median,iqm,effect,unit,ci_low,ci_high,ci_level,p,p_adjusted";
 
     private SummaryCsv() {
     }
@@ -43,17 +45,18 @@ public final class SummaryCsv {
             String arm = quote(study.armName(a));
             for (Metric m : metrics) {
                 ArmSummary s = analysis.summaries(m)[a];
-                Comparison c = StudyAnalysis.COMPARED.contains(m) ? analysis.comparison(m, a) : null;
+                Comparison c = analysis.compared().contains(m) ? analysis.comparison(m, a) : null;
                 out.append(arm).append(',').append(m.key()).append(',').append(num(s.median())).append(',')
                         .append(num(s.interquartileMean())).append(',');
                 if (c != null && c.effectPairs() > 0) {
-                    out.append(num(c.percentChange())).append(',');
-                    out.append(c.exact().isDefined() ? num(Comparison.percent(c.exact().low())) : "").append(',');
-                    out.append(c.exact().isDefined() ? num(Comparison.percent(c.exact().high())) : "").append(',');
+                    out.append(num(c.change())).append(',').append(c.scale().unit()).append(',');
+                    out.append(c.exact().isDefined() ? num(c.scale().shown(c.exact().low())) : "").append(',');
+                    out.append(c.exact().isDefined() ? num(c.scale().shown(c.exact().high())) : "").append(',');
+                    out.append(num(c.level())).append(',');
                 } else {
-                    out.append(",,,");
+                    out.append(",,,,,");
                 }
-                if (c != null && m == StudyAnalysis.PRIMARY) {
+                if (c != null) {
                     out.append(num(c.p())).append(',').append(num(c.pAdjusted()));
                 } else {
                     out.append(',');
@@ -71,9 +74,11 @@ public final class SummaryCsv {
         if (!Double.isFinite(v.value())) {
             return;
         }
-        out.append(arm).append(',').append(key).append(',').append(num(v.value())).append(",,,")
-                .append(v.interval().isDefined() ? num(v.interval().low()) : "").append(',')
-                .append(v.interval().isDefined() ? num(v.interval().high()) : "").append(",,\r\n");
+        boolean interval = v.interval().isDefined();
+        out.append(arm).append(',').append(key).append(',').append(num(v.value())).append(",,,,")
+                .append(interval ? num(v.interval().low()) : "").append(',')
+                .append(interval ? num(v.interval().high()) : "").append(',')
+                .append(interval ? num(v.interval().level()) : "").append(",,\r\n");
     }
 
     private static String num(double v) {

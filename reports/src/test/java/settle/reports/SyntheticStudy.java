@@ -97,10 +97,20 @@ final class SyntheticStudy {
     }
 
     /** Sets the tail radius and the other metrics of arm a's replicates (every other metric a constant). */
+    /** Sets each replicate's final gap (the primary metric of a convex study), the others to their defaults. */
+    void finalGap(List<Rep> reps, double... values) {
+        for (int k = 0; k < values.length; k++) {
+            reps.get(k).metrics.put("final_gap", values[k]);
+        }
+        double[] radius = new double[values.length];
+        java.util.Arrays.fill(radius, 0.1);
+        tailRadius(reps, radius);
+    }
+
     void tailRadius(List<Rep> reps, double... values) {
         for (int k = 0; k < values.length; k++) {
             Rep r = reps.get(k);
-            r.metrics.put("tail_radius", values[k]);
+            r.metrics.putIfAbsent("tail_radius", values[k]);
             r.metrics.putIfAbsent("final_gap", 1e-3);
             r.metrics.putIfAbsent("final_distance", 0.1);
             r.metrics.putIfAbsent("tail_distance", 0.2);

@@ -25,7 +25,7 @@ class ReportAfterRunTest {
         assertEquals(0, StudyRunnerTest.settle(out, err, "run", plan.toString(), "--out", study.toString(), "--quiet",
                 "--threads", "1"), err.toString());
         assertTrue(Files.readString(study.resolve("report.html")).contains("<section id=\"verdict\">"));
-        assertTrue(Files.readString(study.resolve("summary.csv")).startsWith("arm,metric,median,iqm,effect,ci_low,ci_high,p,p_holm\r\n"));
+        assertTrue(Files.readString(study.resolve("summary.csv")).startsWith("arm,metric,median,iqm,effect,unit,ci_low,ci_high,ci_level,p,p_adjusted\r\n"));
         // The arm name with a comma is quoted in summary.csv.
         assertTrue(Files.readString(study.resolve("summary.csv")).contains("\"reciprocal, per update\",tail_radius,"));
 

@@ -204,7 +204,7 @@ public final class ReportPage {
         section("verdict", "Verdict");
         int base = manifest.baselineIndex();
         String baseline = manifest.baseline();
-        List<Comparison> primary = analysis.comparisons(StudyAnalysis.PRIMARY);
+        List<Comparison> primary = analysis.comparisons(analysis.primary());
         if (study.armCount() == 1) {
             para("The plan has only the baseline arm " + baseline + ": there is nothing to compare it with.");
         } else if (primary.isEmpty()) {
@@ -219,11 +219,11 @@ public final class ReportPage {
                 }
                 w.open("li");
                 w.element("strong", study.armName(a));
-                Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
+                Comparison c = analysis.comparison(analysis.primary(), a);
                 w.text(" " + VerdictSentence.render(c) + ".");
                 List<String> more = new ArrayList<>();
-                for (Metric m : StudyAnalysis.COMPARED) {
-                    Comparison d = m == StudyAnalysis.PRIMARY ? null : analysis.comparison(m, a);
+                for (Metric m : analysis.compared()) {
+                    Comparison d = m == analysis.primary() ? null : analysis.comparison(m, a);
                     if (d != null) {
                         more.add(withMetric(m, VerdictSentence.render(d)));
                     }
@@ -261,9 +261,9 @@ public final class ReportPage {
     private void pick(int base) {
         int best = -1;
         double bestMedian = Double.POSITIVE_INFINITY;
-        ArmSummary[] radius = analysis.summaries(StudyAnalysis.PRIMARY);
+        ArmSummary[] radius = analysis.summaries(analysis.primary());
         for (int a = 0; a < study.armCount(); a++) {
-            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
+            Comparison c = analysis.comparison(analysis.primary(), a);
             if (c != null && c.detected() && !c.armLarger() && radius[a].median() < bestMedian) {
                 best = a;
                 bestMedian = radius[a].median();
@@ -289,7 +289,7 @@ public final class ReportPage {
                             : "") + ".");
             w.close("p");
         } else {
-            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, best);
+            Comparison c = analysis.comparison(analysis.primary(), best);
             w.open("p");
             w.text("For low wander, pick ");
             w.element("strong", study.armName(best));
@@ -340,8 +340,8 @@ public final class ReportPage {
             swatch(a);
             w.text(study.armName(a) + (a == base ? " (baseline)" : ""));
             w.close("th");
-            w.element("td", summaryCell(StudyAnalysis.PRIMARY, a), "class", "num");
-            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
+            w.element("td", summaryCell(analysis.primary(), a), "class", "num");
+            Comparison c = analysis.comparison(analysis.primary(), a);
             if (c == null) {
                 for (int i = 0; i < 5; i++) {
                     w.element("td", a == base ? "" : "—", "class", "num");

@@ -11,8 +11,9 @@ import settle.reports.stats.ArmValues;
 import settle.reports.stats.Bootstrap;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Direction;
-import settle.reports.stats.Holm;
+import settle.reports.stats.Multiplicity;
 import settle.reports.stats.Interval;
+import settle.reports.stats.Scale;
 import settle.reports.stats.Verdict;
 import settle.reports.stats.VerdictOptions;
 import settle.reports.study.Metric;
@@ -21,7 +22,8 @@ import settle.reports.study.Study;
 
 /**
  * Everything a report shows that spans replicates: per-arm summaries of every per-replicate metric, the
- * verdict (each arm against the baseline, paired by replicate index, primary metric tail radius, the rest
+ * verdict (each arm against the baseline, paired by replicate index; the primary metric is where the returned
+ * iterate ends: its final gap F(θ_ret) − F(θ*) for convex models, its final training objective otherwise; the rest
  * descriptive), and the arm-level metrics with joint bootstrap intervals.
  *
  * <p>Pairing: the verdict uses the replicate indices whose file exists in every arm (a partial study drops
@@ -30,12 +32,12 @@ import settle.reports.study.Study;
  */
 public final class StudyAnalysis {
 
-    /** The metrics of the verdict, primary first. */
-    public static final List<Metric> COMPARED = List.of(Metric.TAIL_RADIUS, Metric.FINAL_GAP, Metric.FINAL_DISTANCE,
-            Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.AVERAGED_GAP);
-
-    /** The primary metric. */
-    public static final Metric PRIMARY = Metric.TAIL_RADIUS;
+    /** The metrics of the verdict of a convex model, primary first. */
+    private static final List<Metric> COMPARED_CONVEX = List.of(Metric.FINAL_GAP, Metric.FINAL_DISTANCE,
+            Metric.TAIL_RADIUS, Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.AVERAGED_GAP);
+    /** The metrics of the verdict without a reference minimiser, primary first. */
+    private static final List<Metric> COMPARED_OTHER = List.of(Metric.FINAL_OBJECTIVE, Metric.TAIL_RADIUS,
+            Metric.TEST_LOSS, Metric.TEST_ACCURACY);
 
     private static final Pattern L2 = Pattern.compile("(?m)^\\s+l2:\\s*([-+0-9.eE]+)\\s*$");
 
@@ -69,7 +71,7 @@ public final class StudyAnalysis {
         }
         int base = study.manifest().baselineIndex();
         if (arms > 1 && paired.length > 0) {
-            for (Metric m : COMPARED) {
+            for (Metric m : compared()) {
                 if (!available.contains(m)) {
                     continue;
                 }
@@ -81,7 +83,8 @@ public final class StudyAnalysis {
                     }
                 }
                 comparisons.put(m, Verdict.compare(m.words(), m.higherIsBetter() ? Direction.HIGHER_IS_BETTER
-                        : Direction.LOWER_IS_BETTER, baseline, others, options, m == PRIMARY));
+                        : Direction.LOWER_IS_BETTER, m == Metric.TEST_ACCURACY ? Scale.POINTS : Scale.LOG_RATIO,
+                        baseline, others, options, m == primary()));
             }
         }
         this.seedSpread = new ArmLevel[arms];
@@ -102,6 +105,19 @@ public final class StudyAnalysis {
     /** @return the analysis with the default verdict settings */
     public static StudyAnalysis of(Study study) {
         return of(study, VerdictOptions.defaults());
+    }
+
+    /**
+     * @return the primary metric: how far the returned iterate (θ_T, or the tail mean of an averaged arm) ends
+     *     from the minimum, its final gap for a convex model, its final training objective otherwise
+     */
+    public Metric primary() {
+        return study.convex() ? Metric.FINAL_GAP : Metric.FINAL_OBJECTIVE;
+    }
+
+    /** @return the metrics of the verdict, primary first */
+    public List<Metric> compared() {
+        return study.convex() ? COMPARED_CONVEX : COMPARED_OTHER;
     }
 
     /** @return the study analysed */
@@ -155,7 +171,7 @@ public final class StudyAnalysis {
 
     /** @return the replicates a verdict needs for adjusted p ≤ the significance level at this m */
     public int replicatesNeeded() {
-        return Holm.pairsNeeded(Math.max(1, comparedArms()), options.significance());
+        return Multiplicity.pairsNeeded(Math.max(1, comparedArms()), options.significance());
     }
 
     /** @return seed spread of arm {@code a} (convex models; else undefined) */

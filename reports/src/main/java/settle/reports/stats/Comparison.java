@@ -3,13 +3,15 @@ package settle.reports.stats;
 /**
  * One arm against the baseline on one per-replicate metric, paired by seed.
  *
- * <p>Effects are on the log-ratio scale, d_k = log(arm_k / baseline_k) after raising values below the
- * floor to it; {@link #percent(double)} turns them into a % change, 100·(exp(d) − 1).
+ * <p>Effects are on the comparison's {@link Scale}: the log-ratio d_k = log(arm_k / baseline_k) after raising values
+ * below the floor to it, shown as a % change 100·(exp(d) − 1); or the difference of a fraction, shown in percentage
+ * points. The intervals are at level 1 − (1 − c)/m, adjusted across the m arms like the p.
  *
  * @param metric metric name as shown ("tail radius")
  * @param arm the arm's name
  * @param baseline the baseline arm's name
  * @param direction which way the metric improves
+ * @param scale how paired values were compared
  * @param pairs replicate pairs given
  * @param bothDiverged pairs where both replicates diverged: dropped from everything
  * @param armDiverged pairs where only the arm's replicate diverged (counted as the arm being worse)
@@ -20,23 +22,24 @@ package settle.reports.stats;
  * @param testPairs pairs ranked in the signed-rank test
  * @param statistic V, the sum of the (mid)ranks of the pairs where the arm is larger
  * @param p exact two-sided signed-rank p-value
- * @param pAdjusted Holm-adjusted p over the {@code arms} comparisons of this metric
+ * @param pAdjusted Bonferroni-adjusted p over the {@code arms} comparisons of this metric, min(1, m·p)
  * @param arms m, the number of arms compared with the baseline
  * @param effectPairs finite pairs behind the effect and its intervals
- * @param estimate Hodges–Lehmann estimate of the log-ratio (NaN without finite pairs)
- * @param exact exact signed-rank interval of the log-ratio, with its achieved level
- * @param bootstrap percentile bootstrap interval of the log-ratio
+ * @param estimate Hodges–Lehmann estimate of d (NaN without finite pairs)
+ * @param exact exact signed-rank interval of d at the adjusted level, with the level it achieves
+ * @param bootstrap percentile bootstrap interval of d at the adjusted level
  * @param probabilityBetter fraction of the pairs (both-diverged dropped) where the arm beats the
  *     baseline, ties counting ½
  * @param smallestAdjustedP m · 2/2ⁿ for n = testPairs: the best this study could show
  * @param pairsNeeded the number of pairs for which m · 2/2ⁿ ≤ significance
  * @param significance level α for "a difference is detected"
+ * @param level the intervals' requested level, 1 − (1 − c)/m
  */
-public record Comparison(String metric, String arm, String baseline, Direction direction, int pairs,
+public record Comparison(String metric, String arm, String baseline, Direction direction, Scale scale, int pairs,
         int bothDiverged, int armDiverged, int baselineDiverged, int clamped, double floor, int zeroDifferences,
         int testPairs, double statistic, double p, double pAdjusted, int arms, int effectPairs, double estimate,
         Interval exact, Interval bootstrap, double probabilityBetter, double smallestAdjustedP, int pairsNeeded,
-        double significance) {
+        double significance, double level) {
 
     public Comparison {
         if (pairs != bothDiverged + armDiverged + baselineDiverged + effectPairs) {
@@ -60,12 +63,22 @@ public record Comparison(String metric, String arm, String baseline, Direction d
         return 100.0 * Math.expm1(logRatio);
     }
 
-    /** @return the estimated % change (NaN without finite pairs) */
-    public double percentChange() {
-        return percent(estimate);
+    /** @return the estimated change as shown: % (log ratio) or percentage points (NaN without finite pairs) */
+    public double change() {
+        return scale.shown(estimate);
     }
 
-    /** @return true when the Holm-adjusted p is at most the significance level */
+    /** @return the estimated change as shown; kept for the report's table until it reads {@link #change()} */
+    public double percentChange() {
+        return change();
+    }
+
+    /** @return true when the exact interval lies entirely on one side of "no change" */
+    public boolean intervalExcludesZero() {
+        return exact.isDefined() && (exact.low() > 0 || exact.high() < 0);
+    }
+
+    /** @return true when the adjusted p is at most the significance level */
     public boolean detected() {
         return pAdjusted <= significance;
     }

@@ -8,15 +8,17 @@ import java.util.List;
  * The verdict on one per-replicate metric: every arm against the baseline, paired by seed.
  *
  * <ol>
- *   <li>Values below the floor are raised to it; d_k = log(arm_k / baseline_k).</li>
+ *   <li>On the {@link Scale#LOG_RATIO} scale values below the floor are raised to it and d_k = log(arm_k /
+ *       baseline_k); on the {@link Scale#POINTS} scale (a fraction such as accuracy) d_k = arm_k − baseline_k.</li>
  *   <li>Pairs where both replicates diverged are dropped and counted. A pair where only one diverged
  *       counts the diverged side as worse than every finite value: d_k = ±∞ with the sign of "the arm
  *       is worse" (+∞ for lower-is-better metrics when the arm diverged), so such pairs take the
  *       largest ranks with that sign.</li>
- *   <li>Exact Wilcoxon signed-rank test on d (zeros dropped and counted, midranks for ties), then Holm
- *       across the arms.</li>
- *   <li>Effect: Hodges–Lehmann estimate of d over the finite pairs, its exact interval, and a percentile
- *       bootstrap interval; the pairs with a diverged replicate are set aside and counted.</li>
+ *   <li>Exact Wilcoxon signed-rank test on d (zeros dropped and counted, midranks for ties), then Bonferroni
+ *       across the m arms ({@link Multiplicity}).</li>
+ *   <li>Effect: Hodges–Lehmann estimate of d over the finite pairs, its exact interval and a percentile
+ *       bootstrap interval, both at level 1 − (1 − c)/m, adjusted like the p; the pairs with a diverged
+ *       replicate are set aside and counted.</li>
  *   <li>Probability of beating the baseline on a random seed: over the pairs not both diverged, the
  *       fraction where the arm is better (a diverged side always loses), ties counting ½.</li>
  * </ol>
@@ -29,25 +31,26 @@ public final class Verdict {
     /**
      * @param metric metric name as shown in sentences
      * @param direction which way the metric improves
+     * @param scale how paired values are compared
      * @param baseline the baseline arm's values
      * @param arms the other arms, each with as many replicates as the baseline
      * @param options floor, levels, bootstrap settings
-     * @return one comparison per arm, in the order given, with Holm-adjusted p-values
+     * @return one comparison per arm, in the order given, with adjusted p-values and intervals
      */
-    public static List<Comparison> compare(String metric, Direction direction, ArmValues baseline,
+    public static List<Comparison> compare(String metric, Direction direction, Scale scale, ArmValues baseline,
             List<ArmValues> arms, VerdictOptions options) {
-        return compare(metric, direction, baseline, arms, options, true);
+        return compare(metric, direction, scale, baseline, arms, options, true);
     }
 
     /**
-     * As {@link #compare(String, Direction, ArmValues, List, VerdictOptions)}, with the percentile bootstrap
+     * As {@link #compare(String, Direction, Scale, ArmValues, List, VerdictOptions)}, with the percentile bootstrap
      * interval only when asked (descriptive metrics may leave it out: it is the costly part). The arms'
      * bootstrap intervals are computed in parallel; each depends only on its own pairs and the fixed seed,
      * so the result is the same at any thread count.
      *
      * @param bootstrap compute the bootstrap interval; when false it is {@link Interval#none(double)}
      */
-    public static List<Comparison> compare(String metric, Direction direction, ArmValues baseline,
+    public static List<Comparison> compare(String metric, Direction direction, Scale scale, ArmValues baseline,
             List<ArmValues> arms, VerdictOptions options, boolean bootstrap) {
         if (arms.isEmpty()) {
             throw new IllegalArgumentException("metric '" + metric + "': no arm to compare with the baseline '"
@@ -63,31 +66,30 @@ public final class Verdict {
                         + arm.size() + " replicates but the baseline '" + baseline.name() + "' has "
                         + baseline.size());
             }
-            partial[a] = pairUp(direction, baseline, arm, options);
+            partial[a] = pairUp(direction, scale, baseline, arm, options);
             raw[a] = partial[a].test.pValue();
         }
-        double[] adjusted = Holm.adjust(raw);
-        int needed = Holm.pairsNeeded(m, options.significance());
+        double[] adjusted = Multiplicity.adjust(raw);
+        int needed = Multiplicity.pairsNeeded(m, options.significance());
+        double level = Multiplicity.level(options.confidence(), m);
         Interval[] boots = new Interval[m];
         java.util.stream.IntStream.range(0, m).parallel().forEach(a -> {
             double[] finite = partial[a].finiteLogRatios;
-            boots[a] = finite.length == 0 || !bootstrap ? Interval.none(options.confidence())
-                    : Bootstrap.hodgesLehmannInterval(finite, options.seed(), options.resamples(),
-                            options.confidence());
+            boots[a] = finite.length == 0 || !bootstrap ? Interval.none(level)
+                    : Bootstrap.hodgesLehmannInterval(finite, options.seed(), options.resamples(), level);
         });
         List<Comparison> out = new ArrayList<>(m);
         for (int a = 0; a < m; a++) {
             Partial q = partial[a];
             double[] finite = q.finiteLogRatios;
             double estimate = finite.length == 0 ? Double.NaN : HodgesLehmann.estimate(finite);
-            Interval exact = finite.length == 0 ? Interval.none(0.0)
-                    : HodgesLehmann.exactInterval(finite, options.confidence());
+            Interval exact = finite.length == 0 ? Interval.none(0.0) : HodgesLehmann.exactInterval(finite, level);
             Interval boot = boots[a];
-            out.add(new Comparison(metric, arms.get(a).name(), baseline.name(), direction, baseline.size(),
+            out.add(new Comparison(metric, arms.get(a).name(), baseline.name(), direction, scale, baseline.size(),
                     q.bothDiverged, q.armDiverged, q.baselineDiverged, q.clamped, options.floor(),
                     q.test.zeros(), q.test.used(), q.test.statistic(), q.test.pValue(), adjusted[a], m,
                     finite.length, estimate, exact, boot, q.probabilityBetter,
-                    Holm.smallestAdjustedP(m, q.test.used()), needed, options.significance()));
+                    Multiplicity.smallestAdjustedP(m, q.test.used()), needed, options.significance(), level));
         }
         return out;
     }
@@ -96,7 +98,8 @@ public final class Verdict {
             double[] finiteLogRatios, SignedRankResult test, double probabilityBetter) {
     }
 
-    private static Partial pairUp(Direction direction, ArmValues baseline, ArmValues arm, VerdictOptions options) {
+    private static Partial pairUp(Direction direction, Scale scale, ArmValues baseline, ArmValues arm,
+            VerdictOptions options) {
         int n = baseline.size();
         double worse = direction == Direction.LOWER_IS_BETTER ? Double.POSITIVE_INFINITY : Double.NEGATIVE_INFINITY;
         double floor = options.floor();
@@ -129,15 +132,17 @@ public final class Verdict {
             }
             double a = arm.value(k);
             double b = baseline.value(k);
-            if (a < floor) {
-                a = floor;
-                clamped++;
+            if (scale == Scale.LOG_RATIO) {
+                if (a < floor) {
+                    a = floor;
+                    clamped++;
+                }
+                if (b < floor) {
+                    b = floor;
+                    clamped++;
+                }
             }
-            if (b < floor) {
-                b = floor;
-                clamped++;
-            }
-            double d = a == b ? 0.0 : Math.log(a / b);
+            double d = a == b ? 0.0 : scale == Scale.LOG_RATIO ? Math.log(a / b) : a - b;
             differences[used++] = d;
             finite[finiteCount++] = d;
             if (d == 0.0) {

@@ -8,18 +8,30 @@ import java.util.List;
 import java.util.Locale;
 
 /**
- * Plain sentences for a {@link Comparison}, for example "reduces tail radius by 64 % (95 % CI 58–70 %,
- * p = 0.002)" or "no difference detected with 6 replicates (10 needed to detect one at this number of
- * arms)". The sentence has no subject: the caller puts the arm's name before it. Numbers are rounded
- * to two significant digits; with more than one arm the p shown is Holm-adjusted and says so. The
- * interval shown is the exact one; the bootstrap interval belongs in tables. Plain text: escaping for
+ * Plain sentences for a {@link Comparison}, for example "reduces final gap by 64 % (Bonferroni 99 % CI 58–70 %,
+ * adjusted p = 0.002)", "increases test accuracy by 0.9 percentage points (95 % CI +0.4 to +1.5 pp, p = 0.01)" or
+ * "no difference detected with 6 pairs (change −3 %, 95 % CI −10 to +4 %, p = 0.41; 10 pairs needed to detect one
+ * with 20 arms)". The sentence has no subject: the caller puts the arm's name before it. Plain text: escaping for
  * HTML is the renderer's job.
+ *
+ * <p>Coherence: the interval shown beside a p is adjusted the same way (Bonferroni level 1 − (1 − c)/m, labelled
+ * so when m &gt; 1), and a sentence claims a difference only when the adjusted p and the interval agree: "reduces" or
+ * "increases" needs adjusted p ≤ α and an interval on that side of no change; "no difference detected" needs
+ * adjusted p &gt; α and an interval that holds no change. When ties or pairs with a diverged replicate (which count
+ * in the test but not in the interval) make the two disagree, the sentence says so and claims nothing.
+ *
+ * <p>Numbers: two significant digits (whole numbers from 10 on); a change whose magnitude rounds below 0.005 prints
+ * as 0; a reduction of 99.95 % or more prints as "&gt; 99.9 %" (signed: "&lt; −99.9 %").
  */
 public final class VerdictSentence {
 
     private static final MathContext TWO_DIGITS = new MathContext(2, RoundingMode.HALF_UP);
     private static final double SMALLEST_SHOWN_P = 1e-4;
     private static final double LEVEL_SLACK = 1e-9;
+    /** Changes of smaller magnitude (in % or percentage points) print as 0. */
+    static final double SHOWN_ZERO = 0.005;
+    /** % reductions from this magnitude on print as "> 99.9". */
+    private static final double NEAR_ALL = 99.95;
 
     private VerdictSentence() {
     }
@@ -31,37 +43,43 @@ public final class VerdictSentence {
     public static String render(Comparison c) {
         String main;
         boolean effectShown = false;
+        int tied = c.zeroDifferences();
+        int compared = c.pairs() - c.bothDiverged();
         if (c.testPairs() == 0 && c.effectPairs() == 0) {
             main = "cannot be compared on " + c.metric() + ": no usable pair of replicates";
-        } else if (c.testPairs() == 0 && c.zeroDifferences() == c.effectPairs()) {
+        } else if (c.testPairs() == 0 && tied == c.effectPairs()) {
             main = "has the same " + c.metric() + " as the baseline in all " + c.effectPairs() + " pairs";
             effectShown = true;
-        } else if (c.detected()) {
-            String verb = c.armLarger() ? "increases" : "reduces";
-            if (effectAgrees(c)) {
-                main = verb + " " + c.metric() + " by " + magnitude(c.percentChange()) + " % (" + ciText(c, false) + ", "
-                        + pText(c) + ")";
+        } else if (c.detected() && reachesLevel(c) && effectAgrees(c)) {
+            main = (c.armLarger() ? "increases " : "reduces ") + c.metric() + " by " + magnitude(c) + " ("
+                    + ciText(c, false) + ", " + pText(c) + ")";
+            effectShown = true;
+        } else if (!c.detected() && (!reachesLevel(c) || !c.intervalExcludesZero())) {
+            main = tied > 0 ? "no difference detected: " + tied + " of " + compared + " pairs tied, " + c.testPairs()
+                    + " left for the test" : "no difference detected with " + c.testPairs() + " pair"
+                    + (c.testPairs() == 1 ? "" : "s");
+            if (c.effectPairs() > 0 && reachesLevel(c)) {
+                main += " (change " + signedChange(c, c.estimate()) + ", " + ciText(c, true) + ", " + pText(c);
+                effectShown = true;
+            } else if (c.effectPairs() > 0 && c.exact().isDefined()) {
+                main += " (change " + signedChange(c, c.estimate()) + "; " + c.effectPairs() + " pairs are too few for a "
+                        + levelText(c) + " interval; " + pText(c);
                 effectShown = true;
             } else {
-                main = verb + " " + c.metric() + " (" + pText(c) + ")";
+                main += " (" + pText(c);
             }
-        } else if (c.testPairs() < c.pairsNeeded()) {
-            main = "no difference detected with " + c.testPairs() + " replicates (" + c.pairsNeeded()
-                    + " needed to detect one at this number of arms)";
+            if (c.testPairs() < c.pairsNeeded()) {
+                main += "; " + c.pairsNeeded() + (tied > 0 ? " untied" : "") + " pairs needed to detect one"
+                        + (c.arms() > 1 ? " with " + c.arms() + " arms" : "");
+            }
+            main += ")";
         } else {
-            main = "no difference detected with " + c.testPairs() + " replicates";
-            if (c.effectPairs() > 0 && c.exact().isDefined()) {
-                main += " (change " + signed(c.percentChange()) + " %, " + ciText(c, true) + ", " + pText(c) + ")";
-                effectShown = true;
-            } else {
-                main += " (" + pText(c) + ")";
-            }
+            main = "no difference claimed: the test (" + pText(c) + ") and its interval (" + (c.exact().isDefined()
+                    ? "change " + signedChange(c, c.estimate()) + ", " + ciText(c, true) : "none") + ") disagree, "
+                    + disagreementCause(c);
+            effectShown = true;
         }
         List<String> notes = new ArrayList<>();
-        if (!effectShown && c.effectPairs() > 0 && c.exact().isDefined() && (c.detected() || c.testPairs() < c.pairsNeeded())) {
-            notes.add("on the " + c.effectPairs() + " finite pairs the change is " + signed(c.percentChange())
-                    + " % (" + ciText(c, true) + ")");
-        }
         if (c.bothDiverged() > 0) {
             notes.add(count(c.bothDiverged(), "pair", "pairs") + " where both replicates diverged dropped");
         }
@@ -70,8 +88,8 @@ public final class VerdictSentence {
                     + " with a diverged replicate set aside (" + c.armDiverged() + " of the arm, "
                     + c.baselineDiverged() + " of the baseline, counted as worst in the test)");
         }
-        if (c.zeroDifferences() > 0 && c.testPairs() > 0) {
-            notes.add(count(c.zeroDifferences(), "zero difference", "zero differences") + " dropped from the test");
+        if (tied > 0 && c.testPairs() > 0 && effectShown && !main.contains(" pairs tied")) {
+            notes.add(tied + " of " + compared + " pairs tied (dropped from the test)");
         }
         if (c.clamped() > 0) {
             notes.add(count(c.clamped(), "value", "values") + " below the floor "
@@ -84,6 +102,15 @@ public final class VerdictSentence {
         return sb.toString();
     }
 
+    /**
+     * @return true when the exact interval reaches the adjusted level (with very few pairs the widest interval the
+     *     signed-rank distribution allows covers less, and is then the interval of a laxer test than the p's)
+     */
+    private static boolean reachesLevel(Comparison c) {
+        return c.exact().isDefined() && c.exact().level() + LEVEL_SLACK >= c.level();
+    }
+
+    /** @return true when the estimate and the whole interval lie on the side the ranks say */
     private static boolean effectAgrees(Comparison c) {
         if (c.effectPairs() == 0 || !c.exact().isDefined()) {
             return false;
@@ -93,31 +120,45 @@ public final class VerdictSentence {
         return c.armLarger() ? (c.estimate() > 0 && low > 0) : (c.estimate() < 0 && high < 0);
     }
 
+    private static String disagreementCause(Comparison c) {
+        List<String> causes = new ArrayList<>();
+        if (c.setAside() > 0) {
+            causes.add(c.setAside() + " pair" + (c.setAside() == 1 ? "" : "s") + " with a diverged replicate count in"
+                    + " the test but not in the interval");
+        }
+        if (c.zeroDifferences() > 0) {
+            causes.add(c.zeroDifferences() + " tied pair" + (c.zeroDifferences() == 1 ? "" : "s")
+                    + " are dropped from the test but not from the interval");
+        }
+        if (causes.isEmpty()) {
+            causes.add("the test's tied ranks and the interval's untied distribution differ at the edge");
+        }
+        return String.join(" and ", causes);
+    }
+
     /**
      * @param signedBounds true beside a signed change ("change −1.3 %, 95 % CI −2.6 to −0.16 %"); false after
      *     "reduces … by" or "increases … by", where the bounds are magnitudes of that change
      */
     private static String ciText(Comparison c, boolean signedBounds) {
-        double lo = Comparison.percent(c.exact().low());
-        double hi = Comparison.percent(c.exact().high());
         String body;
-        if (signedBounds) {
-            body = signed(lo) + " to " + signed(hi) + " %";
-        } else if (lo > 0 && hi > 0) {
-            body = magnitude(lo) + "–" + magnitude(hi) + " %";
-        } else if (lo < 0 && hi < 0) {
-            body = magnitude(hi) + "–" + magnitude(lo) + " %";
+        double lo = c.scale().shown(c.exact().low());
+        double hi = c.scale().shown(c.exact().high());
+        String unit = " " + c.scale().unit();
+        if (!signedBounds && lo > 0 && hi > 0) {
+            body = magnitudeOf(c.scale(), lo) + "–" + magnitudeOf(c.scale(), hi) + unit;
+        } else if (!signedBounds && lo < 0 && hi < 0) {
+            body = magnitudeOf(c.scale(), hi) + "–" + magnitudeOf(c.scale(), lo) + unit;
         } else {
-            body = signed(lo) + " to " + signed(hi) + " %";
+            body = signedOf(c.scale(), lo) + " to " + signedOf(c.scale(), hi) + unit;
         }
-        return level(c) + " % CI " + body;
+        return levelText(c) + " CI " + body;
     }
 
-    private static String level(Comparison c) {
-        double requested = c.bootstrap().level();
-        double achieved = c.exact().level();
-        double shown = achieved + LEVEL_SLACK >= requested ? requested : achieved;
-        return plain(100.0 * shown);
+    /** @return "95 %" for one arm, "Bonferroni 99 %" for five: the level each arm's interval is taken at */
+    private static String levelText(Comparison c) {
+        String level = plainLevel(100.0 * c.level()) + " %";
+        return c.arms() > 1 ? "Bonferroni " + level : level;
     }
 
     private static String pText(Comparison c) {
@@ -133,18 +174,41 @@ public final class VerdictSentence {
         return n + " " + (n == 1 ? one : many);
     }
 
-    /** @return |x| to two significant digits, plain notation */
-    static String magnitude(double x) {
-        return plain(Math.abs(x));
+    /** @return the estimate's magnitude with its unit: "64 %", "> 99.9 %", "0.87 percentage points" */
+    private static String magnitude(Comparison c) {
+        String m = magnitudeOf(c.scale(), c.change());
+        return c.scale() == Scale.LOG_RATIO ? m + " %" : m + " percentage point" + (m.equals("1") ? "" : "s");
     }
 
-    /** @return x to two significant digits with an explicit sign ("+4", "−10", "0") */
-    static String signed(double x) {
-        String s = plain(Math.abs(x));
-        if (s.equals("0")) {
+    /** @return a change shown with its sign and unit: "−10 %", "+0.5 pp", "0 %" */
+    private static String signedChange(Comparison c, double d) {
+        return signedOf(c.scale(), c.scale().shown(d)) + " " + c.scale().unit();
+    }
+
+    /** @return |x| as shown: two significant digits, "0" near zero, "> 99.9" for a near-total % reduction */
+    static String magnitudeOf(Scale scale, double x) {
+        if (scale == Scale.LOG_RATIO && x <= -NEAR_ALL) {
+            return "> 99.9";
+        }
+        return Math.abs(x) < SHOWN_ZERO ? "0" : plain(Math.abs(x));
+    }
+
+    /** @return x with an explicit sign ("+4", "−10", "0"; "< −99.9" for a near-total % reduction) */
+    static String signedOf(Scale scale, double x) {
+        if (scale == Scale.LOG_RATIO && x <= -NEAR_ALL) {
+            return "< −99.9";
+        }
+        if (Math.abs(x) < SHOWN_ZERO) {
             return "0";
         }
+        String s = plain(Math.abs(x));
         return (x < 0 ? "−" : "+") + s;
+    }
+
+    /** @return a confidence level in %: "95", "99", "98.3" (up to three significant digits, trailing zeros dropped) */
+    private static String plainLevel(double percent) {
+        return new BigDecimal(percent).round(new MathContext(3, RoundingMode.DOWN)).stripTrailingZeros()
+                .toPlainString();
     }
 
     /** @return x ≥ 0 rounded to two significant digits (whole numbers from 10 on), plain notation */

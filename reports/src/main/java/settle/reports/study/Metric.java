@@ -5,11 +5,13 @@ package settle.reports.study;
  * order (study directory format 2).
  */
 public enum Metric {
-    /** F(θ_F) − F(θ*). */
+    /** F(θ_F): the training objective of the returned iterate (the primary metric without a reference minimiser). */
+    FINAL_OBJECTIVE("final_objective", "final objective", false, false),
+    /** F(θ_F) − F(θ*): the primary metric of a convex model. */
     FINAL_GAP("final_gap", "final gap", true, false),
     /** ‖θ_F − θ*‖. */
     FINAL_DISTANCE("final_distance", "final distance", true, false),
-    /** sqrt((1/L) Σ ‖θ_t − θ̄‖²) over every tail update, θ̄ the tail mean: the primary metric. */
+    /** sqrt((1/L) Σ ‖θ_t − θ̄‖²) over every tail update, θ̄ the tail mean: how much the run still moves. */
     TAIL_RADIUS("tail_radius", "tail radius", false, false),
     /** sqrt((1/L) Σ ‖θ_t − θ*‖²) over every tail update. */
     TAIL_DISTANCE("tail_distance", "tail distance", true, false),

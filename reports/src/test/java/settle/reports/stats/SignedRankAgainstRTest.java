@@ -7,9 +7,10 @@ import java.util.List;
 import org.junit.jupiter.api.Test;
 
 /**
- * Exact signed-rank p-values, Hodges–Lehmann estimates and exact intervals, and Holm adjustments
- * against R 4.2.2 (Debian r-base-core; {@code wilcox.test(x, y, paired = TRUE, exact = TRUE,
- * conf.int = TRUE)} and {@code p.adjust(method = "holm")}). The fixtures and the script that made them,
+ * Exact signed-rank p-values, Hodges–Lehmann estimates and exact intervals (at 95 %, and at the 99 % that five
+ * arms' Bonferroni adjustment asks for), and Bonferroni adjustments against R 4.2.2 (Debian r-base-core;
+ * {@code wilcox.test(x, y, paired = TRUE, exact = TRUE, conf.int = TRUE, conf.level = …)} and
+ * {@code p.adjust(method = "bonferroni")}). The fixtures and the script that made them,
  * {@code make_wilcoxon_fixture.R}, are in src/test/resources/settle/reports/stats. Sizes 4–49, untied
  * (R's exact branch); n = 35 and 49 show that n &gt; 30 works.
  */
@@ -57,8 +58,8 @@ class SignedRankAgainstRTest {
             int kase = Integer.parseInt(r[0]);
             double[] x = Fixtures.column(data, kase, 2);
             double[] y = Fixtures.column(data, kase, 3);
-            Comparison c = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, ArmValues.finite("base", y),
-                    List.of(ArmValues.finite("arm", x)), VerdictOptions.defaults()).get(0);
+            Comparison c = Verdict.compare("final gap", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO,
+                    ArmValues.finite("base", y), List.of(ArmValues.finite("arm", x)), VerdictOptions.defaults()).get(0);
             String label = "case " + kase;
             // log(x/y) and R's log(x) − log(y) differ by rounding only: a looser tolerance for the effect
             double loose = 1e-9;
@@ -66,7 +67,32 @@ class SignedRankAgainstRTest {
             assertEquals(Double.parseDouble(r[3]), c.estimate(), loose, label + " estimate");
             assertEquals(Double.parseDouble(r[4]), c.exact().low(), loose, label + " ci low");
             assertEquals(Double.parseDouble(r[5]), c.exact().high(), loose, label + " ci high");
-            assertEquals(c.p(), c.pAdjusted(), 0.0, "one arm: Holm leaves p alone");
+            assertEquals(c.p(), c.pAdjusted(), 0.0, "one arm: the adjustment leaves p alone");
+            assertEquals(0.95, c.level(), 0.0, "one arm: the nominal level");
+        }
+    }
+
+    @Test
+    void withFiveArmsTheIntervalIsR99PercentOne() {
+        List<String[]> data = Fixtures.rows("wilcoxon_data.csv");
+        List<String[]> results = Fixtures.rows("wilcoxon_log_r99.csv");
+        for (String[] r : results) {
+            int kase = Integer.parseInt(r[0]);
+            double[] x = Fixtures.column(data, kase, 2);
+            double[] y = Fixtures.column(data, kase, 3);
+            List<ArmValues> arms = new java.util.ArrayList<>();
+            arms.add(ArmValues.finite("arm", x));
+            for (int k = 0; k < 4; k++) {
+                arms.add(ArmValues.finite("other " + k, y));
+            }
+            Comparison c = Verdict.compare("final gap", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO,
+                    ArmValues.finite("base", y), arms, VerdictOptions.defaults()).get(0);
+            String label = "case " + kase;
+            assertEquals(0.99, c.level(), 1e-15, "1 − 0.05/5");
+            assertClose(Double.parseDouble(r[2]), c.p(), label + " p");
+            assertEquals(Math.min(1.0, 5 * c.p()), c.pAdjusted(), 0.0, label + " Bonferroni");
+            assertEquals(Double.parseDouble(r[3]), c.exact().low(), 1e-9, label + " 99 % ci low");
+            assertEquals(Double.parseDouble(r[4]), c.exact().high(), 1e-9, label + " 99 % ci high");
         }
     }
 
@@ -85,14 +111,14 @@ class SignedRankAgainstRTest {
     }
 
     @Test
-    void holmMatchesR() {
-        List<String[]> rows = Fixtures.rows("holm_r.csv");
+    void bonferroniMatchesR() {
+        List<String[]> rows = Fixtures.rows("bonferroni_r.csv");
         for (int kase = 1; kase <= 5; kase++) {
             double[] p = Fixtures.column(rows, kase, 2);
             double[] expected = Fixtures.column(rows, kase, 3);
-            double[] adjusted = Holm.adjust(p);
+            double[] adjusted = Multiplicity.adjust(p);
             for (int i = 0; i < p.length; i++) {
-                assertClose(expected[i], adjusted[i], "Holm case " + kase + " entry " + (i + 1));
+                assertClose(expected[i], adjusted[i], "Bonferroni case " + kase + " entry " + (i + 1));
             }
         }
     }

@@ -113,27 +113,28 @@ class SignedRankExactTest {
                 d[i] = -(i + 1) * 0.1;
             }
             assertEquals(floors[n - 4], SignedRankTest.test(d).pValue(), 0.0, "n = " + n);
-            assertEquals(floors[n - 4], Holm.smallestAdjustedP(1, n), 0.0);
+            assertEquals(floors[n - 4], Multiplicity.smallestAdjustedP(1, n), 0.0);
         }
-        assertEquals(4 * 0.0078125, Holm.smallestAdjustedP(4, 8), 0.0);
+        assertEquals(4 * 0.0078125, Multiplicity.smallestAdjustedP(4, 8), 0.0);
     }
 
     @Test
     void replicatesNeededForFivePercent() {
         // 2m/2ⁿ ≤ 0.05 ⇔ 2ⁿ ≥ 40m (hand-computed): m = 1 → 6 (64 ≥ 40), m = 4 → 8 (256 ≥ 160),
         // m = 13 → 10 (1024 ≥ 520, 512 < 520), m = 25 → 10 (1024 ≥ 1000).
-        assertEquals(6, Holm.pairsNeeded(1, 0.05));
-        assertEquals(8, Holm.pairsNeeded(4, 0.05));
-        assertEquals(10, Holm.pairsNeeded(13, 0.05));
-        assertEquals(10, Holm.pairsNeeded(25, 0.05));
-        assertEquals(11, Holm.pairsNeeded(26, 0.05));
+        assertEquals(6, Multiplicity.pairsNeeded(1, 0.05));
+        assertEquals(8, Multiplicity.pairsNeeded(4, 0.05));
+        assertEquals(10, Multiplicity.pairsNeeded(13, 0.05));
+        assertEquals(10, Multiplicity.pairsNeeded(25, 0.05));
+        assertEquals(11, Multiplicity.pairsNeeded(26, 0.05));
     }
 
     @Test
-    void holmExampleOfTheory() {
-        // THEORY.md §7.2: p = (0.01, 0.04, 0.03, 0.005), m = 4 → (0.03, 0.06, 0.06, 0.02).
-        double[] adjusted = Holm.adjust(new double[] {0.01, 0.04, 0.03, 0.005});
-        double[] expected = {0.03, 0.06, 0.06, 0.02};
+    void bonferroniOnTheExampleOfTheory() {
+        // THEORY.md §7.2's p = (0.01, 0.04, 0.03, 0.005), m = 4: Bonferroni min(1, 4p) = (0.04, 0.16, 0.12, 0.02)
+        // (hand-computed; the same vector is in bonferroni_r.csv, from R's p.adjust).
+        double[] adjusted = Multiplicity.adjust(new double[] {0.01, 0.04, 0.03, 0.005});
+        double[] expected = {0.04, 0.16, 0.12, 0.02};
         for (int i = 0; i < 4; i++) {
             assertEquals(expected[i], adjusted[i], 1e-15);
         }

@@ -7,7 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 
-/** Pairing, diverged replicates, zero differences, the floor, Holm across arms, and the sentences. */
+/** Pairing, diverged replicates, zero differences, the floor, the two scales, Bonferroni across arms, and the sentences. */
 class VerdictTest {
 
     private static final double INF = Double.POSITIVE_INFINITY;
@@ -20,7 +20,7 @@ class VerdictTest {
         double[] arm = {0.5, 0.0, 0.45, 0.6, 0.0, 0.4, 0.5, 0.7};
         boolean[] div = {false, true, false, false, true, false, false, false};
         boolean[] baseDiv = {false, false, false, false, true, false, false, false};
-        Comparison c = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, new ArmValues("b", BASE, baseDiv),
+        Comparison c = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO, new ArmValues("b", BASE, baseDiv),
                 List.of(new ArmValues("a", arm, div)), VerdictOptions.defaults()).get(0);
         assertEquals(8, c.pairs());
         assertEquals(1, c.bothDiverged(), "replicate 5");
@@ -48,10 +48,10 @@ class VerdictTest {
     void higherIsBetterFlipsTheSignOfADivergedReplicate() {
         double[] arm = {0.9, 0.0, 0.92, 0.91};
         double[] base = {0.8, 0.85, 0.82, 0.84};
-        Comparison c = Verdict.compare("test accuracy", Direction.HIGHER_IS_BETTER, ArmValues.finite("b", base),
+        Comparison c = Verdict.compare("test accuracy", Direction.HIGHER_IS_BETTER, Scale.POINTS, ArmValues.finite("b", base),
                 List.of(new ArmValues("a", arm, new boolean[] {false, true, false, false})),
                 VerdictOptions.defaults()).get(0);
-        // Finite log-ratios positive (ranks 1..3), the diverged arm replicate −∞ (rank 4): V = 6.
+        // Finite differences positive (ranks 1..3), the diverged arm replicate −∞ (rank 4): V = 6.
         assertEquals(6.0, c.statistic(), 0.0);
         assertEquals(0.75, c.probabilityBetter(), TIGHT);
     }
@@ -61,7 +61,7 @@ class VerdictTest {
         double[] base = {1e-3, -1e-15, 2e-3, 0.0, 3e-3, 1e-3};
         double[] arm = {5e-4, 0.0, 1e-3, 2e-16, 1e-3, 1e-3};
         VerdictOptions o = VerdictOptions.defaults();
-        Comparison c = Verdict.compare("final gap", Direction.LOWER_IS_BETTER, ArmValues.finite("b", base),
+        Comparison c = Verdict.compare("final gap", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO, ArmValues.finite("b", base),
                 List.of(ArmValues.finite("a", arm)), o).get(0);
         // Pairs 2 and 4: both sides below 1e-12 → both raised to it → zero differences; pair 6 equal.
         assertEquals(4, c.clamped());
@@ -73,47 +73,106 @@ class VerdictTest {
     }
 
     @Test
-    void holmAcrossArmsAndTheSmallestReachableP() {
+    void bonferroniAcrossArmsAdjustsThePAndTheIntervalAlike() {
         double[] better = new double[BASE.length];
         double[] same = new double[BASE.length];
         for (int k = 0; k < BASE.length; k++) {
             better[k] = BASE[k] * 0.5 * (1 + 0.01 * k);
             same[k] = BASE[k] * (k % 2 == 0 ? 1.1 + 0.01 * k : 0.9 - 0.01 * k);
         }
-        List<Comparison> cs = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, ArmValues.finite("b", BASE),
-                List.of(ArmValues.finite("half", better), ArmValues.finite("same", same)), VerdictOptions.defaults());
-        double[] holm = Holm.adjust(new double[] {cs.get(0).p(), cs.get(1).p()});
-        assertEquals(holm[0], cs.get(0).pAdjusted(), 0.0);
-        assertEquals(holm[1], cs.get(1).pAdjusted(), 0.0);
-        // All 8 ratios below 1: p = 2/2⁸; two arms: smallest adjusted p = 2·2/2⁸ = 0.015625.
+        List<Comparison> cs = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO,
+                ArmValues.finite("b", BASE), List.of(ArmValues.finite("half", better), ArmValues.finite("same", same)),
+                VerdictOptions.defaults());
+        assertEquals(Math.min(1, 2 * cs.get(0).p()), cs.get(0).pAdjusted(), 0.0);
+        assertEquals(Math.min(1, 2 * cs.get(1).p()), cs.get(1).pAdjusted(), 0.0);
+        // All 8 ratios below 1: p = 2/2⁸; two arms: adjusted p = smallest adjusted p = 2·2/2⁸ = 0.015625.
         assertEquals(0.0078125, cs.get(0).p(), 0.0);
         assertEquals(0.015625, cs.get(0).smallestAdjustedP(), 0.0);
         assertEquals(7, cs.get(0).pairsNeeded(), "2ⁿ ≥ 80 → n = 7");
+        assertEquals(0.975, cs.get(0).level(), 1e-15, "1 − 0.05/2");
+        assertEquals(HodgesLehmann.exactInterval(logRatios(better), 0.975).low(), cs.get(0).exact().low(), 0.0);
         assertEquals(1.0, cs.get(0).probabilityBetter(), 0.0);
-        assertTrue(VerdictSentence.render(cs.get(0)).startsWith("reduces tail radius by 4"),
-                VerdictSentence.render(cs.get(0)));
-        assertTrue(VerdictSentence.render(cs.get(0)).contains("adjusted p = 0.016"), VerdictSentence.render(cs.get(0)));
+        String s = VerdictSentence.render(cs.get(0));
+        assertTrue(s.startsWith("reduces tail radius by 4"), s);
+        assertTrue(s.contains("(Bonferroni 97.5 % CI ") && s.contains("adjusted p = 0.016"), s);
+    }
+
+    private static double[] logRatios(double[] arm) {
+        double[] d = new double[arm.length];
+        for (int k = 0; k < arm.length; k++) {
+            d[k] = Math.log(arm[k] / BASE[k]);
+        }
+        return d;
+    }
+
+    @Test
+    void accuracyIsAPairedDifferenceInPercentagePoints() {
+        double[] base = {0.80, 0.82, 0.79, 0.81, 0.80, 0.83, 0.78, 0.80};
+        double[] arm = new double[base.length];
+        double[] d = new double[base.length];
+        for (int k = 0; k < d.length; k++) {
+            arm[k] = base[k] + (k % 2 == 0 ? 0.01 : 0.03);
+            d[k] = arm[k] - base[k];
+        }
+        Comparison c = Verdict.compare("test accuracy", Direction.HIGHER_IS_BETTER, Scale.POINTS,
+                ArmValues.finite("b", base), List.of(ArmValues.finite("a", arm)), VerdictOptions.defaults()).get(0);
+        assertEquals(HodgesLehmann.estimate(d), c.estimate(), 0.0, "the effect is on the differences, not ratios");
+        assertEquals(100 * HodgesLehmann.estimate(d), c.change(), 1e-12);
+        // Hand-computed: four differences of 0.01 and four of 0.03 have 10 Walsh averages 0.01, 16 of 0.02 and 10 of
+        // 0.03: the estimate is their median, 0.02; qsignrank(0.025, 8) = 4 gives the 4th and 33rd of the 36, 0.01
+        // and 0.03; all 8 positive: p = 2/2⁸ = 0.0078125.
+        assertEquals("increases test accuracy by 2 percentage points (95 % CI 1–3 pp, p = 0.0078)",
+                VerdictSentence.render(c));
     }
 
     private static Comparison made(double estimate, double low, double high, double p, int arms, int pairs,
             int needed, double statistic) {
-        return new Comparison("tail radius", "a", "b", Direction.LOWER_IS_BETTER, pairs, 0, 0, 0, 0, 1e-12, 0, pairs,
-                statistic, p, p, arms, pairs, estimate, new Interval(low, high, 0.95),
-                new Interval(low, high, 0.95), 0.9, Holm.smallestAdjustedP(arms, pairs), needed, 0.05);
+        return made(estimate, low, high, p, arms, pairs, 0, needed, statistic);
+    }
+
+    private static Comparison made(double estimate, double low, double high, double p, int arms, int pairs,
+            int zeros, int needed, double statistic) {
+        double level = Multiplicity.level(0.95, arms);
+        return new Comparison("final gap", "a", "b", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO, pairs, 0, 0, 0, 0,
+                1e-12, zeros, pairs - zeros, statistic, p, Math.min(1, arms * p), arms, pairs, estimate,
+                new Interval(low, high, level), new Interval(low, high, level), 0.9,
+                Multiplicity.smallestAdjustedP(arms, pairs - zeros), needed, 0.05, level);
     }
 
     @Test
     void sentencesReadAsDesigned() {
         Comparison reduce = made(Math.log(0.36), Math.log(0.30), Math.log(0.42), 0.002, 1, 10, 6, 2);
-        assertEquals("reduces tail radius by 64 % (95 % CI 58–70 %, p = 0.002)", VerdictSentence.render(reduce));
+        assertEquals("reduces final gap by 64 % (95 % CI 58–70 %, p = 0.002)", VerdictSentence.render(reduce));
         Comparison increase = made(Math.log(1.12), Math.log(1.05), Math.log(1.2), 0.0312, 1, 10, 6, 50);
-        assertEquals("increases tail radius by 12 % (95 % CI 5–20 %, p = 0.031)", VerdictSentence.render(increase));
-        Comparison few = made(Math.log(0.9), Math.log(0.7), Math.log(1.1), 0.3, 20, 6, 10, 8);
-        assertEquals("no difference detected with 6 replicates (10 needed to detect one at this number of arms);"
-                + " on the 6 finite pairs the change is −10 % (95 % CI −30 to +10 %)", VerdictSentence.render(few));
+        assertEquals("increases final gap by 12 % (95 % CI 5–20 %, p = 0.031)", VerdictSentence.render(increase));
+        Comparison few = made(Math.log(0.9), Math.log(0.7), Math.log(1.1), 0.015, 20, 6, 10, 8);
+        assertEquals("no difference detected with 6 pairs (change −10 %, Bonferroni 99.7 % CI −30 to +10 %, adjusted"
+                + " p = 0.3; 10 pairs needed to detect one with 20 arms)", VerdictSentence.render(few));
         Comparison enough = made(Math.log(0.97), Math.log(0.9), Math.log(1.04), 0.41, 1, 12, 6, 30);
-        assertEquals("no difference detected with 12 replicates (change −3 %, 95 % CI −10 to +4 %, p = 0.41)",
+        assertEquals("no difference detected with 12 pairs (change −3 %, 95 % CI −10 to +4 %, p = 0.41)",
                 VerdictSentence.render(enough));
+    }
+
+    @Test
+    void nearZeroAndNearTotalChangesPrintPlainly() {
+        Comparison tiny = made(-2.9e-17, -0.01, 0.01, 0.8, 1, 10, 6, 27);
+        assertEquals("no difference detected with 10 pairs (change 0 %, 95 % CI −1 to +1 %, p = 0.8)",
+                VerdictSentence.render(tiny));
+        Comparison total = made(Math.log(1e-6), Math.log(1e-8), Math.log(1e-4), 0.002, 1, 10, 6, 0);
+        assertEquals("reduces final gap by > 99.9 % (95 % CI > 99.9–> 99.9 %, p = 0.002)", VerdictSentence.render(total));
+        Comparison mostlyTied = made(0.0, 0.0, 0.0, 1.0, 1, 8, 6, 6, 1.5);
+        assertEquals("no difference detected: 6 of 8 pairs tied, 2 left for the test (change 0 %, 95 % CI 0 to 0 %,"
+                + " p = 1; 6 untied pairs needed to detect one)", VerdictSentence.render(mostlyTied));
+    }
+
+    @Test
+    void aTestAndAnIntervalThatDisagreeClaimNothing() {
+        // adjusted p above α but an interval that excludes no change: possible with diverged pairs or ties
+        Comparison odd = made(Math.log(0.8), Math.log(0.7), Math.log(0.9), 0.2, 1, 10, 2, 6, 20);
+        String s = VerdictSentence.render(odd);
+        assertTrue(s.startsWith("no difference claimed: the test (p = 0.2) and its interval (change −20 %, 95 % CI −30"
+                + " to −10 %) disagree, 2 tied pairs are dropped from the test but not from the interval"), s);
+        assertTrue(!s.contains("no difference detected"), s);
     }
 
     @Test
@@ -122,7 +181,7 @@ class VerdictTest {
         double[] base = {1.0, 1.2, 0.9, 1.1, 1.3, 0.8, 1.05, 0.95, 1.0};
         boolean[] div = {false, true, false, false, true, false, false, false, false};
         boolean[] baseDiv = {false, false, false, false, true, false, false, false, false};
-        Comparison c = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, new ArmValues("b", base, baseDiv),
+        Comparison c = Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO, new ArmValues("b", base, baseDiv),
                 List.of(new ArmValues("a", arm, div)), VerdictOptions.defaults()).get(0);
         String s = VerdictSentence.render(c);
         assertTrue(s.contains("1 pair where both replicates diverged dropped"), s);
@@ -135,7 +194,7 @@ class VerdictTest {
                 () -> ArmValues.finite("cosine", new double[] {1.0, Double.NaN}));
         assertTrue(e.getMessage().contains("arm 'cosine', replicate 2"), e.getMessage());
         IllegalArgumentException f = assertThrows(IllegalArgumentException.class,
-                () -> Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, ArmValues.finite("b", BASE),
+                () -> Verdict.compare("tail radius", Direction.LOWER_IS_BETTER, Scale.LOG_RATIO, ArmValues.finite("b", BASE),
                         List.of(ArmValues.finite("short", new double[] {1.0})), VerdictOptions.defaults()));
         assertTrue(f.getMessage().contains("arm 'short' has 1 replicates but the baseline 'b' has 8"), f.getMessage());
     }

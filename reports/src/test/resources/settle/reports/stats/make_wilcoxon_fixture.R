@@ -1,6 +1,7 @@
-# Makes wilcoxon_data.csv, wilcoxon_r.csv, wilcoxon_log_r.csv and holm_r.csv for SignedRankAgainstRTest.
+# Makes wilcoxon_data.csv, wilcoxon_r.csv, wilcoxon_log_r.csv, wilcoxon_log_r99.csv and bonferroni_r.csv for
+# SignedRankAgainstRTest.
 # Reference: R 4.2.2 Patched (2022-11-10 r83330), Debian's r-base-core, package stats:
-#   wilcox.test(x, y, paired = TRUE, exact = TRUE, conf.int = TRUE)  and  p.adjust(method = "holm").
+#   wilcox.test(x, y, paired = TRUE, exact = TRUE, conf.int = TRUE)  and  p.adjust(method = "bonferroni").
 # Run from this directory:  Rscript make_wilcoxon_fixture.R
 # All fixtures are untied and zero-free (R's exact branch needs that, and n < 50).
 set.seed(20260501)
@@ -39,17 +40,29 @@ for (k in seq_along(sizes)) {
 write.csv(lres, "wilcoxon_log_r.csv", row.names = FALSE, quote = FALSE)
 write.csv(res, "wilcoxon_r.csv", row.names = FALSE, quote = FALSE)
 
-# Holm: THEORY.md 7.2's example, a vector with ties, one where m*p exceeds 1, one with a non-monotone run.
-holm_cases <- list(c(0.01, 0.04, 0.03, 0.005),
-                   c(0.02, 0.02, 0.5, 0.001, 0.02),
-                   c(0.3, 0.6, 0.9),
-                   c(0.001, 0.011, 0.012, 0.013, 0.04, 0.2, 0.0105),
-                   c(0.049))
-hr <- NULL
-for (k in seq_along(holm_cases)) {
-  p <- holm_cases[[k]]
-  hr <- rbind(hr, data.frame(case = k, i = seq_along(p), p = sprintf("%.17g", p),
-                             holm = sprintf("%.17g", p.adjust(p, method = "holm"))))
+# The verdict's intervals are adjusted for m arms: level 1 - 0.05/m; m = 5 gives 0.99.
+l99 <- NULL
+for (k in seq_along(sizes)) {
+  x <- as.numeric(data$x[data$case == k]); y <- as.numeric(data$y[data$case == k])
+  w <- suppressWarnings(wilcox.test(log(x), log(y), paired = TRUE, exact = TRUE, conf.int = TRUE,
+                                    conf.level = 1 - 0.05 / 5))
+  l99 <- rbind(l99, data.frame(case = k, n = length(x), p = sprintf("%.17g", w$p.value),
+                               ci_low = sprintf("%.17g", w$conf.int[1]),
+                               ci_high = sprintf("%.17g", w$conf.int[2])))
 }
-write.csv(hr, "holm_r.csv", row.names = FALSE, quote = FALSE)
+write.csv(l99, "wilcoxon_log_r99.csv", row.names = FALSE, quote = FALSE)
+
+# Bonferroni: THEORY.md 7.2's p-values, a vector with ties, one where m*p exceeds 1, a longer one, one arm.
+adjust_cases <- list(c(0.01, 0.04, 0.03, 0.005),
+                     c(0.02, 0.02, 0.5, 0.001, 0.02),
+                     c(0.3, 0.6, 0.9),
+                     c(0.001, 0.011, 0.012, 0.013, 0.04, 0.2, 0.0105),
+                     c(0.049))
+br <- NULL
+for (k in seq_along(adjust_cases)) {
+  p <- adjust_cases[[k]]
+  br <- rbind(br, data.frame(case = k, i = seq_along(p), p = sprintf("%.17g", p),
+                             adjusted = sprintf("%.17g", p.adjust(p, method = "bonferroni"))))
+}
+write.csv(br, "bonferroni_r.csv", row.names = FALSE, quote = FALSE)
 cat(R.version.string, "\n")
