@@ -26,7 +26,8 @@ import settle.experiments.study.AtomicFiles;
 /**
  * {@code settle probe PLAN}: a learning-rate range test on the plan's data and model (Smith, WACV 2017, with
  * a geometric ramp), printed as a table with the largest stable rate of each seed, the stability bound
- * 2/λmax(H) for convex models and the suggested initial-rate range, and drawn in a small HTML page.
+ * 2/λmax(H) for convex models and the suggested initial-rate range (capped below that bound, with a line saying
+ * so), and drawn in a small HTML page.
  */
 @Command(name = "probe", mixinStandardHelpOptions = true,
         description = "Learning-rate range test on a plan's data and model: a suggested initial-rate range.")
@@ -88,15 +89,19 @@ public final class ProbeCommand implements Callable<Integer> {
                     r.sweeps().get(k).stopped() ? "" : " (top of the sweep)"));
         }
         out.println(stable);
-        out.println("largest stable rate (median over the seeds): " + num(r.upper()));
+        out.println("largest stable rate (median over the seeds): " + num(r.medianStable()));
         if (Double.isFinite(r.stabilityBound())) {
             out.println("stability bound of the mean at θ*, " + Curvature.boundFormula(r.momentum()) + ": "
                     + num(r.stabilityBound()));
         } else {
             out.println("stability bound: not computed (" + r.boundNote() + ")");
         }
-        out.println("suggested initial-rate range: " + num(r.lower()) + " to " + num(r.upper())
-                + " (upper end: the median over the seeds of the largest stable rate; lower end: a tenth of it)");
+        if (r.capped()) {
+            out.println(r.capLine());
+        }
+        out.println("suggested initial-rate range: " + num(r.lower()) + " to " + num(r.upper()) + " (upper end: "
+                + (r.capped() ? "the sweep's largest rate below the stability bound"
+                        : "the median over the seeds of the largest stable rate") + "; lower end: a tenth of it)");
         List<String> arms = armLines(parsed, r);
         for (String line : arms) {
             out.println("  " + line);
@@ -150,7 +155,8 @@ public final class ProbeCommand implements Callable<Integer> {
             for (double v : a.schedule().schedule().plannedRates(shape)) {
                 max = Math.max(max, v);
             }
-            String where = max > r.upper() ? "above the suggested range" : max < r.lower() ? "below the suggested range"
+            String where = !Double.isFinite(r.upper()) ? "no suggested range to compare with"
+                    : max > r.upper() ? "above the suggested range" : max < r.lower() ? "below the suggested range"
                     : "inside the suggested range";
             lines.add("arm #" + (i + 1) + " '" + a.name() + "': largest planned rate " + num(max) + ", " + where);
         }

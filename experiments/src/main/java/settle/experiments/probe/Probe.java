@@ -24,7 +24,11 @@ import settle.experiments.plan.PlanData;
  * <p>Definitions. The largest stable rate of a sweep is the last rate before its objective blew up (or the
  * top of the sweep when it never did). The <b>upper end</b> of the suggested range is the median over the
  * seeds of their largest stable rates; the <b>lower end</b> is a tenth of it (a decade below: common
- * practice). For convex models the mean-stability bound 2/λmax(H) at θ* is given beside it.
+ * practice). For convex models the mean-stability bound 2/λmax(H) at θ* (2(1 + β)/λmax(H) with heavy-ball
+ * momentum β) caps the range: when the median is at or above the bound, the upper end is instead the largest
+ * rate of the sweep's own geometric grid strictly below the bound, since a constant rate at or above it leaves
+ * the mean iterate oscillating or growing along H's top eigen-direction (the range test can survive such rates:
+ * its sweep spends only a few updates at each). Non-convex models have no bound and no cap.
  */
 public final class Probe {
 
@@ -36,14 +40,36 @@ public final class Probe {
      *
      * @param sweeps one per seed, seed k = replicate k
      * @param largestStable the largest stable rate of each sweep
-     * @param upper the upper end of the suggested range: the median of {@code largestStable}
+     * @param medianStable the median of {@code largestStable}
+     * @param upper the upper end of the suggested range: {@code medianStable}, or when {@code capped} the largest
+     *     rate of the sweep's grid strictly below {@code stabilityBound} (NaN when the sweep starts at or above it)
      * @param lower {@code upper / 10}
+     * @param capped whether {@code medianStable} was at or above {@code stabilityBound}, so the bound set the upper
+     *     end
      * @param stabilityBound 2(1 + β)/λmax(H) at θ* for convex models, NaN otherwise
      * @param boundNote why the bound is missing, or ""
      * @param momentum the plan's heavy-ball β (the bound's formula depends on it)
      */
-    public record Result(List<RangeTest.Sweep> sweeps, double[] largestStable, double upper, double lower,
-            double stabilityBound, String boundNote, double from, double to, int updates, double momentum) {
+    public record Result(List<RangeTest.Sweep> sweeps, double[] largestStable, double medianStable, double upper,
+            double lower, boolean capped, double stabilityBound, String boundNote, double from, double to, int updates,
+            double momentum) {
+
+        /**
+         * @return one plain line (lower case first) saying that the stability bound set the upper end, and why; ""
+         *     when it did not
+         */
+        public String capLine() {
+            if (!capped) {
+                return "";
+            }
+            String head = "suggested upper end capped at the stability bound " + Curvature.boundFormula(momentum) + " = "
+                    + ProbePage.num(stabilityBound) + ": at or above it the mean iterate does not settle along H's top"
+                    + " direction; the median largest stable rate, " + ProbePage.num(medianStable) + ", is at or above"
+                    + " it, ";
+            return Double.isFinite(upper)
+                    ? head + "so the upper end is " + ProbePage.num(upper) + ", the sweep's largest rate below it"
+                    : head + "and every rate of the sweep is too: start the sweep lower (--from)";
+        }
     }
 
     private Probe() {
@@ -106,9 +132,26 @@ public final class Probe {
             sweeps.add(s);
             stable[k - 1] = s.largestStableRate();
         }
-        double upper = median(stable);
-        return new Result(sweeps, stable, upper, upper / DECADE, bound, boundNote, from, to, updates,
+        double median = median(stable);
+        boolean capped = median >= bound;
+        double upper = capped ? largestRateBelow(test, updates, bound) : median;
+        return new Result(sweeps, stable, median, upper, upper / DECADE, capped, bound, boundNote, from, to, updates,
                 plan.training().momentum());
+    }
+
+    /**
+     * @param updates the sweep's length
+     * @return the largest rate of {@code test}'s geometric grid strictly below {@code bound}; NaN when its first rate
+     *     is already at or above it
+     */
+    static double largestRateBelow(RangeTest test, int updates, double bound) {
+        for (int t = updates; t >= 1; t--) {
+            double rate = test.rate(t);
+            if (rate < bound) {
+                return rate;
+            }
+        }
+        return Double.NaN;
     }
 
     /** @return the median of the finite values (NaN when none); not modified */

@@ -7,8 +7,9 @@ import settle.engine.probe.RangeTest;
 
 /**
  * The probe's small self-contained HTML page: the objective against the rate (log scale) for every sweep as
- * inline SVG, the suggested range and the stability bound marked, and the definitions. No script, no
- * network: a Content-Security-Policy meta tag forbids both; every string from the plan is escaped.
+ * inline SVG, the suggested range and the stability bound marked (with a line when the bound capped the range),
+ * and the definitions. No script, no network: a Content-Security-Policy meta tag forbids both; every string from
+ * the plan is escaped.
  */
 public final class ProbePage {
 
@@ -63,8 +64,13 @@ public final class ProbePage {
         }
         b.append("</table>\n");
         b.append("<p><b>Suggested initial-rate range: ").append(num(r.lower())).append(" to ").append(num(r.upper()))
-                .append("</b>. Upper end: the median over the seeds of the largest stable rate; lower end: a tenth"
+                .append("</b>. Upper end: ").append(r.capped() ? "the sweep's largest rate below the stability bound"
+                        : "the median over the seeds of the largest stable rate").append("; lower end: a tenth"
                         + " of it.</p>\n");
+        if (r.capped()) {
+            String line = r.capLine();
+            b.append("<p>").append(escape(Character.toUpperCase(line.charAt(0)) + line.substring(1))).append(".</p>\n");
+        }
         if (Double.isFinite(r.stabilityBound())) {
             b.append("<p>Stability bound of the mean iterate at θ*, ").append(Curvature.boundFormula(r.momentum()))
                     .append(": ").append(num(r.stabilityBound()))
