@@ -1,6 +1,9 @@
 package settle.experiments.cli;
 
 import java.io.PrintWriter;
+import java.math.BigDecimal;
+import java.math.MathContext;
+import java.math.RoundingMode;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -29,11 +32,14 @@ import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.plan.PlanWriter;
 import settle.experiments.study.AprioriBound;
+import settle.reports.stats.Multiplicity;
+import settle.reports.stats.VerdictOptions;
 
 /**
  * {@code settle check PLAN}: validates a plan, prints it resolved, loads and splits its data, and shows every
  * arm's rates at the first updates, at each epoch start and at the end, Σα and Σα² with each kind's
- * asymptotic class, and, for convex models, the mean stability bound 2/λmax(H) at the exact minimiser.
+ * asymptotic class, and, for convex models, the mean stability bound 2/λmax(H) at the exact minimiser. Warns
+ * when the replicates are too few for the verdict to detect any difference at the number of arms compared.
  * Exit 0 (warnings on stderr included), 2 for a bad plan or bad data (one line on stderr), 1 when the
  * convex model has no minimiser.
  */
@@ -103,6 +109,8 @@ public final class CheckCommand implements Callable<Integer> {
             warnings.add(parsed.error("training.batch", batch + " is more than the " + data.train().rows()
                     + " training rows; every update uses the whole training split").getMessage());
         }
+        verdictReach(plan, VerdictOptions.defaults().significance()).ifPresent(
+                detail -> warnings.add(parsed.error("replicates", detail).getMessage()));
         out.println();
 
         List<double[]> rates = new ArrayList<>();
@@ -139,6 +147,36 @@ public final class CheckCommand implements Callable<Integer> {
         return code;
     }
 
+    /**
+     * Whether the verdict can reach a detected difference at all. It compares each of the m non-baseline arms with
+     * the baseline by an exact signed-rank test on the n paired replicates, adjusted across the m arms
+     * ({@link Multiplicity}: Bonferroni); the smallest adjusted p it can give is m · 2/2ⁿ (every pair on the same
+     * side), so below {@link Multiplicity#pairsNeeded} replicates no arm can be declared different whatever the
+     * data.
+     *
+     * @param significance the verdict's level
+     * @return the warning's text when the plan's replicates are too few (the smallest p shown rounded up, so "at
+     *     least" holds); empty with enough replicates, or with one arm (nothing to compare: {@link #printArms}
+     *     says so)
+     */
+    static Optional<String> verdictReach(Plan plan, double significance) {
+        int m = plan.arms().size() - 1;
+        int n = plan.replicates();
+        if (m < 1) {
+            return Optional.empty();
+        }
+        int needed = Multiplicity.pairsNeeded(m, significance);
+        if (n >= needed) {
+            return Optional.empty();
+        }
+        String smallest = new BigDecimal(Multiplicity.smallestAdjustedP(m, n)).round(new MathContext(2, RoundingMode.UP))
+                .stripTrailingZeros().toPlainString();
+        return Optional.of(n + (n == 1 ? " replicate" : " replicates") + " with " + m + (m == 1 ? " arm" : " arms")
+                + " against the baseline can reach " + (m == 1 ? "a p" : "an adjusted p") + " of at least " + smallest
+                + ", never below " + BigDecimal.valueOf(significance).stripTrailingZeros().toPlainString() + "; "
+                + needed + " are needed");
+    }
+
     /** Grid-expanded arms have no position of their own; they report at their template's. */
     private static String armPath(ParsedPlan parsed, int index) {
         return parsed.armPath(index);
@@ -151,6 +189,9 @@ public final class CheckCommand implements Callable<Integer> {
             out.printf(Locale.ROOT, "  #%-3d %s%s%s%n", i + 1, a.name(),
                     a.average() == ArmPlan.Averaging.TAIL ? " (tail-averaged)" : "", a.manual() ? " (manual)" : "");
             out.println("       " + a.schedule().schedule().describe());
+        }
+        if (plan.arms().size() == 1) {
+            out.println("  no verdict: the plan has one arm, so there is no other arm to compare with the baseline");
         }
     }
 

@@ -1,6 +1,7 @@
 package settle.experiments.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
@@ -168,5 +169,64 @@ class CheckCommandTest {
         String[] r = run("check", plan.toString());
         assertEquals("1", r[0], r[1] + r[2]);
         assertTrue(r[2].contains(plan + ":5:13: model.l2: no minimiser exists"), r[2]);
+    }
+
+    /** @return a plan with {@code arms} constant arms (rates 0.01, 0.02, …) and {@code replicates} replicates */
+    static String arms(int arms, int replicates) {
+        StringBuilder b = new StringBuilder("study: reach\nseed: 11\nreplicates: " + replicates + "\ndata:\n"
+                + "  source: \"synthetic:gaussian?rows=100&features=3&seed=4\"\nmodel: {l2: 0.1}\n"
+                + "training: {epochs: 3, batch: 16, snapshots: 4}\nbaseline: a1\narms:\n");
+        for (int i = 1; i <= arms; i++) {
+            b.append("  - name: a").append(i).append("\n    schedule: {kind: constant, rate: 0.0").append(i).append("}\n");
+        }
+        return b.toString();
+    }
+
+    @Test
+    void tooFewReplicatesForAVerdictAreAWarning(@TempDir Path dir) throws IOException {
+        // 7 arms: m = 6 compared with the baseline. The smallest Bonferroni-adjusted exact signed-rank p with n pairs is
+        // m·2/2ⁿ: n = 6 gives 12/64 = 0.1875 (shown rounded up: 0.19); n = 7 gives 12/128 = 0.094; n = 8 gives
+        // 12/256 = 0.047 ≤ 0.05, so 8 are needed.
+        Path plan = dir.resolve("reach.yaml");
+        Files.writeString(plan, arms(7, 6));
+        String[] r = run("check", plan.toString());
+        assertEquals("0", r[0], r[2]);
+        assertTrue(r[2].contains("warning: " + plan + ":3:13: replicates: 6 replicates with 6 arms against the baseline"
+                + " can reach an adjusted p of at least 0.19, never below 0.05; 8 are needed" + System.lineSeparator()),
+                r[2]);
+        assertFalse(r[1].contains("no verdict"), r[1]);
+
+        Files.writeString(plan, arms(7, 7));
+        r = run("check", plan.toString());
+        assertTrue(r[2].contains(":3:13: replicates: 7 replicates with 6 arms against the baseline can reach an"
+                + " adjusted p of at least 0.094, never below 0.05; 8 are needed"), r[2]);
+
+        Files.writeString(plan, arms(7, 8));
+        r = run("check", plan.toString());
+        assertEquals("0", r[0], r[2]);
+        assertFalse(r[2].contains("replicates:"), r[2]);
+    }
+
+    @Test
+    void oneArmAgainstTheBaselineNeedsFiveReplicates(@TempDir Path dir) throws IOException {
+        // m = 1, no adjustment: n = 5 gives 2/2⁵ = 0.0625 (shown rounded up: 0.063); n = 6 gives 2/2⁶ = 0.031
+        Path plan = dir.resolve("reach.yaml");
+        Files.writeString(plan, arms(2, 5));
+        String[] r = run("check", plan.toString());
+        assertTrue(r[2].contains(":3:13: replicates: 5 replicates with 1 arm against the baseline can reach a p of"
+                + " at least 0.063, never below 0.05; 6 are needed"), r[2]);
+        Files.writeString(plan, arms(2, 6));
+        assertFalse(run("check", plan.toString())[2].contains("replicates:"));
+    }
+
+    @Test
+    void aPlanWithOneArmHasNoVerdictAndSaysSo(@TempDir Path dir) throws IOException {
+        Path plan = dir.resolve("reach.yaml");
+        Files.writeString(plan, arms(1, 2));
+        String[] r = run("check", plan.toString());
+        assertEquals("0", r[0], r[2]);
+        assertTrue(r[1].contains("\n  no verdict: the plan has one arm, so there is no other arm to compare with the"
+                + " baseline\n"), r[1]);
+        assertFalse(r[2].contains("replicates:"), "no comparison, so no warning about reaching one: " + r[2]);
     }
 }
