@@ -12,7 +12,7 @@ import settle.reports.metrics.ArmLevel;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.study.StudyReader;
 
-/** Arm-level metrics read from a study directory: the final iterate, test probabilities, joint intervals. */
+/** Arm-level metrics read from a study directory: the final iterate, test probabilities, jackknife intervals. */
 class ArmLevelTest {
 
     private static final double TIGHT = 1e-12;
@@ -38,20 +38,29 @@ class ArmLevelTest {
             averaged.get(k).probabilities = probabilities[0];
         }
         StudyAnalysis a = StudyAnalysis.of(StudyReader.read(s.write(dir.resolve("s"))));
-        // Squared deviations from the mean (1, 1, 0): 2, 2, 4 → sqrt(8/3); halved points → sqrt(8/3)/2.
-        assertEquals(Math.sqrt(8.0 / 3.0), a.seedSpread(0).value(), TIGHT);
-        assertEquals(Math.sqrt(8.0 / 3.0) / 2, a.seedSpread(1).value(), TIGHT);
-        // Prediction spread 64/900 and disagreement 2/3: the hand computation of SpreadTest.
-        assertEquals(64.0 / 900.0, a.predictionSpread(0).value(), TIGHT);
+        // Squared deviations from the mean (1, 1, 0): 2, 2, 4, over S − 1 = 2 → sqrt(4) = 2; halved points → 1.
+        assertEquals(2.0, a.seedSpread(0).value(), TIGHT);
+        assertEquals(1.0, a.seedSpread(1).value(), TIGHT);
+        // Prediction spread 0.32/3 and disagreement 2/3: the hand computation of SpreadTest.
+        assertEquals(0.32 / 3, a.predictionSpread(0).value(), TIGHT);
         assertEquals(2.0 / 3.0, a.disagreement(0).value(), TIGHT);
         // Identical probabilities in every replicate: no spread, no disagreement.
         assertEquals(0.0, a.predictionSpread(1).value(), TIGHT);
         assertEquals(0.0, a.disagreement(1).value(), TIGHT);
-        // Joint bootstrap intervals exist, and with 3 seeds the resample drawing one seed three times gives 0.
+        // Jackknife on the log scale: leave-one-out spreads sqrt(5), sqrt(5), sqrt(2); with t₂ (0.975) =
+        // 4.302652729749462 (R 4.2.2, qt(0.975, 2)) the interval is 2·exp(±t·SE) around the estimate.
+        double[] logs = {0.5 * Math.log(5), 0.5 * Math.log(5), 0.5 * Math.log(2)};
+        double mean = (logs[0] + logs[1] + logs[2]) / 3;
+        double ss = 0;
+        for (double v : logs) {
+            ss += (v - mean) * (v - mean);
+        }
+        double se = Math.sqrt(2.0 / 3.0 * ss);
         ArmLevel spread = a.seedSpread(0);
-        assertTrue(spread.interval().isDefined());
-        assertEquals(0.0, spread.interval().low(), TIGHT);
-        assertTrue(spread.interval().high() <= Math.sqrt(8.0 / 3.0) * 1.5, "bounded by the largest resample spread");
+        assertEquals(2 * Math.exp(-4.302652729749462 * se), spread.interval().low(), 1e-9);
+        assertEquals(2 * Math.exp(4.302652729749462 * se), spread.interval().high(), 1e-9);
+        assertTrue(spread.interval().low() < spread.value() && spread.value() < spread.interval().high());
+        assertFalse(a.predictionSpread(1).interval().isDefined(), "a spread of zero has no interval");
     }
 
     @Test
@@ -67,8 +76,9 @@ class ArmLevelTest {
             b.get(k).last = new double[] {2 * k, 0, 0};
         }
         StudyAnalysis x = StudyAnalysis.of(StudyReader.read(s.write(dir.resolve("s"))));
-        // wild: replicates 1 and 3 finished, θ = 0 and 4 → deviations ±2 → spread 2, from 2 replicates.
-        assertEquals(2.0, x.seedSpread(1).value(), TIGHT);
+        // wild: replicates 1 and 3 finished, θ = 0 and 4 → ½‖0 − 4‖² = 8 → spread sqrt(8), from 2 replicates: too
+        // few for a leave-one-out interval.
+        assertEquals(Math.sqrt(8.0), x.seedSpread(1).value(), TIGHT);
         assertEquals(2, x.seedSpread(1).replicates());
         assertFalse(x.seedSpread(1).interval().isDefined());
         assertTrue(x.seedSpread(0).interval().isDefined());

@@ -6,8 +6,8 @@ import settle.reports.stats.Interval;
  * One arm-level metric of one arm (seed spread, prediction spread or disagreement).
  *
  * @param value the metric over the arm's finished replicates (NaN when it cannot be computed)
- * @param interval the percentile bootstrap interval over seed indices resampled jointly across arms, or an
- *     undefined interval (no replicate of the arm may have diverged or be missing for it)
+ * @param interval the jackknife interval over the arm's finished replicates (leave one replicate out; log scale),
+ *     or an undefined interval (fewer than three finished replicates, or a value of zero)
  * @param replicates finished replicates behind the value
  */
 public record ArmLevel(double value, Interval interval, int replicates) {

@@ -1,22 +1,23 @@
 package settle.reports.metrics;
 
 /**
- * Spread across replicates of one arm, from a centred Gram matrix so that resampled replicate sets cost
- * O(S²) each.
- *
- * <p>For vectors x_1 … x_S (rows of a matrix), centre them at their mean c, then G_st = ⟨x_s − c, x_t − c⟩ / n
- * with n a fixed divisor. For a multiset of indices i_1 … i_S drawn from them,
- * (1/S) Σ_j ‖x_(i_j) − mean_j x_(i_j)‖² / n = (1/S) Σ_j G_(i_j i_j) − (1/S²) Σ_j Σ_l G_(i_j i_l):
- * the shift by c cancels, and centring first keeps the subtraction free of cancellation. With counts
- * w_s of how often s was drawn this is (1/S) Σ_s w_s G_ss − (1/S²) wᵀ G w.
+ * Spread across the replicates of one arm, as means over distinct pairs of replicates of a pairwise kernel h
+ * (U-statistics), with every leave-one-replicate-out mean for the jackknife interval.
  *
  * <ul>
- *   <li>seed spread: x_s = θ_F^s (gauge-free), n = 1, then the square root;</li>
- *   <li>prediction spread: x_s = the test probabilities of replicate s (all examples × classes), n = the
- *       number of test examples: mean over examples of Σ_classes Var_s p_s(class), divisor S;</li>
- *   <li>disagreement: D_st = the fraction of test examples s and t classify differently (argmax, ties to
- *       the lower class); over a multiset, the mean over the S(S − 1)/2 pairs of positions of D.</li>
+ *   <li>seed spread: h_st = ½‖θ_F^s − θ_F^t‖² (gauge-free), the value the square root of the mean over pairs; the
+ *       mean over pairs of ½‖x_s − x_t‖² is (1/(S − 1)) Σ_s ‖x_s − x̄‖², so it is the sample spread with divisor
+ *       S − 1, unbiased for the expected squared deviation;</li>
+ *   <li>prediction spread: h_st = ½ (1/n) Σ_rows Σ_classes (p_s − p_t)², n test examples: the mean over examples of
+ *       Σ_classes Var_s p_s(class), divisor S − 1;</li>
+ *   <li>disagreement: h_st = the fraction of test examples s and t classify differently (argmax, ties to the lower
+ *       class).</li>
  * </ul>
+ * A pair is two different replicates: nothing here ever pairs a replicate with itself, so no spread is shrunk by a
+ * replicate counted twice.
+ *
+ * <p>Half squared distances come from the centred Gram matrix G (vectors centred at their mean first, which keeps
+ * the subtraction free of cancellation): ½‖x_s − x_t‖² = ½(G_ss + G_tt) − G_st.
  */
 public final class Spread {
 
@@ -24,11 +25,31 @@ public final class Spread {
     }
 
     /**
-     * @param rows S vectors of equal length. Not modified.
-     * @param divisor n, positive
-     * @return the S × S centred Gram matrix divided by n, row-major
+     * The mean of a pairwise kernel over the distinct pairs of S replicates, and the same mean with each replicate
+     * left out in turn.
+     *
+     * @param value the mean over all S(S − 1)/2 pairs
+     * @param leaveOneOut entry i: the mean over the (S − 1)(S − 2)/2 pairs without replicate i (empty when S &lt; 3)
      */
-    public static double[] centredGram(double[][] rows, double divisor) {
+    public record PairMeans(double value, double[] leaveOneOut) {
+
+        public PairMeans {
+            leaveOneOut = leaveOneOut.clone();
+        }
+
+        /** @return a copy of the leave-one-out means */
+        @Override
+        public double[] leaveOneOut() {
+            return leaveOneOut.clone();
+        }
+    }
+
+    /**
+     * @param rows S vectors of equal length. Not modified.
+     * @param divisor n, positive: every half squared distance is divided by it
+     * @return h_st = ½‖x_s − x_t‖²/n, S × S row-major, zero diagonal
+     */
+    public static double[] halfSquaredDistances(double[][] rows, double divisor) {
         int s = rows.length;
         int p = s == 0 ? 0 : rows[0].length;
         double[] mean = new double[p];
@@ -49,109 +70,59 @@ public final class Spread {
                 centred[i][j] = rows[i][j] - mean[j];
             }
         }
-        double[] g = new double[s * s];
+        double[] gram = new double[s * s];
         for (int a = 0; a < s; a++) {
-            double[] x = centred[a];
             for (int b = a; b < s; b++) {
-                double[] y = centred[b];
                 double sum = 0.0;
                 for (int j = 0; j < p; j++) {
-                    sum += x[j] * y[j];
+                    sum += centred[a][j] * centred[b][j];
                 }
-                g[a * s + b] = sum / divisor;
-                g[b * s + a] = sum / divisor;
+                gram[a * s + b] = sum;
+                gram[b * s + a] = sum;
             }
         }
-        return g;
+        double[] h = new double[s * s];
+        for (int a = 0; a < s; a++) {
+            for (int b = a + 1; b < s; b++) {
+                double v = Math.max(0.0, 0.5 * (gram[a * s + a] + gram[b * s + b]) - gram[a * s + b]) / divisor;
+                h[a * s + b] = v;
+                h[b * s + a] = v;
+            }
+        }
+        return h;
     }
 
     /**
-     * @param gram S × S centred Gram matrix, row-major. Not modified.
-     * @param counts how often each of the S vectors was drawn; they sum to the sample size. Not modified.
-     * @return the mean squared distance of the drawn vectors to their mean (per unit of the divisor), ≥ 0
+     * @param kernel S × S symmetric kernel h, row-major (the diagonal is ignored). Not modified.
+     * @param s S ≥ 2
+     * @return the mean over distinct pairs and every leave-one-out mean: with T = Σ_{a&lt;b} h_ab and row sums
+     *     r_i = Σ_{b≠i} h_ib, the mean without i is (T − r_i) / ((S − 1)(S − 2)/2), O(S²) in all
      */
-    public static double meanSquaredDeviation(double[] gram, int[] counts) {
-        int[] drawn = new int[counts.length];
-        return meanSquaredDeviation(gram, counts, drawn, drawn(counts, drawn));
-    }
-
-    /**
-     * As {@link #meanSquaredDeviation(double[], int[])} with the drawn indices already listed (same value, bit for
-     * bit): the joint bootstrap lists them once per resample for every statistic.
-     *
-     * @param drawn the indices with a non-zero count, increasing, in its first m entries. Not modified.
-     * @param m how many
-     */
-    public static double meanSquaredDeviation(double[] gram, int[] counts, int[] drawn, int m) {
-        int s = counts.length;
+    public static PairMeans pairMeans(double[] kernel, int s) {
+        if (s < 2 || kernel.length != s * s) {
+            throw new IllegalArgumentException("need at least two replicates and an S × S kernel: " + s + ", "
+                    + kernel.length);
+        }
+        double[] row = new double[s];
         double total = 0.0;
-        double diagonal = 0.0;
-        double quadratic = 0.0;
-        for (int x = 0; x < m; x++) {
-            int a = drawn[x];
-            int wa = counts[a];
-            total += wa;
-            diagonal += wa * gram[a * s + a];
-            double row = 0.0;
-            for (int y = 0; y < m; y++) {
-                int b = drawn[y];
-                row += counts[b] * gram[a * s + b];
-            }
-            quadratic += wa * row;
-        }
-        return Math.max(0.0, diagonal / total - quadratic / (total * total));
-    }
-
-    /**
-     * Writes the indices with a non-zero count, in increasing order, into {@code drawn}; returns how many.
-     *
-     * @param counts not modified
-     * @param drawn modified: its first entries receive the indices
-     */
-    public static int drawn(int[] counts, int[] drawn) {
-        int m = 0;
-        for (int a = 0; a < counts.length; a++) {
-            if (counts[a] != 0) {
-                drawn[m++] = a;
+        for (int a = 0; a < s; a++) {
+            for (int b = a + 1; b < s; b++) {
+                double v = kernel[a * s + b];
+                total += v;
+                row[a] += v;
+                row[b] += v;
             }
         }
-        return m;
-    }
-
-    /**
-     * @param disagreement S × S matrix of pairwise disagreement fractions (zero diagonal), row-major. Not
-     *     modified.
-     * @param counts how often each replicate was drawn; the sample has at least two. Not modified.
-     * @return the mean of D over the pairs of positions in the drawn sample (equal draws disagree nowhere)
-     */
-    public static double meanPairwise(double[] disagreement, int[] counts) {
-        int[] drawn = new int[counts.length];
-        return meanPairwise(disagreement, counts, drawn, drawn(counts, drawn));
-    }
-
-    /**
-     * As {@link #meanPairwise(double[], int[])} with the drawn indices already listed (same value, bit for bit).
-     *
-     * @param drawn the indices with a non-zero count, increasing, in its first m entries. Not modified.
-     * @param m how many
-     */
-    public static double meanPairwise(double[] disagreement, int[] counts, int[] drawn, int m) {
-        int s = counts.length;
-        double total = 0.0;
-        double quadratic = 0.0;
-        for (int x = 0; x < m; x++) {
-            int a = drawn[x];
-            int wa = counts[a];
-            total += wa;
-            double row = 0.0;
-            for (int y = 0; y < m; y++) {
-                int b = drawn[y];
-                row += counts[b] * disagreement[a * s + b];
-            }
-            quadratic += wa * row;
+        double value = total / (s * (s - 1) / 2.0);
+        if (s < 3) {
+            return new PairMeans(value, new double[0]);
         }
-        // Σ over ordered pairs of positions (j ≠ l) = wᵀ D w since D_ss = 0; unordered pairs are half of it.
-        return quadratic / (total * (total - 1.0));
+        double smaller = (s - 1) * (s - 2) / 2.0;
+        double[] out = new double[s];
+        for (int i = 0; i < s; i++) {
+            out[i] = Math.max(0.0, total - row[i]) / smaller;
+        }
+        return new PairMeans(value, out);
     }
 
     /**

@@ -8,11 +8,11 @@ import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.ArmValues;
-import settle.reports.stats.Bootstrap;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Direction;
 import settle.reports.stats.Multiplicity;
 import settle.reports.stats.Interval;
+import settle.reports.stats.Jackknife;
 import settle.reports.stats.Scale;
 import settle.reports.stats.Verdict;
 import settle.reports.stats.VerdictOptions;
@@ -24,7 +24,7 @@ import settle.reports.study.Study;
  * Everything a report shows that spans replicates: per-arm summaries of every per-replicate metric, the
  * verdict (each arm against the baseline, paired by replicate index; the primary metric is where the returned
  * iterate ends: its final gap F(θ_ret) − F(θ*) for convex models, its final training objective otherwise; the rest
- * descriptive), and the arm-level metrics with joint bootstrap intervals.
+ * descriptive), and the arm-level metrics with jackknife intervals.
  *
  * <p>Pairing: the verdict uses the replicate indices whose file exists in every arm (a partial study drops
  * the others, counted in {@link #pairedReplicates()}); a diverged replicate counts as worst. Arm summaries use
@@ -250,15 +250,14 @@ public final class StudyAnalysis {
         return new ArmValues(study.armName(a), v, d);
     }
 
-    /** Seed spread, prediction spread and disagreement, with joint bootstrap intervals. */
+    /**
+     * Seed spread, prediction spread and disagreement over each arm's finished replicates, as means over distinct
+     * pairs of replicates ({@link Spread}), each with its jackknife interval at the nominal level
+     * ({@link Jackknife}; three finished replicates at least).
+     */
     private void armLevel() {
         int arms = study.armCount();
-        int s = study.replicateCount();
         Gauge gauge = gauge();
-        double[][] seedGram = new double[arms][];
-        double[][] probGram = new double[arms][];
-        double[][] disagree = new double[arms][];
-        boolean[] complete = new boolean[arms];
         for (int a = 0; a < arms; a++) {
             List<Replicate> finished = new ArrayList<>();
             for (Replicate r : study.replicates().get(a)) {
@@ -266,20 +265,26 @@ public final class StudyAnalysis {
                     finished.add(r);
                 }
             }
-            complete[a] = finished.size() == s;
             int n = finished.size();
-            if (study.convex() && n >= 1) {
+            seedSpread[a] = ArmLevel.none();
+            predictionSpread[a] = ArmLevel.none();
+            disagreement[a] = ArmLevel.none();
+            if (n < 2) {
+                continue;
+            }
+            if (study.convex()) {
                 double[][] theta = new double[n][];
                 for (int i = 0; i < n; i++) {
                     theta[i] = gauge.project(finished.get(i).finalIterate());
                 }
-                seedGram[a] = Spread.centredGram(theta, 1.0);
-                seedSpread[a] = new ArmLevel(Math.sqrt(Spread.meanSquaredDeviation(seedGram[a], once(n))),
-                        Interval.none(0.0), n);
-            } else {
-                seedSpread[a] = ArmLevel.none();
+                Spread.PairMeans m = Spread.pairMeans(Spread.halfSquaredDistances(theta, 1.0), n);
+                double[] roots = m.leaveOneOut();
+                for (int i = 0; i < roots.length; i++) {
+                    roots[i] = Math.sqrt(roots[i]);
+                }
+                seedSpread[a] = level(Math.sqrt(m.value()), roots, n);
             }
-            boolean probabilities = n >= 1;
+            boolean probabilities = true;
             for (Replicate r : finished) {
                 probabilities &= r.testProbabilities() != null;
             }
@@ -290,96 +295,16 @@ public final class StudyAnalysis {
                 }
                 int rows = finished.get(0).testRows();
                 int classes = finished.get(0).testClasses();
-                probGram[a] = Spread.centredGram(p, rows);
-                int[] counts = once(n);
-                predictionSpread[a] = new ArmLevel(Spread.meanSquaredDeviation(probGram[a], counts), Interval.none(0.0), n);
-                if (n >= 2) {
-                    disagree[a] = Spread.disagreement(p, classes);
-                    disagreement[a] = new ArmLevel(Spread.meanPairwise(disagree[a], counts), Interval.none(0.0), n);
-                } else {
-                    disagreement[a] = ArmLevel.none();
-                }
-            } else {
-                predictionSpread[a] = ArmLevel.none();
-                disagreement[a] = ArmLevel.none();
+                Spread.PairMeans spread = Spread.pairMeans(Spread.halfSquaredDistances(p, rows), n);
+                predictionSpread[a] = level(spread.value(), spread.leaveOneOut(), n);
+                Spread.PairMeans differ = Spread.pairMeans(Spread.disagreement(p, classes), n);
+                disagreement[a] = level(differ.value(), differ.leaveOneOut(), n);
             }
         }
-        // Joint bootstrap over seed indices for the arms where every replicate finished.
-        List<double[]> grams = new ArrayList<>();
-        List<Integer> kinds = new ArrayList<>();
-        List<Integer> owners = new ArrayList<>();
-        for (int a = 0; a < arms; a++) {
-            if (!complete[a] || s < 2) {
-                continue;
-            }
-            if (seedGram[a] != null) {
-                grams.add(seedGram[a]);
-                kinds.add(0);
-                owners.add(a);
-            }
-            if (probGram[a] != null) {
-                grams.add(probGram[a]);
-                kinds.add(1);
-                owners.add(a);
-            }
-            if (disagree[a] != null) {
-                grams.add(disagree[a]);
-                kinds.add(2);
-                owners.add(a);
-            }
-        }
-        if (grams.isEmpty()) {
-            return;
-        }
-        // One bootstrap per arm, every one from the same seed: each draws the same index vectors, so the arms
-        // are resampled jointly (the same seeds in every arm), and the arms can run in parallel.
-        int outputs = grams.size();
-        Interval[] intervals = new Interval[outputs];
-        List<Integer> starts = new ArrayList<>();
-        for (int o = 0; o < outputs; o++) {
-            if (o == 0 || !owners.get(o).equals(owners.get(o - 1))) {
-                starts.add(o);
-            }
-        }
-        starts.add(outputs);
-        java.util.stream.IntStream.range(0, starts.size() - 1).parallel().forEach(g -> {
-            int from = starts.get(g);
-            int to = starts.get(g + 1);
-            int[] counts = new int[s];
-            int[] drawn = new int[s];
-            double[][] gramOf = new double[to - from][];
-            int[] kindOf = new int[to - from];
-            for (int o = from; o < to; o++) {
-                gramOf[o - from] = grams.get(o);
-                kindOf[o - from] = kinds.get(o);
-            }
-            Interval[] part = Bootstrap.jointIntervals(s, to - from, (indices, out) -> {
-                java.util.Arrays.fill(counts, 0);
-                for (int i : indices) {
-                    counts[i]++;
-                }
-                int m = Spread.drawn(counts, drawn);
-                for (int o = 0; o < gramOf.length; o++) {
-                    double[] gram = gramOf[o];
-                    switch (kindOf[o]) {
-                        case 0 -> out[o] = Math.sqrt(Spread.meanSquaredDeviation(gram, counts, drawn, m));
-                        case 1 -> out[o] = Spread.meanSquaredDeviation(gram, counts, drawn, m);
-                        default -> out[o] = Spread.meanPairwise(gram, counts, drawn, m);
-                    }
-                }
-            }, options.seed(), options.resamples(), options.confidence());
-            System.arraycopy(part, 0, intervals, from, to - from);
-        });
-        for (int o = 0; o < outputs; o++) {
-            int a = owners.get(o);
-            switch (kinds.get(o)) {
-                case 0 -> seedSpread[a] = new ArmLevel(seedSpread[a].value(), intervals[o], seedSpread[a].replicates());
-                case 1 -> predictionSpread[a] = new ArmLevel(predictionSpread[a].value(), intervals[o],
-                        predictionSpread[a].replicates());
-                default -> disagreement[a] = new ArmLevel(disagreement[a].value(), intervals[o],
-                        disagreement[a].replicates());
-            }
-        }
+    }
+
+    private ArmLevel level(double value, double[] leaveOneOut, int replicates) {
+        return new ArmLevel(value, Jackknife.interval(value, leaveOneOut, options.confidence()), replicates);
     }
 
     private Gauge gauge() {

@@ -8,8 +8,7 @@ import java.util.Arrays;
  * take the type-7 quantiles (1 − level)/2 and (1 + level)/2 of the resampled values.
  *
  * <p>Resampling is driven by SplitMix64 from a given seed, so the same seed and inputs give
- * bit-identical intervals on any JVM. Index vectors are drawn the same way in every method here: for
- * resample b, n indices in order, each uniform on [0, n).
+ * bit-identical intervals on any JVM: for resample b, n indices in order, each uniform on [0, n).
  */
 public final class Bootstrap {
 
@@ -123,52 +122,6 @@ public final class Bootstrap {
      */
     public static Interval hodgesLehmannInterval(double[] x, long seed, int resamples, double level) {
         return percentile(hodgesLehmannReplicates(x, seed, resamples), level);
-    }
-
-    /**
-     * Joint bootstrap over replicate (seed) indices: each resample draws one index vector and every
-     * output of {@code statistic} is evaluated on it, so arms stay paired by seed.
-     *
-     * @param replicates n, at least 1
-     * @param outputs number of values the statistic writes, at least 1
-     * @param statistic the statistic of a resampled index vector
-     * @param seed generator seed
-     * @param resamples at least {@link #MIN_RESAMPLES}
-     * @param level nominal confidence level in (0, 1)
-     * @return one percentile interval per output
-     */
-    public static Interval[] jointIntervals(int replicates, int outputs, IndexStatistic statistic, long seed,
-            int resamples, double level) {
-        checkResamples(resamples);
-        checkLevel(level);
-        if (replicates < 1 || outputs < 1) {
-            throw new IllegalArgumentException("need at least one replicate and one output: " + replicates
-                    + ", " + outputs);
-        }
-        SplitMix64 random = new SplitMix64(seed);
-        int[] indices = new int[replicates];
-        double[] out = new double[outputs];
-        double[][] values = new double[outputs][resamples];
-        for (int b = 0; b < resamples; b++) {
-            for (int i = 0; i < replicates; i++) {
-                indices[i] = random.nextIndex(replicates);
-            }
-            Arrays.fill(out, Double.NaN);
-            statistic.evaluate(indices, out);
-            for (int k = 0; k < outputs; k++) {
-                if (!Double.isFinite(out[k])) {
-                    throw new IllegalArgumentException("the statistic gave " + out[k] + " for output " + k
-                            + " on resample " + b + ": it must be finite for every resample");
-                }
-                values[k][b] = out[k];
-            }
-        }
-        Interval[] intervals = new Interval[outputs];
-        for (int k = 0; k < outputs; k++) {
-            Arrays.sort(values[k]);
-            intervals[k] = percentile(values[k], level);
-        }
-        return intervals;
     }
 
     /**

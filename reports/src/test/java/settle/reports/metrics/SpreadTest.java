@@ -15,13 +15,16 @@ class SpreadTest {
 
     @Test
     void seedSpreadByHand() {
-        double[] g = Spread.centredGram(THETA, 1.0);
-        // (2 + 2 + 4)/3 = 8/3
-        assertEquals(8.0 / 3.0, Spread.meanSquaredDeviation(g, new int[] {1, 1, 1}), TIGHT);
-        // Resample {θ1, θ1, θ2}: mean (2/3, 0, 0); deviations² 4/9, 4/9, 16/9 → (24/9)/3 = 8/9.
-        assertEquals(8.0 / 9.0, Spread.meanSquaredDeviation(g, new int[] {2, 1, 0}), TIGHT);
-        // One replicate drawn three times: no spread.
-        assertEquals(0.0, Spread.meanSquaredDeviation(g, new int[] {0, 0, 3}), TIGHT);
+        // Pairs: ½‖θ1 − θ2‖² = ½·4 = 2, ½‖θ1 − θ3‖² = ½·10 = 5, ½‖θ2 − θ3‖² = ½·10 = 5: mean 12/3 = 4, which is the
+        // sum of squared deviations 8 over S − 1 = 2.
+        double[] h = Spread.halfSquaredDistances(THETA, 1.0);
+        assertArrayEquals(new double[] {0, 2, 5, 2, 0, 5, 5, 5, 0}, h, TIGHT);
+        Spread.PairMeans m = Spread.pairMeans(h, 3);
+        assertEquals(4.0, m.value(), TIGHT);
+        // Leaving θ1 out leaves the pair (2, 3): 5; θ2 out: (1, 3), 5; θ3 out: (1, 2), 2.
+        assertArrayEquals(new double[] {5, 5, 2}, m.leaveOneOut(), TIGHT);
+        // Two replicates: one pair, no leave-one-out.
+        assertEquals(0, Spread.pairMeans(new double[] {0, 2, 2, 0}, 2).leaveOneOut().length);
     }
 
     // Two test rows, two classes; rows are (p(class 0), p(class 1)).
@@ -33,14 +36,12 @@ class SpreadTest {
 
     @Test
     void predictionSpreadByHand() {
-        double[] g = Spread.centredGram(PROBABILITIES, 2);
-        // Replicates 1, 2: row 1 class 0 values 0.8, 0.6 → Var (divisor 2) 0.01, class 1 the same: 0.02;
-        // row 2: 0.4, 0.5 → 0.0025 twice: 0.005. Mean over the two rows: 0.0125.
-        assertEquals(0.0125, Spread.meanSquaredDeviation(g, new int[] {1, 1, 0}), TIGHT);
-        // All three: row 1 class 0 in tenths 8, 6, 3: Σx² − (Σx)²/3 = 109 − 289/3 = 38/3 → Var 38/900;
-        // row 2: 4, 5, 1: 42 − 100/3 = 26/3 → 26/900. Each twice (two classes), mean over 2 rows:
-        // (38 + 26)/900 = 64/900.
-        assertEquals(64.0 / 900.0, Spread.meanSquaredDeviation(g, new int[] {1, 1, 1}), TIGHT);
+        // Pair (1, 2): squared differences 0.04 + 0.04 on row 1, 0.01 + 0.01 on row 2: 0.10, halved, over 2 rows:
+        // 0.025. Pair (1, 3): 0.25·2 + 0.09·2 = 0.68 → 0.17. Pair (2, 3): 0.09·2 + 0.16·2 = 0.5 → 0.125.
+        // Mean (0.025 + 0.17 + 0.125)/3 = 0.32/3 (= Σ_classes Var with divisor S − 1, averaged over the rows).
+        Spread.PairMeans m = Spread.pairMeans(Spread.halfSquaredDistances(PROBABILITIES, 2), 3);
+        assertEquals(0.32 / 3, m.value(), TIGHT);
+        assertArrayEquals(new double[] {0.125, 0.17, 0.025}, m.leaveOneOut(), TIGHT);
     }
 
     @Test
@@ -49,10 +50,10 @@ class SpreadTest {
         // replicate 3 → (1, 1). Pairs: (1,2) differ on row 2: 1/2; (1,3) on row 1: 1/2; (2,3) on both: 1.
         double[] d = Spread.disagreement(PROBABILITIES, 2);
         assertArrayEquals(new double[] {0, 0.5, 0.5, 0.5, 0, 1, 0.5, 1, 0}, d, TIGHT);
-        // Mean over the three pairs: (0.5 + 0.5 + 1)/3 = 2/3.
-        assertEquals(2.0 / 3.0, Spread.meanPairwise(d, new int[] {1, 1, 1}), TIGHT);
-        // Resample {1, 1, 2}: position pairs (1,1') 0, (1,2) 0.5, (1',2) 0.5 → 1/3.
-        assertEquals(1.0 / 3.0, Spread.meanPairwise(d, new int[] {2, 1, 0}), TIGHT);
+        // Mean over the three pairs: (0.5 + 0.5 + 1)/3 = 2/3; leaving one out keeps one pair each.
+        Spread.PairMeans m = Spread.pairMeans(d, 3);
+        assertEquals(2.0 / 3.0, m.value(), TIGHT);
+        assertArrayEquals(new double[] {1, 0.5, 0.5}, m.leaveOneOut(), TIGHT);
     }
 
     @Test

@@ -66,33 +66,4 @@ class BootstrapTest {
         }
         return k;
     }
-
-    @Test
-    void jointResamplingUsesOneIndexVectorForEveryOutput() {
-        double[] x = {1.0, 4.0, 2.5, 7.0, 3.0, 0.5};
-        IndexStatistic stat = (indices, out) -> {
-            double a = 0;
-            for (int i : indices) {
-                a += x[i];
-            }
-            a /= indices.length;
-            out[0] = a;
-            out[1] = a + 1.0;
-            double b = 0;
-            for (int i : indices) {
-                b += 2.0 * x[i];
-            }
-            out[2] = b / indices.length;
-        };
-        Interval[] i = Bootstrap.jointIntervals(x.length, 3, stat, 11L, 10_000, 0.9);
-        assertEquals(i[0].low() + 1.0, i[1].low(), 1e-12);
-        assertEquals(i[0].high() + 1.0, i[1].high(), 1e-12);
-        assertEquals(2.0 * i[0].low(), i[2].low(), 1e-12);
-        assertEquals(2.0 * i[0].high(), i[2].high(), 1e-12);
-        Interval[] again = Bootstrap.jointIntervals(x.length, 3, stat, 11L, 10_000, 0.9);
-        assertEquals(i[2], again[2]);
-        assertThrows(IllegalArgumentException.class, () -> Bootstrap.jointIntervals(x.length, 1,
-                (indices, out) -> out[0] = Double.NaN, 11L, 10_000, 0.9));
-        assertThrows(IllegalArgumentException.class, () -> Bootstrap.jointIntervals(x.length, 1, stat, 11L, 999, 0.9));
-    }
 }
