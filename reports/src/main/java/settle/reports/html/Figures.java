@@ -3,14 +3,15 @@ package settle.reports.html;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
-import org.apache.commons.math3.linear.Array2DRowRealMatrix;
-import org.apache.commons.math3.linear.EigenDecomposition;
+import settle.reports.metrics.ArmNudges;
+import settle.reports.metrics.DistanceCurves;
+import settle.reports.metrics.EpochBands;
+import settle.reports.metrics.Replicates;
 import settle.reports.metrics.StudyAnalysis;
+import settle.reports.metrics.TailCloud;
 import settle.reports.stats.ArmSummary;
-import settle.reports.stats.Quantiles;
 import settle.reports.stats.VerdictOptions;
 import settle.reports.study.Metric;
-import settle.reports.study.Prediction;
 import settle.reports.study.Replicate;
 import settle.reports.study.Study;
 
@@ -19,11 +20,6 @@ final class Figures {
 
     /** Most points drawn per arm for a long series (rates of every update). */
     static final int MAX_BUCKETS = 200;
-    /** Largest model whose tail cloud is drawn. */
-    static final int CLOUD_MAX_PARAMETERS = 200;
-    /** Most snapshots drawn per arm in the tail cloud. */
-    static final int CLOUD_POINTS_PER_ARM = 300;
-
     private static final double WIDE = 880;
 
     private Figures() {
@@ -51,23 +47,13 @@ final class Figures {
 
     // ---------------------------------------------------------------- rates
 
-    /** @return the first present replicate of arm a, or null */
-    static Replicate first(Study study, int a) {
-        for (Replicate r : study.replicates().get(a)) {
-            if (r != null) {
-                return r;
-            }
-        }
-        return null;
-    }
-
     static void rates(HtmlWriter w, Study study) {
         int perEpoch = Math.max(1, study.manifest().updatesPerEpoch());
         double lo = Double.POSITIVE_INFINITY;
         double hi = 0;
         double xMax = 1;
         for (int a = 0; a < study.armCount(); a++) {
-            for (Replicate r : drawnRates(study, a)) {
+            for (Replicate r : Replicates.withOwnRates(study, a)) {
                 for (double v : r.rates()) {
                     if (v > 0 && Double.isFinite(v)) {
                         lo = Math.min(lo, v);
@@ -83,8 +69,8 @@ final class Figures {
                 "Learning rate of every update, per arm, on a log scale");
         int hidden = 0;
         for (int a = 0; a < study.armCount(); a++) {
-            boolean cut = Marks.cut(study, a);
-            for (Replicate r : drawnRates(study, a)) {
+            boolean cut = Replicates.cut(study, a);
+            for (Replicate r : Replicates.withOwnRates(study, a)) {
                 double[][] xy = downsampleRates(r.rates(), perEpoch, MAX_BUCKETS);
                 hidden += c.line(xy[0], xy[1], Palette.style(a), cut ? "series rate-replicate" : "series rate");
                 if (cut) {
@@ -115,36 +101,19 @@ final class Figures {
     }
 
     /**
-     * @return the replicates whose rates the rate chart draws for arm a: every present one when a plateau schedule
-     *     cut some replicate's rate (their rates differ), else the first present one
-     */
-    static List<Replicate> drawnRates(Study study, int a) {
-        List<Replicate> out = new ArrayList<>();
-        if (Marks.cut(study, a)) {
-            for (Replicate r : study.replicates().get(a)) {
-                if (r != null) {
-                    out.add(r);
-                }
-            }
-        } else if (first(study, a) != null) {
-            out.add(first(study, a));
-        }
-        return out;
-    }
-
-    /**
      * One vertical marker (class "nudge") per nudge of every arm, at epoch {@code from − shift}: the rate chart
      * marks the nudge's first update (shift 0); the objective chart the end of the epoch before it (shift 1, the
      * last point before the nudge took effect; epoch 1 for a nudge in force from the start).
      */
     private static void nudgeMarkers(SvgChart c, Study study, int shift) {
         java.util.Map<Integer, Integer> rows = new java.util.HashMap<>();
-        List<List<Marks.NudgeMark>> nudges = Marks.nudges(study);
+        List<List<ArmNudges.Mark>> nudges = ArmNudges.of(study);
         for (int a = 0; a < nudges.size(); a++) {
-            for (Marks.NudgeMark n : nudges.get(a)) {
+            for (ArmNudges.Mark n : nudges.get(a)) {
                 int x = Math.max(1, n.fromEpoch() - shift);
                 int row = rows.merge(x, 1, Integer::sum) - 1;
-                c.vertical(x, Palette.style(a), "nudge", n.label(), n.tooltip(study.armName(a)), Math.min(row, 5));
+                c.vertical(x, Palette.style(a), "nudge", Marks.label(n), Marks.tooltip(n, study.armName(a)),
+                        Math.min(row, 5));
             }
         }
     }
@@ -195,52 +164,18 @@ final class Figures {
 
     // ---------------------------------------------------------------- objective
 
-    /** Per-epoch quartiles of one series over an arm's finished replicates: [epoch][0 = q1, 1 = median, 2 = q3]. */
-    static double[][] epochQuartiles(Study study, int a, java.util.function.Function<Replicate, double[]> series,
-            double shift) {
-        int epochs = 0;
-        List<double[]> rows = new ArrayList<>();
-        for (Replicate r : study.replicates().get(a)) {
-            if (r != null && !r.diverged()) {
-                double[] s = series.apply(r);
-                rows.add(s);
-                epochs = Math.max(epochs, s.length);
-            }
-        }
-        double[][] q = new double[epochs][3];
-        double[] buffer = new double[rows.size()];
-        for (int e = 0; e < epochs; e++) {
-            int n = 0;
-            for (double[] s : rows) {
-                if (e < s.length && Double.isFinite(s[e])) {
-                    buffer[n++] = s[e] - shift;
-                }
-            }
-            if (n == 0) {
-                Arrays.fill(q[e], Double.NaN);
-                continue;
-            }
-            double[] sorted = Arrays.copyOf(buffer, n);
-            Arrays.sort(sorted);
-            q[e][0] = Quantiles.type7(sorted, 0.25);
-            q[e][1] = Quantiles.type7(sorted, 0.5);
-            q[e][2] = Quantiles.type7(sorted, 0.75);
-        }
-        return q;
-    }
-
     static void objective(HtmlWriter w, Study study) {
         boolean convex = study.convex();
         double shift = convex ? study.reference().objective() : 0.0;
-        double[][][] q = new double[study.armCount()][][];
+        EpochBands[] q = new EpochBands[study.armCount()];
         double lo = Double.POSITIVE_INFINITY;
         double hi = Double.NEGATIVE_INFINITY;
         int epochs = 1;
         for (int a = 0; a < study.armCount(); a++) {
-            q[a] = epochQuartiles(study, a, r -> r.epochs().objective(), shift);
-            epochs = Math.max(epochs, q[a].length);
-            for (double[] e : q[a]) {
-                for (double v : e) {
+            q[a] = EpochBands.of(study, a, r -> r.epochs().objective(), shift);
+            epochs = Math.max(epochs, q[a].epochs());
+            for (int e = 0; e < q[a].epochs(); e++) {
+                for (double v : new double[] {q[a].lower()[e], q[a].median()[e], q[a].upper()[e]}) {
                     if (Double.isFinite(v) && (!convex || v > 0)) {
                         lo = Math.min(lo, v);
                         hi = Math.max(hi, v);
@@ -254,7 +189,7 @@ final class Figures {
                 "epoch (1 = the first pass)"), y, "Training objective per epoch: median and interquartile band per arm");
         int hidden = 0;
         for (int a = 0; a < study.armCount(); a++) {
-            int n = q[a].length;
+            int n = q[a].epochs();
             int stride = Math.max(1, (n + 3 * MAX_BUCKETS - 1) / (3 * MAX_BUCKETS));
             int m = (n + stride - 1) / stride;
             double[] xs = new double[m];
@@ -263,9 +198,9 @@ final class Figures {
             double[] q3 = new double[m];
             for (int i = 0, e = 0; e < n; e += stride, i++) {
                 xs[i] = e + 1;
-                q1[i] = q[a][e][0];
-                med[i] = q[a][e][1];
-                q3[i] = q[a][e][2];
+                q1[i] = q[a].lower()[e];
+                med[i] = q[a].median()[e];
+                q3[i] = q[a].upper()[e];
             }
             c.band(xs, q1, q3, Palette.style(a), "band");
             hidden += c.line(xs, med, Palette.style(a), "series median");
@@ -295,87 +230,21 @@ final class Figures {
     // ---------------------------------------------------------------- distance
 
     /**
-     * @return the first epoch (from 1) at which some replicate of arm a has an unstable prediction, or 0 when every
-     *     prediction is stable: the arm's predicted curve is drawn only before it
-     */
-    static int unstableEpoch(Study study, int a) {
-        int first = 0;
-        for (Replicate r : study.replicates().get(a)) {
-            if (r == null || r.diverged() || !r.prediction().predicted()) {
-                continue;
-            }
-            int e = r.prediction().unstableEpoch(study.manifest().updatesPerEpoch());
-            if (e > 0 && (first == 0 || e < first)) {
-                first = e;
-            }
-        }
-        return first;
-    }
-
-    /**
-     * Measured mean of ‖θ_t − θ*‖² and predicted E‖θ_t − θ*‖² per epoch end for arm a, over its finished replicates
-     * (each a mean of the finite values; NaN where none). The predicted curve stops before the arm's
-     * {@link #unstableEpoch}.
-     */
-    static double[][] distanceCurves(Study study, int a) {
-        int epochs = 0;
-        for (Replicate r : study.replicates().get(a)) {
-            if (r != null && !r.diverged()) {
-                epochs = Math.max(epochs, r.epochs().size());
-            }
-        }
-        int unstable = unstableEpoch(study, a);
-        int predictedEpochs = unstable > 0 ? Math.min(epochs, unstable - 1) : epochs;
-        double[] measured = new double[epochs];
-        double[] predicted = new double[epochs];
-        int[] nm = new int[epochs];
-        int[] np = new int[epochs];
-        for (Replicate r : study.replicates().get(a)) {
-            if (r == null || r.diverged()) {
-                continue;
-            }
-            double[] d = r.epochs().distance();
-            for (int e = 0; e < d.length; e++) {
-                double sq = d[e] * d[e];
-                if (Double.isFinite(sq)) {
-                    measured[e] += sq;
-                    nm[e]++;
-                }
-            }
-            Prediction p = r.prediction();
-            if (p.predicted() && p.epochDistanceSq() != null) {
-                double[] s = p.epochDistanceSq();
-                for (int e = 0; e < Math.min(predictedEpochs, s.length); e++) {
-                    if (Double.isFinite(s[e])) {
-                        predicted[e] += s[e];
-                        np[e]++;
-                    }
-                }
-            }
-        }
-        for (int e = 0; e < epochs; e++) {
-            measured[e] = nm[e] == 0 || !Double.isFinite(measured[e]) ? Double.NaN : measured[e] / nm[e];
-            predicted[e] = np[e] == 0 || !Double.isFinite(predicted[e]) ? Double.NaN : predicted[e] / np[e];
-        }
-        return new double[][] {measured, predicted};
-    }
-
-    /**
      * One small panel per arm on shared axes: the measured mean ‖θ − θ*‖² at each epoch end (arm colour) and the
      * predicted curve (dashed). The log axis is chosen from the measured values first and spans at most
      * {@value Axis#MAX_DECADES} decades; predicted points off it are not drawn, and a note says how many.
      */
     static void distance(HtmlWriter w, Study study) {
         int arms = study.armCount();
-        double[][][] curves = new double[arms][][];
+        DistanceCurves[] curves = new DistanceCurves[arms];
         double[] measured = {Double.POSITIVE_INFINITY, 0};
         double[] predicted = {Double.POSITIVE_INFINITY, 0};
         int epochs = 1;
         for (int a = 0; a < arms; a++) {
-            curves[a] = distanceCurves(study, a);
-            epochs = Math.max(epochs, curves[a][0].length);
-            extend(measured, curves[a][0]);
-            extend(predicted, curves[a][1]);
+            curves[a] = DistanceCurves.of(study, a);
+            epochs = Math.max(epochs, curves[a].epochs());
+            extend(measured, curves[a].measured());
+            extend(predicted, curves[a].predicted());
         }
         Axis y = Axis.log(measured[0], measured[1], predicted[0], predicted[1], "‖θ − θ*‖²");
         int hidden = 0;
@@ -387,15 +256,15 @@ final class Figures {
             SvgChart c = new SvgChart(w, "chart-distance-" + (a + 1), "chart small", 290, 220, 58,
                     Axis.fixed(1, Math.max(2, epochs), "epoch"), y,
                     "Distance to the reference minimiser per epoch for arm " + study.armName(a));
-            double[] xs = new double[curves[a][0].length];
+            double[] xs = new double[curves[a].epochs()];
             for (int e = 0; e < xs.length; e++) {
                 xs[e] = e + 1;
             }
             // The measured curve first, the dashed prediction over it: where they agree both stay visible.
-            hiddenMeasured += c.line(xs, curves[a][0], Palette.style(a), "series measured");
-            hidden += c.line(xs, curves[a][1], predictedStyle, "series predicted");
+            hiddenMeasured += c.line(xs, curves[a].measured(), Palette.style(a), "series measured");
+            hidden += c.line(xs, curves[a].predicted(), predictedStyle, "series predicted");
             c.end();
-            int unstable = unstableEpoch(study, a);
+            int unstable = curves[a].unstableEpoch();
             String caption = study.armName(a);
             if (xs.length == 0) {
                 caption += " (no finished replicate: nothing to draw)";
@@ -556,129 +425,36 @@ final class Figures {
 
     // ---------------------------------------------------------------- tail cloud
 
-    /** @return a reason when the tail cloud is not drawn, else null */
-    static String cloudSkipReason(Study study) {
-        int p = study.manifest().parameters();
-        if (p > CLOUD_MAX_PARAMETERS) {
-            return "the model has " + p + " parameters; the tail cloud is drawn for models of up to "
-                    + CLOUD_MAX_PARAMETERS;
-        }
-        if (p < 2) {
-            return "the model has fewer than two parameters";
-        }
-        for (int a = 0; a < study.armCount(); a++) {
-            for (Replicate r : study.replicates().get(a)) {
-                if (r != null && r.snapshots() != null) {
-                    return null;
-                }
-            }
-        }
-        return "no replicate recorded tail snapshots";
-    }
-
+    /** The tail cloud of a study whose {@link TailCloud#skipReason} is null: one panel per arm on shared axes. */
     static void cloud(HtmlWriter w, Study study) {
         int arms = study.armCount();
-        int p = study.manifest().parameters();
-        // Pick the snapshots drawn: per arm at most CLOUD_POINTS_PER_ARM, evenly over its replicates.
-        List<List<double[]>> chosen = new ArrayList<>();
-        for (int a = 0; a < arms; a++) {
-            List<Replicate> reps = new ArrayList<>();
-            for (Replicate r : study.replicates().get(a)) {
-                if (r != null && !r.diverged() && r.snapshots() != null) {
-                    reps.add(r);
-                }
-            }
-            List<double[]> points = new ArrayList<>();
-            int per = reps.isEmpty() ? 0 : Math.max(1, CLOUD_POINTS_PER_ARM / reps.size());
-            for (Replicate r : reps) {
-                int k = r.snapshotRows();
-                int take = Math.min(per, k);
-                for (int j = 0; j < take; j++) {
-                    int row = (int) ((long) j * k / take);
-                    double[] point = Arrays.copyOfRange(r.snapshots(), row * p, (row + 1) * p);
-                    if (Arrays.stream(point).allMatch(Double::isFinite)) {
-                        points.add(point);
-                    }
-                }
-            }
-            chosen.add(points);
-        }
-        double[] mean = new double[p];
-        int total = 0;
-        for (List<double[]> pts : chosen) {
-            for (double[] v : pts) {
-                for (int j = 0; j < p; j++) {
-                    mean[j] += v[j];
-                }
-                total++;
-            }
-        }
-        for (int j = 0; j < p; j++) {
-            mean[j] /= total;
-        }
-        double[][] cov = new double[p][p];
-        for (List<double[]> pts : chosen) {
-            for (double[] v : pts) {
-                for (int i = 0; i < p; i++) {
-                    double di = v[i] - mean[i];
-                    for (int j = i; j < p; j++) {
-                        cov[i][j] += di * (v[j] - mean[j]);
-                    }
-                }
-            }
-        }
-        double trace = 0;
-        for (int i = 0; i < p; i++) {
-            for (int j = i; j < p; j++) {
-                cov[i][j] /= total;
-                cov[j][i] = cov[i][j];
-            }
-            trace += cov[i][i];
-        }
-        if (total < 2 || !Double.isFinite(trace)) {
-            w.element("p", "Not drawn: " + (total < 2 ? "fewer than two tail snapshots have finite values"
-                    : "the tail snapshots are too far apart for their spread to be computed") + ".", "class", "note");
+        TailCloud cloud = TailCloud.of(study);
+        if (!cloud.available()) {
+            w.element("p", "Not drawn: " + cloud.unavailable() + ".", "class", "note");
             return;
         }
-        EigenDecomposition eig = new EigenDecomposition(new Array2DRowRealMatrix(cov, false));
-        double[] values = eig.getRealEigenvalues();
-        Integer[] order = new Integer[p];
-        for (int i = 0; i < p; i++) {
-            order[i] = i;
-        }
-        Arrays.sort(order, (i, j) -> Double.compare(values[j], values[i]));
-        double[] u = eig.getEigenvector(order[0]).toArray();
-        double[] v = eig.getEigenvector(order[1]).toArray();
-        signFix(u);
-        signFix(v);
-        double share1 = trace > 0 ? 100 * values[order[0]] / trace : 0;
-        double share2 = trace > 0 ? 100 * values[order[1]] / trace : 0;
-        List<double[][]> projected = new ArrayList<>();
         double xlo = Double.POSITIVE_INFINITY;
         double xhi = Double.NEGATIVE_INFINITY;
         double ylo = Double.POSITIVE_INFINITY;
         double yhi = Double.NEGATIVE_INFINITY;
-        for (List<double[]> pts : chosen) {
-            double[][] xy = new double[pts.size()][];
-            for (int i = 0; i < xy.length; i++) {
-                xy[i] = project(pts.get(i), mean, u, v);
-                xlo = Math.min(xlo, xy[i][0]);
-                xhi = Math.max(xhi, xy[i][0]);
-                ylo = Math.min(ylo, xy[i][1]);
-                yhi = Math.max(yhi, xy[i][1]);
+        for (double[][] xy : cloud.points()) {
+            for (double[] pt : xy) {
+                xlo = Math.min(xlo, pt[0]);
+                xhi = Math.max(xhi, pt[0]);
+                ylo = Math.min(ylo, pt[1]);
+                yhi = Math.max(yhi, pt[1]);
             }
-            projected.add(xy);
         }
-        double[] star = study.convex() && study.reference().theta().length == p
-                ? project(study.reference().theta(), mean, u, v) : null;
+        double[] star = cloud.star();
         if (star != null) {
             xlo = Math.min(xlo, star[0]);
             xhi = Math.max(xhi, star[0]);
             ylo = Math.min(ylo, star[1]);
             yhi = Math.max(yhi, star[1]);
         }
-        Axis x = Axis.linear(xlo, xhi, String.format(java.util.Locale.ROOT, "first principal axis (%.0f %% of variance)", share1));
-        Axis y = Axis.linear(ylo, yhi, String.format(java.util.Locale.ROOT, "second axis (%.0f %%)", share2));
+        Axis x = Axis.linear(xlo, xhi, String.format(java.util.Locale.ROOT, "first principal axis (%.0f %% of variance)",
+                cloud.firstShare()));
+        Axis y = Axis.linear(ylo, yhi, String.format(java.util.Locale.ROOT, "second axis (%.0f %%)", cloud.secondShare()));
         w.open("div", "class", "multiples");
         for (int a = 0; a < arms; a++) {
             w.open("figure", "class", "panel");
@@ -686,7 +462,7 @@ final class Figures {
                     "Tail snapshots of arm " + study.armName(a) + " projected on the principal axes of all arms' tail"
                             + " snapshots");
             Palette.Style s = Palette.style(a);
-            for (double[] pt : projected.get(a)) {
+            for (double[] pt : cloud.points().get(a)) {
                 double px = c.px(pt[0]);
                 double py = c.py(pt[1]);
                 w.empty("circle", "class", "snapshot", "cx", SvgChart.n(px), "cy", SvgChart.n(py), "r", "1.7", "fill",
@@ -701,31 +477,6 @@ final class Figures {
             w.close("figure");
         }
         w.close("div");
-    }
-
-    private static void signFix(double[] e) {
-        int big = 0;
-        for (int i = 1; i < e.length; i++) {
-            if (Math.abs(e[i]) > Math.abs(e[big])) {
-                big = i;
-            }
-        }
-        if (e[big] < 0) {
-            for (int i = 0; i < e.length; i++) {
-                e[i] = -e[i];
-            }
-        }
-    }
-
-    private static double[] project(double[] x, double[] mean, double[] u, double[] v) {
-        double a = 0;
-        double b = 0;
-        for (int j = 0; j < x.length; j++) {
-            double d = x[j] - mean[j];
-            a += d * u[j];
-            b += d * v[j];
-        }
-        return new double[] {a, b};
     }
 
     // ---------------------------------------------------------------- heatmap

@@ -7,8 +7,15 @@ import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import settle.reports.metrics.ArmLevel;
+import settle.reports.metrics.ArmNudges;
+import settle.reports.metrics.ArmPick;
 import settle.reports.metrics.BallDiagnosis;
+import settle.reports.metrics.PlateauSummary;
+import settle.reports.metrics.Ranks;
+import settle.reports.metrics.RateSummary;
+import settle.reports.metrics.Replicates;
 import settle.reports.metrics.StudyAnalysis;
+import settle.reports.metrics.TailCloud;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Interval;
@@ -111,7 +118,7 @@ public final class ReportPage {
         w.open("header");
         w.element("h1", "Study " + name + ": does decay shrink the noise ball?");
         w.open("p", "class", "lede");
-        int epochs = epochs();
+        int epochs = Replicates.epochs(study);
         w.text(manifest.model() + " on " + manifest.dataSource() + " (" + manifest.trainRows() + " training rows, "
                 + manifest.testRows() + " test rows); " + study.armCount() + " arms × " + study.replicateCount()
                 + " seed-paired replicates; " + epochs + " epochs of " + manifest.updatesPerEpoch() + " updates. "
@@ -171,18 +178,6 @@ public final class ReportPage {
             endSection();
             failed.add(SECTIONS.get(i) + " (" + e + ")");
         }
-    }
-
-    private int epochs() {
-        int e = 0;
-        for (List<Replicate> arm : study.replicates()) {
-            for (Replicate r : arm) {
-                if (r != null) {
-                    e = Math.max(e, r.epochs().size());
-                }
-            }
-        }
-        return e;
     }
 
     private void section(String id, String title) {
@@ -259,24 +254,11 @@ public final class ReportPage {
     }
 
     private void pick(int base) {
-        int best = -1;
-        double bestMedian = Double.POSITIVE_INFINITY;
+        ArmPick pick = ArmPick.of(analysis);
         ArmSummary[] radius = analysis.summaries(StudyAnalysis.PRIMARY);
-        for (int a = 0; a < study.armCount(); a++) {
-            Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, a);
-            if (c != null && c.detected() && !c.armLarger() && radius[a].median() < bestMedian) {
-                best = a;
-                bestMedian = radius[a].median();
-            }
-        }
         w.open("div", "class", "pick");
-        if (best < 0) {
-            int lowest = 0;
-            for (int a = 1; a < study.armCount(); a++) {
-                if (radius[a].median() < radius[lowest].median()) {
-                    lowest = a;
-                }
-            }
+        if (!pick.picked()) {
+            int lowest = pick.lowest();
             w.open("p");
             w.text("No arm wanders detectably less than the baseline ");
             w.element("strong", manifest.baseline());
@@ -289,6 +271,7 @@ public final class ReportPage {
                             : "") + ".");
             w.close("p");
         } else {
+            int best = pick.arm();
             Comparison c = analysis.comparison(StudyAnalysis.PRIMARY, best);
             w.open("p");
             w.text("For low wander, pick ");
@@ -306,7 +289,7 @@ public final class ReportPage {
                 if (d == null || s == null) {
                     continue;
                 }
- costs.add(withMetric(m, VerdictSentence.render(d)) + " (median " + Format.sig(s[best].median())
+                costs.add(withMetric(m, VerdictSentence.render(d)) + " (median " + Format.sig(s[best].median())
                         + " against " + Format.sig(s[base].median()) + ")");
             }
             w.text(costs.isEmpty() ? "no test split or reference to measure it on." : String.join("; ", costs) + ".");
@@ -418,26 +401,17 @@ public final class ReportPage {
         }
         w.close("tr").close("thead").open("tbody");
         for (int a = 0; a < study.armCount(); a++) {
-            Replicate r = Figures.first(study, a);
+            RateSummary rates = RateSummary.of(study, a);
             w.open("tr");
             w.open("th", "scope", "row");
             swatch(a);
             w.text(study.armName(a));
             w.close("th");
-            double[] rates = r == null ? new double[0] : r.rates();
-            double sum = 0;
-            double sq = 0;
-            for (double v : rates) {
-                if (Double.isFinite(v)) {
-                    sum += v;
-                    sq += v * v;
-                }
-            }
-            w.element("td", rates.length == 0 ? "—" : Format.sig(rates[0]), "class", "num");
-            w.element("td", rates.length == 0 ? "—" : Format.sig(rates[rates.length - 1]), "class", "num");
-            w.element("td", Format.sig(sum), "class", "num");
-            w.element("td", Format.sig(sq), "class", "num");
-            w.element("td", Integer.toString(rates.length), "class", "num");
+            w.element("td", rates.updates() == 0 ? "—" : Format.sig(rates.first()), "class", "num");
+            w.element("td", rates.updates() == 0 ? "—" : Format.sig(rates.last()), "class", "num");
+            w.element("td", Format.sig(rates.sum()), "class", "num");
+            w.element("td", Format.sig(rates.sumOfSquares()), "class", "num");
+            w.element("td", Integer.toString(rates.updates()), "class", "num");
             w.close("tr");
         }
         w.close("tbody").close("table");
@@ -448,11 +422,8 @@ public final class ReportPage {
 
     /** The nudges of every arm, in arm order and then the order applied; nothing when there is none. */
     private void nudgeTable() {
-        List<List<Marks.NudgeMark>> nudges = Marks.nudges(study);
-        int count = 0;
-        for (List<Marks.NudgeMark> arm : nudges) {
-            count += arm.size();
-        }
+        List<List<ArmNudges.Mark>> nudges = ArmNudges.of(study);
+        int count = ArmNudges.count(nudges);
         if (count == 0) {
             return;
         }
@@ -467,7 +438,7 @@ public final class ReportPage {
         }
         w.close("tr").close("thead").open("tbody");
         for (int a = 0; a < nudges.size(); a++) {
-            for (Marks.NudgeMark n : nudges.get(a)) {
+            for (ArmNudges.Mark n : nudges.get(a)) {
                 w.open("tr", "class", "nudge-row");
                 w.open("th", "scope", "row");
                 swatch(a);
@@ -491,7 +462,7 @@ public final class ReportPage {
     private void plateauTable() {
         List<Integer> arms = new ArrayList<>();
         for (int a = 0; a < study.armCount(); a++) {
-            if (Marks.cut(study, a)) {
+            if (Replicates.cut(study, a)) {
                 arms.add(a);
             }
         }
@@ -509,43 +480,23 @@ public final class ReportPage {
         }
         w.close("tr").close("thead").open("tbody");
         for (int a : arms) {
-            List<Double> cuts = new ArrayList<>();
-            List<Double> first = new ArrayList<>();
-            for (Replicate r : study.replicates().get(a)) {
-                if (r == null) {
-                    continue;
-                }
-                cuts.add((double) r.plateauCuts().size());
-                if (!r.plateauCuts().isEmpty()) {
-                    first.add((double) r.plateauCuts().get(0).fromEpoch());
-                }
-            }
-            double[] c = sorted(cuts);
-            double[] f = sorted(first);
+            PlateauSummary cuts = PlateauSummary.of(study, a);
+            double[] c = cuts.cuts();
+            double[] f = cuts.firstCuts();
             w.open("tr");
             w.open("th", "scope", "row");
             swatch(a);
             w.text(study.armName(a));
             w.close("th");
-            w.element("td", Integer.toString(c.length), "class", "num");
-            w.element("td", Format.sig(settle.reports.stats.Quantiles.type7(c, 0.5)), "class", "num");
+            w.element("td", Integer.toString(cuts.replicates()), "class", "num");
+            w.element("td", Format.sig(cuts.medianCuts()), "class", "num");
             w.element("td", Format.sig(c[0]) + "–" + Format.sig(c[c.length - 1]), "class", "num");
-            w.element("td", f.length == 0 ? "—" : Format.sig(settle.reports.stats.Quantiles.type7(f, 0.5)), "class",
-                    "num");
+            w.element("td", f.length == 0 ? "—" : Format.sig(cuts.medianFirstCut()), "class", "num");
             w.element("td", f.length == 0 ? "—" : Format.sig(f[0]) + "–" + Format.sig(f[f.length - 1]), "class", "num");
-            w.element("td", Integer.toString(c.length - f.length), "class", "num");
+            w.element("td", Integer.toString(cuts.neverCut()), "class", "num");
             w.close("tr");
         }
         w.close("tbody").close("table");
-    }
-
-    private static double[] sorted(List<Double> values) {
-        double[] out = new double[values.size()];
-        for (int i = 0; i < out.length; i++) {
-            out[i] = values.get(i);
-        }
-        java.util.Arrays.sort(out);
-        return out;
     }
 
     // ---------------------------------------------------------------- objective, distance
@@ -558,7 +509,7 @@ public final class ReportPage {
                         + "replicates as a line, the interquartile range as a band."
                 : "The full-batch training objective F(θ) at the end of each epoch: the median over each arm's finished "
                         + "replicates as a line, the interquartile range as a band.");
-        if (Marks.nudges(study).stream().anyMatch(l -> !l.isEmpty()) || anyCut()) {
+        if (ArmNudges.count(ArmNudges.of(study)) > 0 || Replicates.anyCut(study)) {
             para("A dashed vertical marker is a nudge, drawn at the end of the epoch before it took effect (the last "
                     + "point at the old rate); a short tick is a plateau cut of one replicate, on its objective at the "
                     + "end of the epoch that triggered it.");
@@ -579,20 +530,9 @@ public final class ReportPage {
             endSection();
             return;
         }
-        Prediction label = null;
-        String skipped = null;
-        for (List<Replicate> arm : study.replicates()) {
-            for (Replicate r : arm) {
-                if (r == null) {
-                    continue;
-                }
-                if (r.prediction().predicted() && label == null) {
-                    label = r.prediction();
-                } else if (!r.prediction().predicted() && skipped == null) {
-                    skipped = r.prediction().skipped();
-                }
-            }
-        }
+        Replicates.Predictions predictions = Replicates.predictions(study);
+        Prediction label = predictions.example();
+        String skipped = predictions.skipped();
         boolean replacement = label != null && label.sampling().equals("replacement");
         para("Squared distances to θ* are compared: measured, the mean over an arm's finished replicates of ‖θ_t − θ*‖²; "
                 + "predicted, the mean of the replicates' predicted E‖θ_t − θ*‖² from the mean and covariance recursion "
@@ -644,7 +584,7 @@ public final class ReportPage {
         w.close("tr").close("thead");
         for (int a = 0; a < study.armCount(); a++) {
             BallDiagnosis d = BallDiagnosis.of(study, a);
-            Replicate.Tail tail = tail(a);
+            Replicate.Tail tail = Replicates.firstTail(study, a);
             w.open("tbody", "class", "arm-ball", "data-state", d.state().name().toLowerCase(java.util.Locale.ROOT)
                     .replace('_', '-'));
             w.open("tr");
@@ -709,16 +649,6 @@ public final class ReportPage {
                 + (p.momentum() == 0 ? "" : " (β = " + Format.sig(p.momentum()) + ")");
     }
 
-    /** @return the tail of arm a's first finished replicate that records one, or null */
-    private Replicate.Tail tail(int a) {
-        for (Replicate r : study.replicates().get(a)) {
-            if (r != null && !r.diverged() && r.tail() != null) {
-                return r.tail();
-            }
-        }
-        return null;
-    }
-
     private static String capitalised(String s) {
         return s.isEmpty() ? s : Character.toUpperCase(s.charAt(0)) + s.substring(1);
     }
@@ -743,15 +673,6 @@ public final class ReportPage {
         }
         Figures.legend(w, study, false);
         endSection();
-    }
-
-    private boolean anyCut() {
-        for (int a = 0; a < study.armCount(); a++) {
-            if (Marks.cut(study, a)) {
-                return true;
-            }
-        }
-        return false;
     }
 
     // ---------------------------------------------------------------- a-priori bound
@@ -793,11 +714,11 @@ public final class ReportPage {
                 + "Source: " + (bound.source().isEmpty() ? "Defazio et al. 2023, arXiv:2310.07831, Theorem 10; "
                         + "Schaipp et al., ICML 2025, Theorem 1" : bound.source()) + ".");
         w.close("p");
-        double[] radius = medians(Metric.TAIL_RADIUS);
-        double[] gap = medians(Metric.FINAL_GAP);
-        int[] byBound = ranks(bound.values());
-        int[] byRadius = ranks(radius);
-        int[] byGap = ranks(gap);
+        double[] radius = analysis.medians(Metric.TAIL_RADIUS);
+        double[] gap = analysis.medians(Metric.FINAL_GAP);
+        int[] byBound = Ranks.of(bound.values());
+        int[] byRadius = Ranks.of(radius);
+        int[] byGap = Ranks.of(gap);
         para("Ranks run from 1 (smallest) and ties share a rank. The empirical ranks are by the median over each arm's "
                 + "finished replicates; an arm whose replicates all diverged has none.");
         w.open("div", "class", "scroll");
@@ -827,46 +748,18 @@ public final class ReportPage {
         endSection();
     }
 
-    /** @return each arm's median of m over its finished replicates (NaN when none or unavailable) */
-    private double[] medians(Metric m) {
-        double[] out = new double[study.armCount()];
-        ArmSummary[] s = analysis.summaries(m);
-        for (int a = 0; a < out.length; a++) {
-            out[a] = s == null ? Double.NaN : s[a].median();
-        }
-        return out;
-    }
-
-    /** @return 1 + the number of finite values below each finite value (ties share the rank); 0 for NaN */
-    static int[] ranks(double[] values) {
-        int[] out = new int[values.length];
-        for (int i = 0; i < values.length; i++) {
-            if (!Double.isFinite(values[i])) {
-                continue;
-            }
-            int below = 0;
-            for (double v : values) {
-                if (Double.isFinite(v) && v < values[i]) {
-                    below++;
-                }
-            }
-            out[i] = 1 + below;
-        }
-        return out;
-    }
-
     private static String rank(int r) {
         return r == 0 ? "—" : Integer.toString(r);
     }
 
     private void cloud() {
         section("tail-cloud", "Tail cloud of every arm");
-        String reason = Figures.cloudSkipReason(study);
+        String reason = TailCloud.skipReason(study);
         if (reason != null) {
             para("Not drawn: " + reason + ".");
         } else {
             para("The tail snapshots of every arm projected onto the two principal axes of all arms' tail snapshots "
-                    + "pooled (at most " + Figures.CLOUD_POINTS_PER_ARM + " per arm, evenly over its replicates); every "
+                    + "pooled (at most " + TailCloud.POINTS_PER_ARM + " per arm, evenly over its replicates); every "
                     + "panel shares the axes, so the clouds' sizes compare directly"
                     + (study.convex() ? "; + marks θ*." : "."));
             Figures.cloud(w, study);
@@ -1046,10 +939,7 @@ public final class ReportPage {
         }
         w.close("tr").close("thead").open("tbody");
         for (int k = 0; k < study.replicateCount(); k++) {
-            Replicate r = null;
-            for (int a = 0; a < study.armCount() && r == null; a++) {
-                r = study.replicate(a, k);
-            }
+            Replicate r = Replicates.firstOfIndex(study, k);
             w.open("tr");
             w.element("td", Integer.toString(k + 1), "class", "num");
             w.element("td", r == null ? "—" : Long.toString(r.initialisationSeed()), "class", "num");

@@ -126,6 +126,19 @@ public final class StudyAnalysis {
     }
 
     /**
+     * @return each arm's median of metric {@code m} over its finished replicates, by arm index (NaN for an arm with
+     *     none, and for every arm when the metric is unavailable)
+     */
+    public double[] medians(Metric m) {
+        double[] out = new double[study.armCount()];
+        ArmSummary[] s = summaries.get(m);
+        for (int a = 0; a < out.length; a++) {
+            out[a] = s == null ? Double.NaN : s[a].median();
+        }
+        return out;
+    }
+
+    /**
      * @return the comparisons of every non-baseline arm with the baseline on {@code m}, in arm order; empty
      *     when the metric is unavailable or the study has one arm
      */
