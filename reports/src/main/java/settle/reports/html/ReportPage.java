@@ -2,8 +2,6 @@ package settle.reports.html;
 
 import java.util.ArrayList;
 import java.util.List;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import settle.reports.html.sections.Drawing;
 import settle.reports.html.sections.Section;
 import settle.reports.html.sections.Sections;
@@ -29,8 +27,6 @@ public final class ReportPage {
 
     /** The Content-Security-Policy of the page: nothing may be fetched; inline style and data images only. */
     public static final String CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:";
-
-    private static final Pattern STUDY = Pattern.compile("(?m)^study:\\s*\"?([^\"\\r\\n]*?)\"?\\s*$");
 
     private final StudyAnalysis analysis;
     private final Study study;
@@ -82,17 +78,8 @@ public final class ReportPage {
         return new Rendered(page.w.toString(), page.failed);
     }
 
-    /** @return the study's name from the plan text, or the directory's name */
-    static String studyName(Study study) {
-        Matcher m = STUDY.matcher(study.planText());
-        if (m.find() && !m.group(1).isBlank()) {
-            return m.group(1).trim();
-        }
-        return String.valueOf(study.directory().toAbsolutePath().normalize().getFileName());
-    }
-
     private void page() {
-        String name = studyName(study);
+        String name = manifest.study();
         w.doctype().open("html", "lang", "en").newline();
         w.open("head").newline();
         w.empty("meta", "charset", "utf-8").newline();

@@ -4,8 +4,6 @@ import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.ArmValues;
 import settle.reports.stats.Bootstrap;
@@ -36,8 +34,6 @@ public final class StudyAnalysis {
 
     /** The primary metric. */
     public static final Metric PRIMARY = Metric.TAIL_RADIUS;
-
-    private static final Pattern L2 = Pattern.compile("(?m)^\\s+l2:\\s*([-+0-9.eE]+)\\s*$");
 
     private final Study study;
     private final VerdictOptions options;
@@ -379,23 +375,11 @@ public final class StudyAnalysis {
         }
     }
 
+    /** @return the gauge of the study's model: weights centred too when its penalty λ (the manifest's) is 0 */
     private Gauge gauge() {
         var m = study.manifest();
         int gaugeDimension = study.reference() == null ? -1 : study.reference().gaugeDimension();
-        return Gauge.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, l2IsZero(study.planText()));
-    }
-
-    /** @return true when the plan text's model penalty {@code l2:} is zero or absent */
-    static boolean l2IsZero(String planText) {
-        Matcher matcher = L2.matcher(planText);
-        if (!matcher.find()) {
-            return true;
-        }
-        try {
-            return Double.parseDouble(matcher.group(1)) == 0.0;
-        } catch (NumberFormatException e) {
-            return false;
-        }
+        return Gauge.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, m.l2() == 0.0);
     }
 
     /** @return counts drawing each of n replicates once */

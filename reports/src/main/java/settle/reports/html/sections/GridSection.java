@@ -1,28 +1,22 @@
 package settle.reports.html.sections;
 
-import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import settle.reports.html.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.html.Palette;
 import settle.reports.html.SvgChart;
+import settle.reports.metrics.GridTable;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.ArmSummary;
+import settle.reports.study.Grid;
 import settle.reports.study.Metric;
-import settle.reports.study.Study;
 
 /**
- * "Grid": for arms expanded by a grid, heatmaps of the median tail radius, final gap, test loss and test accuracy
- * over the swept keys (one or two keys).
+ * "Grid": for each grid entry of the plan that expanded an arm into two or more (the manifest's {@code grid}; never
+ * guessed from arm names), heatmaps of the median tail radius, final gap, test loss and test accuracy over the swept
+ * keys ({@link GridTable}: one or two keys; a grid of more keys is named and left to the verdict table).
  */
 final class GridSection implements Section {
-
-    private static final Pattern GRID_ARM = Pattern.compile("^(.*)\\[([^\\[\\]]+)\\]$");
 
     @Override
     public String id() {
@@ -39,88 +33,33 @@ final class GridSection implements Section {
         return "Grid";
     }
 
-    /** A grid arm name {@code base[key=value,key=value]} parsed, or null. */
-    private record GridName(String base, Map<String, String> values) {
-        /** @return the name parsed, or null when it does not have that form */
-        static GridName parse(String name) {
-            Matcher m = GRID_ARM.matcher(name);
-            if (!m.matches()) {
-                return null;
-            }
-            Map<String, String> values = new LinkedHashMap<>();
-            for (String part : m.group(2).split(",")) {
-                int eq = part.indexOf('=');
-                if (eq <= 0) {
-                    return null;
-                }
-                values.put(part.substring(0, eq).trim(), part.substring(eq + 1).trim());
-            }
-            return new GridName(m.group(1), values);
-        }
-    }
-
     @Override
     public void draw(Drawing d) {
         HtmlWriter w = d.writer();
-        Study study = d.study();
         StudyAnalysis analysis = d.analysis();
-        Map<String, List<Integer>> groups = new LinkedHashMap<>();
-        Map<Integer, GridName> parsed = new LinkedHashMap<>();
-        for (int a = 0; a < study.armCount(); a++) {
-            GridName g = GridName.parse(study.armName(a));
-            if (g != null) {
-                parsed.put(a, g);
-                groups.computeIfAbsent(g.base() + "\u0000" + String.join("\u0000", g.values().keySet()),
-                        k -> new ArrayList<>()).add(a);
-            }
-        }
         boolean drawn = false;
         int figure = 0;
-        for (List<Integer> members : groups.values()) {
-            if (members.size() < 2) {
+        for (Grid grid : GridTable.inArmOrder(d.manifest().grids())) {
+            if (grid.members().size() < 2) {
                 continue;
             }
-            GridName first = parsed.get(members.get(0));
-            List<String> keys = new ArrayList<>(first.values().keySet());
+            List<String> keys = grid.keys();
             if (keys.size() > 2) {
-                d.para("Arm " + first.base() + " is expanded over " + keys.size() + " keys (" + String.join(", ", keys)
+                d.para("Arm " + grid.arm() + " is expanded over " + keys.size() + " keys (" + String.join(", ", keys)
                         + "): heatmaps are drawn for grids of one or two keys; see the verdict table.");
                 continue;
             }
-            String rowKey = keys.get(0);
-            String columnKey = keys.size() == 2 ? keys.get(1) : "";
-            List<String> rows = new ArrayList<>();
-            List<String> columns = new ArrayList<>();
-            for (int a : members) {
-                GridName g = parsed.get(a);
-                String r = g.values().get(rowKey);
-                String c = keys.size() == 2 ? g.values().get(columnKey) : "";
-                if (!rows.contains(r)) {
-                    rows.add(r);
-                }
-                if (!columns.contains(c)) {
-                    columns.add(c);
-                }
-            }
-            w.element("h3", "Arm " + first.base() + " over " + String.join(" × ", keys));
+            GridTable table = GridTable.of(grid);
+            w.element("h3", "Arm " + grid.arm() + " over " + String.join(" × ", keys));
             w.open("div", "class", "multiples");
             for (Metric m : List.of(Metric.TAIL_RADIUS, Metric.FINAL_GAP, Metric.TEST_LOSS, Metric.TEST_ACCURACY)) {
                 ArmSummary[] s = analysis.summaries(m);
                 if (s == null) {
                     continue;
                 }
-                double[][] cells = new double[rows.size()][columns.size()];
-                for (double[] row : cells) {
-                    Arrays.fill(row, Double.NaN);
-                }
-                for (int a : members) {
-                    GridName g = parsed.get(a);
-                    int i = rows.indexOf(g.values().get(rowKey));
-                    int j = columns.indexOf(keys.size() == 2 ? g.values().get(columnKey) : "");
-                    cells[i][j] = s[a].median();
-                }
                 figure++;
-                heatmap(w, "heatmap-" + figure, "median " + m.words(), rowKey, rows, columnKey, columns, cells);
+                heatmap(w, "heatmap-" + figure, "median " + m.words(), table.rowKey(), table.rows(),
+                        table.columnKey(), table.columns(), table.medians(s));
             }
             w.close("div");
             drawn = true;
