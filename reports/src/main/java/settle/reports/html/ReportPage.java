@@ -78,6 +78,10 @@ public final class ReportPage {
         return new Rendered(page.w.toString(), page.failed);
     }
 
+    /**
+     * Writes the page: head (title, policy, style sheet), header (the study in one line, a warning for missing or
+     * diverged replicates, the navigation), every section in order, each {@link #guarded}, and the footer.
+     */
     private void page() {
         String name = manifest.study();
         w.doctype().open("html", "lang", "en").newline();

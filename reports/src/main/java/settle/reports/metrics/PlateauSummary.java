@@ -66,6 +66,7 @@ public record PlateauSummary(double[] cuts, double[] firstCuts) {
         return firstCuts.length == 0 ? Double.NaN : Quantiles.type7(firstCuts, 0.5);
     }
 
+    /** @return the values in a new array, sorted ascending */
     private static double[] sorted(List<Double> values) {
         double[] out = new double[values.size()];
         for (int i = 0; i < out.length; i++) {
