@@ -46,6 +46,7 @@ class ReportHtmlTest {
             s.tailRadius(reps, radius);
         }
         s.replicates.get(1).get(2).status = "diverged";
+        s.grid("reciprocal", 2, List.of("rate", "decay"), List.of(List.of("0.1", "0.2"), List.of("0.3", "1")));
         return s.write(dir.resolve("hostile"));
     }
 

@@ -78,6 +78,46 @@ final class SyntheticStudy {
     double momentum;
     /** The plan's sampling, as the predictions record it. */
     String sampling = "shuffle";
+    /** The study's name the manifest records. */
+    String study = "synthetic";
+    /** The model's λ the manifest records ({@code model_l2}). */
+    double l2 = 0.01;
+    /** The manifest's {@code grid} entries, written as given (see {@link #grid}). */
+    final List<ObjectNode> grids = new ArrayList<>();
+    /** Manifest keys left out, for the tests that refuse a manifest without them. */
+    final List<String> omitted = new ArrayList<>();
+
+    /**
+     * Records a grid entry in the manifest the way the runner expands one: template {@code template} swept over
+     * {@code keys} with {@code values} (per key, as written), producing the arms from index {@code firstArm} (0-based)
+     * on, one per combination, the last key varying fastest. The arms themselves are added by the test.
+     */
+    void grid(String template, int firstArm, List<String> keys, List<List<String>> values) {
+        ObjectNode g = MAPPER.createObjectNode();
+        g.put("arm", template);
+        ArrayNode keyList = g.putArray("keys");
+        int combinations = 1;
+        for (int k = 0; k < keys.size(); k++) {
+            ObjectNode key = keyList.addObject().put("name", keys.get(k));
+            values.get(k).forEach(key.putArray("values")::add);
+            combinations *= values.get(k).size();
+        }
+        ArrayNode arms = g.putArray("arms");
+        for (int c = 0; c < combinations; c++) {
+            ObjectNode arm = arms.addObject().put("index", firstArm + c + 1);
+            ArrayNode chosen = arm.putArray("values");
+            int rest = c;
+            String[] picked = new String[keys.size()];
+            for (int k = keys.size() - 1; k >= 0; k--) {
+                picked[k] = values.get(k).get(rest % values.get(k).size());
+                rest /= values.get(k).size();
+            }
+            for (String v : picked) {
+                chosen.add(v);
+            }
+        }
+        grids.add(g);
+    }
 
     /** Adds an arm whose replicates are filled in by the test. */
     List<Rep> arm(String name, boolean average, int count) {
@@ -133,6 +173,7 @@ final class SyntheticStudy {
         int p = featureNames.size() + 1;
         ObjectNode m = MAPPER.createObjectNode();
         m.put("format", format);
+        m.put("study", study);
         ObjectNode tool = m.putObject("tool");
         tool.put("name", "settle");
         tool.put("version", "0.1.0");
@@ -163,12 +204,14 @@ final class SyntheticStudy {
         m.putNull("standardisation");
         m.put("model", "binary logistic regression, " + featureNames.size() + " features, 2 classes");
         m.put("parameters", p);
+        m.put("model_l2", l2);
         m.put("reference", convex ? "reference.json" : "none: the model is not convex");
         m.put("baseline", baseline);
         ArrayNode armList = m.putArray("arms");
         for (int a = 0; a < arms.size(); a++) {
             armList.addObject().put("index", a + 1).put("name", arms.get(a)).put("directory", "arms/" + (a + 1));
         }
+        m.putArray("grid").addAll(grids);
         ArrayNode repList = m.putArray("replicates");
         for (int a = 0; a < arms.size(); a++) {
             for (int k = 0; k < count; k++) {
@@ -176,6 +219,7 @@ final class SyntheticStudy {
                         .put("status", replicates.get(a).get(k).status);
             }
         }
+        m.remove(omitted);
         MAPPER.writeValue(dir.resolve("manifest.json").toFile(), m);
         Files.writeString(dir.resolve("plan.yaml"), planText != null ? planText
                 : "study: synthetic\nseed: 7\nreplicates: " + count + "\nmodel:\n  kind: logistic\n  l2: 0.01\n");

@@ -16,9 +16,12 @@ public final class ParsedPlan {
     private final List<String> warnings;
 
     private final List<String> armPaths;
+    private final List<GridExpansion> grids;
 
-    ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings, List<String> armPaths) {
+    ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings, List<String> armPaths,
+            List<GridExpansion> grids) {
         this.armPaths = List.copyOf(armPaths);
+        this.grids = List.copyOf(grids);
         this.warnings = List.copyOf(warnings);
         this.plan = Objects.requireNonNull(plan, "plan");
         this.file = Objects.requireNonNull(file, "file");
@@ -41,6 +44,14 @@ public final class ParsedPlan {
      */
     public String armPath(int armIndex) {
         return armPaths.get(armIndex);
+    }
+
+    /**
+     * @return what each {@code grid} entry of the plan expanded into, in the order the entries are written; empty
+     *     for a plan without a grid (such as a resolved {@code plan.yaml}, whose grid is already expanded)
+     */
+    public List<GridExpansion> grids() {
+        return grids;
     }
 
     /** @return the plan file as the user named it */

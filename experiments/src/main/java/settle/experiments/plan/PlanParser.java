@@ -108,6 +108,7 @@ public final class PlanParser {
     private final Map<String, int[]> positions = new HashMap<>();
     private final List<String> warnings = new ArrayList<>();
     private final List<String> armPaths = new ArrayList<>();
+    private final List<GridExpansion> grids = new ArrayList<>();
 
     private PlanParser(String file, Path baseDirectory, String defaultStudy) {
         this.file = file;
@@ -167,7 +168,7 @@ public final class PlanParser {
         PlanParser p = new PlanParser(fileName, baseDirectory, stem);
         YamlNode root = YamlReader.read(text, fileName);
         Plan plan = p.resolve(root);
-        return new ParsedPlan(plan, fileName, p.positions, p.warnings, p.armPaths);
+        return new ParsedPlan(plan, fileName, p.positions, p.warnings, p.armPaths, p.grids);
     }
 
     // ---------------------------------------------------------------- the plan
@@ -338,6 +339,11 @@ public final class PlanParser {
         final boolean manual;
         final List<NudgeLog.Entry> nudges;
         int grid = -1;
+        /** The keys the grid sweeps and their values as written (set when a grid expands this arm). */
+        List<String> gridKeys;
+        List<List<String>> gridValues;
+        /** Per expanded arm, its value of each key as written. */
+        List<List<String>> gridChoices;
 
         Template(int index, String name, YamlNode.MapNode item, YamlNode.MapNode schedule,
                 ArmPlan.Averaging average, boolean manual, List<NudgeLog.Entry> nudges) {
@@ -477,8 +483,18 @@ public final class PlanParser {
         }
         List<ArmPlan> arms = new ArrayList<>();
         Map<String, String> seen = new LinkedHashMap<>();
+        GridExpansion[] byEntry = new GridExpansion[templates.size()];
+        int entries = 0;
         for (Template t : templates) {
             List<ArmPlan> expanded = perTemplate.get(t.index);
+            if (t.grid >= 0) {
+                List<GridExpansion.Expanded> indices = new ArrayList<>();
+                for (int i = 0; i < expanded.size(); i++) {
+                    indices.add(new GridExpansion.Expanded(arms.size() + i, t.gridChoices.get(i)));
+                }
+                byEntry[t.grid] = new GridExpansion(t.name, t.gridKeys, t.gridValues, indices);
+                entries = Math.max(entries, t.grid + 1);
+            }
             if (expanded == null) {
                 Map<String, Object> raw = rawSchedule(t.schedule);
                 expanded = List.of(arm(t, t.name, raw, t.path() + ".schedule", null, data));
@@ -498,6 +514,9 @@ public final class PlanParser {
                 arms.add(a);
                 armPaths.add(t.path());
             }
+        }
+        for (int g = 0; g < entries; g++) {
+            grids.add(byEntry[g]);
         }
         return arms;
     }
@@ -557,18 +576,31 @@ public final class PlanParser {
             }
         }
         List<ArmPlan> out = new ArrayList<>();
+        t.gridKeys = keys;
+        t.gridValues = new ArrayList<>();
+        for (YamlNode.ListNode list : values) {
+            List<String> written = new ArrayList<>();
+            for (YamlNode v : list.items) {
+                written.add(spell(v));
+            }
+            t.gridValues.add(written);
+        }
+        t.gridChoices = new ArrayList<>();
         int[] choice = new int[keys.size()];
         for (long c = 0; c < combinations; c++) {
             Map<String, Object> raw = rawSchedule(t.schedule);
             StringBuilder name = new StringBuilder(t.name).append('[');
             Map<String, String> origin = new HashMap<>();
+            List<String> chosen = new ArrayList<>();
             for (int k = 0; k < keys.size(); k++) {
                 YamlNode v = values.get(k).items.get(choice[k]);
                 raw.put(keys.get(k), v.toJava());
                 origin.put(keys.get(k), path + "." + keys.get(k) + "[" + choice[k] + "]");
                 name.append(k == 0 ? "" : ",").append(keys.get(k)).append('=').append(spell(v));
+                chosen.add(spell(v));
             }
             name.append(']');
+            t.gridChoices.add(chosen);
             out.add(arm(t, name.toString(), raw, t.path() + ".schedule", origin, data));
             for (int k = keys.size() - 1; k >= 0; k--) {
                 // the last key varies fastest

@@ -1,5 +1,6 @@
 package settle.experiments.study;
 
+import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
@@ -30,6 +31,7 @@ import settle.engine.minimum.Minimum;
 import settle.engine.train.ReplicateResult;
 import settle.engine.train.ReplicateSeeds;
 import settle.experiments.plan.ArmPlan;
+import settle.experiments.plan.GridExpansion;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanWriter;
@@ -96,6 +98,8 @@ public final class StudyRunner {
     private final PrintStream err;
     private final Progress.Mode progressMode;
     private final long paceMillis;
+    /** The grid structure the manifest records: the plan's, or the one an earlier run of this study recorded. */
+    private List<GridExpansion> grids = List.of();
 
     /**
      * @param context the plan, its data and trainers
@@ -144,8 +148,12 @@ public final class StudyRunner {
             if (!fresh) {
                 refuseOlderFormat(manifestFile);
             }
+            grids = context.parsed().grids();
             if (Files.exists(manifestFile) && !fresh) {
                 refuseChanged(manifestFile, planHash, dataHash, splitHash);
+                if (grids.isEmpty()) {
+                    grids = recordedGrids(manifestFile);
+                }
             }
             if (fresh) {
                 clear();
@@ -504,6 +512,7 @@ public final class StudyRunner {
         byte[] manifest = Json.document(g -> {
             g.writeStartObject();
             g.writeNumberField("format", ReplicateFile.FORMAT);
+            g.writeStringField("study", plan.study());
             g.writeObjectFieldStart("tool");
             g.writeStringField("name", "settle");
             g.writeStringField("version", Provenance.version());
@@ -567,6 +576,7 @@ public final class StudyRunner {
             }
             g.writeStringField("model", context.model().describe());
             g.writeNumberField("parameters", context.model().parameterCount());
+            g.writeNumberField("model_l2", plan.model().l2());
             g.writeStringField("reference", context.minimum() == null ? "none: the model is not convex" : "reference.json");
             g.writeStringField("baseline", plan.baseline());
             g.writeArrayFieldStart("arms");
@@ -578,6 +588,7 @@ public final class StudyRunner {
                 g.writeEndObject();
             }
             g.writeEndArray();
+            writeGrids(g, grids);
             g.writeArrayFieldStart("replicates");
             for (int i = 0; i < keys.size(); i++) {
                 g.writeStartObject();
@@ -591,5 +602,95 @@ public final class StudyRunner {
         });
         AtomicFiles.write(directory.resolve("manifest.json"), manifest);
         return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "");
+    }
+
+    /**
+     * Writes the manifest's {@code grid}: per grid entry of the plan, the template arm, the swept keys with their
+     * values as written, and each expanded arm's index (from 1) with its value of each key; an empty array for a
+     * plan without a grid.
+     */
+    private static void writeGrids(JsonGenerator g, List<GridExpansion> grids) throws IOException {
+        g.writeArrayFieldStart("grid");
+        for (GridExpansion grid : grids) {
+            g.writeStartObject();
+            g.writeStringField("arm", grid.arm());
+            g.writeArrayFieldStart("keys");
+            for (int k = 0; k < grid.keys().size(); k++) {
+                g.writeStartObject();
+                g.writeStringField("name", grid.keys().get(k));
+                g.writeArrayFieldStart("values");
+                for (String v : grid.values().get(k)) {
+                    g.writeString(v);
+                }
+                g.writeEndArray();
+                g.writeEndObject();
+            }
+            g.writeEndArray();
+            g.writeArrayFieldStart("arms");
+            for (GridExpansion.Expanded e : grid.arms()) {
+                g.writeStartObject();
+                g.writeNumberField("index", e.index() + 1);
+                g.writeArrayFieldStart("values");
+                for (String v : e.values()) {
+                    g.writeString(v);
+                }
+                g.writeEndArray();
+                g.writeEndObject();
+            }
+            g.writeEndArray();
+            g.writeEndObject();
+        }
+        g.writeEndArray();
+    }
+
+    /**
+     * The grid an earlier run of this study recorded in its manifest, kept when the study is resumed from a plan that
+     * has none: the study's own resolved {@code plan.yaml} has its grid expanded (and hashes the same as the plan
+     * that expanded it), so running it again must not drop the structure. Empty when the manifest records none, or
+     * records one that does not fit this plan's arms.
+     */
+    private List<GridExpansion> recordedGrids(Path manifestFile) throws IOException {
+        JsonNode list = MAPPER.readTree(manifestFile.toFile()).path("grid");
+        int arms = context.plan().arms().size();
+        List<GridExpansion> out = new ArrayList<>();
+        try {
+            for (JsonNode grid : list) {
+                List<String> keys = new ArrayList<>();
+                List<List<String>> values = new ArrayList<>();
+                for (JsonNode key : grid.path("keys")) {
+                    keys.add(text(key.path("name")));
+                    values.add(texts(key.path("values")));
+                }
+                List<GridExpansion.Expanded> expanded = new ArrayList<>();
+                for (JsonNode arm : grid.path("arms")) {
+                    int index = arm.path("index").asInt(0);
+                    if (index < 1 || index > arms) {
+                        return List.of();
+                    }
+                    expanded.add(new GridExpansion.Expanded(index - 1, texts(arm.path("values"))));
+                }
+                out.add(new GridExpansion(text(grid.path("arm")), keys, values, expanded));
+            }
+        } catch (IllegalArgumentException e) {
+            return List.of(); // not this settle's grid record: nothing to keep
+        }
+        return out;
+    }
+
+    /** @return the strings of a JSON array; throws IllegalArgumentException for an element that is not one */
+    private static List<String> texts(JsonNode array) {
+        List<String> out = new ArrayList<>();
+        for (JsonNode v : array) {
+            out.add(text(v));
+        }
+        return out;
+    }
+
+    /** @return a JSON string's text; throws IllegalArgumentException for any other node */
+    private static String text(JsonNode v) {
+        if (!v.isTextual()) {
+            throw new IllegalArgumentException("not a string: " + v);
+        }
+        return v.textValue();
     }
 }

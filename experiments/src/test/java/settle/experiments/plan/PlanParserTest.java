@@ -130,6 +130,49 @@ class PlanParserTest {
     }
 
     @Test
+    void gridStructureIsKeptBesideThePlanWithIndicesAndValuesAsWritten() {
+        ParsedPlan parsed = PlanParser.read(resource("grid.yaml"));
+        List<GridExpansion.Expanded> arms = new ArrayList<>();
+        String[] rates = {"0.05", "0.1", "0.2"};
+        String[] decays = {"0.3", "1.0", "3e0"};
+        for (int i = 0; i < 9; i++) {
+            arms.add(new GridExpansion.Expanded(1 + i, List.of(rates[i / 3], decays[i % 3])));
+        }
+        assertEquals(List.of(new GridExpansion("reciprocal", List.of("rate", "decay"),
+                List.of(List.of(rates), List.of(decays)), arms)), parsed.grids());
+
+        // Two entries, written in the opposite order of their arms, with a plain arm between: each entry keeps its
+        // place in the plan's list and its arms' indices after expansion.
+        ParsedPlan two = text("""
+                data: {source: "synthetic:xor"}
+                arms:
+                  - {name: a, schedule: {kind: constant, rate: 0.1}}
+                  - {name: b, schedule: {kind: reciprocal, rate: 0.2, decay: 1}}
+                  - {name: "foo[a=1,b=2]", schedule: {kind: constant, rate: 0.3}}
+                  - {name: d, schedule: {kind: exponential, rate: 0.2, base: 0.9}}
+                grid:
+                  - {arm: d, base: [0.5, 0.90]}
+                  - {arm: b, rate: [0.1, 0.2]}
+                """);
+        assertEquals(List.of(
+                new GridExpansion("d", List.of("base"), List.of(List.of("0.5", "0.90")), List.of(
+                        new GridExpansion.Expanded(4, List.of("0.5")), new GridExpansion.Expanded(5, List.of("0.90")))),
+                new GridExpansion("b", List.of("rate"), List.of(List.of("0.1", "0.2")), List.of(
+                        new GridExpansion.Expanded(1, List.of("0.1")), new GridExpansion.Expanded(2, List.of("0.2"))))),
+                two.grids());
+        assertEquals("foo[a=1,b=2]", two.plan().arms().get(3).name(), "a plain arm, whatever its name");
+
+        // The resolved plan has its grid expanded: read back, it has the same arms and no grid.
+        ParsedPlan resolved = PlanParser.read(PlanWriter.toYaml(parsed.plan()), "plan.yaml", Path.of("/x"));
+        assertEquals(parsed.plan(), resolved.plan());
+        assertEquals(List.of(), resolved.grids());
+        assertEquals(List.of(), text("""
+                data: {source: "synthetic:xor"}
+                arms: [{schedule: {kind: constant, rate: 0.1}}]
+                """).grids());
+    }
+
+    @Test
     void gridMayAddAKeyTheTemplateLeftToItsDefault() {
         Plan plan = text("""
                 data: {source: "synthetic:xor"}

@@ -65,6 +65,37 @@ final class StudySchema {
             assertEquals("arms/" + (a + 1), arm.path("directory").asText());
             assertTrue(arm.path("name").isTextual());
         }
+        assertTrue(m.path("study").isTextual() && !m.path("study").asText().isBlank(), "manifest.study");
+        assertTrue(m.path("model_l2").isNumber() && m.path("model_l2").asDouble() >= 0, "manifest.model_l2");
+        assertTrue(m.path("grid").isArray(), "manifest.grid");
+        boolean[] inGrid = new boolean[arms];
+        for (JsonNode grid : m.path("grid")) {
+            assertTrue(grid.path("arm").isTextual(), "grid[].arm");
+            List<String> keys = new ArrayList<>();
+            List<List<String>> values = new ArrayList<>();
+            for (JsonNode key : grid.path("keys")) {
+                keys.add(key.path("name").asText());
+                List<String> written = new ArrayList<>();
+                key.path("values").forEach(v -> written.add(v.asText()));
+                assertTrue(!written.isEmpty() && key.path("values").get(0).isTextual(), "grid[].keys[].values");
+                values.add(written);
+            }
+            assertTrue(!keys.isEmpty() && grid.path("arms").size() > 0, "a grid sweeps keys into arms");
+            for (JsonNode arm : grid.path("arms")) {
+                int index = arm.path("index").asInt();
+                assertTrue(index >= 1 && index <= arms && !inGrid[index - 1], "grid[].arms[].index " + index);
+                inGrid[index - 1] = true;
+                assertEquals(keys.size(), arm.path("values").size());
+                // The runner names an expanded arm TEMPLATE[key=value,…] with the values as written.
+                StringBuilder name = new StringBuilder(grid.path("arm").asText()).append('[');
+                for (int k = 0; k < keys.size(); k++) {
+                    String v = arm.path("values").get(k).asText();
+                    assertTrue(values.get(k).contains(v), v + " is one of the values of " + keys.get(k));
+                    name.append(k == 0 ? "" : ",").append(keys.get(k)).append('=').append(v);
+                }
+                assertEquals(name.append(']').toString(), m.path("arms").get(index - 1).path("name").asText());
+            }
+        }
         boolean convex = m.path("reference").asText().equals("reference.json");
         int parameters = m.path("parameters").asInt();
         if (convex) {

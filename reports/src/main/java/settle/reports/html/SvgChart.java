@@ -323,7 +323,7 @@ public final class SvgChart {
      * @return a pixel coordinate with one decimal. Callers draw only what lies on the axes; as a last guard a
      *     non-finite value is written as 0 and a finite one is held within ±{@value #PIXEL_LIMIT}.
      */
-    static String n(double v) {
+    public static String n(double v) {
         if (!Double.isFinite(v)) {
             return "0";
         }

@@ -4,8 +4,6 @@ import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.ArmValues;
 import settle.reports.stats.Comparison;
@@ -38,8 +36,6 @@ public final class StudyAnalysis {
     /** The metrics of the verdict without a reference minimiser, primary first. */
     private static final List<Metric> COMPARED_OTHER = List.of(Metric.FINAL_OBJECTIVE, Metric.TAIL_RADIUS,
             Metric.TEST_LOSS, Metric.TEST_ACCURACY);
-
-    private static final Pattern L2 = Pattern.compile("(?m)^\\s+l2:\\s*([-+0-9.eE]+)\\s*$");
 
     private final Study study;
     private final VerdictOptions options;
@@ -139,6 +135,19 @@ public final class StudyAnalysis {
     public ArmSummary[] summaries(Metric m) {
         ArmSummary[] s = summaries.get(m);
         return s == null ? null : s.clone();
+    }
+
+    /**
+     * @return each arm's median of metric {@code m} over its finished replicates, by arm index (NaN for an arm with
+     *     none, and for every arm when the metric is unavailable)
+     */
+    public double[] medians(Metric m) {
+        double[] out = new double[study.armCount()];
+        ArmSummary[] s = summaries.get(m);
+        for (int a = 0; a < out.length; a++) {
+            out[a] = s == null ? Double.NaN : s[a].median();
+        }
+        return out;
     }
 
     /**
@@ -307,29 +316,10 @@ public final class StudyAnalysis {
         return new ArmLevel(value, Jackknife.interval(value, leaveOneOut, options.confidence()), replicates);
     }
 
+    /** @return the gauge of the study's model: weights centred too when its penalty λ (the manifest's) is 0 */
     private Gauge gauge() {
         var m = study.manifest();
         int gaugeDimension = study.reference() == null ? -1 : study.reference().gaugeDimension();
-        return Gauge.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, l2IsZero(study.planText()));
-    }
-
-    /** @return true when the plan text's model penalty {@code l2:} is zero or absent */
-    static boolean l2IsZero(String planText) {
-        Matcher matcher = L2.matcher(planText);
-        if (!matcher.find()) {
-            return true;
-        }
-        try {
-            return Double.parseDouble(matcher.group(1)) == 0.0;
-        } catch (NumberFormatException e) {
-            return false;
-        }
-    }
-
-    /** @return counts drawing each of n replicates once */
-    private static int[] once(int n) {
-        int[] c = new int[n];
-        java.util.Arrays.fill(c, 1);
-        return c;
+        return Gauge.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, m.l2() == 0.0);
     }
 }

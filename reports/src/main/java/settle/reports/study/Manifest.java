@@ -3,9 +3,10 @@ package settle.reports.study;
 import java.util.List;
 
 /**
- * What {@code manifest.json} records about a study (study directory format 1).
+ * What {@code manifest.json} records about a study (study directory format 2).
  *
- * @param format the study directory format (1)
+ * @param format the study directory format (2)
+ * @param study the study's name (the plan's {@code study})
  * @param toolVersion settle's version that ran the study
  * @param gitCommit the commit settle was built from ("" when unknown)
  * @param jvm the JVM vendor, name and version in one line
@@ -29,18 +30,22 @@ import java.util.List;
  * @param updatesPerEpoch updates in one epoch
  * @param model the model in words
  * @param parameters the number of parameters
+ * @param l2 the model's penalty λ (the plan's {@code model.l2}; 0 for none)
  * @param baseline the baseline arm's name
  * @param arms the arms' names, in arm-index order (index 1 first)
+ * @param grids what each grid entry of the plan expanded into, in the plan's order; empty without a grid
  * @param replicates replicates per arm (the largest replicate number listed)
  */
-public record Manifest(int format, String toolVersion, String gitCommit, String jvm, String cpu, String executor,
+public record Manifest(int format, String study, String toolVersion, String gitCommit, String jvm, String cpu, String executor,
         int threads, List<String> command, String generator, long rootSeed, String started, String ended,
         String planSha256, String dataSha256, String splitSha256, String dataSource, int rows,
         List<String> featureNames, List<String> classNames, int trainRows, int testRows, int updatesPerEpoch,
-        String model, int parameters, String baseline, List<String> arms, int replicates) {
+        String model, int parameters, double l2, String baseline, List<String> arms, List<Grid> grids,
+        int replicates) {
 
     public Manifest {
         command = List.copyOf(command);
+        grids = List.copyOf(grids);
         featureNames = List.copyOf(featureNames);
         classNames = List.copyOf(classNames);
         arms = List.copyOf(arms);

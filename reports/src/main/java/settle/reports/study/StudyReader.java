@@ -171,7 +171,18 @@ public final class StudyReader {
         if (replicates < 1) {
             throw new StudyFormatException(file + ": 'replicates' lists no replicate");
         }
-        return new Manifest(format, text(file, tool, "version"), asText(tool.get("git_commit"), ""),
+        Object studyName = recorded(file, m, "study");
+        if (!(studyName instanceof String name) || name.isBlank()) {
+            throw new StudyFormatException(file + ": 'study' must be the study's name, not " + show(studyName));
+        }
+        Object l2 = recorded(file, m, "model_l2");
+        if (!isNumber(l2) || !(((Number) l2).doubleValue() >= 0) || Double.isInfinite(((Number) l2).doubleValue())) {
+            throw new StudyFormatException(file + ": 'model_l2' must be the model's penalty λ, a number ≥ 0, not "
+                    + show(l2));
+        }
+        recorded(file, m, "grid");
+        List<Grid> grids = grids(file, array(file, m, "grid"), arms.size());
+        return new Manifest(format, name, text(file, tool, "version"), asText(tool.get("git_commit"), ""),
                 join(asText(jvm.get("vendor"), ""), asText(jvm.get("name"), ""), asText(jvm.get("version"), "")),
                 join(asText(cpu.get("model"), ""), asText(cpu.get("arch"), ""),
                         cpu.containsKey("cores") ? asLong(cpu.get("cores"), 0) + " cores" : ""),
@@ -182,7 +193,87 @@ public final class StudyReader {
                 (int) asLong(data.get("rows"), 0), strings(file, data, "feature_names"),
                 strings(file, data, "class_names"), (int) asLong(data.get("train_rows"), 0),
                 integer(file, data, "test_rows"), integer(file, data, "updates_per_epoch"), text(file, m, "model"),
-                integer(file, m, "parameters"), text(file, m, "baseline"), arms, replicates);
+                integer(file, m, "parameters"), ((Number) l2).doubleValue(), text(file, m, "baseline"), arms, grids,
+                replicates);
+    }
+
+    /**
+     * @return the value of a key the manifest records for the report since the study's name, λ and grid were added to
+     *     format 2; a manifest written before then is refused with one line saying how to rewrite it
+     */
+    private static Object recorded(Path file, Map<String, Object> m, String key) {
+        Object v = m.get(key);
+        if (v == null) {
+            Path directory = file.toAbsolutePath().getParent();
+            throw new StudyFormatException(file + ": missing key '" + key + "' (the manifest records the study's name,"
+                    + " model_l2 and grid for the report since this settle); run the study's plan again with settle run"
+                    + " PLAN --out " + directory + " to rewrite it: its finished replicates are kept");
+        }
+        return v;
+    }
+
+    /**
+     * The manifest's {@code grid}: per grid entry of the plan, {@code arm} (the template's name), {@code keys}
+     * [{@code name}, {@code values} [strings]] and {@code arms} [{@code index} (from 1), {@code values} [one string per
+     * key, each one of that key's values]]; an arm belongs to at most one entry.
+     */
+    private static List<Grid> grids(Path file, List<Object> list, int armCount) {
+        List<Grid> out = new ArrayList<>();
+        boolean[] taken = new boolean[armCount];
+        for (int i = 0; i < list.size(); i++) {
+            String at = "grid[" + i + "]";
+            Map<String, Object> g = element(file, list, i, "grid");
+            String arm = textAt(file, g, "arm", at);
+            List<Object> keyList = array(file, g, "keys");
+            if (keyList.isEmpty()) {
+                throw new StudyFormatException(file + ": " + at + ".keys is empty; a grid sweeps at least one key");
+            }
+            List<String> keys = new ArrayList<>();
+            List<List<String>> values = new ArrayList<>();
+            for (int k = 0; k < keyList.size(); k++) {
+                Map<String, Object> key = element(file, keyList, k, at + ".keys");
+                keys.add(textAt(file, key, "name", at + ".keys[" + k + "]"));
+                List<String> written = textsAt(file, key, "values", at + ".keys[" + k + "]");
+                if (written.isEmpty()) {
+                    throw new StudyFormatException(file + ": " + at + ".keys[" + k + "].values is empty; a swept key "
+                            + "has at least one value");
+                }
+                values.add(written);
+            }
+            List<Object> armList = array(file, g, "arms");
+            if (armList.isEmpty()) {
+                throw new StudyFormatException(file + ": " + at + ".arms is empty; a grid expands into at least one arm");
+            }
+            List<Grid.Member> members = new ArrayList<>();
+            for (int j = 0; j < armList.size(); j++) {
+                String where = at + ".arms[" + j + "]";
+                Map<String, Object> member = element(file, armList, j, at + ".arms");
+                int index = integer(file, member, "index");
+                if (index < 1 || index > armCount) {
+                    throw new StudyFormatException(file + ": " + where + ".index is " + index + "; the study has arms 1 to "
+                            + armCount);
+                }
+                if (taken[index - 1]) {
+                    throw new StudyFormatException(file + ": " + where + ".index " + index + " is already listed by a "
+                            + "grid; an arm comes from at most one grid entry");
+                }
+                taken[index - 1] = true;
+                List<String> chosen = textsAt(file, member, "values", where);
+                if (chosen.size() != keys.size()) {
+                    throw new StudyFormatException(file + ": " + where + ".values has " + chosen.size() + " values; "
+                            + at + " sweeps " + keys.size() + " keys");
+                }
+                for (int k = 0; k < keys.size(); k++) {
+                    if (!values.get(k).contains(chosen.get(k))) {
+                        throw new StudyFormatException(file + ": " + where + ".values[" + k + "] is " + show(chosen.get(k))
+                                + ", not one of the values of '" + keys.get(k) + "'");
+                    }
+                }
+                members.add(new Grid.Member(index - 1, chosen));
+            }
+            out.add(new Grid(arm, keys, values, members));
+        }
+        return out;
     }
 
     private static String join(String... parts) {
@@ -596,6 +687,35 @@ public final class StudyReader {
             throw new StudyFormatException(file + ": " + key + "[" + i + "] must be an object, not " + show(v));
         }
         return cast(v);
+    }
+
+    /** @return the string at {@code key} of an object found at key path {@code at}, which messages name */
+    private static String textAt(Path file, Map<String, Object> node, String key, String at) {
+        Object v = node.get(key);
+        if (v == null) {
+            throw new StudyFormatException(file + ": missing key '" + at + "." + key + "'");
+        }
+        if (!(v instanceof String s)) {
+            throw new StudyFormatException(file + ": " + at + "." + key + " must be a string, not " + show(v));
+        }
+        return s;
+    }
+
+    /** @return the strings of the array at {@code key} of an object found at key path {@code at} */
+    private static List<String> textsAt(Path file, Map<String, Object> node, String key, String at) {
+        if (node.get(key) == null) {
+            throw new StudyFormatException(file + ": missing key '" + at + "." + key + "'");
+        }
+        List<Object> a = array(file, node, key);
+        List<String> out = new ArrayList<>(a.size());
+        for (int i = 0; i < a.size(); i++) {
+            if (!(a.get(i) instanceof String s)) {
+                throw new StudyFormatException(file + ": " + at + "." + key + "[" + i + "] must be a string, not "
+                        + show(a.get(i)));
+            }
+            out.add(s);
+        }
+        return out;
     }
 
     private static List<String> strings(Path file, Map<String, Object> node, String key) {

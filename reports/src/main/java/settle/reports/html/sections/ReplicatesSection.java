@@ -1,0 +1,63 @@
+package settle.reports.html.sections;
+
+import java.util.ArrayList;
+import java.util.List;
+import settle.reports.html.Format;
+import settle.reports.html.HtmlWriter;
+import settle.reports.metrics.StudyAnalysis;
+import settle.reports.study.Metric;
+import settle.reports.study.Replicate;
+import settle.reports.study.Study;
+
+/** "Every replicate": each replicate's status (diverged at which update, missing) and its per-replicate metrics. */
+final class ReplicatesSection implements Section {
+
+    @Override
+    public String id() {
+        return "replicates";
+    }
+
+    @Override
+    public String navigation() {
+        return "Replicates";
+    }
+
+    @Override
+    public String heading() {
+        return "Every replicate";
+    }
+
+    @Override
+    public void draw(Drawing d) {
+        HtmlWriter w = d.writer();
+        Study study = d.study();
+        StudyAnalysis analysis = d.analysis();
+        d.para("Replicate k of every arm shares its seeds (initial weights and mini-batch order). "
+                + "Values at the final iterate (the tail average for averaged arms).");
+        List<Metric> columns = analysis.available();
+        w.open("div", "class", "scroll tall");
+        w.open("table", "class", "replicate-table");
+        List<String> heads = new ArrayList<>(List.of("arm", "replicate", "status"));
+        for (Metric m : columns) {
+            heads.add(m.words());
+        }
+        d.tableHead(heads.toArray(new String[0]));
+        w.open("tbody");
+        for (int a = 0; a < study.armCount(); a++) {
+            for (int k = 0; k < study.replicateCount(); k++) {
+                Replicate r = study.replicate(a, k);
+                w.open("tr", "class", r == null ? "missing" : r.diverged() ? "diverged" : null);
+                w.element("td", study.armName(a));
+                w.element("td", Integer.toString(k + 1), "class", "num");
+                w.element("td", r == null ? "missing" : r.diverged() ? "diverged at update " + r.divergedAtUpdate()
+                        : r.status());
+                for (Metric m : columns) {
+                    w.element("td", r == null || r.diverged() ? "—" : Format.sig(r.metric(m)), "class", "num");
+                }
+                w.close("tr");
+            }
+        }
+        w.close("tbody").close("table");
+        w.close("div");
+    }
+}
