@@ -15,9 +15,9 @@ import settle.reports.study.Metric;
 import settle.reports.study.StudyReader;
 
 /**
- * The verdict's pick ({@link ArmPick}) on studies written with known tail radii: the arm with the smallest median
- * among those that detectably beat the baseline, never an arm whose lower median the test does not back, and none
- * when no arm is detected.
+ * The verdict's pick ({@link ArmPick}) on studies written with known final gaps: the arm with the smallest median
+ * among those that end detectably closer to the minimum than the baseline, never an arm whose lower median the test
+ * does not back, and none when no arm is detected.
  */
 class ArmPickTest {
 
@@ -42,29 +42,29 @@ class ArmPickTest {
      */
     private StudyAnalysis analysis(int n) throws Exception {
         SyntheticStudy s = new SyntheticStudy();
-        s.tailRadius(s.arm("constant", false, n), scaled(n, 1));
-        s.tailRadius(s.arm("noisy", false, n), scaled(n, 0.1, 1.05));
-        s.tailRadius(s.arm("mild", false, n), scaled(n, 0.6));
-        s.tailRadius(s.arm("larger", false, n), scaled(n, 2));
+        s.finalGap(s.arm("constant", false, n), scaled(n, 1));
+        s.finalGap(s.arm("noisy", false, n), scaled(n, 0.1, 1.05));
+        s.finalGap(s.arm("mild", false, n), scaled(n, 0.6));
+        s.finalGap(s.arm("larger", false, n), scaled(n, 2));
         return StudyAnalysis.of(StudyReader.read(s.write(dir.resolve("n" + n))));
     }
 
     @Test
     void theDetectedArmWithTheSmallestMedianIsPicked() throws Exception {
         StudyAnalysis a = analysis(8);
-        // The premises, from the exact signed-rank test with Holm over m = 3 arms: mild has 8 negative log-ratios
+        // The premises, from the exact signed-rank test with Bonferroni over m = 3 arms: mild has 8 negative log-ratios
         // (p = 2/2⁸, adjusted 3·p = 0.023 ≤ 0.05); noisy's four positive ones take ranks 1–4 (V = 10: 40 of the 2⁸
         // sign patterns have V ≤ 10, so p = 80/256 = 0.31);
         // larger is detected, in the baseline's favour.
-        Comparison noisy = a.comparison(Metric.TAIL_RADIUS, 1);
-        Comparison mild = a.comparison(Metric.TAIL_RADIUS, 2);
-        Comparison larger = a.comparison(Metric.TAIL_RADIUS, 3);
+        Comparison noisy = a.comparison(Metric.FINAL_GAP, 1);
+        Comparison mild = a.comparison(Metric.FINAL_GAP, 2);
+        Comparison larger = a.comparison(Metric.FINAL_GAP, 3);
         assertFalse(noisy.detected());
         assertTrue(mild.detected() && !mild.armLarger());
         assertTrue(larger.detected() && larger.armLarger());
         ArmPick pick = ArmPick.of(a);
         assertEquals(2, pick.arm(), "mild: detected; noisy's lower median is not backed by the test");
-        assertEquals(ArmPick.Reason.SMALLEST_OF_THE_DETECTED, pick.reason());
+        assertEquals(ArmPick.Reason.CLOSEST_OF_THE_DETECTED, pick.reason());
         assertEquals(1, pick.lowest(), "noisy has the lowest median over every arm");
     }
 
@@ -82,7 +82,7 @@ class ArmPickTest {
     @Test
     void tiesGoToTheFirstArmAndTheLowestCountsTheBaseline() throws Exception {
         StudyAnalysis a = analysis(8);
-        Comparison mild = a.comparison(Metric.TAIL_RADIUS, 2);
+        Comparison mild = a.comparison(Metric.FINAL_GAP, 2);
         // Two detected arms with the same median: the first in arm order wins.
         ArmPick tie = ArmPick.choose(new Comparison[] {null, mild, mild}, new double[] {1, 0.5, 0.5});
         assertEquals(1, tie.arm());

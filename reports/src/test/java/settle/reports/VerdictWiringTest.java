@@ -106,7 +106,9 @@ class VerdictWiringTest {
         Report.write(s.write(dir.resolve("few")));
         String html = Files.readString(dir.resolve("few/report.html"));
         assertTrue(html.contains("a verdict needs at least 7 replicates; this study pairs 5. It has fewer"));
-        assertTrue(html.contains("No arm wanders detectably less than the baseline"));
+        assertTrue(html.contains("No arm ends detectably closer to the minimum than the baseline constant (final gap,"
+                + " adjusted p ≤ 0.05 with an interval that agrees): keep the baseline, or run at least 7 replicates"
+                + " (this study pairs 5; fewer cannot detect a difference at this number of arms)."), html);
     }
 
     @Test

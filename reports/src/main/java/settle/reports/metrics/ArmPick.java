@@ -1,15 +1,18 @@
 package settle.reports.metrics;
 
 import settle.reports.stats.Comparison;
+import settle.reports.stats.VerdictSentence;
 
 /**
- * The arm the verdict recommends, and why: the rule behind the first paragraph of the report's verdict section.
+ * The arm the verdict recommends, and why: the rule behind the first paragraph of the report's verdict section and
+ * the {@code pick} of the terminal and JSON summaries.
  *
- * <p>The rule: among the arms whose comparison with the baseline on the primary metric detects a difference
- * (Holm-adjusted p at most the significance level) in the arm's favour (the ranks say its values are the smaller),
- * pick the one with the smallest median of the primary metric; the first in arm order wins a tie. When no arm
- * qualifies, none is picked, and the arm with the smallest median over every arm (the baseline included, the first
- * in arm order on a tie) is named instead.
+ * <p>The rule: among the arms whose returned iterate ends detectably closer to the minimum than the baseline's (on
+ * the primary metric, final gap or final objective, the adjusted p and its interval agree on a reduction:
+ * {@link VerdictSentence.Outcome#LOWER}), pick the one with the smallest median of the primary metric; the first in
+ * arm order wins a tie. An averaged arm competes on equal terms (its returned iterate is its tail mean). An arm that
+ * ends detectably farther from the minimum can never be picked. When no arm qualifies, none is picked, and the arm
+ * with the smallest median over every arm (the baseline included, the first in arm order on a tie) is named.
  *
  * @param arm the picked arm (0-based), or −1 when none is picked
  * @param lowest the arm (0-based) with the smallest median of the primary metric over every arm, baseline included
@@ -19,9 +22,9 @@ public record ArmPick(int arm, int lowest, Reason reason) {
 
     /** Why an arm was picked, or why none was. */
     public enum Reason {
-        /** The picked arm detectably beats the baseline and has the smallest median among the arms that do. */
-        SMALLEST_OF_THE_DETECTED,
-        /** No arm detectably beats the baseline: none is picked. */
+        /** The picked arm ends detectably closer than the baseline and has the smallest median among those that do. */
+        CLOSEST_OF_THE_DETECTED,
+        /** No arm ends detectably closer than the baseline: none is picked. */
         NONE_DETECTED
     }
 
@@ -64,8 +67,7 @@ public record ArmPick(int arm, int lowest, Reason reason) {
         int best = -1;
         double bestMedian = Double.POSITIVE_INFINITY;
         for (int a = 0; a < medians.length; a++) {
-            Comparison c = byArm[a];
-            if (c != null && c.detected() && !c.armLarger() && medians[a] < bestMedian) {
+            if (VerdictSentence.outcome(byArm[a]) == VerdictSentence.Outcome.LOWER && medians[a] < bestMedian) {
                 best = a;
                 bestMedian = medians[a];
             }
@@ -76,6 +78,6 @@ public record ArmPick(int arm, int lowest, Reason reason) {
                 lowest = a;
             }
         }
-        return new ArmPick(best, lowest, best < 0 ? Reason.NONE_DETECTED : Reason.SMALLEST_OF_THE_DETECTED);
+        return new ArmPick(best, lowest, best < 0 ? Reason.NONE_DETECTED : Reason.CLOSEST_OF_THE_DETECTED);
     }
 }

@@ -46,6 +46,7 @@ public final class StudyAnalysis {
     private final ArmLevel[] seedSpread;
     private final ArmLevel[] predictionSpread;
     private final ArmLevel[] disagreement;
+    private VerdictSummary verdict;
 
     private StudyAnalysis(Study study, VerdictOptions options) {
         this.study = study;
@@ -114,6 +115,14 @@ public final class StudyAnalysis {
     /** @return the metrics of the verdict, primary first */
     public List<Metric> compared() {
         return study.convex() ? COMPARED_CONVEX : COMPARED_OTHER;
+    }
+
+    /** @return the verdict in words (computed once, on first use) */
+    public VerdictSummary verdict() {
+        if (verdict == null) {
+            verdict = VerdictSummary.of(this);
+        }
+        return verdict;
     }
 
     /** @return the study analysed */

@@ -68,11 +68,6 @@ public record Comparison(String metric, String arm, String baseline, Direction d
         return scale.shown(estimate);
     }
 
-    /** @return the estimated change as shown; kept for the report's table until it reads {@link #change()} */
-    public double percentChange() {
-        return change();
-    }
-
     /** @return true when the exact interval lies entirely on one side of "no change" */
     public boolean intervalExcludesZero() {
         return exact.isDefined() && (exact.low() > 0 || exact.high() < 0);

@@ -36,6 +36,60 @@ public final class VerdictSentence {
     private VerdictSentence() {
     }
 
+    /** What a comparison says, as its sentence claims it. */
+    public enum Outcome {
+        /** Detected, and the arm's values are the lower ones (adjusted p and interval agree). */
+        LOWER,
+        /** Detected, and the arm's values are the higher ones. */
+        HIGHER,
+        /** Every pair tied. */
+        SAME,
+        /** No difference detected. */
+        NO_DIFFERENCE,
+        /** The test and its interval disagree (ties, diverged pairs): nothing claimed. */
+        UNCLEAR,
+        /** No usable pair. */
+        NOT_COMPARED
+    }
+
+    /**
+     * @param c the comparison (null: not compared)
+     * @return what its sentence claims, by the same rules as {@link #render}
+     */
+    public static Outcome outcome(Comparison c) {
+        if (c == null || (c.testPairs() == 0 && c.effectPairs() == 0)) {
+            return Outcome.NOT_COMPARED;
+        }
+        if (c.testPairs() == 0 && c.zeroDifferences() == c.effectPairs()) {
+            return Outcome.SAME;
+        }
+        if (c.detected() && reachesLevel(c) && effectAgrees(c)) {
+            return c.armLarger() ? Outcome.HIGHER : Outcome.LOWER;
+        }
+        if (!c.detected() && (!reachesLevel(c) || !c.intervalExcludesZero())) {
+            return Outcome.NO_DIFFERENCE;
+        }
+        return Outcome.UNCLEAR;
+    }
+
+    /**
+     * @param c a comparison whose outcome is {@link Outcome#LOWER} or {@link Outcome#HIGHER}
+     * @return the magnitude of its change as shown, with its unit: "92 %", "> 99.9 %", "2 percentage points"
+     */
+    public static String size(Comparison c) {
+        return magnitude(c);
+    }
+
+    /**
+     * @param c a comparison with an effect
+     * @return the metric, its signed change, its interval and p, as "final gap −92 %, Bonferroni 99 % CI −95 to
+     *     −88 %, adjusted p = 0.0024" (no interval when the pairs are too few for its level)
+     */
+    public static String detail(Comparison c) {
+        String change = c.metric() + " " + signedChange(c, c.estimate());
+        return reachesLevel(c) ? change + ", " + ciText(c, true) + ", " + pText(c) : change + ", " + pText(c);
+    }
+
     /**
      * @param c the comparison
      * @return one sentence, without subject and without final full stop

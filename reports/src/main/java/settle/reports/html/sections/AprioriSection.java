@@ -1,6 +1,6 @@
 package settle.reports.html.sections;
 
-import settle.reports.html.Format;
+import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.Ranks;
 import settle.reports.metrics.StudyAnalysis;

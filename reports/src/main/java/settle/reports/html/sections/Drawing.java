@@ -5,7 +5,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import settle.reports.html.Axis;
-import settle.reports.html.Format;
+import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.html.Palette;
 import settle.reports.html.SvgChart;

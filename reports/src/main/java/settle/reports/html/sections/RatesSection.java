@@ -4,7 +4,7 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import settle.reports.html.Axis;
-import settle.reports.html.Format;
+import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.html.Palette;
 import settle.reports.html.SvgChart;

@@ -2,11 +2,11 @@ package settle.reports.html.sections;
 
 import java.util.ArrayList;
 import java.util.List;
-import settle.reports.html.Format;
+import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.ArmLevel;
-import settle.reports.metrics.ArmPick;
 import settle.reports.metrics.StudyAnalysis;
+import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Interval;
@@ -16,9 +16,9 @@ import settle.reports.study.Metric;
 import settle.reports.study.Study;
 
 /**
- * "Verdict": which arm to pick ({@link ArmPick}) and at what cost, one sentence per arm against the baseline on the
- * primary metric with descriptive sentences on the others, how many replicates a verdict needs, and the verdict
- * table.
+ * "Verdict": which arm to pick and at what cost ({@link VerdictSummary}), one headline per arm against the baseline
+ * (where its returned iterate ends, how much it still moves, its diagnosis) with descriptive sentences on the other
+ * metrics, how many replicates a verdict needs, and the verdict table.
  */
 final class VerdictSection implements Section {
 
@@ -43,28 +43,26 @@ final class VerdictSection implements Section {
         Study study = d.study();
         Manifest manifest = d.manifest();
         StudyAnalysis analysis = d.analysis();
+        VerdictSummary verdict = analysis.verdict();
         int base = manifest.baselineIndex();
         String baseline = manifest.baseline();
         List<Comparison> primary = analysis.comparisons(analysis.primary());
-        if (study.armCount() == 1) {
-            d.para("The plan has only the baseline arm " + baseline + ": there is nothing to compare it with.");
-        } else if (primary.isEmpty()) {
-            d.para("No replicate index is present in every arm, so no arm can be compared with the baseline.");
+        if (study.armCount() == 1 || primary.isEmpty()) {
+            d.para(verdict.pickSentence());
         } else {
-            pick(d, base);
+            pick(d, verdict, base);
             w.element("h3", "Each arm against the baseline " + baseline);
             w.open("ul", "class", "sentences");
-            for (int a = 0; a < study.armCount(); a++) {
-                if (a == base) {
+            for (VerdictSummary.ArmVerdict v : verdict.arms()) {
+                if (v.arm() == base) {
                     continue;
                 }
-                w.open("li");
-                w.element("strong", study.armName(a));
-                Comparison c = analysis.comparison(analysis.primary(), a);
-                w.text(" " + VerdictSentence.render(c) + ".");
+                w.open("li", "class", v.froze() ? "froze" : null);
+                w.element("strong", v.name());
+                w.text(" " + v.headline() + ".");
                 List<String> more = new ArrayList<>();
                 for (Metric m : analysis.compared()) {
-                    Comparison other = m == analysis.primary() ? null : analysis.comparison(m, a);
+                    Comparison other = m == analysis.primary() ? null : analysis.comparison(m, v.arm());
                     if (other != null) {
                         more.add(withMetric(m, VerdictSentence.render(other)));
                     }
@@ -79,65 +77,43 @@ final class VerdictSection implements Section {
                 w.close("li");
             }
             w.close("ul");
-            int n = analysis.pairedReplicates().length;
-            int needed = analysis.replicatesNeeded();
+            int n = verdict.pairs();
+            int needed = verdict.pairsNeeded();
             int m = analysis.comparedArms();
-            String power = "With " + m + " arm" + (m == 1 ? "" : "s") + " compared with the baseline (Holm across "
+            String power = "With " + m + " arm" + (m == 1 ? "" : "s") + " compared with the baseline (Bonferroni across "
                     + "arms), the smallest adjusted p an exact signed-rank test can reach with n pairs is " + m
                     + "·2/2ⁿ, so a verdict needs at least " + needed + " replicates; this study pairs " + n + ".";
             if (n < needed) {
                 power += " It has fewer: \"no difference detected\" here is not evidence that there is none.";
             }
             w.element("p", power, "class", "note");
-            w.element("p", "Tail radius is the primary metric: the test is the exact Wilcoxon signed-rank test on the "
-                    + "paired log-ratios, Holm-adjusted across arms; the effect is the Hodges–Lehmann estimate of "
-                    + "the log-ratio shown as a % change with its exact 95 % interval (a percentile bootstrap "
-                    + "interval, 10 000 resamples, beside it in the table). The other metrics are descriptive. A "
-                    + "diverged replicate counts as worse than every finite value.", "class", "note");
+            w.element("p", "The primary metric is where the returned iterate ends: " + (study.convex()
+                    ? "its final gap F(θ_ret) − F(θ*), the last iterate's or, for an averaged arm, the tail mean's"
+                    : "its final training objective (no reference minimiser for this model)")
+                    + ". The test is the exact Wilcoxon signed-rank test on the paired log-ratios, Bonferroni-adjusted "
+                    + "across the " + m + " arm" + (m == 1 ? "" : "s") + "; the effect is the Hodges–Lehmann estimate "
+                    + "shown as a % change with its exact interval at the same adjusted level (1 − 0.05/" + m + "), so "
+                    + "a difference is claimed only where the adjusted p and the interval agree. Test accuracy is "
+                    + "compared as a paired difference in percentage points. The tail radius (how much a run still "
+                    + "moves over its tail) and the other metrics are descriptive. A diverged replicate counts as worse "
+                    + "than every finite value.", "class", "note");
         }
         verdictTable(d, base);
     }
 
     /**
-     * The pick: the arm {@link ArmPick} recommends and at what cost in test loss, test accuracy and final gap, or, when
-     * none, the arm with the lowest median and what a verdict would need.
+     * The pick ({@link VerdictSummary#pickSentence()}), at what cost in test loss, test accuracy and final distance,
+     * and the baseline's noise-ball note when it has not reached its ball.
      */
-    private static void pick(Drawing d, int base) {
+    private static void pick(Drawing d, VerdictSummary verdict, int base) {
         HtmlWriter w = d.writer();
-        Study study = d.study();
-        Manifest manifest = d.manifest();
         StudyAnalysis analysis = d.analysis();
-        ArmPick pick = ArmPick.of(analysis);
-        ArmSummary[] radius = analysis.summaries(analysis.primary());
         w.open("div", "class", "pick");
-        if (!pick.picked()) {
-            int lowest = pick.lowest();
-            w.open("p");
-            w.text("No arm wanders detectably less than the baseline ");
-            w.element("strong", manifest.baseline());
-            w.text(" (tail radius, Holm-adjusted p ≤ 0.05). The lowest median tail radius is "
-                    + Format.sig(radius[lowest].median()) + ", of ");
-            w.element("strong", study.armName(lowest));
-            w.text(". Keep the baseline, or run more replicates"
-                    + (analysis.pairedReplicates().length < analysis.replicatesNeeded()
-                            ? " (at least " + analysis.replicatesNeeded() + " are needed for a verdict at this number "
-                                    + "of arms)"
-                            : "") + ".");
-            w.close("p");
-        } else {
-            int best = pick.arm();
-            Comparison c = analysis.comparison(analysis.primary(), best);
-            w.open("p");
-            w.text("For low wander, pick ");
-            w.element("strong", study.armName(best));
-            w.text(": among the arms that detectably wander less than the baseline " + manifest.baseline()
-                    + ", it has the smallest median tail radius (" + Format.sig(radius[best].median()) + " against "
-                    + Format.sig(radius[base].median()) + "); it " + VerdictSentence.render(c) + ".");
-            w.close("p");
-            w.open("p");
-            w.text("At what cost: ");
+        w.element("p", verdict.pickSentence());
+        if (verdict.pick().picked()) {
+            int best = verdict.pick().arm();
             List<String> costs = new ArrayList<>();
-            for (Metric m : List.of(Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.FINAL_GAP)) {
+            for (Metric m : List.of(Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.FINAL_DISTANCE)) {
                 Comparison cost = analysis.comparison(m, best);
                 ArmSummary[] s = analysis.summaries(m);
                 if (cost == null || s == null) {
@@ -146,8 +122,11 @@ final class VerdictSection implements Section {
                 costs.add(withMetric(m, VerdictSentence.render(cost)) + " (median " + Format.sig(s[best].median())
                         + " against " + Format.sig(s[base].median()) + ")");
             }
-            w.text(costs.isEmpty() ? "no test split or reference to measure it on." : String.join("; ", costs) + ".");
-            w.close("p");
+            w.element("p", "At what cost: " + (costs.isEmpty() ? "no test split or reference to measure it on."
+                    : String.join("; ", costs) + "."));
+        }
+        if (!verdict.baselineNote().isEmpty()) {
+            w.element("p", verdict.baselineNote());
         }
         w.close("div");
     }
@@ -167,11 +146,15 @@ final class VerdictSection implements Section {
         StudyAnalysis analysis = d.analysis();
         w.open("div", "class", "scroll");
         w.open("table", "class", "verdict-table");
-        w.open("caption").text("Per arm: medians over finished replicates [interquartile range]; changes against the "
-                + "baseline paired by seed; arm-level spreads with joint bootstrap 95 % intervals.").close("caption");
-        d.tableHead("arm", "tail radius", "change", "exact 95 % CI", "bootstrap 95 % CI", "adjusted p (p)",
-                "P(beats baseline)", "final gap", "test loss", "test accuracy", "seed spread", "prediction spread",
-                "disagreement");
+        Metric primary = analysis.primary();
+        String level = analysis.comparisons(primary).isEmpty() ? "95 %"
+                : Format.sig(100 * analysis.comparisons(primary).get(0).level()) + " %";
+        w.open("caption").text("Per arm: medians over finished replicates [interquartile range]; changes in "
+                + primary.words() + " against the baseline paired by seed, with intervals at the adjusted level "
+                + level + "; arm-level spreads with jackknife 95 % intervals.").close("caption");
+        d.tableHead("arm", primary.words(), "change", "exact " + level + " CI", "bootstrap " + level + " CI",
+                "adjusted p (p)", "P(beats baseline)", "tail radius", "test loss", "test accuracy", "seed spread",
+                "prediction spread", "disagreement");
         w.open("tbody");
         for (int a = 0; a < study.armCount(); a++) {
             w.open("tr", "class", a == base ? "baseline" : null);
@@ -186,14 +169,14 @@ final class VerdictSection implements Section {
                     w.element("td", a == base ? "" : "—", "class", "num");
                 }
             } else {
-                w.element("td", c.effectPairs() > 0 ? Format.percent(c.percentChange()) : "—", "class", "num");
+                w.element("td", c.effectPairs() > 0 ? Format.percent(c.change()) : "—", "class", "num");
                 w.element("td", range(c.exact()), "class", "num");
                 w.element("td", range(c.bootstrap()), "class", "num");
                 w.element("td", Format.p(c.pAdjusted()) + " (" + Format.p(c.p()) + ")", "class",
                         c.detected() ? "num detected" : "num");
                 w.element("td", Format.sig(c.probabilityBetter()), "class", "num");
             }
-            w.element("td", summaryCell(d, Metric.FINAL_GAP, a), "class", "num");
+            w.element("td", summaryCell(d, Metric.TAIL_RADIUS, a), "class", "num");
             w.element("td", summaryCell(d, Metric.TEST_LOSS, a), "class", "num");
             w.element("td", summaryCell(d, Metric.TEST_ACCURACY, a), "class", "num");
             w.element("td", levelCell(analysis.seedSpread(a)), "class", "num");

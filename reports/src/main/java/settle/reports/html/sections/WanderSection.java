@@ -2,7 +2,7 @@ package settle.reports.html.sections;
 
 import java.util.List;
 import settle.reports.html.Axis;
-import settle.reports.html.Format;
+import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.html.Palette;
 import settle.reports.html.SvgChart;

@@ -1,4 +1,4 @@
-package settle.reports.html;
+package settle.reports.text;
 
 import java.util.Locale;
 
