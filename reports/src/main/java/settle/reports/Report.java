@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.List;
 import settle.reports.html.ReportPage;
 import settle.reports.metrics.StudyAnalysis;
+import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.VerdictOptions;
 import settle.reports.study.Study;
 import settle.reports.study.StudyFormatException;
@@ -31,9 +32,10 @@ public final class Report {
      * @param diverged replicates that diverged
      * @param failedSections "id (what went wrong)" for each section of the report that could not be drawn (it says so
      *     in its place; a fault in settle); empty when the whole report was drawn
+     * @param verdict the verdict in words, for the terminal and the JSON summary
      */
     public record Outcome(Path report, Path summary, int replicates, int missing, int diverged,
-            List<String> failedSections) {
+            List<String> failedSections, VerdictSummary verdict) {
 
         public Outcome {
             failedSections = List.copyOf(failedSections);
@@ -70,6 +72,6 @@ public final class Report {
         ReportPage.Rendered page = ReportPage.renderPage(analysis);
         AtomicWrite.text(report, page.html());
         return new Outcome(report, summary, study.armCount() * study.replicateCount(), study.missing(),
-                study.diverged(), page.failedSections());
+                study.diverged(), page.failedSections(), analysis.verdict());
     }
 }

@@ -93,6 +93,7 @@ class VerdictSummaryTest {
         assertEquals("verdict (final gap of the returned iterate against the baseline constant, 8 pairs):", lines.get(0));
         assertTrue(lines.get(1).startsWith("  froze     ends 100 % farther"), lines.get(1));
         assertEquals(v.pickSentence(), lines.get(4));
+        assertTrue(v.pickSentence().endsWith(")."), "the pick in one sentence: " + v.pickSentence());
 
         StringWriter text = new StringWriter();
         try (JsonGenerator g = new JsonFactory().createGenerator(text)) {
@@ -116,6 +117,26 @@ class VerdictSummaryTest {
         String html = Files.readString(dir.resolve("v/report.html"));
         assertTrue(html.contains("<li class=\"froze\"><strong>froze</strong> ends 100 % farther"), "froze is marked");
         assertTrue(html.contains("Pick averaged"), "the pick leads the verdict");
+        assertTrue(html.contains("finished, did not learn (final objective above the starting one)"), "flagged");
+    }
+
+    @Test
+    void aBaselineThatHasNotReachedItsBallIsSaidSo() throws Exception {
+        SyntheticStudy s = new SyntheticStudy();
+        List<SyntheticStudy.Rep> constant = s.arm("constant", false, 4);
+        for (SyntheticStudy.Rep r : constant) {
+            r.finalBiasSq = 0.4;
+        }
+        s.finalGap(constant, 1.0, 1.2, 0.9, 1.1);
+        s.finalGap(s.arm("decay", false, 4), 1.1, 1.0, 0.95, 1.2);
+        VerdictSummary v = StudyAnalysis.of(StudyReader.read(s.write(dir.resolve("unsettled")))).verdict();
+        // bias² 0.4 against a ball of 0.05: 8×
+        assertEquals("The baseline constant has not reached its noise ball in this budget (its remaining bias is 8×"
+                + " the ball): an arm that ends closer may only travel faster; train longer to compare the arms where"
+                + " they settle.", v.baselineNote());
+        assertTrue(v.pickSentence().endsWith(", or train longer: the baseline has not settled at its noise ball in"
+                + " this budget."), v.pickSentence());
+        assertEquals(v.baselineNote(), v.lines().get(v.lines().size() - 1));
     }
 
     @Test

@@ -59,7 +59,6 @@ public final class DemoCommand implements Callable<Integer> {
         if (code == Main.OK || code == Main.INCOMPLETE) {
             Path where = out != null ? out : Path.of("studies", "frost-demo");
             spec.commandLine().getOut().println("demo study written to " + where.toAbsolutePath().normalize());
-            spec.commandLine().getOut().println("report: " + where.resolve("report.html").toAbsolutePath().normalize());
         }
         return code;
     }

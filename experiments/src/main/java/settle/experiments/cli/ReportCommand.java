@@ -45,8 +45,8 @@ public final class ReportCommand implements Callable<Integer> {
                     + directory + ")");
             return Main.FAILED;
         }
-        out.println("report written to " + outcome.report().toAbsolutePath().normalize());
-        out.println("summary written to " + outcome.summary().toAbsolutePath().normalize());
+        RunCommand.printVerdict(out, outcome);
+        out.println("summary: " + outcome.summary().toAbsolutePath().normalize());
         if (outcome.partial()) {
             err.println("settle report: partial study: " + outcome.missing() + " of " + outcome.replicates()
                     + " replicates missing");

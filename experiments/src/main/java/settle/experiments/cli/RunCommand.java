@@ -1,8 +1,12 @@
 package settle.experiments.cli;
 
+import com.fasterxml.jackson.core.JsonFactory;
+import com.fasterxml.jackson.core.JsonGenerator;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.io.UncheckedIOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -22,6 +26,7 @@ import settle.experiments.study.ClusterExecutorFactory;
 import settle.experiments.study.StudyContext;
 import settle.experiments.study.StudyLock;
 import settle.experiments.study.StudyRunner;
+import settle.reports.Report;
 
 /**
  * {@code settle run PLAN}: trains every arm × replicate of a plan into its study directory, resuming what a
@@ -149,31 +154,58 @@ public final class RunCommand implements Callable<Integer> {
         if (!outcome.reportProblem().isEmpty()) {
             stderr.println("settle run: " + outcome.reportProblem());
         }
+        Report.Outcome report = outcome.report();
         if (json) {
-            stdout.printf(java.util.Locale.ROOT,
-                    "{\"study\": \"%s\", \"replicates\": %d, \"finished\": %d, \"diverged\": %d, \"missing\": %d, "
-                            + "\"trained_now\": %d, \"exit_code\": %d}%n",
-                    jsonEscape(where), outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
-                    outcome.ranNow(), code);
-        } else if (!quiet) {
-            stderr.printf("settle: %d of %d replicates finished, %d diverged; study directory %s%n",
-                    outcome.finished(), outcome.total(), outcome.diverged(), where);
+            stdout.println(summaryJson(outcome, code));
+        } else {
+            if (!quiet) {
+                stderr.printf("settle: %d of %d replicates finished, %d diverged; study directory %s%n",
+                        outcome.finished(), outcome.total(), outcome.diverged(), where);
+                stderr.flush();
+            }
+            if (report != null) {
+                printVerdict(stdout, report);
+            }
         }
         return code;
     }
 
-    static String jsonEscape(String s) {
-        StringBuilder b = new StringBuilder();
-        for (int i = 0; i < s.length(); i++) {
-            char c = s.charAt(i);
-            if (c == '"' || c == '\\') {
-                b.append('\\').append(c);
-            } else if (c < 0x20) {
-                b.append(String.format("\\u%04x", (int) c));
-            } else {
-                b.append(c);
-            }
+    /** Prints the verdict's lines and the report's path: what {@code run}, {@code demo} and {@code report} end with. */
+    static void printVerdict(PrintWriter out, Report.Outcome report) {
+        for (String line : report.verdict().lines()) {
+            out.println(line);
         }
-        return b.toString();
+        out.println("report: " + report.report().toAbsolutePath().normalize());
+    }
+
+    /**
+     * @return the one-line JSON summary of {@code --json}: {@code study}, {@code replicates}, {@code finished},
+     *     {@code diverged}, {@code missing}, {@code trained_now}, {@code exit_code}, {@code report} (its path, or null
+     *     when it was not written) and the verdict's fields ({@link settle.reports.metrics.VerdictSummary})
+     */
+    static String summaryJson(StudyRunner.Outcome outcome, int code) {
+        StringWriter text = new StringWriter();
+        try (JsonGenerator g = new JsonFactory()
+                .createGenerator(text)) {
+            g.writeStartObject();
+            g.writeStringField("study", outcome.directory().toString());
+            g.writeNumberField("replicates", outcome.total());
+            g.writeNumberField("finished", outcome.finished());
+            g.writeNumberField("diverged", outcome.diverged());
+            g.writeNumberField("missing", outcome.missing());
+            g.writeNumberField("trained_now", outcome.ranNow());
+            g.writeNumberField("exit_code", code);
+            Report.Outcome report = outcome.report();
+            if (report == null) {
+                g.writeNullField("report");
+            } else {
+                g.writeStringField("report", report.report().toAbsolutePath().normalize().toString());
+                report.verdict().writeJsonFields(g);
+            }
+            g.writeEndObject();
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+        return text.toString();
     }
 }

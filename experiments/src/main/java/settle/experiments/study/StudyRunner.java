@@ -56,9 +56,10 @@ public final class StudyRunner {
      *
      * @param reportProblem one line saying why report.html was not written, or which of its sections could not be
      *     drawn; "" when the whole report was written
+     * @param report what the report wrote (its paths and the verdict), or null when it was not written
      */
     public record Outcome(Path directory, int total, int finished, int diverged, int missing, int ranNow,
-            String reportProblem) {
+            String reportProblem, Report.Outcome report) {
 
         /**
          * @return 0 all finished; 3 some diverged or missing; 1 every replicate diverged, or the report was not
@@ -234,30 +235,36 @@ public final class StudyRunner {
             missing.addAll(manualMissing);
             EpochsTable.write(directory, plan, all);
             Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash);
+            ReportWritten report = writeReport();
             return new Outcome(directory, outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
-                    missing.size(), writeReport());
+                    missing.size(), report.problem(), report.outcome());
         }
     }
 
     /**
      * Builds report.html and summary.csv from the finished study directory.
      *
-     * @return "" when the whole report was written, else one line saying what was not (the run then exits 1: a
-     *     study whose report is missing has not finished its work, though its replicates are kept)
+     * @return what was written (null when nothing was) and the problem: "" when the whole report was written, else
+     *     one line saying what was not (the run then exits 1: a study whose report is missing has not finished its
+     *     work, though its replicates are kept)
      */
-    private String writeReport() {
+    private ReportWritten writeReport() {
         String rebuild = "the replicates are kept; rebuild it with settle report " + directory;
         try {
             Report.Outcome written = Report.write(directory);
             if (!written.failedSections().isEmpty()) {
-                return "the report was written, but these sections could not be drawn: "
-                        + String.join("; ", written.failedSections()) + " (a fault in settle: each says so in its place)";
+                return new ReportWritten(written, "the report was written, but these sections could not be drawn: "
+                        + String.join("; ", written.failedSections()) + " (a fault in settle: each says so in its place)");
             }
-            return "";
+            return new ReportWritten(written, "");
         } catch (IOException | RuntimeException e) {
             String why = e.getMessage() == null ? e.toString() : e.getMessage();
-            return "the report was not written: " + why.replace('\n', ' ') + "; " + rebuild;
+            return new ReportWritten(null, "the report was not written: " + why.replace('\n', ' ') + "; " + rebuild);
         }
+    }
+
+    /** The report a run wrote, or null, and one line on what went wrong ("" when nothing did). */
+    private record ReportWritten(Report.Outcome outcome, String problem) {
     }
 
     /**
@@ -601,7 +608,7 @@ public final class StudyRunner {
             g.writeEndObject();
         });
         AtomicFiles.write(directory.resolve("manifest.json"), manifest);
-        return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "");
+        return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "", null);
     }
 
     /**

@@ -226,7 +226,7 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
     }
 
     /** @return a multiple in words: "8×", "1.5×", "37×", "2.4e+06×" */
-    static String times(double v) {
+    public static String times(double v) {
         if (!Double.isFinite(v)) {
             return "∞×";
         }
@@ -240,7 +240,7 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
     }
 
     /** @return a fraction as a whole % ("35 %"), or two digits below 10 % */
-    static String percent(double fraction) {
+    public static String percent(double fraction) {
         double p = 100 * fraction;
         return (p >= 10 ? Long.toString(Math.round(p)) : trim(String.format(Locale.ROOT, "%.2g", p))) + " %";
     }

@@ -29,7 +29,7 @@ import settle.reports.text.Format;
  * @param baselineName its name
  * @param arms every arm's verdict, in arm order (the baseline's has no comparison)
  * @param pick the pick
- * @param pickSentence the pick in one or two sentences, or why there is none and what would help
+ * @param pickSentence the pick in one sentence, or why there is none and what would help
  * @param baselineNote the baseline's noise-ball diagnosis when it has not reached its ball, or ""
  * @param pairs replicate pairs behind the comparisons
  * @param pairsNeeded the pairs a verdict needs at this number of arms
@@ -90,19 +90,32 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
             arms.add(new ArmVerdict(a, study.armName(a), c, outcome, radius, headline, froze, stalled, finished));
         }
         ArmPick pick = ArmPick.of(analysis);
-        String baselineNote = "";
-        if (study.convex()) {
-            BallDiagnosis ball = BallDiagnosis.of(study, base);
-            if (ball.state() == BallDiagnosis.State.NOT_REACHED || ball.state() == BallDiagnosis.State.APPROACHING
-                    || ball.state() == BallDiagnosis.State.FARTHER_THAN_THEORY) {
-                baselineNote = "The baseline " + study.armName(base) + " " + ball.sentence() + ".";
-            }
-        }
+        String baselineNote = study.convex() ? baselineNote(study.armName(base), BallDiagnosis.of(study, base)) : "";
         int pairs = analysis.pairedReplicates().length;
         int needed = analysis.replicatesNeeded();
         String sentence = pickSentence(analysis, primary, base, pick, arms, pairs, needed, !baselineNote.isEmpty());
         return new VerdictSummary(primary, base, study.armName(base), List.copyOf(arms), pick, sentence, baselineNote,
                 pairs, needed);
+    }
+
+    /**
+     * @return what the verdict should say about a baseline that has not reached its noise ball ("" when it has, or
+     *     when that cannot be told)
+     */
+    private static String baselineNote(String name, BallDiagnosis ball) {
+        double ratio = ball.biasSq() / ball.ball();
+        return switch (ball.state()) {
+            case NOT_REACHED -> "The baseline " + name + " has not reached its noise ball in this budget (its remaining"
+                    + " bias is " + BallDiagnosis.times(ratio) + " the ball): an arm that ends closer may only travel"
+                    + " faster; train longer to compare the arms where they settle.";
+            case FARTHER_THAN_THEORY -> "The baseline " + name + " ends farther from θ* than the linearised theory"
+                    + " allows: it has likely not reached its noise ball; train longer to compare the arms where they"
+                    + " settle.";
+            case APPROACHING -> "The baseline " + name + " is still approaching its noise ball (remaining bias "
+                    + BallDiagnosis.percent(Math.max(ratio, ball.tailBiasSq() / ball.tailBall())) + " of the ball):"
+                    + " part of what the other arms gain may be the distance it has still to travel.";
+            default -> "";
+        };
     }
 
     /** @return true when the replicate's final objective is above its starting objective F(θ₀) */
@@ -162,8 +175,7 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
             return "Pick " + study.armName(best) + ": among the arms whose returned iterate ends detectably "
                     + closer(primary, true) + " than the baseline " + study.armName(base) + "'s, it ends "
                     + (primary == Metric.FINAL_GAP ? "closest" : "lowest") + " (median " + metric + " "
-                    + sig(s[best].median()) + " against " + sig(s[base].median()) + "). It "
-                    + arms.get(best).headline() + ".";
+                    + sig(s[best].median()) + " against " + sig(s[base].median()) + ").";
         }
         StringBuilder b = new StringBuilder("No arm ends detectably " + closer(primary, true) + " than the baseline "
                 + study.armName(base) + " (" + metric + ", adjusted p ≤ 0.05 with an interval that agrees): keep the"
@@ -203,7 +215,7 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
             }
             out.add(String.format(Locale.ROOT, "  %-" + width + "s  %s", a.name(), a.headline()));
         }
-        out.add(pickSentence);
+        out.add((pick.picked() ? "" : "pick: none. ") + pickSentence);
         if (!baselineNote.isEmpty()) {
             out.add(baselineNote);
         }

@@ -1,5 +1,6 @@
 package settle.reports.html.sections;
 
+import settle.reports.metrics.VerdictSummary;
 import java.util.ArrayList;
 import java.util.List;
 import settle.reports.text.Format;
@@ -9,7 +10,10 @@ import settle.reports.study.Metric;
 import settle.reports.study.Replicate;
 import settle.reports.study.Study;
 
-/** "Every replicate": each replicate's status (diverged at which update, missing) and its per-replicate metrics. */
+/**
+ * "Every replicate": each replicate's status (diverged at which update, missing, or finished but did not learn: its
+ * final objective above its starting one, kept in every comparison) and its per-replicate metrics.
+ */
 final class ReplicatesSection implements Section {
 
     @Override
@@ -46,10 +50,13 @@ final class ReplicatesSection implements Section {
         for (int a = 0; a < study.armCount(); a++) {
             for (int k = 0; k < study.replicateCount(); k++) {
                 Replicate r = study.replicate(a, k);
-                w.open("tr", "class", r == null ? "missing" : r.diverged() ? "diverged" : null);
+                boolean stalled = r != null && !r.diverged() && VerdictSummary.didNotLearn(r);
+                w.open("tr", "class", r == null ? "missing" : r.diverged() ? "diverged" : stalled ? "did-not-learn"
+                        : null);
                 w.element("td", study.armName(a));
                 w.element("td", Integer.toString(k + 1), "class", "num");
                 w.element("td", r == null ? "missing" : r.diverged() ? "diverged at update " + r.divergedAtUpdate()
+                        : stalled ? r.status() + ", did not learn (final objective above the starting one)"
                         : r.status());
                 for (Metric m : columns) {
                     w.element("td", r == null || r.diverged() ? "—" : Format.sig(r.metric(m)), "class", "num");

@@ -109,9 +109,9 @@ final class VerdictSection implements Section {
         HtmlWriter w = d.writer();
         StudyAnalysis analysis = d.analysis();
         w.open("div", "class", "pick");
-        w.element("p", verdict.pickSentence());
         if (verdict.pick().picked()) {
             int best = verdict.pick().arm();
+            w.element("p", verdict.pickSentence() + " It " + verdict.arms().get(best).headline() + ".");
             List<String> costs = new ArrayList<>();
             for (Metric m : List.of(Metric.TEST_LOSS, Metric.TEST_ACCURACY, Metric.FINAL_DISTANCE)) {
                 Comparison cost = analysis.comparison(m, best);
@@ -124,6 +124,8 @@ final class VerdictSection implements Section {
             }
             w.element("p", "At what cost: " + (costs.isEmpty() ? "no test split or reference to measure it on."
                     : String.join("; ", costs) + "."));
+        } else {
+            w.element("p", verdict.pickSentence());
         }
         if (!verdict.baselineNote().isEmpty()) {
             w.element("p", verdict.baselineNote());
