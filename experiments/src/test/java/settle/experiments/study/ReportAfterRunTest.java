@@ -24,6 +24,11 @@ class ReportAfterRunTest {
         StringWriter err = new StringWriter();
         assertEquals(0, StudyRunnerTest.settle(out, err, "run", plan.toString(), "--out", study.toString(), "--quiet",
                 "--threads", "1"), err.toString());
+        // run ends with the verdict and the report's path on stdout
+        String said = out.toString();
+        assertTrue(said.startsWith("verdict (final gap of the returned iterate against the baseline "), said);
+        assertTrue(said.endsWith("report: " + study.resolve("report.html").toAbsolutePath().normalize()
+                + System.lineSeparator()), said);
         assertTrue(Files.readString(study.resolve("report.html")).contains("<section id=\"verdict\">"));
         assertTrue(Files.readString(study.resolve("summary.csv")).startsWith("arm,metric,median,iqm,effect,unit,ci_low,ci_high,ci_level,p,p_adjusted\r\n"));
         // The arm name with a comma is quoted in summary.csv.
@@ -33,7 +38,10 @@ class ReportAfterRunTest {
         out = new StringWriter();
         err = new StringWriter();
         assertEquals(0, StudyRunnerTest.settle(out, err, "report", study.toString()), err.toString());
-        assertTrue(out.toString().contains("report written to "));
+        assertTrue(out.toString().startsWith("verdict (final gap"), out.toString());
+        assertTrue(out.toString().contains("report: " + study.resolve("report.html").toAbsolutePath().normalize()),
+                out.toString());
+        assertTrue(out.toString().contains("summary: "), out.toString());
         assertTrue(Files.exists(study.resolve("report.html")));
 
         Files.delete(study.resolve("arms/2/3.json"));

@@ -114,6 +114,16 @@ class StudyRunnerTest {
         JsonNode summary = MAPPER.readTree(out.toString());
         assertEquals(2, summary.path("trained_now").asInt());
         assertEquals(12, summary.path("finished").asInt());
+        // the verdict travels with it: the report's path, the primary metric, the pick, each arm's effect
+        assertEquals(resumed.resolve("report.html").toAbsolutePath().normalize().toString(),
+                summary.path("report").asText());
+        assertEquals("final_gap", summary.path("primary_metric").asText());
+        assertTrue(summary.has("pick"), out.toString());
+        assertEquals(2, summary.path("arms").size(), "every arm but the baseline");
+        for (JsonNode arm : summary.path("arms")) {
+            assertTrue(arm.path("p_adjusted").isNumber() && arm.path("ci_level").isNumber(), arm.toString());
+            assertTrue(arm.path("headline").asText().startsWith("ends "), arm.toString());
+        }
         StudyFiles.assertSameReplicateFiles(whole, resumed);
         assertFalse(Files.exists(resumed.resolve("arms/3/.1.json.999.1.1" + AtomicFiles.TEMP_SUFFIX)));
     }
