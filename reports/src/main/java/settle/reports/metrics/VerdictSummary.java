@@ -132,9 +132,27 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
                     .append(closer(primary, outcome == Outcome.LOWER)).append(" (").append(VerdictSentence.detail(c))
                     .append(')');
             case NOT_COMPARED -> b.append("cannot be compared: no usable pair of replicates");
-            default -> b.append("ends neither detectably ").append(closer(primary, true)).append(" nor ")
-                    .append(closer(primary, false).replace(" from the minimum", "").replace(" in training objective",
-                            "")).append(": ").append(primary.words()).append(' ').append(VerdictSentence.render(c));
+            case NO_DIFFERENCE -> {
+                b.append("ends neither detectably ").append(closer(primary, true)).append(" nor ")
+                        .append(closer(primary, false).replace(" from the minimum", "").replace(" in training objective",
+                                ""));
+                if (c.effectPairs() > 0 && c.exact().isDefined()) {
+                    b.append(" (").append(VerdictSentence.detail(c));
+                    if (c.zeroDifferences() > 0) {
+                        b.append("; ").append(c.zeroDifferences()).append(" of ").append(c.pairs() - c.bothDiverged())
+                                .append(" pairs tied");
+                    }
+                    if (c.testPairs() < c.pairsNeeded()) {
+                        b.append("; ").append(c.pairsNeeded()).append(" untied pairs needed to detect a difference");
+                    }
+                    b.append(')');
+                } else {
+                    b.append(": ").append(VerdictSentence.render(c));
+                }
+            }
+            case SAME -> b.append("ends where the baseline ends: ").append(VerdictSentence.render(c));
+            default -> b.append("ends neither detectably ").append(closer(primary, true)).append(" nor farther: ")
+                    .append(primary.words()).append(", ").append(VerdictSentence.render(c));
         }
         if (moves == Outcome.LOWER) {
             b.append(", and settles ").append(VerdictSentence.size(radius)).append(" tighter (tail radius")
