@@ -225,13 +225,17 @@ public record BallDiagnosis(State state, String sentence, int replicates, int pr
         }
     }
 
-    /** @return a multiple in words: "8×", "1.5×", "37×", "2.4e+06×" */
+    /** @return a multiple in words: "8×", "1.5×", "37×", "14 000×", "2.4e6×" */
     public static String times(double v) {
         if (!Double.isFinite(v)) {
             return "∞×";
         }
+        if (v >= 1e6) {
+            return String.format(Locale.ROOT, "%.1e", v).replace("e+0", "e").replace("e+", "e") + "×";
+        }
         if (v >= 1e4) {
-            return String.format(Locale.ROOT, "%.2g", v) + "×";
+            long rounded = new java.math.BigDecimal(v).round(new java.math.MathContext(2)).longValue();
+            return String.format(Locale.ROOT, "%,d", rounded).replace(',', ' ') + "×";
         }
         if (v >= 10) {
             return Math.round(v) + "×";
