@@ -40,9 +40,10 @@ final class LimitsSection implements Section {
                 + "verdicts: with " + analysis.comparedArms() + " arm(s) compared, at least "
                 + analysis.replicatesNeeded() + " are needed before any difference can be declared, and \"no "
                 + "difference detected\" is never evidence of no difference.");
-        w.element("li", "The tail radius measures the wander inside the last tail of each run, over every tail update; "
-                + "a short tail under a small rate sees only part of the stationary noise ball, and a rate that ends "
-                + "near zero makes it small wherever the run froze.");
+        w.element("li", "The verdict ranks arms by where their returned iterate ends (" + analysis.primary().words()
+                + ") within this budget: an arm that ends closer may only travel faster, and with more epochs the "
+                + "ranking can change. The tail radius measures how much a run still moves over its tail; a rate that "
+                + "ends near zero makes it small wherever the run froze, which is why it is descriptive.");
         w.element("li", "The predicted noise ball linearises SGD at θ*: exact for a quadratic objective (reshuffled "
                 + "batches and momentum included), first-order for logistic regression, whose curvature varies over "
                 + "the ball. Measured against predicted tests the theory only for an arm that has reached its ball; "

@@ -45,14 +45,15 @@ final class WanderSection implements Section {
                 + (study.convex() ? ". Final gap: F(θ_F) − F(θ*), θ_F the last iterate (the tail average for "
                         + "averaged arms); values below 1e-12 are drawn at 1e-12." : ".")
                 + " Diverged replicates are drawn as red × marks right of the plot.");
-        w.element("h3", "Tail radius (the primary metric)");
-        strip(d, Metric.TAIL_RADIUS, "strip-tail-radius");
         if (analysis.available().contains(Metric.FINAL_GAP)) {
-            w.element("h3", "Final gap");
+            w.element("h3", "Final gap (the primary metric: where the returned iterate ends)");
             strip(d, Metric.FINAL_GAP, "strip-final-gap");
-        } else {
-            d.para("Final gap: not available (no reference minimiser).");
+        } else if (analysis.available().contains(Metric.FINAL_OBJECTIVE)) {
+            w.element("h3", "Final training objective (the primary metric: there is no reference minimiser)");
+            strip(d, Metric.FINAL_OBJECTIVE, "strip-final-objective");
         }
+        w.element("h3", "Tail radius (how much the run still moves)");
+        strip(d, Metric.TAIL_RADIUS, "strip-tail-radius");
         d.legend(false);
     }
 
