@@ -62,6 +62,12 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
         return lower ? "lower in training objective" : "higher in training objective";
     }
 
+    /** @return "neither detectably closer to the minimum nor farther", or its training-objective form */
+    private static String neither(Metric primary) {
+        return primary == Metric.FINAL_GAP ? "neither detectably closer to the minimum nor farther"
+                : "neither detectably lower nor higher in training objective";
+    }
+
     /**
      * @param analysis the analysed study
      * @return its verdict summary
@@ -133,9 +139,7 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
                     .append(')');
             case NOT_COMPARED -> b.append("cannot be compared: no usable pair of replicates");
             case NO_DIFFERENCE -> {
-                b.append("ends neither detectably ").append(closer(primary, true)).append(" nor ")
-                        .append(closer(primary, false).replace(" from the minimum", "").replace(" in training objective",
-                                ""));
+                b.append("ends ").append(neither(primary));
                 if (c.effectPairs() > 0 && c.exact().isDefined()) {
                     b.append(" (").append(VerdictSentence.detail(c));
                     if (c.zeroDifferences() > 0) {
@@ -151,8 +155,8 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
                 }
             }
             case SAME -> b.append("ends where the baseline ends: ").append(VerdictSentence.render(c));
-            default -> b.append("ends neither detectably ").append(closer(primary, true)).append(" nor farther: ")
-                    .append(primary.words()).append(", ").append(VerdictSentence.render(c));
+            default -> b.append("ends ").append(neither(primary)).append(": ").append(primary.words()).append(", ")
+                    .append(VerdictSentence.render(c));
         }
         if (moves == Outcome.LOWER) {
             b.append(", and settles ").append(VerdictSentence.size(radius)).append(" tighter (tail radius")
