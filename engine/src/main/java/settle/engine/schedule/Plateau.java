@@ -5,25 +5,28 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * {@code plateau}: cut the rate when the judged loss has stopped improving. The rate starts at {@code rate}.
- * After each epoch the judged loss L (training objective or holdout loss, as {@code judge} says) is compared
- * with best, the lowest L so far: it improved if L &lt; best·(1 − gain) for a percentage {@code gain: 1%}, or
- * L &lt; best − gain for a number (the first epoch always improves). After {@code stall} epochs in a row
- * without improvement the rate becomes max(rate·cut, floor) from the next epoch on, the count restarts, and
- * {@code rest} epochs follow without judging (their losses still lower best). Without data (a preview) the
- * rate never cuts: that no-cut envelope is what {@link #plannedRates} lists.
+ * {@code plateau}: halve the rate once the judged loss has flattened, the step-halving rule of Bottou, Curtis &amp;
+ * Nocedal ("Optimization Methods for Large-Scale Machine Learning", SIAM Review 60(2), 2018, §4.2, eqs. 4.17–4.18):
+ * at a fixed rate SGD's loss falls, then flattens at that rate's noise ball; once it has, cutting the rate is what
+ * brings it lower. The rate starts at {@code rate}. After each epoch the judged loss L (training objective or holdout
+ * loss, as {@code judge} says) joins the epochs since the last cut; once they number 2·{@code window}, the mean of
+ * the last {@code window} losses, B, is compared with the mean of the {@code window} before them, A. The loss has
+ * flattened when B ≥ A·(1 − gain): then the rate becomes max(rate·cut, floor) from the next epoch and the count
+ * starts again, so a new rate is judged only on losses it produced (two full windows of them). Comparing window
+ * means rather than one best value keeps an epoch of noise from deciding. Without data (a preview) the rate never
+ * cuts: that no-cut envelope is what {@link #plannedRates} lists.
  *
  * @param rate the starting rate, finite and &gt; 0
- * @param cut the factor of each cut, in (0, 1) (default 0.5)
- * @param stall epochs without improvement before a cut, ≥ 1 (default 5)
- * @param gain the improvement that counts (default 0: any decrease)
- * @param rest epochs after a cut that are not judged, ≥ 0 (default 0)
+ * @param cut the factor of each cut, in (0, 1) (default 0.5: halving)
+ * @param window epochs per window, ≥ 1 (default 5)
+ * @param gain the least relative decrease of the window mean that counts as progress, a percentage in [0, 100)
+ *     (default 1)
  * @param floor the lowest rate a cut reaches, in [0, rate] (default 0)
  * @param judge which loss is judged (default train)
  * @param warmup the warmup, or {@link Warmup#NONE}
  */
-public record Plateau(double rate, double cut, int stall, Gain gain, int rest, double floor, Judge judge,
-        Warmup warmup) implements Schedule {
+public record Plateau(double rate, double cut, int window, double gain, double floor, Judge judge, Warmup warmup)
+        implements Schedule {
 
     /** The kind name. */
     public static final String KIND = "plateau";
@@ -47,92 +50,56 @@ public record Plateau(double rate, double cut, int stall, Gain gain, int rest, d
         }
     }
 
-    /**
-     * The improvement that counts: a percentage of best ({@code gain: 1%}) or an absolute amount.
-     *
-     * @param amount the percentage (1 for 1 %) when {@code percent}, else the amount of loss
-     * @param percent whether {@code amount} is a percentage of best
-     */
-    public record Gain(double amount, boolean percent) {
-
-        /** Any decrease counts. */
-        public static final Gain ANY = new Gain(0, false);
-
-        public Gain {
-            if (percent ? !(amount >= 0 && amount < 100) : !(amount >= 0 && Double.isFinite(amount))) {
-                throw Check.bad(KIND, "gain", percent ? show(amount, true) : Fmt.num(amount),
-                        "a percentage in [0%, 100%) such as 1%, or a finite number ≥ 0");
-            }
-        }
-
-        /** @return whether {@code loss} improves on {@code best} */
-        boolean improves(double loss, double best) {
-            if (percent) {
-                return loss < best * (1 - amount / 100);
-            }
-            return loss < best - amount;
-        }
-
-        /** @return the value written in a plan: "1%" or the number */
-        Object resolved() {
-            return percent ? show(amount, true) : (Object) amount;
-        }
-
-        private static String show(double amount, boolean percent) {
-            String s = Double.isFinite(amount) ? BigDecimal.valueOf(amount).stripTrailingZeros().toPlainString()
-                    : Double.toString(amount);
-            return percent ? s + "%" : s;
-        }
-
-        @Override
-        public String toString() {
-            return percent ? show(amount, true) : Fmt.num(amount);
-        }
-    }
+    private static final String GAIN_ACCEPTED = "a percentage in [0%, 100%) such as 1%";
 
     public Plateau {
         Check.positive(KIND, "rate", rate);
         Check.openUnit(KIND, "cut", cut);
-        Check.atLeast(KIND, "stall", stall, 1);
-        Check.present(KIND, "gain", gain);
-        Check.atLeast(KIND, "rest", rest, 0);
+        Check.atLeast(KIND, "window", window, 1);
+        if (!(gain >= 0 && gain < 100)) {
+            throw Check.bad(KIND, "gain", percent(gain), GAIN_ACCEPTED);
+        }
         Check.floor(KIND, "floor", floor, rate);
         Check.present(KIND, "judge", judge);
         Check.present(KIND, "warmup", warmup);
     }
 
     static Plateau parse(KeyReader r) {
-        r.allow("rate", "cut", "stall", "gain", "rest", "floor", "judge", "warmup");
-        double rate = r.number("rate", null);
-        double cut = r.number("cut", 0.5);
-        int stall = r.integer("stall", 5);
-        Gain gain = Gain.ANY;
-        if (r.has("gain")) {
-            Object g = r.raw("gain");
-            if (g instanceof String s && s.trim().endsWith("%")) {
-                String digits = s.trim().substring(0, s.trim().length() - 1).trim();
-                double p;
-                try {
-                    p = Double.parseDouble(digits);
-                } catch (NumberFormatException e) {
-                    throw r.badType("gain", g, "a percentage in [0%, 100%) such as 1%, or a finite number ≥ 0");
-                }
-                gain = new Gain(p, true);
-            } else {
-                double a;
-                try {
-                    a = r.toNumber("gain", g);
-                } catch (ScheduleException e) {
-                    throw r.badType("gain", g, "a percentage in [0%, 100%) such as 1%, or a finite number ≥ 0");
-                }
-                gain = new Gain(a, false);
+        for (String gone : List.of("stall", "rest")) {
+            if (r.has(gone)) {
+                throw new ScheduleException(gone, KIND + ": '" + gone + "' is not a key of plateau; it compares the mean"
+                        + " judged loss of two consecutive windows of 'window' epochs and judges a new rate only on"
+                        + " its own epochs (keys: rate, cut, window, gain, floor, judge)");
             }
         }
-        int rest = r.integer("rest", 0);
+        r.allow("rate", "cut", "window", "gain", "floor", "judge", "warmup");
+        double rate = r.number("rate", null);
+        double cut = r.number("cut", 0.5);
+        int window = r.integer("window", 5);
+        double gain = 1.0;
+        if (r.has("gain")) {
+            Object g = r.raw("gain");
+            String text = g instanceof String s ? s.trim() : "";
+            if (!text.endsWith("%")) {
+                throw r.badType("gain", g, GAIN_ACCEPTED);
+            }
+            try {
+                gain = Double.parseDouble(text.substring(0, text.length() - 1).trim());
+            } catch (NumberFormatException e) {
+                throw r.badType("gain", g, GAIN_ACCEPTED);
+            }
+        }
         double floor = r.number("floor", 0.0);
         Judge judge = r.choice("judge", "train", List.of("train", "holdout")).equals("train") ? Judge.TRAIN
                 : Judge.HOLDOUT;
-        return new Plateau(rate, cut, stall, gain, rest, floor, judge, Warmup.parse(r));
+        return new Plateau(rate, cut, window, gain, floor, judge, Warmup.parse(r));
+    }
+
+    /** @return "1%": a percentage as written in a plan */
+    private static String percent(double amount) {
+        String s = Double.isFinite(amount) ? BigDecimal.valueOf(amount).stripTrailingZeros().toPlainString()
+                : Double.toString(amount);
+        return s + "%";
     }
 
     @Override
@@ -157,33 +124,33 @@ public record Plateau(double rate, double cut, int stall, Gain gain, int rest, d
 
     @Override
     public String describe() {
-        return KIND + ": α starts at " + Fmt.num(rate) + "; after " + stall + " epoch" + (stall == 1 ? "" : "s")
-                + " without the " + judge.word() + " loss improving by more than " + gain
-                + ", α ← max(α·" + Fmt.num(cut) + ", " + Fmt.num(floor) + ") from the next epoch, then " + rest
-                + " epoch" + (rest == 1 ? "" : "s") + " not judged" + warmup.describe();
+        return KIND + ": α starts at " + Fmt.num(rate) + "; once the mean " + judge.word() + " loss of the last "
+                + window + " epoch" + (window == 1 ? "" : "s") + " is not " + percent(gain) + " below that of the "
+                + window + " before (both at the current rate), α ← max(α·" + Fmt.num(cut) + ", " + Fmt.num(floor)
+                + ") from the next epoch" + warmup.describe();
     }
 
     @Override
     public Map<String, Object> resolved() {
-        return new Resolved(KIND).put("rate", rate).put("cut", cut).put("stall", stall).put("gain", gain.resolved())
-                .put("rest", rest).put("floor", floor).put("judge", judge.word()).end(warmup);
+        return new Resolved(KIND).put("rate", rate).put("cut", cut).put("window", window).put("gain", percent(gain))
+                .put("floor", floor).put("judge", judge.word()).end(warmup);
     }
 
-    /** The per-replicate state: the current rate, best, the epochs without improvement, the epochs of rest. */
+    /** The per-replicate state: the current rate and the judged losses since the last cut (the last 2·window). */
     static final class Driver implements RateDriver {
 
         private final Plateau p;
         private final long warmupUpdates;
+        private final double[] recent;
         private double current;
-        private double best = Double.POSITIVE_INFINITY;
-        private int without;
-        private int restLeft;
+        private int since;
         private int cuts;
 
         Driver(Plateau p, long warmupUpdates) {
             this.p = p;
             this.warmupUpdates = warmupUpdates;
             this.current = p.rate;
+            this.recent = new double[2 * p.window];
         }
 
         @Override
@@ -198,24 +165,27 @@ public record Plateau(double rate, double cut, int stall, Gain gain, int rest, d
                 throw new ScheduleException("judge", KIND + ": judge = 'holdout' needs a holdout loss, but the run "
                         + "has none; expected judge: train, or a plan with data.holdout-fraction > 0");
             }
-            boolean lower = loss < best;
-            if (restLeft > 0) {
-                restLeft--;
-                if (lower) {
-                    best = loss;
-                }
+            int w = p.window;
+            recent[since % (2 * w)] = loss;
+            since++;
+            if (since < 2 * w) {
                 return;
             }
-            boolean improved = p.gain.improves(loss, best);
-            if (lower) {
-                best = loss;
+            // the ring holds the last 2w losses; the oldest of them is at index since % 2w
+            double earlier = 0;
+            double later = 0;
+            for (int k = 0; k < 2 * w; k++) {
+                double v = recent[(since + k) % (2 * w)];
+                if (k < w) {
+                    earlier += v;
+                } else {
+                    later += v;
+                }
             }
-            without = improved ? 0 : without + 1;
-            if (without >= p.stall) {
+            if (!(later / w < earlier / w * (1 - p.gain / 100))) {
                 current = Math.max(current * p.cut, p.floor);
                 cuts++;
-                without = 0;
-                restLeft = p.rest;
+                since = 0;
             }
         }
 

@@ -25,7 +25,7 @@ class ScheduleSummaryTest {
                 Maps.of("kind", "stepped", "rate", 0.2, "cut", 0.5, "after", List.of(10, 20)),
                 Maps.of("kind", "piecewise", "points", List.of(List.of(1, 0.1), List.of(5, 0.01))),
                 Maps.of("kind", "plateau", "rate", 0.1, "gain", "1%", "warmup", Maps.of("updates", 10)),
-                Maps.of("kind", "plateau", "rate", 0.1, "gain", 0.001, "judge", "holdout"),
+                Maps.of("kind", "plateau", "rate", 0.1, "gain", "0.1%", "window", 3, "judge", "holdout"),
                 Maps.of("kind", "cosine", "rate", 0.1),
                 Maps.of("kind", "cosine", "rate", 0.1, "restart-every", 5, "restart-growth", 2),
                 Maps.of("kind", "anneal", "rate", 0.1, "floor", 0.001),
@@ -47,7 +47,7 @@ class ScheduleSummaryTest {
 
     @Test
     void resolvedFillsEveryDefault() {
-        assertEquals(Maps.of("kind", "plateau", "rate", 0.1, "cut", 0.5, "stall", 5, "gain", 0.0, "rest", 0,
+        assertEquals(Maps.of("kind", "plateau", "rate", 0.1, "cut", 0.5, "window", 5, "gain", "1%",
                 "floor", 0.0, "judge", "train"), Schedules.parse(Maps.of("kind", "plateau", "rate", 0.1)).resolved());
         assertEquals(Maps.of("kind", "reciprocal", "rate", 0.2, "decay", 1.0, "per", "epoch", "warmup",
                 Maps.of("epochs", 1)), Schedules.parse(Maps.of("kind", "reciprocal", "rate", 0.2, "decay", 1,
@@ -113,8 +113,8 @@ class ScheduleSummaryTest {
         assertEquals("cosine: α = 0 + (0.1 − 0)·(1 + cos(π·p))/2, p = progress within cycles of 5 epochs, each next "
                 + "2× longer (per epoch)", Schedules.parse(Maps.of("kind", "cosine", "rate", 0.1, "restart-every", 5,
                         "restart-growth", 2)).describe());
-        assertEquals("plateau: α starts at 0.1; after 5 epochs without the train loss improving by more than 1%, "
-                + "α ← max(α·0.5, 0) from the next epoch, then 0 epochs not judged",
+        assertEquals("plateau: α starts at 0.1; once the mean train loss of the last 5 epochs is not 1% below that of"
+                + " the 5 before (both at the current rate), α ← max(α·0.5, 0) from the next epoch",
                 Schedules.parse(Maps.of("kind", "plateau", "rate", 0.1, "gain", "1%")).describe());
         everyKind().forEach(m -> assertEquals(-1, Schedules.parse(m).describe().indexOf('\n')));
     }

@@ -161,38 +161,4 @@ class ScheduleTorchFixtureTest {
             close(t.get(i), s[i], "epoch " + (i + 1));
         }
     }
-
-    /**
-     * ReduceLROnPlateau(factor=0.5, patience=2, threshold=0 abs, cooldown=1, min_lr=0.02) fed loss i after
-     * index i ↔ plateau {cut 0.5, stall 3, gain 0, rest 1, floor 0.02}: the library cuts when the bad-epoch
-     * count exceeds patience, so stall = patience + 1; cooldown = rest; settle's epoch e = i + 1 and
-     * epochEnded(e, loss i).
-     */
-    @Test
-    void plateauAbsoluteMatchesReduceOnPlateau() {
-        checkPlateau("loss-abs", "plateau-abs",
-                Maps.of("kind", "plateau", "rate", 0.1, "cut", 0.5, "stall", 3, "gain", 0, "rest", 1, "floor", 0.02));
-    }
-
-    /**
-     * ReduceLROnPlateau(factor=0.3, patience=1, threshold=0.02 rel, cooldown=0, min_lr=0) ↔ plateau {cut 0.3,
-     * stall 2, gain 2%, rest 0, floor 0}; the loss sequence never has a non-improving loss below the best,
-     * so the library's best (loss at the last improvement) equals settle's (lowest loss so far).
-     */
-    @Test
-    void plateauRelativeMatchesReduceOnPlateau() {
-        checkPlateau("loss-rel", "plateau-rel",
-                Maps.of("kind", "plateau", "rate", 0.1, "cut", 0.3, "stall", 2, "gain", "2%"));
-    }
-
-    private static void checkPlateau(String lossCase, String rateCase, Map<String, Object> map) {
-        List<Double> losses = ref(lossCase);
-        List<Double> t = ref(rateCase);
-        RateDriver d = Schedules.parse(map).start(new RunShape(losses.size(), 1));
-        for (int i = 0; i < losses.size(); i++) {
-            int epoch = i + 1;
-            close(t.get(i), d.rate(epoch, epoch), "epoch " + epoch);
-            d.epochEnded(epoch, losses.get(i), Double.NaN);
-        }
-    }
 }

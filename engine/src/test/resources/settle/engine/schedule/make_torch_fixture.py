@@ -47,30 +47,3 @@ for j in range(9 * 4):
     opt.step()
     sched.step(j / 4)
     print(f"restarts-per-update,{j},{opt.param_groups[0]['lr']!r}")
-
-# Reduce on plateau with a fed loss sequence: the rate used in epoch i, then the scheduler reads loss i.
-# The loss sequences are written to the fixture too (cases loss-abs, loss-rel), so the test feeds the same.
-# In the relative case every loss that does not improve is >= the best so far: there the library's "best"
-# (the loss at the last improvement) and settle's (the lowest loss so far) coincide.
-LOSSES_ABS = [1.0, 0.8, 0.7, 0.7, 0.71, 0.72, 0.69, 0.69, 0.70, 0.70, 0.70, 0.68, 0.68, 0.68, 0.68,
-              0.68, 0.68, 0.68, 0.68, 0.68, 0.60, 0.61, 0.62, 0.63, 0.64]
-LOSSES_REL = [1.0, 0.9, 0.9, 0.95, 0.85, 0.85, 0.86, 0.80, 0.80, 0.81, 0.82, 0.70, 0.70, 0.75, 0.70, 0.70]
-
-
-def plateau(case, losses, make):
-    opt = optimiser(0.1)
-    sched = make(opt)
-    for i, loss in enumerate(losses):
-        print(f"{case},{i},{opt.param_groups[0]['lr']!r}")
-        opt.step()
-        sched.step(loss)
-
-
-for i, loss in enumerate(LOSSES_ABS):
-    print(f"loss-abs,{i},{loss!r}")
-for i, loss in enumerate(LOSSES_REL):
-    print(f"loss-rel,{i},{loss!r}")
-plateau("plateau-abs", LOSSES_ABS, lambda o: ls.ReduceLROnPlateau(
-    o, mode="min", factor=0.5, patience=2, threshold=0.0, threshold_mode="abs", cooldown=1, min_lr=0.02, eps=0.0))
-plateau("plateau-rel", LOSSES_REL, lambda o: ls.ReduceLROnPlateau(
-    o, mode="min", factor=0.3, patience=1, threshold=0.02, threshold_mode="rel", cooldown=0, min_lr=0.0, eps=0.0))

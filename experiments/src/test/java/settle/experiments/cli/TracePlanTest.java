@@ -31,7 +31,7 @@ class TracePlanTest {
             "  - name: constant",
             "    schedule: {kind: constant, rate: 0.4}",
             "  - name: plateau",
-            "    schedule: {kind: plateau, rate: 0.4, stall: 1, judge: holdout}",
+            "    schedule: {kind: plateau, rate: 0.4, window: 1, judge: holdout}",
             "");
 
     private int settle(StringWriter out, StringWriter err, String... args) {

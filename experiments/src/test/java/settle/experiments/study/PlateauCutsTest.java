@@ -38,7 +38,7 @@ class PlateauCutsTest {
                 "  snapshots: 5",
                 "arms:",
                 "  - name: plateau",
-                "    schedule: {kind: plateau, rate: 0.5, cut: 0.5, stall: 1, gain: 5%}",
+                "    schedule: {kind: plateau, rate: 0.5, cut: 0.5, window: 1, gain: 5%}",
                 "  - name: constant",
                 "    schedule: {kind: constant, rate: 0.5}",
                 ""));
@@ -71,6 +71,6 @@ class PlateauCutsTest {
             JsonNode constant = MAPPER.readTree(study.resolve("arms/2/" + r + ".json").toFile());
             assertEquals(0, constant.path("plateau_cuts").size());
         }
-        assertFalse(cutsSeen == 0, "the plan is meant to cut: stall 1 with a 5 % gain");
+        assertFalse(cutsSeen == 0, "the plan is meant to cut: window 1 with a 5 % gain");
     }
 }
