@@ -52,7 +52,7 @@ final class GridSection implements Section {
             GridTable table = GridTable.of(grid);
             w.element("h3", "Arm " + grid.arm() + " over " + String.join(" × ", keys));
             w.open("div", "class", "multiples");
-            for (Metric m : List.of(Metric.TAIL_RADIUS, Metric.FINAL_GAP, Metric.TEST_LOSS, Metric.TEST_ACCURACY)) {
+            for (Metric m : List.of(analysis.primary(), Metric.TAIL_RADIUS, Metric.TEST_LOSS, Metric.TEST_ACCURACY)) {
                 ArmSummary[] s = analysis.summaries(m);
                 if (s == null) {
                     continue;
