@@ -74,12 +74,13 @@ class ManifestRecordsTest {
         // The grid comes from the manifest alone: its arms have plain names.
         String grid = section(html, "grid");
         assertTrue(grid.contains("<h3>Arm reciprocal over rate × decay</h3>"), grid);
-        assertEquals(4, ReportHtmlTest.count(grid, "class=\"chart heatmap\""), "tail radius, final gap, test loss and "
-                + "test accuracy");
+        assertEquals(4, ReportHtmlTest.count(grid, "class=\"chart heatmap\""), "final gap (primary), tail radius, test "
+                + "loss and test accuracy");
         assertEquals(4, ReportHtmlTest.count(ReportHtmlTest.svg(html, "heatmap-1"), "class=\"cell\""));
+        assertTrue(grid.indexOf("median final gap") < grid.indexOf("median tail radius"), "the primary metric first");
         // Rows are the rate's values, columns the decay's, as written; the cell of rate 0.2, decay 1.0 is arm
         // "faster", whose median tail radius is 0.6 + 0.1 = 0.7.
-        assertTrue(ReportHtmlTest.svg(html, "heatmap-1").contains("<title>rate 0.2, decay 1.0: 0.7</title>"));
+        assertTrue(ReportHtmlTest.svg(html, "heatmap-2").contains("<title>rate 0.2, decay 1.0: 0.7</title>"));
     }
 
     @Test

@@ -118,11 +118,6 @@ public final class Mlp implements Model {
         return activation;
     }
 
-    /** @return a fresh array of the layer widths s_0 = d, the hidden sizes, s_L = K */
-    public int[] layerSizes() {
-        return sizes.clone();
-    }
-
     /** @return where layer l's weights start in θ, for l = 1 … L */
     public int weightOffset(int layer) {
         java.util.Objects.checkIndex(layer - 1, layers);

@@ -22,14 +22,6 @@ final class Check {
         return v;
     }
 
-    /** @return {@code v} when finite and ≥ 0 */
-    static double nonNegative(String kind, String key, double v) {
-        if (!(v >= 0) || !Double.isFinite(v)) {
-            throw bad(kind, key, v, "a finite number ≥ 0");
-        }
-        return v;
-    }
-
     /** @return {@code v} when strictly between 0 and 1 */
     static double openUnit(String kind, String key, double v) {
         if (!(v > 0 && v < 1)) {

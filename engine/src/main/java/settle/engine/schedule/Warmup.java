@@ -28,19 +28,6 @@ public record Warmup(int epochs, long updates) {
         }
     }
 
-    /** @return a warmup over {@code e} epochs (e ≥ 1) */
-    public static Warmup ofEpochs(int e) {
-        return new Warmup(Check.atLeast("warmup", "warmup.epochs", e, 1), 0);
-    }
-
-    /** @return a warmup over {@code w} updates (w ≥ 1) */
-    public static Warmup ofUpdates(long w) {
-        if (w < 1) {
-            throw Check.bad("warmup", "warmup.updates", Long.toString(w), "an integer ≥ 1");
-        }
-        return new Warmup(0, w);
-    }
-
     /** @return true when there is a warmup */
     public boolean present() {
         return epochs > 0 || updates > 0;

@@ -167,13 +167,6 @@ public final class NoiseBallTheory {
     }
 
     /**
-     * @return C̃_ii, the per-example noise variance along eigenvector i (ascending λ), as a copy
-     */
-    public double[] noiseAlongEigenvectors() {
-        return diagonal.clone();
-    }
-
-    /**
      * Runs the mean and covariance recursion over one replicate's updates.
      *
      * <p>From the first update t whose α_t·λmax reaches 2(1 + β) the linearised mean is unstable: the prediction

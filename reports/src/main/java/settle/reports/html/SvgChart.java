@@ -68,11 +68,6 @@ public final class SvgChart {
         return top;
     }
 
-    /** @return the pixel of the plot's bottom edge */
-    public double plotBottom() {
-        return height - bottom;
-    }
-
     /** @return the pixel of the plot's left edge */
     public double plotLeft() {
         return left;
@@ -185,18 +180,6 @@ public final class SvgChart {
             return;
         }
         w.empty("path", "class", cssClass, "d", d.append('Z').toString(), "fill", style.colour(), "stroke", "none");
-    }
-
-    /** A horizontal reference line at data value v with a label at its right end. */
-    public void horizontal(double v, String label) {
-        double b = py(v);
-        if (!Double.isFinite(b) || b < top || b > height - bottom) {
-            return;
-        }
-        w.empty("line", "class", "reference", "x1", n(left), "x2", n(width - right), "y1", n(b), "y2", n(b));
-        if (label != null) {
-            w.element("text", label, "class", "note", "x", n(width - right - 4), "y", n(b - 4), "text-anchor", "end");
-        }
     }
 
     /**

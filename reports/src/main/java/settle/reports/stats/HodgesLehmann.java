@@ -38,23 +38,9 @@ public final class HodgesLehmann {
         if (x.length == 0) {
             return Double.NaN;
         }
-        double[] w = new double[walshCount(x.length)];
-        fillWalsh(x, x.length, w);
-        return Selection.median(w, w.length);
-    }
-
-    /**
-     * The estimate from scratch buffers, for resampling loops: no allocation.
-     *
-     * @param x the values in x[0..n). Not modified.
-     * @param n number of values, at least 1
-     * @param walsh scratch of length ≥ n(n+1)/2. Modified.
-     * @return the median of the Walsh averages of x[0..n)
-     */
-    static double estimate(double[] x, int n, double[] walsh) {
-        int m = walshCount(n);
-        fillWalsh(x, n, walsh);
-        return Selection.median(walsh, m);
+        double[] w = sortedWalshAverages(x);
+        int m = w.length;
+        return (m & 1) == 1 ? w[m / 2] : (w[m / 2 - 1] + w[m / 2]) / 2.0;
     }
 
     /**

@@ -21,9 +21,4 @@ public record SignedRankResult(int pairs, int zeros, int used, double statistic,
             throw new IllegalArgumentException("p-value must be in [0, 1]: " + pValue);
         }
     }
-
-    /** @return the largest value V can take here: n(n+1)/2 for n used differences */
-    public double maximum() {
-        return used * (used + 1) / 2.0;
-    }
 }
