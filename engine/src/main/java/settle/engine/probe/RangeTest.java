@@ -6,6 +6,7 @@ import settle.datasets.Dataset;
 import settle.engine.model.FullBatch;
 import settle.engine.model.Initialisation;
 import settle.engine.model.Model;
+import settle.engine.train.MiniBatchStep;
 import settle.engine.train.ReplicateSeeds;
 import settle.engine.train.SampleOrders;
 import settle.engine.train.Sampling;
@@ -21,8 +22,7 @@ import settle.engine.train.TrainingSettings;
  *
  * <p>The test is Smith's ("Cyclical Learning Rates for Training Neural Networks", WACV 2017, §3.3, which grows
  * the rate linearly over a few epochs); the geometric ramp and the stop at a multiple of the best loss are
- * common practice. Updates follow the trainer's semantics (batch-mean gradient + λ·weights, heavy-ball
- * momentum when set); the loop allocates nothing.
+ * common practice. Updates are the trainer's own ({@link MiniBatchStep}); the loop allocates nothing.
  */
 public final class RangeTest {
 
@@ -87,18 +87,12 @@ public final class RangeTest {
     public Sweep run(ReplicateSeeds seeds) {
         int p = model.parameterCount();
         int n = train.rows();
-        int d = model.inputs();
         int batch = settings.batch();
         Sampling sampling = settings.sampling();
         int capacity = sampling == Sampling.SHUFFLE ? Math.min(batch, n) : batch;
-        Model.Workspace workspace = model.workspace(capacity);
+        MiniBatchStep step = new MiniBatchStep(model, train, capacity, settings.momentum());
         FullBatch full = new FullBatch(model, train);
         double[] theta = new double[p];
-        double[] gradient = new double[p];
-        double beta = settings.momentum();
-        double[] velocity = beta != 0 ? new double[p] : null;
-        double[] x = new double[capacity * d];
-        int[] y = new int[capacity];
         int[] order = new int[SampleOrders.length(sampling, n, batch)];
         int perEpoch = settings.updatesPerEpoch(n);
         double[] rates = new double[updates];
@@ -115,20 +109,9 @@ public final class RangeTest {
             }
             int start = u * batch;
             int rows = Math.min(batch, order.length - start);
-            train.copyRows(order, start, rows, x, 0, y);
             double rate = rate(t);
-            model.batchObjective(theta, x, y, rows, gradient, workspace);
-            if (velocity == null) {
-                for (int i = 0; i < p; i++) {
-                    theta[i] -= rate * gradient[i];
-                }
-            } else {
-                for (int i = 0; i < p; i++) {
-                    double v = beta * velocity[i] + gradient[i];
-                    velocity[i] = v;
-                    theta[i] -= rate * v;
-                }
-            }
+            step.load(theta, order, start, rows);
+            step.apply(theta, rate);
             double f = full.objective(theta);
             rates[run] = rate;
             objectives[run] = f;

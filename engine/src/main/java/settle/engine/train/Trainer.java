@@ -157,18 +157,13 @@ public final class Trainer {
         private final Consumer<EpochRecord> listener;
         private final int p = model.parameterCount();
         private final int n = train.rows();
-        private final int d = model.inputs();
         private final int batch = settings.batch();
         private final int batchCapacity = settings.sampling() == Sampling.SHUFFLE ? Math.min(batch, n) : batch;
-        private final Model.Workspace workspace = model.workspace(batchCapacity);
+        private final MiniBatchStep step = new MiniBatchStep(model, train, batchCapacity, settings.momentum());
         private final FullBatch onTrain = new FullBatch(model, train);
         private final FullBatch onTest = test == null ? null : new FullBatch(model, test);
         private final FullBatch onHoldout = holdout == null ? null : new FullBatch(model, holdout);
         private final double[] theta = new double[p];
-        private final double[] gradient = new double[p];
-        private final double[] velocity = settings.momentum() != 0 ? new double[p] : null;
-        private final double[] x = new double[batchCapacity * d];
-        private final int[] y = new int[batchCapacity];
         private final int[] order = new int[orderLength()];
         private final double[] scratch = new double[p];
         private final TailRecorder tail = new TailRecorder(tailPlan, p, reference == null ? null : reference.theta(),
@@ -206,7 +201,6 @@ public final class Trainer {
             }
             double limit = f0 > 0 ? DIVERGENCE_FACTOR * f0 : Double.MAX_VALUE;
             RateDriver driver = schedule.start(shape());
-            double beta = settings.momentum();
             long t = 0;
             long divergedAt = 0;
 
@@ -222,28 +216,17 @@ public final class Trainer {
                     long update = t + 1;
                     int from = u * batch;
                     int rows = Math.min(batch, order.length - from);
-                    train.copyRows(order, from, rows, x, 0, y);
                     rate = driver.rate(epoch, update);
                     if (!(rate >= 0) || rate == Double.POSITIVE_INFINITY) {
                         throw new IllegalStateException("schedule " + schedule.kind() + " gave rate " + rate
                                 + " for update " + update);
                     }
-                    double loss = model.batchObjective(theta, x, y, rows, gradient, workspace);
+                    double loss = step.load(theta, order, from, rows);
                     if (!(loss <= limit)) {
                         divergedAt = update;
                         break training;
                     }
-                    if (velocity == null) {
-                        for (int i = 0; i < p; i++) {
-                            theta[i] -= rate * gradient[i];
-                        }
-                    } else {
-                        for (int i = 0; i < p; i++) {
-                            double v = beta * velocity[i] + gradient[i];
-                            velocity[i] = v;
-                            theta[i] -= rate * v;
-                        }
-                    }
+                    step.apply(theta, rate);
                     t = update;
                     rates[(int) (t - 1)] = rate;
                     if (tail.inTail(t)) {
