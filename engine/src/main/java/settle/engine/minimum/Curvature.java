@@ -83,7 +83,7 @@ public final class Curvature {
                     + model.parameterCount() + " parameters");
         }
         Objective objective = new Objective(model, x, y, 0.0);
-        Gauge gauge = Gauge.of(objective.layout, objective.l2, 0.0);
+        GaugeBasis gauge = GaugeBasis.of(objective.layout, objective.l2, 0.0);
         double[] theta = thetaStar.clone();
         DMatrixRMaj fullHessian = objective.hessian(theta);
         DMatrixRMaj fullCovariance = objective.covariance(theta);

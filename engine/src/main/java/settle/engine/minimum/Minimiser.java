@@ -10,7 +10,7 @@ import settle.engine.model.Model;
  * The exact minimiser θ* of the full-batch objective of a logistic model (binary or multinomial):
  * F(θ) = (1/N) Σ loss_i(θ) + (λ/2)‖weights‖², biases unpenalised.
  *
- * <p>Up to {@link #DENSE_LIMIT} parameters: Newton's method on the gauge-free subspace (see {@link Gauge}) —
+ * <p>Up to {@link #DENSE_LIMIT} parameters: Newton's method on the gauge-free subspace (see {@link GaugeBasis}) —
  * the closed-form Hessian in reduced coordinates, solved by Cholesky (EJML), with a backtracking (Armijo)
  * line search. Beyond: L-BFGS (memory {@value #MEMORY}) with the same line search, iterates kept on the
  * gauge-free subspace. Both start from θ = 0 and stop when ‖∇F‖∞ ≤ {@value #GRADIENT_TOLERANCE}.
@@ -104,7 +104,7 @@ public final class Minimiser {
      */
     public Minimum minimise(Model model, double[] x, int[] y) {
         Objective objective = new Objective(model, x, y, biasPenalty);
-        Gauge gauge = Gauge.of(objective.layout, objective.l2, biasPenalty);
+        GaugeBasis gauge = GaugeBasis.of(objective.layout, objective.l2, biasPenalty);
         if (objective.parameters() <= denseLimit) {
             return newton(objective, gauge);
         }
@@ -159,7 +159,7 @@ public final class Minimiser {
         return new Minimum(theta, f, norm, iterations, method, norm <= GRADIENT_TOLERANCE);
     }
 
-    private Minimum newton(Objective objective, Gauge gauge) {
+    private Minimum newton(Objective objective, GaugeBasis gauge) {
         int p = objective.parameters();
         int free = gauge.freeDimension();
         double[] theta = new double[p];
@@ -243,7 +243,7 @@ public final class Minimiser {
      * {@code trialGradient} hold the accepted point and its (projected) gradient and F there is returned;
      * NaN when no step improves.
      */
-    private static double lineSearch(Objective objective, Gauge gauge, double[] theta, double f, double norm,
+    private static double lineSearch(Objective objective, GaugeBasis gauge, double[] theta, double f, double norm,
                                      double[] direction, double slope, double[] trial, double[] trialGradient) {
         int p = theta.length;
         double t = 1.0;
@@ -268,7 +268,7 @@ public final class Minimiser {
         return Double.NaN;
     }
 
-    private Minimum lbfgs(Objective objective, Gauge gauge) {
+    private Minimum lbfgs(Objective objective, GaugeBasis gauge) {
         int p = objective.parameters();
         double[] theta = new double[p];
         double[] gradient = new double[p];

@@ -342,7 +342,7 @@ public final class Mlp implements Model {
     @Override
     public void removeGauge(double[] theta) {
         Starts.checkLength("θ", theta, parameterCount);
-        Gauge.centreOutputs(theta, weightOffset[layers], sizes[layers], sizes[layers - 1], biasOffset[layers],
+        SoftmaxCentring.centreOutputs(theta, weightOffset[layers], sizes[layers], sizes[layers - 1], biasOffset[layers],
                 l2 == 0.0);
     }
 }

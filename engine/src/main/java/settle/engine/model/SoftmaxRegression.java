@@ -206,6 +206,6 @@ public final class SoftmaxRegression implements Model {
     @Override
     public void removeGauge(double[] theta) {
         Starts.checkLength("θ", theta, parameterCount());
-        Gauge.centreOutputs(theta, 0, classes, inputs, biasOffset, l2 == 0.0);
+        SoftmaxCentring.centreOutputs(theta, 0, classes, inputs, biasOffset, l2 == 0.0);
     }
 }

@@ -95,7 +95,7 @@ class CurvatureTest {
                 }
             }
         }
-        Gauge gauge = Gauge.of(model);
+        GaugeBasis gauge = GaugeBasis.of(model);
         DMatrixRMaj expected = gauge.project(direct);
         Curvature curvature = Curvature.at(model, data.x(), data.y(), theta);
         DMatrixRMaj actual = curvature.covariance();
@@ -199,7 +199,7 @@ class CurvatureTest {
 
     @Test
     void gaugeBasisIsOrthonormalAndSpansTheCentredVectors() {
-        Gauge gauge = Gauge.of(new SoftmaxRegression(3, 4, 0.0));
+        GaugeBasis gauge = GaugeBasis.of(new SoftmaxRegression(3, 4, 0.0));
         DMatrixRMaj b = gauge.basis();
         int p = 16;
         assertEquals(4, gauge.dimension());
@@ -224,8 +224,8 @@ class CurvatureTest {
         double[] centred = v.clone();
         gauge.project(centred);
         assertTrue(Fixtures.maxAbsDifference(centred, back) <= ROUNDING_TOLERANCE);
-        assertEquals(0, Gauge.of(new BinaryLogistic(3, 0.0)).dimension());
-        assertEquals(1, Gauge.of(new SoftmaxRegression(3, 4, 0.5)).dimension());
+        assertEquals(0, GaugeBasis.of(new BinaryLogistic(3, 0.0)).dimension());
+        assertEquals(1, GaugeBasis.of(new SoftmaxRegression(3, 4, 0.5)).dimension());
     }
 
     @Test

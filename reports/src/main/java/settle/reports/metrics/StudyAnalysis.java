@@ -275,7 +275,7 @@ public final class StudyAnalysis {
      */
     private void armLevel() {
         int arms = study.armCount();
-        Gauge gauge = gauge();
+        GaugeProjection gauge = gauge();
         for (int a = 0; a < arms; a++) {
             List<Replicate> finished = new ArrayList<>();
             for (Replicate r : study.replicates().get(a)) {
@@ -326,9 +326,9 @@ public final class StudyAnalysis {
     }
 
     /** @return the gauge of the study's model: weights centred too when its penalty λ (the manifest's) is 0 */
-    private Gauge gauge() {
+    private GaugeProjection gauge() {
         var m = study.manifest();
         int gaugeDimension = study.reference() == null ? -1 : study.reference().gaugeDimension();
-        return Gauge.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, m.l2() == 0.0);
+        return GaugeProjection.of(m.parameters(), m.featureNames().size(), m.classes(), gaugeDimension, m.l2() == 0.0);
     }
 }

@@ -61,11 +61,11 @@ class SpreadTest {
         // Softmax, d = 1 feature, K = 3 classes: (w0, w1, w2, b0, b1, b2).
         double[] theta = {1, 2, 3, 4, 5, 9};
         // Biases 4, 5, 9 (mean 6) → −2, −1, 3; weights 1, 2, 3 (mean 2) → −1, 0, 1 when λ = 0.
-        assertArrayEquals(new double[] {1, 2, 3, -2, -1, 3}, Gauge.of(6, 1, 3, 1, false).project(theta), TIGHT);
-        assertArrayEquals(new double[] {-1, 0, 1, -2, -1, 3}, Gauge.of(6, 1, 3, 2, false).project(theta), TIGHT);
+        assertArrayEquals(new double[] {1, 2, 3, -2, -1, 3}, GaugeProjection.of(6, 1, 3, 1, false).project(theta), TIGHT);
+        assertArrayEquals(new double[] {-1, 0, 1, -2, -1, 3}, GaugeProjection.of(6, 1, 3, 2, false).project(theta), TIGHT);
         // Unknown dimension (curvature skipped): biases always, weights when the manifest's model_l2 is 0.
-        assertArrayEquals(new double[] {-1, 0, 1, -2, -1, 3}, Gauge.of(6, 1, 3, -1, true).project(theta), TIGHT);
+        assertArrayEquals(new double[] {-1, 0, 1, -2, -1, 3}, GaugeProjection.of(6, 1, 3, -1, true).project(theta), TIGHT);
         // Binary logistic (d + 1 parameters) has no gauge.
-        assertArrayEquals(new double[] {1, 2}, Gauge.of(2, 1, 2, 0, true).project(new double[] {1, 2}), TIGHT);
+        assertArrayEquals(new double[] {1, 2}, GaugeProjection.of(2, 1, 2, 0, true).project(new double[] {1, 2}), TIGHT);
     }
 }

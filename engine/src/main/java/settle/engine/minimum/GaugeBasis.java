@@ -16,13 +16,13 @@ import settle.engine.model.Model;
  * then for each group the K − 1 Helmert coordinates r_m = (v_0 + … + v_(m−1) − m·v_m)/√(m(m+1)), m = 1..K−1
  * (an orthonormal basis of the centred vectors, common practice).
  */
-public final class Gauge {
+public final class GaugeBasis {
 
     private final int parameters;
     private final int[] loose;
     private final int[][] groups;
 
-    private Gauge(int parameters, int[] loose, int[][] groups) {
+    private GaugeBasis(int parameters, int[] loose, int[][] groups) {
         this.parameters = parameters;
         this.loose = loose;
         this.groups = groups;
@@ -33,15 +33,15 @@ public final class Gauge {
      *
      * @throws IllegalArgumentException when the model is not logistic
      */
-    public static Gauge of(Model model) {
+    public static GaugeBasis of(Model model) {
         return of(Layout.of(model), model.l2(), 0.0);
     }
 
-    static Gauge of(Layout layout, double l2, double biasPenalty) {
+    static GaugeBasis of(Layout layout, double l2, double biasPenalty) {
         int d = layout.inputs;
         int k = layout.classes;
         if (layout.binary) {
-            return new Gauge(layout.parameters, identity(layout.parameters), new int[0][]);
+            return new GaugeBasis(layout.parameters, identity(layout.parameters), new int[0][]);
         }
         boolean weights = l2 == 0.0;
         boolean biases = biasPenalty == 0.0;
@@ -68,7 +68,7 @@ public final class Gauge {
                 loose[l++] = i;
             }
         }
-        return new Gauge(layout.parameters, loose, groups);
+        return new GaugeBasis(layout.parameters, loose, groups);
     }
 
     private static int[] identity(int n) {

@@ -1,9 +1,9 @@
 package settle.engine.model;
 
 /** The softmax gauge: adding one constant to every class score leaves every probability unchanged. */
-final class Gauge {
+final class SoftmaxCentring {
 
-    private Gauge() {
+    private SoftmaxCentring() {
     }
 
     /**

@@ -7,7 +7,7 @@ package settle.reports.metrics;
  * (and the K weight vectors, feature by feature). Layout: class 0's d weights, class 1's, …, then the K
  * biases. Binary logistic regression (d weights, one bias) has no gauge.
  */
-public final class Gauge {
+public final class GaugeProjection {
 
     private final int features;
     private final int classes;
@@ -20,7 +20,7 @@ public final class Gauge {
      * @param biases centre the class biases
      * @param weights centre the class weights (λ = 0)
      */
-    public Gauge(int features, int classes, boolean biases, boolean weights) {
+    public GaugeProjection(int features, int classes, boolean biases, boolean weights) {
         this.features = features;
         this.classes = classes;
         this.biases = biases;
@@ -28,8 +28,8 @@ public final class Gauge {
     }
 
     /** @return the projection that changes nothing */
-    public static Gauge none() {
-        return new Gauge(0, 0, false, false);
+    public static GaugeProjection none() {
+        return new GaugeProjection(0, 0, false, false);
     }
 
     /**
@@ -44,14 +44,14 @@ public final class Gauge {
      * @param l2IsZero whether the plan's penalty is zero (used only when the dimension is unknown)
      * @return the projection
      */
-    public static Gauge of(int parameters, int features, int classes, int gaugeDimension, boolean l2IsZero) {
+    public static GaugeProjection of(int parameters, int features, int classes, int gaugeDimension, boolean l2IsZero) {
         if (classes < 3 || parameters != classes * features + classes) {
             return none();
         }
         if (gaugeDimension >= 0) {
-            return new Gauge(features, classes, gaugeDimension >= 1, gaugeDimension >= features + 1);
+            return new GaugeProjection(features, classes, gaugeDimension >= 1, gaugeDimension >= features + 1);
         }
-        return new Gauge(features, classes, true, l2IsZero);
+        return new GaugeProjection(features, classes, true, l2IsZero);
     }
 
     /** @return true when the projection changes something */
