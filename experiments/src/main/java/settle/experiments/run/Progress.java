@@ -41,12 +41,28 @@ public final class Progress {
         this.lastShown = start - LINE_INTERVAL_NANOS;
     }
 
-    /** @return BAR when stderr is an interactive terminal, LINES otherwise, QUIET when asked */
+    /**
+     * @return BAR when stderr is an interactive terminal, LINES otherwise, QUIET when asked. The launcher says
+     *     which stderr is ({@code -Dsettle.stderr=terminal|file}: `2>log` on a terminal gets lines, not a log full of
+     *     carriage-return redraws); without it (java -jar by hand) the JVM's console check, which looks at stdin
+     *     and stdout, decides
+     */
     public static Mode choose(boolean quiet) {
+        return choose(quiet, System.getProperty("settle.stderr"), System.console() != null);
+    }
+
+    /** {@link #choose(boolean)} from what is known of stderr: the launcher's word, else the console check. */
+    static Mode choose(boolean quiet, String stderrKind, boolean console) {
         if (quiet) {
             return Mode.QUIET;
         }
-        return System.console() != null ? Mode.BAR : Mode.LINES;
+        if ("terminal".equals(stderrKind)) {
+            return Mode.BAR;
+        }
+        if ("file".equals(stderrKind)) {
+            return Mode.LINES;
+        }
+        return console ? Mode.BAR : Mode.LINES;
     }
 
     /** Records a finished replicate and redraws when due. */
