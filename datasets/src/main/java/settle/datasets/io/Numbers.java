@@ -26,6 +26,17 @@ public final class Numbers {
 
     /** @return one of {@link #OK}, {@link #EMPTY}, {@link #MISSING}, {@link #INFINITE}, {@link #INVALID} */
     public static int classify(String text) {
+        int kind = spelling(text);
+        return kind == OK && !Double.isFinite(parse(text)) ? INFINITE : kind;
+    }
+
+    /**
+     * As {@link #classify} from the spelling alone, without parsing: a well-formed number that overflows a double
+     * ({@code 1e999}) is {@link #OK} here.
+     *
+     * @return one of {@link #OK}, {@link #EMPTY}, {@link #MISSING}, {@link #INFINITE}, {@link #INVALID}
+     */
+    public static int spelling(String text) {
         String s = text.strip();
         if (s.isEmpty()) {
             return EMPTY;
@@ -44,7 +55,7 @@ public final class Numbers {
                     return INVALID;
             }
         }
-        return Double.isFinite(Double.parseDouble(s)) ? OK : INFINITE;
+        return OK;
     }
 
     /** @return the value of text that {@link #classify} accepts as {@link #OK} */
