@@ -5,7 +5,6 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import settle.datasets.io.CsvReader;
 import settle.datasets.io.LibsvmReader;
 import settle.datasets.synthetic.Synthetic;
 import settle.datasets.table.SourceTable;
@@ -56,23 +55,7 @@ public final class DataSources {
         }
         String s = source.strip();
         if (s.startsWith("csv:")) {
-            String rest = s.substring(4);
-            char delimiter = CsvReader.DETECT;
-            int q = rest.lastIndexOf('?');
-            if (q >= 0 && rest.startsWith("delimiter=", q + 1)) {
-                String d = rest.substring(q + 1 + "delimiter=".length());
-                delimiter = switch (d) {
-                    case "comma", "," -> ',';
-                    case "semicolon", ";" -> ';';
-                    case "tab" -> '\t';
-                    case "auto" -> CsvReader.DETECT;
-                    default -> throw new DataException(source + ": delimiter '" + d
-                            + "' is not accepted; expected comma, semicolon, tab or auto");
-                };
-                rest = rest.substring(0, q);
-            }
-            String path = requirePath(source, rest);
-            return CsvReader.read(resolve(path, relativeTo), path, labelColumn, delimiter);
+            return prepare(source, labelColumn, TableOptions.DEFAULTS, relativeTo, SplitRule.NONE).all();
         }
         if (s.startsWith("libsvm:")) {
             String path = requirePath(source, s.substring(7));

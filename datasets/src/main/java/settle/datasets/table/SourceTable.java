@@ -18,7 +18,7 @@ public final class SourceTable {
 
     /** What the reader saw in one column, for messages and for {@code settle check}. */
     record ColumnFacts(int missing, long firstMissingLine, int numberCells, int textCells, long firstTextLine,
-            String firstText) {
+            String firstText, int notationCells, long firstNotationLine, String firstNotation) {
     }
 
     private final String name;

@@ -253,8 +253,8 @@ public final class TableEncoder {
                 }
             }
         }
-        StringBuilder b = new StringBuilder(table.name()).append(": ").append(rowsWithGaps).append(" of ")
-                .append(table.rows()).append(" rows have missing cells (").append(MISSING_SPELLINGS).append("): ");
+        StringBuilder b = new StringBuilder(table.name()).append(": missing cells (").append(MISSING_SPELLINGS)
+                .append(") in ").append(rowsWithGaps).append(" of ").append(table.rows()).append(" rows: ");
         int shown = Math.min(columns.length, 8);
         for (int i = 0; i < shown; i++) {
             int c = columns[i];
@@ -269,9 +269,9 @@ public final class TableEncoder {
         if (columns.length > shown) {
             b.append(" and ").append(columns.length - shown).append(" more columns");
         }
-        b.append("; data.missing is refuse; expected data.missing: drop-rows (drops those rows from each split) or"
-                + " impute (training medians plus a was-missing column for numbers, a level of its own for"
-                + " categories)");
+        b.append("; expected none under data.missing: refuse (the default), or data.missing: drop-rows (drops those"
+                + " rows from each split) or impute (training medians plus a was-missing column for numbers, a level"
+                + " of its own for categories)");
         throw DataException.forKey("missing", b.toString());
     }
 
@@ -331,6 +331,15 @@ public final class TableEncoder {
             }
             return new Encoding.Feature(name, Encoding.Kind.NUMBER, false, List.of(), false, median,
                     impute && trainingGaps > 0);
+        }
+        SourceTable.ColumnFacts facts = table.facts(c);
+        if (!table.numeric(c) && !forced && facts.textCells() == 0) {
+            // numbers in another notation (1,5  12%  4.5d): a column of numbers the file spells differently
+            throw DataException.forKey("categorical", DataException.at(table.name(), facts.firstNotationLine(),
+                    c + 1, name, "expected a number, found " + DataException.shown(facts.firstNotation())
+                    + "; settle reads numbers with a decimal point and without thousands separators, '%' or"
+                    + " suffixes: convert the column, or list it in data.categorical if it holds categories")
+                    .getMessage());
         }
         List<String> levels;
         if (table.numeric(c)) {

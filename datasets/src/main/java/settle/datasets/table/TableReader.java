@@ -27,7 +27,8 @@ import tech.tablesaw.columns.Column;
  *
  * <p>The first pass checks the structure (header, field counts, labels) and types every column: a column is a
  * number column when each of its cells is a number ({@link Numbers}: quoted numbers count) or missing, and a text
- * column otherwise. Missing cells are empty ones and the spellings {@code NaN}, {@code NA}, {@code N/A},
+ * column otherwise (a column whose only non-numbers are numbers in another notation, such as {@code 1,5} or
+ * {@code 12%}, is refused later unless {@code data.categorical} lists it). Missing cells are empty ones and the spellings {@code NaN}, {@code NA}, {@code N/A},
  * {@code null}, {@code none}, {@code ?} (any case). The second pass fills each number column into a
  * {@link DoubleColumn} sized from the first pass (NaN where missing), and each text column into a dictionary-encoded
  * {@link StringColumn}. Peak memory is one copy of the numbers (8 bytes a cell) plus one column while it is
@@ -116,6 +117,9 @@ public final class TableReader {
         String[] firstText;
         long[] firstInfiniteLine;
         String[] firstInfinite;
+        int[] notations;
+        long[] firstNotationLine;
+        String[] firstNotation;
         LabelIndex labels;
     }
 
@@ -171,6 +175,9 @@ public final class TableReader {
         s.firstText = new String[width];
         s.firstInfiniteLine = new long[width];
         s.firstInfinite = new String[width];
+        s.notations = new int[width];
+        s.firstNotationLine = new long[width];
+        s.firstNotation = new String[width];
         LabelIndex labels = new LabelIndex();
         List<String> fields = new ArrayList<>(width);
         String labelName = header.get(labelAt);
@@ -218,7 +225,12 @@ public final class TableReader {
                         }
                     }
                     default -> {
-                        if (s.texts[c]++ == 0) {
+                        if (Numbers.otherNotation(cell)) {
+                            if (s.notations[c]++ == 0) {
+                                s.firstNotation[c] = cell;
+                                s.firstNotationLine[c] = line;
+                            }
+                        } else if (s.texts[c]++ == 0) {
                             s.firstText[c] = cell;
                             s.firstTextLine[c] = line;
                         }
@@ -245,7 +257,7 @@ public final class TableReader {
         long worstLine = Long.MAX_VALUE;
         int worst = -1;
         for (int c = 0; c < width; c++) {
-            if (c != labelAt && s.texts[c] == 0 && s.firstInfinite[c] != null && s.firstInfiniteLine[c] < worstLine) {
+            if (c != labelAt && s.texts[c] + s.notations[c] == 0 && s.firstInfinite[c] != null && s.firstInfiniteLine[c] < worstLine) {
                 worstLine = s.firstInfiniteLine[c];
                 worst = c;
             }
@@ -267,7 +279,7 @@ public final class TableReader {
             if (c == s.labelAt) {
                 continue;
             }
-            if (s.texts[c] == 0) {
+            if (s.texts[c] + s.notations[c] == 0) {
                 numbers[c] = new double[s.rows];
             } else {
                 texts[c] = StringColumn.create(s.header.get(c));
@@ -329,7 +341,7 @@ public final class TableReader {
                 columns[c] = texts[c];
             }
             facts[c] = new SourceTable.ColumnFacts(s.missing[c], s.firstMissing[c], s.numbers[c], s.texts[c],
-                    s.firstTextLine[c], s.firstText[c]);
+                    s.firstTextLine[c], s.firstText[c], s.notations[c], s.firstNotationLine[c], s.firstNotation[c]);
         }
         return new SourceTable(src, s.header, s.labelAt, s.headerLine, columns, facts, s.labels.labels(),
                 s.labels.classNames());
