@@ -83,13 +83,24 @@ public final class TableEncoder {
                     dropped[p] = parts[p].length - kept.length;
                     parts[p] = kept;
                 }
-                checkTrainingClasses(table, parts[0], dropped[0]);
             }
             case IMPUTE -> { }
             default -> throw new IllegalStateException();
         }
-        if (parts[0].length == 0) {
-            throw DataException.forKey("missing", src + ": no training rows are left; expected some");
+        String[] partNames = {"training", "holdout", "test"};
+        int[][] given = {train, holdout, test};
+        for (int p = 0; p < 3; p++) {
+            if (given[p].length > 0 && parts[p].length == 0) {
+                throw DataException.forKey("missing", src + ": data.missing: drop-rows dropped all " + given[p].length
+                        + " " + partNames[p] + " rows; expected some left (data.missing: impute, or data.drop the"
+                        + " columns with the most gaps)");
+            }
+        }
+        if (options.missing() == TableOptions.Missing.DROP_ROWS) {
+            checkTrainingClasses(table, parts[0], dropped[0]);
+        }
+        if (options.missing() == TableOptions.Missing.DROP_ROWS) {
+            checkTrainingClasses(table, parts[0], dropped[0]);
         }
 
         List<Encoding.Feature> fitted = new ArrayList<>();
@@ -130,7 +141,6 @@ public final class TableEncoder {
         Dataset all = new Dataset(src, x, labels, encoding.outputs(), table.classNames());
         x = null; // the dataset holds its own copy
 
-        String[] partNames = {"training", "holdout", "test"};
         List<TableReport.PartReport> partReports = new ArrayList<>();
         int[][] positions = new int[3][];
         for (int p = 0; p < 3; p++) {
@@ -145,16 +155,17 @@ public final class TableEncoder {
             }
         }
         if (options.missing() == TableOptions.Missing.DROP_ROWS && (dropped[0] + dropped[1] + dropped[2]) > 0) {
-            warnings.add("data.missing: drop-rows dropped " + dropped[0] + " of " + train.length + " training"
+            warnings.add(src + ": data.missing: drop-rows dropped " + dropped[0] + " of " + train.length + " training"
                     + (holdout.length > 0 ? ", " + dropped[1] + " of " + holdout.length + " holdout" : "")
                     + (test.length > 0 ? ", " + dropped[2] + " of " + test.length + " test" : "") + " rows");
         }
         for (int p = 1; p < 3; p++) {
             for (int j = 0; j < features.size(); j++) {
                 if (unseen[p][j] > 0) {
-                    warnings.add(partNames[p] + " split: " + unseen[p][j] + " cell" + (unseen[p][j] == 1 ? "" : "s")
-                            + " of " + DataException.shown(encoding.columns().get(j).name())
-                            + " hold a value the training split does not have; encoded as zeros");
+                    warnings.add(src + ": " + partNames[p] + " split: " + unseen[p][j] + " cell"
+                            + (unseen[p][j] == 1 ? " of " : "s of ") + DataException.shown(encoding.columns().get(j)
+                            .name()) + (unseen[p][j] == 1 ? " holds" : " hold") + " a value (or gap) the training"
+                            + " split does not have; encoded as zeros");
                 }
             }
         }
@@ -261,10 +272,8 @@ public final class TableEncoder {
             if (i > 0) {
                 b.append(", ");
             }
-            b.append(DataException.shown(table.columnNames().get(c))).append(' ').append(table.missingCells(c));
-            if (i == 0) {
-                b.append(" (first on line ").append(table.facts(c).firstMissingLine()).append(')');
-            }
+            b.append(DataException.shown(table.columnNames().get(c))).append(' ').append(table.missingCells(c))
+                    .append(" (first on line ").append(table.facts(c).firstMissingLine()).append(')');
         }
         if (columns.length > shown) {
             b.append(" and ").append(columns.length - shown).append(" more columns");
