@@ -26,6 +26,7 @@ public final class SourceTable {
     private final int labelColumn;
     private final long headerLine;
     private final Column<?>[] columns;
+    private final boolean[] numeric;
     private final ColumnFacts[] facts;
     private final int[] labels;
     private final List<String> classNames;
@@ -38,6 +39,10 @@ public final class SourceTable {
         this.labelColumn = labelColumn;
         this.headerLine = headerLine;
         this.columns = columns;
+        this.numeric = new boolean[columns.length];
+        for (int c = 0; c < columns.length; c++) {
+            numeric[c] = columns[c] instanceof DoubleColumn;
+        }
         this.facts = facts;
         this.labels = labels;
         this.classNames = List.copyOf(classNames);
@@ -90,7 +95,7 @@ public final class SourceTable {
 
     /** @return true when every non-missing cell of column {@code c} is a number (never for the label) */
     public boolean numeric(int c) {
-        return columns[c] instanceof DoubleColumn;
+        return numeric[c];
     }
 
     /** @return column {@code c}'s values, NaN where missing; only for {@link #numeric} columns */

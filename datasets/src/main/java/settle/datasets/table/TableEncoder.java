@@ -241,7 +241,7 @@ public final class TableEncoder {
             int c = table.columnNames().indexOf(name);
             if (c < 0) {
                 throw DataException.forKey(key, table.name() + ": data." + key + " names " + DataException.shown(name)
-                        + ", which is not a column; the columns are: " + String.join(", ", table.columnNames()));
+                        + ", which is not a column; expected one of: " + String.join(", ", table.columnNames()));
             }
             out.add(c);
         }

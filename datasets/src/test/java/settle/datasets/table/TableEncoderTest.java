@@ -284,7 +284,7 @@ class TableEncoderTest {
         String text = "a,b,y\n1,2,p\n3,4,q\n";
         Object[][] cases = {
             {options(List.of("a", "z"), List.of(), List.of(), 50, TableOptions.Missing.REFUSE), "features",
-                "t.csv: data.features names 'z', which is not a column; the columns are: a, b, y"},
+                "t.csv: data.features names 'z', which is not a column; expected one of: a, b, y"},
             {options(List.of("a", "y"), List.of(), List.of(), 50, TableOptions.Missing.REFUSE), "features",
                 "t.csv: data.features names the label column 'y'; expected feature columns only"},
             {options(List.of("a", "a"), List.of(), List.of(), 50, TableOptions.Missing.REFUSE), "features",
