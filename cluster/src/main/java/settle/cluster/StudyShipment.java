@@ -4,6 +4,7 @@ import java.io.Serializable;
 import java.nio.file.Path;
 import java.util.List;
 import settle.datasets.Dataset;
+import settle.datasets.PreparedData;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanParser;
@@ -12,9 +13,9 @@ import settle.experiments.study.StudyContext;
 
 /**
  * What the driver broadcasts to every executor once per run: the resolved plan (its canonical YAML text and
- * hash) and every row of its data as read on the driver. An executor never reads the data source: it splits
- * the shipped rows with {@link PlanData#split} (the same seeded, stratified split as the driver) and builds
- * its {@link StudyContext} from them, once per deserialised broadcast value, that is once per executor JVM
+ * hash), every kept row of its data as the driver read and encoded it, and which of those rows form each split.
+ * An executor never reads the data source nor splits it again: it builds the splits from the shipped rows and parts
+ * with {@link PlanData#of} and its {@link StudyContext} from them, once per deserialised broadcast value, that is once per executor JVM
  * while Spark keeps the value in memory. Building it is deterministic, so every executor trains the same
  * bytes the driver would.
  */
@@ -30,6 +31,9 @@ final class StudyShipment implements Serializable {
     private final int[] labels;
     private final String[] featureNames;
     private final String[] classNames;
+    private final int[] trainRows;
+    private final int[] holdoutRows;
+    private final int[] testRows;
 
     /** Built on first use in each JVM that holds this value; never shipped. */
     private transient StudyContext context;
@@ -45,6 +49,10 @@ final class StudyShipment implements Serializable {
         this.labels = all.labels();
         this.featureNames = all.featureNames().toArray(new String[0]);
         this.classNames = all.classNames().toArray(new String[0]);
+        PreparedData parts = context.data().prepared();
+        this.trainRows = parts.train();
+        this.holdoutRows = parts.holdout();
+        this.testRows = parts.test();
     }
 
     /** @return the study's name, for the application name */
@@ -52,9 +60,9 @@ final class StudyShipment implements Serializable {
         return PlanParser.read(planYaml, planFile, Path.of("")).plan().study();
     }
 
-    /** @return the number of bytes of data this shipment carries (features and labels) */
+    /** @return the number of bytes of data this shipment carries (features, labels and the split rows) */
     long dataBytes() {
-        return 8L * features.length + 4L * labels.length;
+        return 8L * features.length + 4L * (labels.length + trainRows.length + holdoutRows.length + testRows.length);
     }
 
     /**
@@ -71,7 +79,8 @@ final class StudyShipment implements Serializable {
                         + readBack + ", not the driver's " + planSha256);
             }
             Dataset all = new Dataset(dataName, features, labels, List.of(featureNames), List.of(classNames));
-            context = StudyContext.build(parsed, PlanData.split(parsed, all));
+            context = StudyContext.build(parsed, PlanData.of(parsed, new PreparedData(all, trainRows, holdoutRows,
+                    testRows, null, List.of())));
         }
         return context;
     }

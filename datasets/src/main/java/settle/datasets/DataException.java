@@ -11,15 +11,41 @@ public final class DataException extends IllegalArgumentException {
 
     private static final long serialVersionUID = 1L;
 
+    /** The plan key under {@code data} the problem belongs to ({@code missing}, {@code features}, …), or null. */
+    private final String key;
+
     /** @param message one line: where, what is wrong, what is accepted */
     public DataException(String message) {
         super(message);
+        this.key = null;
+    }
+
+    private DataException(String key, String message) {
+        super(message);
+        this.key = key;
+    }
+
+    /**
+     * A problem that one of a plan's {@code data} keys can fix or caused, so a plan error can point at it.
+     *
+     * @param key the key under {@code data}, e.g. {@code missing} for {@code data.missing}
+     * @param message one line: where, what is wrong, what is accepted
+     * @return the exception
+     */
+    public static DataException forKey(String key, String message) {
+        return new DataException(key, message);
+    }
+
+    /** @return the key under {@code data} this problem belongs to, or null when it is the source's own */
+    public String key() {
+        return key;
     }
 
     /** @param message one line: where, what is wrong, what is accepted
      *  @param cause the underlying failure (kept for debugging; the message stands alone) */
     public DataException(String message, Throwable cause) {
         super(message, cause);
+        this.key = null;
     }
 
     /**

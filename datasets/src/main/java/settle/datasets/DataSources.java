@@ -5,15 +5,19 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import settle.datasets.io.CsvReader;
 import settle.datasets.io.LibsvmReader;
 import settle.datasets.synthetic.Synthetic;
+import settle.datasets.table.SourceTable;
+import settle.datasets.table.TableEncoder;
+import settle.datasets.table.TableOptions;
+import settle.datasets.table.TableReader;
 
 /**
  * Turns a data source string (a plan's {@code data.source}, the {@code --data} option) into a {@link Dataset}.
  *
  * <pre>
- *   csv:PATH                    a CSV file with a header row (delimiter detected)
+ *   csv:PATH                    a CSV table with a header row (delimiter detected; text columns are
+ *                               categorical; see {@link #prepare} for the plan's column keys)
  *   csv:PATH?delimiter=D        D = comma | semicolon | tab | auto
  *   libsvm:PATH                 a LIBSVM / SVMlight text file
  *   bundled:NAME                wdbc | iris | wine | optdigits
@@ -51,23 +55,7 @@ public final class DataSources {
         }
         String s = source.strip();
         if (s.startsWith("csv:")) {
-            String rest = s.substring(4);
-            char delimiter = CsvReader.DETECT;
-            int q = rest.lastIndexOf('?');
-            if (q >= 0 && rest.startsWith("delimiter=", q + 1)) {
-                String d = rest.substring(q + 1 + "delimiter=".length());
-                delimiter = switch (d) {
-                    case "comma", "," -> ',';
-                    case "semicolon", ";" -> ';';
-                    case "tab" -> '\t';
-                    case "auto" -> CsvReader.DETECT;
-                    default -> throw new DataException(source + ": delimiter '" + d
-                            + "' is not accepted; expected comma, semicolon, tab or auto");
-                };
-                rest = rest.substring(0, q);
-            }
-            String path = requirePath(source, rest);
-            return CsvReader.read(resolve(path, relativeTo), path, labelColumn, delimiter);
+            return prepare(source, labelColumn, TableOptions.DEFAULTS, relativeTo, SplitRule.NONE).all();
         }
         if (s.startsWith("libsvm:")) {
             String path = requirePath(source, s.substring(7));
@@ -83,6 +71,77 @@ public final class DataSources {
         }
         throw new DataException("data source '" + source + "' has no known prefix; expected one of "
                 + String.join(", ", PREFIXES) + " (e.g. csv:data.csv, libsvm:data.txt, bundled:wdbc, synthetic:frost)");
+    }
+
+    /**
+     * Reads a data source and splits it the way studies do: the test split from every row, the holdout from the
+     * rest ({@link Splits#parts}); a CSV table is then encoded under {@code options} with everything fitted on the
+     * training rows alone ({@link TableEncoder}).
+     *
+     * @param source the source string
+     * @param labelColumn as for {@link #load}
+     * @param options the plan's {@code data.features}, {@code data.drop}, {@code data.categorical},
+     *        {@code data.max-levels} and {@code data.missing}; only their defaults are accepted for sources other
+     *        than {@code csv:}
+     * @param relativeTo the directory relative paths are resolved against, or null for the working directory
+     * @param rule the split fractions and seeds ({@link SplitRule#NONE}: every row trains)
+     * @return the kept rows and the splits
+     * @throws DataException as {@link #load}, and keyed ({@link DataException#key()}) for the problems one of the
+     *         plan's {@code data} keys causes or can fix
+     */
+    public static PreparedData prepare(String source, String labelColumn, TableOptions options, Path relativeTo,
+            SplitRule rule) {
+        if (source != null && source.strip().startsWith("csv:")) {
+            SourceTable table = readTable(source, labelColumn, relativeTo);
+            int[][] parts = Splits.parts(table.name(), table.labels(), table.classNames(), rule);
+            return TableEncoder.prepare(table, options, parts[0], parts[1], parts[2]);
+        }
+        if (!options.isDefault()) {
+            throw DataException.forKey(firstSetKey(options), source + ": data." + firstSetKey(options)
+                    + " applies to csv: tables only; expected it absent for this source");
+        }
+        Dataset all = load(source, labelColumn, relativeTo);
+        int[][] parts = Splits.parts(all.name(), all.labels(), all.classNames(), rule);
+        return new PreparedData(all, parts[0], parts[1], parts[2], null, List.of());
+    }
+
+    private static String firstSetKey(TableOptions o) {
+        TableOptions d = TableOptions.DEFAULTS;
+        return o.features() != null ? "features" : !o.drop().isEmpty() ? "drop"
+                : !o.categorical().isEmpty() ? "categorical" : o.maxLevels() != d.maxLevels() ? "max-levels" : "missing";
+    }
+
+    /**
+     * Reads a {@code csv:} source into its typed columns.
+     *
+     * @param source {@code csv:PATH} or {@code csv:PATH?delimiter=D}
+     * @param labelColumn the label column, or null for the last
+     * @param relativeTo the directory relative paths are resolved against, or null for the working directory
+     * @return the table as read
+     * @throws DataException for a bad source string, a missing file or refused content
+     */
+    public static SourceTable readTable(String source, String labelColumn, Path relativeTo) {
+        String s = source.strip();
+        if (!s.startsWith("csv:")) {
+            throw new DataException(source + ": not a csv: source; expected csv:PATH");
+        }
+        String rest = s.substring(4);
+        char delimiter = TableReader.DETECT;
+        int q = rest.lastIndexOf('?');
+        if (q >= 0 && rest.startsWith("delimiter=", q + 1)) {
+            String d = rest.substring(q + 1 + "delimiter=".length());
+            delimiter = switch (d) {
+                case "comma", "," -> ',';
+                case "semicolon", ";" -> ';';
+                case "tab" -> '\t';
+                case "auto" -> TableReader.DETECT;
+                default -> throw new DataException(source + ": delimiter '" + d
+                        + "' is not accepted; expected comma, semicolon, tab or auto");
+            };
+            rest = rest.substring(0, q);
+        }
+        String path = requirePath(source, rest);
+        return TableReader.read(resolve(path, relativeTo), path, labelColumn, delimiter);
     }
 
     private static String requirePath(String source, String path) {

@@ -20,6 +20,7 @@ public final class LabelIndex {
 
     private List<String> classNames;
     private int[] labels;
+    private boolean numeric;
 
     /** Records the (already stripped) label of the next row. */
     public void add(String label) {
@@ -84,6 +85,36 @@ public final class LabelIndex {
         classNames = List.copyOf(names);
         labels = out;
         rowCodes = null;
+        this.numeric = numeric;
+    }
+
+    /** @return true when every label is a number (after {@link #finish}) */
+    public boolean numeric() {
+        return numeric;
+    }
+
+    /**
+     * The most distinct numeric labels a table of {@code rows} rows may have before it looks like a regression
+     * target rather than classes: max(20, 5 % of the rows).
+     *
+     * @param rows the number of labelled rows
+     * @return the cap
+     */
+    public static long regressionCap(int rows) {
+        return Math.max(20L, (long) Math.floor(0.05 * rows));
+    }
+
+    /**
+     * @return a one-line problem when the labels are numbers with more distinct values than
+     *         {@link #regressionCap}, else null (after {@link #finish})
+     */
+    public String regressionProblem() {
+        long cap = regressionCap(rows);
+        if (!numeric || classNames.size() <= cap) {
+            return null;
+        }
+        return classNames.size() + " distinct numbers in " + rows + " rows, more than max(20, 5 % of the rows) = "
+                + cap + ": looks like a regression target; settle trains classifiers; expected class labels";
     }
 
     /** @return the class names, class 0 first (after {@link #finish}) */

@@ -26,6 +26,17 @@ public final class Numbers {
 
     /** @return one of {@link #OK}, {@link #EMPTY}, {@link #MISSING}, {@link #INFINITE}, {@link #INVALID} */
     public static int classify(String text) {
+        int kind = spelling(text);
+        return kind == OK && !Double.isFinite(parse(text)) ? INFINITE : kind;
+    }
+
+    /**
+     * As {@link #classify} from the spelling alone, without parsing: a well-formed number that overflows a double
+     * ({@code 1e999}) is {@link #OK} here.
+     *
+     * @return one of {@link #OK}, {@link #EMPTY}, {@link #MISSING}, {@link #INFINITE}, {@link #INVALID}
+     */
+    public static int spelling(String text) {
         String s = text.strip();
         if (s.isEmpty()) {
             return EMPTY;
@@ -44,7 +55,7 @@ public final class Numbers {
                     return INVALID;
             }
         }
-        return Double.isFinite(Double.parseDouble(s)) ? OK : INFINITE;
+        return OK;
     }
 
     /** @return the value of text that {@link #classify} accepts as {@link #OK} */
@@ -66,6 +77,45 @@ public final class Numbers {
             default:
                 return "expected a number, found " + settle.datasets.DataException.shown(text);
         }
+    }
+
+    /**
+     * Whether text that is not a number here is one in another notation: a decimal comma or thousands separators
+     * ({@code 1,5}, {@code 1,000.5}), a percent sign ({@code 12%}), Java's suffixes ({@code 4.5d}, {@code 2f}) or a
+     * hexadecimal float ({@code 0x1p3}). A table refuses such cells in a column of numbers rather than take the
+     * column for categories.
+     *
+     * @param text a cell that {@link #spelling} calls {@link #INVALID}
+     * @return true for a number in one of those notations
+     */
+    public static boolean otherNotation(String text) {
+        String s = text.strip();
+        if (s.length() < 2) {
+            return false;
+        }
+        char last = s.charAt(s.length() - 1);
+        if (last == '%' || last == 'd' || last == 'D' || last == 'f' || last == 'F') {
+            String body = s.substring(0, s.length() - 1).strip();
+            if (!body.isEmpty() && (wellFormed(body) || (last == '%' && otherNotation(body)))) {
+                return true;
+            }
+        }
+        if (s.indexOf(',') >= 0) {
+            String joined = s.replace(",", "");
+            String decimal = s.replace(',', '.');
+            return !joined.isEmpty() && (wellFormed(joined) || (s.indexOf(',') == s.lastIndexOf(',')
+                    && s.indexOf('.') < 0 && wellFormed(decimal)));
+        }
+        String lower = s.toLowerCase(Locale.ROOT);
+        if (lower.contains("0x") && lower.contains("p")) {
+            try {
+                Double.parseDouble(s);
+                return true;
+            } catch (NumberFormatException e) {
+                return false;
+            }
+        }
+        return false;
     }
 
     static boolean wellFormed(String s) {

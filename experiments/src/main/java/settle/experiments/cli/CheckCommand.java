@@ -36,7 +36,8 @@ import settle.reports.stats.Multiplicity;
 import settle.reports.stats.VerdictOptions;
 
 /**
- * {@code settle check PLAN}: validates a plan, prints it resolved, loads and splits its data, and shows every
+ * {@code settle check PLAN}: validates a plan, prints it resolved, loads and splits its data (a CSV table's columns
+ * with their types, gaps and encoding, and the classes per split), and shows every
  * arm's rates at the first updates, at each epoch start and at the end, Σα and Σα² with each kind's
  * asymptotic class, and, for convex models, the mean stability bound 2/λmax(H) at the exact minimiser. Warns
  * when the replicates are too few for the verdict to detect any difference at the number of arms compared.
@@ -91,6 +92,11 @@ public final class CheckCommand implements Callable<Integer> {
         Dataset all = data.all();
         out.printf(Locale.ROOT, "data: %s: %d rows, %d features, %d classes (%s)%n", plan.data().source(),
                 all.rows(), all.features(), all.classes(), String.join(", ", all.classNames()));
+        if (data.table() != null) {
+            for (String line : TableLines.of(data.table())) {
+                out.println(line);
+            }
+        }
         out.printf(Locale.ROOT, "splits: training %d, holdout %d, test %d rows%s%n", data.train().rows(),
                 data.holdout() == null ? 0 : data.holdout().rows(), data.test().rows(),
                 plan.data().standardize() ? "; standardised on the training split" : "");

@@ -15,6 +15,9 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import settle.datasets.DataSources;
 import settle.datasets.Dataset;
+import settle.datasets.PreparedData;
+import settle.datasets.SplitRule;
+import settle.datasets.table.TableOptions;
 import settle.datasets.Standardiser;
 import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimiser;
@@ -80,7 +83,12 @@ public final class MinimumCommand implements Callable<Integer> {
                 throw new IllegalArgumentException("--l2 must be a finite number >= 0, got " + l2);
             }
             ModelSpec modelSpec = ModelSpec.logistic(l2);
-            dataset = DataSources.load(data, label, null);
+            // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused)
+            PreparedData prepared = DataSources.prepare(data, label, TableOptions.DEFAULTS, null, SplitRule.NONE);
+            for (String warning : prepared.warnings()) {
+                stderr.println("warning: " + warning);
+            }
+            dataset = prepared.all();
             if (standardize) {
                 Standardiser standardiser = Standardiser.fit(dataset);
                 for (String warning : standardiser.warnings()) {

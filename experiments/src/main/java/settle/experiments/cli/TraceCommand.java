@@ -17,8 +17,9 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import settle.datasets.DataSources;
 import settle.datasets.Dataset;
-import settle.datasets.Split;
-import settle.datasets.Splits;
+import settle.datasets.PreparedData;
+import settle.datasets.SplitRule;
+import settle.datasets.table.TableOptions;
 import settle.datasets.Standardiser;
 import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
@@ -348,13 +349,19 @@ public final class TraceCommand implements Callable<Integer> {
             throw new IllegalArgumentException("--schedule: " + e.getMessage());
         }
 
-        Dataset all = DataSources.load(data, label, null);
+        // a CSV table takes the default table keys here (text columns one-hot, gaps refused); levels are fitted on
+        // the training rows alone, as in a study
+        PreparedData prepared = DataSources.prepare(data, label, TableOptions.DEFAULTS, null, testFraction == null
+                ? SplitRule.NONE : new SplitRule(testFraction, PlanData.testSplitSeed(seed), 0, 0));
+        for (String warning : prepared.warnings()) {
+            err.println("settle trace: warning: " + warning);
+        }
+        Dataset all = prepared.all();
         Dataset train = all;
         Dataset test = null;
         if (testFraction != null) {
-            Split split = Splits.stratified(all, testFraction, PlanData.testSplitSeed(seed));
-            train = split.train();
-            test = split.test();
+            train = all.subset(all.name() + " (training part)", prepared.train());
+            test = all.subset(all.name() + " (held-out part)", prepared.test());
         }
         if (standardize) {
             Standardiser standardiser = Standardiser.fit(train);

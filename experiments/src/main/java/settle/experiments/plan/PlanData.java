@@ -2,18 +2,21 @@ package settle.experiments.plan;
 
 import java.util.ArrayList;
 import java.util.List;
+import settle.datasets.DataException;
 import settle.datasets.DataSources;
 import settle.datasets.Dataset;
-import settle.datasets.Split;
-import settle.datasets.Splits;
+import settle.datasets.PreparedData;
+import settle.datasets.SplitRule;
 import settle.datasets.Standardiser;
+import settle.datasets.table.TableReport;
 import settle.engine.schedule.RunShape;
 
 /**
  * A plan's data, loaded and split the one way every command does it: the test split is carved from all rows
  * (stratified, seeded by {@link #testSplitSeed}), the holdout from the rest (seeded by
- * {@link #holdoutSplitSeed}), the remaining rows form the training split, and the standardiser (when the
- * plan asks for one) is fitted on the training split only and applied to all three.
+ * {@link #holdoutSplitSeed}), the remaining rows form the training split; a CSV table is then encoded with what
+ * is fitted on the training split alone (its {@code data} table keys), and the standardiser (when the plan asks
+ * for one) is fitted on the training split only and applied to all three.
  */
 public final class PlanData {
 
@@ -23,9 +26,11 @@ public final class PlanData {
     private final Dataset test;
     private final Standardiser standardiser;
     private final List<String> warnings;
+    private final PreparedData prepared;
 
     private PlanData(Dataset all, Dataset train, Dataset holdout, Dataset test, Standardiser standardiser,
-            List<String> warnings) {
+            List<String> warnings, PreparedData prepared) {
+        this.prepared = prepared;
         this.all = all;
         this.train = train;
         this.holdout = holdout;
@@ -57,69 +62,65 @@ public final class PlanData {
     }
 
     /**
-     * Loads and splits a plan's data.
+     * Loads, encodes and splits a plan's data ({@link DataSources#prepare}).
      *
      * @param parsed the plan with its key positions
      * @return the splits
-     * @throws PlanException positioned at {@code data.source} when the data cannot be read, or at the
-     *         fraction whose split cannot be made
+     * @throws PlanException positioned at {@code data.source} when the data cannot be read, at the {@code data} key
+     *         that causes or can fix a problem ({@code data.missing}, {@code data.features}, …), or at the fraction
+     *         whose split cannot be made
      */
     public static PlanData load(ParsedPlan parsed) {
-        DataPlan d = parsed.plan().data();
-        Dataset all;
+        Plan plan = parsed.plan();
+        DataPlan d = plan.data();
+        PreparedData prepared;
         try {
-            all = DataSources.load(d.source(), d.label(), null);
+            prepared = DataSources.prepare(d.source(), d.label(), d.table(), null, new SplitRule(d.testFraction(),
+                    testSplitSeed(plan.seed()), d.holdoutFraction(), holdoutSplitSeed(plan.seed())));
+        } catch (DataException e) {
+            String key = e.key() != null ? "data." + e.key()
+                    : d.label() != null && e.getMessage() != null && e.getMessage().contains("label") ? "data.label"
+                    : "data.source";
+            throw parsed.error(key, e.getMessage());
         } catch (IllegalArgumentException e) {
             throw parsed.error(d.label() != null && e.getMessage() != null && e.getMessage().contains("label")
                     ? "data.label" : "data.source", e.getMessage());
         }
-        return split(parsed, all);
+        return of(parsed, prepared);
     }
 
     /**
-     * Splits (and standardises) rows already read, exactly as {@link #load} does after reading them: a cluster
-     * worker that receives the rows from the driver gets the same splits without reading the source again.
+     * Builds the splits (standardised when the plan says so) from rows already read and the parts already chosen,
+     * exactly as {@link #load} does after reading them: a cluster worker that receives the rows and parts from the
+     * driver gets the same splits without reading the source again.
      *
      * @param parsed the plan with its key positions
-     * @param all every row of the plan's data source, as read; not modified
+     * @param prepared every kept row and which of them form each split; not modified
      * @return the splits
-     * @throws PlanException positioned at the fraction whose split cannot be made
      */
-    public static PlanData split(ParsedPlan parsed, Dataset all) {
+    public static PlanData of(ParsedPlan parsed, PreparedData prepared) {
         Plan plan = parsed.plan();
-        DataPlan d = plan.data();
-        Split testSplit;
-        try {
-            testSplit = Splits.stratified(all, d.testFraction(), testSplitSeed(plan.seed()));
-        } catch (IllegalArgumentException e) {
-            throw parsed.error("data.test-fraction", e.getMessage());
-        }
-        Dataset train = testSplit.train();
-        Dataset holdout = null;
-        if (d.holdoutFraction() > 0) {
-            Split h;
-            try {
-                h = Splits.stratified(train, d.holdoutFraction(), holdoutSplitSeed(plan.seed()));
-            } catch (IllegalArgumentException e) {
-                throw parsed.error("data.holdout-fraction", e.getMessage());
-            }
-            train = h.train();
-            holdout = h.test();
-        }
-        Dataset test = testSplit.test();
+        Dataset all = prepared.all();
+        String name = all.name();
+        String trainName = prepared.test().length > 0 ? name + " (training part)" : name;
+        Dataset train = all.subset(prepared.holdout().length > 0 ? trainName + " (training part)" : trainName,
+                prepared.train());
+        Dataset holdout = prepared.holdout().length == 0 ? null
+                : all.subset(trainName + " (held-out part)", prepared.holdout());
+        Dataset test = all.subset(name + " (held-out part)", prepared.test());
         Standardiser standardiser = null;
-        List<String> warnings = new ArrayList<>();
-        if (d.standardize()) {
+        List<String> warnings = new ArrayList<>(prepared.warnings());
+        if (plan.data().standardize()) {
             standardiser = Standardiser.fit(train);
             warnings.addAll(standardiser.warnings());
             train = standardiser.apply(train);
             test = standardiser.apply(test);
             holdout = holdout == null ? null : standardiser.apply(holdout);
         }
-        return new PlanData(all, train, holdout, test, standardiser, warnings);
+        return new PlanData(all, train, holdout, test, standardiser, warnings, prepared);
     }
 
-    /** @return every row, as read */
+    /** @return every kept row, as read (a CSV table: encoded; with {@code drop-rows}, without the dropped rows) */
     public Dataset all() {
         return all;
     }
@@ -144,7 +145,17 @@ public final class PlanData {
         return standardiser;
     }
 
-    /** @return warnings about the data (constant columns), one line each */
+    /** @return which rows of {@link #all} form each split, and for a CSV table what became of its columns */
+    public PreparedData prepared() {
+        return prepared;
+    }
+
+    /** @return what became of a CSV table's columns and splits, or null for other sources */
+    public TableReport table() {
+        return prepared.table();
+    }
+
+    /** @return warnings about the data (constant columns, likely IDs, dropped rows, unseen values), one line each */
     public List<String> warnings() {
         return warnings;
     }

@@ -23,6 +23,7 @@ import settle.engine.schedule.Schedule;
 import settle.engine.schedule.ScheduleException;
 import settle.engine.schedule.Schedules;
 import settle.engine.train.Sampling;
+import settle.datasets.table.TableOptions;
 
 /**
  * Reads a plan file into a resolved {@link Plan}. This class is the one place where defaults are filled in
@@ -70,6 +71,11 @@ public final class PlanParser {
             "| `data.test-fraction` | 0.2 | fraction of rows, in (0, 1), stratified |",
             "| `data.holdout-fraction` | 0.0 | fraction of the training split, in [0, 1); > 0 needed by `judge: holdout` |",
             "| `data.standardize` | true | true / false |",
+            "| `data.features` | every column but the label (csv) | list of CSV column names, in the order wanted |",
+            "| `data.drop` | none (csv) | list of CSV column names taken out of the features |",
+            "| `data.categorical` | none: text columns only (csv) | list of numeric-coded CSV columns to one-hot encode |",
+            "| `data.max-levels` | 50 (csv) | integer ≥ 2: the most levels a categorical column may have in the training split |",
+            "| `data.missing` | refuse (csv) | `refuse` / `drop-rows` / `impute` |",
             "| `model.kind` | logistic | `logistic` / `mlp` |",
             "| `model.hidden` | [32] (mlp only; ignored with a warning for logistic) | list of layer widths, each 1–100000 |",
             "| `model.activation` | relu (mlp only; ignored with a warning for logistic) | `relu` / `tanh` |",
@@ -93,7 +99,10 @@ public final class PlanParser {
     private static final List<String> TOP_KEYS = List.of(
             "study", "seed", "replicates", "data", "model", "training", "baseline", "arms", "grid");
     private static final List<String> DATA_KEYS = List.of(
-            "source", "label", "test-fraction", "holdout-fraction", "standardize");
+            "source", "label", "test-fraction", "holdout-fraction", "standardize", "features", "drop", "categorical",
+            "max-levels", "missing");
+    /** The data keys of CSV tables (docs/datasets.md, "Tables"). */
+    private static final List<String> TABLE_KEYS = List.of("features", "drop", "categorical", "max-levels", "missing");
     private static final List<String> MODEL_KEYS = List.of("kind", "hidden", "activation", "l2", "init");
     private static final List<String> TRAINING_KEYS = List.of(
             "epochs", "batch", "sampling", "momentum", "tail", "snapshots");
@@ -252,7 +261,51 @@ public final class PlanParser {
         double holdout = present(m, "holdout-fraction")
                 ? number(m, "data", "holdout-fraction", Range.HALF_OPEN_UNIT) : DEFAULT_HOLDOUT_FRACTION;
         boolean standardize = !present(m, "standardize") || bool(m, "data", "standardize");
-        return new DataPlan(source, label, test, holdout, standardize);
+        if (!kind.equals("csv")) {
+            for (String key : TABLE_KEYS) {
+                if (present(m, key)) {
+                    throw error(value(m, key), "data." + key, "applies to csv: tables only, not to " + kind
+                            + ": sources (they have no columns to choose or encode); remove it");
+                }
+            }
+        }
+        List<String> features = present(m, "features") ? columns(m, "features", false) : null;
+        List<String> drop = present(m, "drop") ? columns(m, "drop", true) : List.of();
+        List<String> categorical = present(m, "categorical") ? columns(m, "categorical", true) : List.of();
+        int maxLevels = present(m, "max-levels")
+                ? (int) integer(m, "data", "max-levels", 2, Integer.MAX_VALUE, null) : TableOptions.DEFAULT_MAX_LEVELS;
+        TableOptions.Missing missing = TableOptions.Missing.REFUSE;
+        if (present(m, "missing")) {
+            YamlNode v = value(m, "missing");
+            List<String> accepted = List.of("refuse", "drop-rows", "impute");
+            String text = v instanceof YamlNode.Scalar sc && sc.type != YamlNode.ScalarType.NULL ? sc.text : null;
+            if (text == null || !accepted.contains(text)) {
+                throw error(v, "data.missing", "must be one of refuse | drop-rows | impute, got "
+                        + (text == null ? v.describe() : "'" + text + "'" + NearMiss.suggestion(text, accepted)));
+            }
+            missing = TableOptions.Missing.parse(text);
+        }
+        return new DataPlan(source, label, test, holdout, standardize,
+                new TableOptions(features, drop, categorical, maxLevels, missing));
+    }
+
+    /** A list of CSV column names (numbers and words alike are names). */
+    private List<String> columns(YamlNode.MapNode m, String key, boolean mayBeEmpty) {
+        YamlNode v = value(m, key);
+        String path = "data." + key;
+        if (!(v instanceof YamlNode.ListNode list) || (!mayBeEmpty && list.items.isEmpty())) {
+            throw error(v, path, "must be a " + (mayBeEmpty ? "" : "non-empty ") + "list of column names such as"
+                    + " [age, income], got " + v.describe());
+        }
+        List<String> out = new ArrayList<>();
+        for (int i = 0; i < list.items.size(); i++) {
+            YamlNode item = list.items.get(i);
+            if (!(item instanceof YamlNode.Scalar sc) || sc.type == YamlNode.ScalarType.NULL) {
+                throw error(item, path + "[" + i + "]", "must be a column name, got " + item.describe());
+            }
+            out.add(sc.text);
+        }
+        return out;
     }
 
     private ModelSpec model(YamlNode.MapNode m) {

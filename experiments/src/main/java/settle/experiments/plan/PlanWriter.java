@@ -9,12 +9,15 @@ import java.util.HexFormat;
 import java.util.List;
 import java.util.Map;
 import java.util.regex.Pattern;
+import settle.datasets.table.TableOptions;
 import settle.engine.model.ModelSpec;
 import settle.engine.schedule.NudgeLog;
 import settle.experiments.study.AtomicFiles;
 
 /**
- * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included), in the
+ * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included, except the
+ * CSV table keys {@code data.features}, {@code drop}, {@code categorical}, {@code max-levels} and {@code missing},
+ * written only when they differ from their defaults so that plans without them keep their text and hash), in the
  * order of DESIGN.md's example plan; schedules as one-line flow maps in their canonical key order; strings
  * plain when unambiguous and double-quoted otherwise; integers without a point and other numbers with one
  * ({@link Double#toString}), so that {@link PlanParser} reads the text back into an equal plan. The
@@ -47,6 +50,23 @@ public final class PlanWriter {
         b.append("  test-fraction: ").append(number(d.testFraction())).append('\n');
         b.append("  holdout-fraction: ").append(number(d.holdoutFraction())).append('\n');
         b.append("  standardize: ").append(d.standardize()).append('\n');
+        // the table keys are written when set, so that a plan without them keeps its text and hash
+        TableOptions table = d.table();
+        if (table.features() != null) {
+            b.append("  features: ").append(flow(table.features())).append('\n');
+        }
+        if (!table.drop().isEmpty()) {
+            b.append("  drop: ").append(flow(table.drop())).append('\n');
+        }
+        if (!table.categorical().isEmpty()) {
+            b.append("  categorical: ").append(flow(table.categorical())).append('\n');
+        }
+        if (table.maxLevels() != TableOptions.DEFAULT_MAX_LEVELS) {
+            b.append("  max-levels: ").append(table.maxLevels()).append('\n');
+        }
+        if (table.missing() != TableOptions.Missing.REFUSE) {
+            b.append("  missing: ").append(table.missing().key()).append('\n');
+        }
         ModelSpec m = plan.model();
         b.append("model:\n");
         b.append("  kind: ").append(m.kind().key()).append('\n');

@@ -72,7 +72,7 @@ public final class StudyContext {
 
     /**
      * As {@link #build(ParsedPlan)}, from data already loaded and split (a cluster worker builds its context
-     * from the rows the driver shipped, split by {@link PlanData#split}).
+     * from the rows and parts the driver shipped, by {@link PlanData#of}).
      *
      * @param parsed the plan with its key positions
      * @param data the plan's data, loaded and split as {@link PlanData#load} does

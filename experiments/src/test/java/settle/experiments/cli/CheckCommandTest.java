@@ -134,6 +134,49 @@ class CheckCommandTest {
     }
 
     @Test
+    void checkShowsTheResolvedTable(@TempDir Path dir) throws IOException {
+        Files.writeString(dir.resolve("t.csv"), """
+                id,colour,size,y
+                1,red,1.5,p
+                2,blue,,q
+                3,red,2.5,p
+                4,,3.5,q
+                5,green,4.5,p
+                6,blue,5.5,q
+                7,red,6.5,p
+                8,blue,7.5,q
+                9,green,8.5,p
+                10,red,9.5,q
+                """);
+        Path plan = dir.resolve("t.yaml");
+        Files.writeString(plan, """
+                data: {source: csv:t.csv, drop: [id], missing: impute}
+                training: {epochs: 2, batch: 4}
+                arms: [{schedule: {kind: constant, rate: 0.1}}]
+                """);
+        String[] r = run("check", plan.toString());
+        assertEquals("0", r[0], r[2]);
+        String out = r[1];
+        // stratified test split: round(0.2 · 5) = 1 row of each class
+        for (String line : List.of(
+                "table: 10 rows, 4 columns; data.missing: impute",
+                "  column  type    missing  encoding",
+                "  id      number        0  dropped (data.drop)",
+                "  y       text          0  label",
+                "  classes: p 5 (training 4, test 1); q 5 (training 4, test 1)")) {
+            assertTrue(out.contains("\n" + line + "\n"), line + " in\n" + out);
+        }
+        assertTrue(Pattern.compile("\n  colour  text          1  3 levels( \\+ a level for gaps → 4 inputs| → 3 inputs)\n")
+                .matcher(out).find(), out);
+        assertTrue(Pattern.compile("\n  size    number        1  (2 inputs: the value \\(training median [0-9.]+ where"
+                + " missing\\) and 'size \\(was missing\\)' \\(0/1\\)|1 input \\(training median [0-9.]+ where missing\\))\n")
+                .matcher(out).find(), out);
+        assertTrue(Pattern.compile("\n  inputs after encoding: [4-6]\n  classes:").matcher(out).find(), out);
+        assertTrue(out.contains("\n  training split: 8 rows"), out);
+        assertTrue(out.contains("\n  test split: 2 rows"), out);
+    }
+
+    @Test
     void epochStartsAreSampledForLongRuns() {
         // 1000 epochs: the first 10 starts, then every ⌈1000/50⌉ = 20th (epochs 21, 41, …, 981), and the last
         TreeMap<Long, String> p = CheckCommand.points(new RunShape(1000, 7));

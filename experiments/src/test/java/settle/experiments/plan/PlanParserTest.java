@@ -19,6 +19,7 @@ import settle.engine.model.Activation;
 import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
 import settle.engine.train.Sampling;
+import settle.datasets.table.TableOptions;
 
 class PlanParserTest {
 
@@ -222,6 +223,37 @@ class PlanParserTest {
             assertEquals(plan, again, name);
             assertEquals(yaml, PlanWriter.toYaml(again), name + ": canonical text is a fixed point");
             assertEquals(PlanWriter.sha256(plan), PlanWriter.sha256(again));
+        }
+    }
+
+    @Test
+    void tableKeysResolveWriteBackAndLeaveOtherPlansUnchanged() {
+        Plan plan = PlanParser.read("""
+                data:
+                  source: csv:t.csv
+                  features: [age, "1", colour]
+                  drop: [colour]
+                  categorical: ["1"]
+                  max-levels: 12
+                  missing: drop-rows
+                arms: [{schedule: {kind: constant, rate: 0.1}}]
+                """, "p.yaml", Path.of("/data")).plan();
+        assertEquals(new TableOptions(List.of("age", "1", "colour"), List.of("colour"), List.of("1"), 12,
+                TableOptions.Missing.DROP_ROWS), plan.data().table());
+        String yaml = PlanWriter.toYaml(plan);
+        assertTrue(yaml.contains("  features: [age, \"1\", colour]\n  drop: [colour]\n  categorical: [\"1\"]\n"
+                + "  max-levels: 12\n  missing: drop-rows\n"), yaml);
+        Plan again = PlanParser.read(yaml, "p.yaml", Path.of("/elsewhere")).plan();
+        assertEquals(plan, again);
+        assertEquals(PlanWriter.sha256(plan), PlanWriter.sha256(again));
+        // without the keys: the defaults, and not one of them written, so existing plans keep their text and hash
+        Plan plain = PlanParser.read("""
+                data: {source: csv:t.csv}
+                arms: [{schedule: {kind: constant, rate: 0.1}}]
+                """, "p.yaml", Path.of("/data")).plan();
+        assertEquals(TableOptions.DEFAULTS, plain.data().table());
+        for (String key : List.of("features:", "drop:", "categorical:", "max-levels:", "missing:")) {
+            assertFalse(PlanWriter.toYaml(plain).contains(key), key);
         }
     }
 
