@@ -7,9 +7,9 @@ import settle.reports.html.ReportPage;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.VerdictOptions;
-import settle.reports.study.Study;
-import settle.reports.study.StudyFormatException;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyFormatException;
+import settle.reports.format.StudyReader;
 
 /**
  * Builds {@code report.html} and {@code summary.csv} in a study directory, from its files only (study

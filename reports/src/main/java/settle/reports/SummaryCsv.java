@@ -5,8 +5,8 @@ import settle.reports.metrics.ArmLevel;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
-import settle.reports.study.Metric;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Study;
 
 /**
  * {@code summary.csv}: one row per arm × metric, RFC 4180 (CRLF line ends, fields quoted when they hold a

@@ -11,8 +11,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.BallDiagnosis;
 import settle.reports.metrics.BallDiagnosis.State;
-import settle.reports.study.Study;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyReader;
 
 /**
  * "Has the arm reached its ball?": each rule of {@link BallDiagnosis} in its order, with its sentence, and the

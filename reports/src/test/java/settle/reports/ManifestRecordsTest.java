@@ -14,10 +14,10 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.reports.study.Grid;
-import settle.reports.study.Manifest;
-import settle.reports.study.StudyFormatException;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Grid;
+import settle.reports.format.Manifest;
+import settle.reports.format.StudyFormatException;
+import settle.reports.format.StudyReader;
 
 /**
  * What the report learns from the manifest and nowhere else: the study's name, the model's λ and the grid structure.

@@ -11,8 +11,8 @@ import java.util.List;
 import java.util.Locale;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.reports.study.Study;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyReader;
 
 /**
  * Nudges and plateau cuts drawn on the rate and objective charts and listed in tables, and the a-priori bound's

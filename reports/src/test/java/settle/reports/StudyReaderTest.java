@@ -15,12 +15,12 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.reports.study.Metric;
-import settle.reports.study.Prediction;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
-import settle.reports.study.StudyFormatException;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Metric;
+import settle.reports.format.Prediction;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
+import settle.reports.format.StudyFormatException;
+import settle.reports.format.StudyReader;
 
 class StudyReaderTest {
 

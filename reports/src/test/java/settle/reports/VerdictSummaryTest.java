@@ -17,7 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.VerdictSentence.Outcome;
-import settle.reports.study.StudyReader;
+import settle.reports.format.StudyReader;
 
 /**
  * The verdict in words ({@link VerdictSummary}) on a study written with known values: where each arm's returned

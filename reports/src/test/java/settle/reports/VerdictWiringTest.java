@@ -12,8 +12,8 @@ import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.VerdictSentence;
-import settle.reports.study.Metric;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Metric;
+import settle.reports.format.StudyReader;
 
 /**
  * The verdict read from a study directory written here with known values: paired by replicate index, the primary

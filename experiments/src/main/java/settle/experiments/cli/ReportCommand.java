@@ -9,7 +9,7 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import settle.reports.Report;
-import settle.reports.study.StudyFormatException;
+import settle.reports.format.StudyFormatException;
 
 /**
  * {@code settle report STUDY_DIR}: (re)builds {@code report.html} and {@code summary.csv} from a study

@@ -292,7 +292,7 @@ public final class StudyRunner {
             }
             int format = node.path("format").asInt(ReplicateFile.FORMAT);
             if (format < ReplicateFile.FORMAT) {
-                throw new OlderFormatException(settle.reports.study.StudyReader.olderFormat(file, format, rerun()));
+                throw new OlderFormatException(settle.reports.format.StudyReader.olderFormat(file, format, rerun()));
             }
         }
     }

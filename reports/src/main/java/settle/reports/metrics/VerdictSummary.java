@@ -9,9 +9,9 @@ import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.VerdictSentence;
 import settle.reports.stats.VerdictSentence.Outcome;
-import settle.reports.study.Metric;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 import settle.reports.text.Format;
 
 /**

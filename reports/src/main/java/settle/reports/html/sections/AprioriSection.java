@@ -4,10 +4,10 @@ import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.Ranks;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.Bound;
-import settle.reports.study.Manifest;
-import settle.reports.study.Metric;
-import settle.reports.study.Study;
+import settle.reports.format.Bound;
+import settle.reports.format.Manifest;
+import settle.reports.format.Metric;
+import settle.reports.format.Study;
 
 /**
  * "A-priori ranking by a convex bound": each arm's value of the convex last-iterate bound for its planned rates (read

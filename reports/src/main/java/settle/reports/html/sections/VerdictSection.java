@@ -11,9 +11,9 @@ import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Interval;
 import settle.reports.stats.VerdictSentence;
-import settle.reports.study.Manifest;
-import settle.reports.study.Metric;
-import settle.reports.study.Study;
+import settle.reports.format.Manifest;
+import settle.reports.format.Metric;
+import settle.reports.format.Study;
 
 /**
  * "Verdict": which arm to pick and at what cost ({@link VerdictSummary}), one headline per arm against the baseline

@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * A nudge in force during a replicate (replicate file, {@code nudges}): the arm's rates were multiplied by

@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * What {@code reference.json} records: the reference minimiser θ* of a convex model.

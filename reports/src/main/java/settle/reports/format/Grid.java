@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 import java.util.List;
 

@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * One row of {@code nudges.csv}: a nudge applied to a manual arm while its study ran.

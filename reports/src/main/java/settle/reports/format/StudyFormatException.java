@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * A study directory that is missing, or a file in it that does not follow the study directory format: the

@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * The per-replicate metrics of a replicate file (DESIGN.md "Wander metrics"), with their file keys, in the file's

@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * Where a plateau schedule cut a replicate's rate (replicate file, {@code plateau_cuts}).

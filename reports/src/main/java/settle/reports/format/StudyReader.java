@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonProcessingException;

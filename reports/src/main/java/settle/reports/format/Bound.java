@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * The a-priori convex last-iterate bound the runner recorded in {@code reference.json}

@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * A replicate's predicted noise ball, as its file records it (study directory format 2). A number that does not

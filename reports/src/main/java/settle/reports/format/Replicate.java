@@ -1,4 +1,4 @@
-package settle.reports.study;
+package settle.reports.format;
 
 /**
  * One replicate file {@code arms/<arm>/<replicate>.json}. Arrays are not copied: treat them as read-only.
