@@ -14,7 +14,7 @@ import java.util.List;
 import org.apache.spark.TaskContext;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.experiments.plan.PlanException;
+import settle.input.BadInputException;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
@@ -84,7 +84,7 @@ class SparkExecutorTest {
     void manualArmsAreRefusedBeforeSparkStarts() throws Exception {
         String manual = String.join("\n", "  - name: by-hand", "    schedule: {kind: constant, rate: 0.3}",
                 "    manual: true");
-        PlanException refused = assertThrows(PlanException.class, () -> new SparkExecutor("local[2]", context(manual)));
+        BadInputException refused = assertThrows(BadInputException.class, () -> new SparkExecutor("local[2]", context(manual)));
         assertTrue(refused.getMessage().contains("arms[3].manual"), refused.getMessage());
 
         Path plan = dir.resolve("manual.yaml");

@@ -8,6 +8,7 @@ import java.util.Map;
 import settle.datasets.io.CsvReader;
 import settle.datasets.io.LibsvmReader;
 import settle.datasets.synthetic.Synthetic;
+import settle.input.BadInputException;
 
 /**
  * Turns a data source string (a plan's {@code data.source}, the {@code --data} option) into a {@link Dataset}.
@@ -42,11 +43,11 @@ public final class DataSources {
      *        the dataset's own label name; for LIBSVM and synthetic data it must be null
      * @param relativeTo the directory relative paths are resolved against, or null for the working directory
      * @return the dataset
-     * @throws DataException for an unknown prefix, bad parameters, a missing file or malformed content
+     * @throws BadInputException for an unknown prefix, bad parameters, a missing file or malformed content
      */
     public static Dataset load(String source, String labelColumn, Path relativeTo) {
         if (source == null || source.isBlank()) {
-            throw new DataException("data source is empty; expected one of " + String.join(", ", PREFIXES)
+            throw BadInputException.of("data.source", "data source is empty; expected one of " + String.join(", ", PREFIXES)
                     + " followed by a path or name, e.g. csv:data.csv");
         }
         String s = source.strip();
@@ -61,7 +62,7 @@ public final class DataSources {
                     case "semicolon", ";" -> ';';
                     case "tab" -> '\t';
                     case "auto" -> CsvReader.DETECT;
-                    default -> throw new DataException(source + ": delimiter '" + d
+                    default -> throw BadInputException.inFile(source, "", "delimiter '" + d
                             + "' is not accepted; expected comma, semicolon, tab or auto");
                 };
                 rest = rest.substring(0, q);
@@ -81,13 +82,13 @@ public final class DataSources {
             noLabel(source, labelColumn, "synthetic data carry their own labels");
             return synthetic(source, s.substring(10));
         }
-        throw new DataException("data source '" + source + "' has no known prefix; expected one of "
+        throw BadInputException.of("data.source", "data source " + BadInputException.shown(source) + " has no known prefix; expected one of "
                 + String.join(", ", PREFIXES) + " (e.g. csv:data.csv, libsvm:data.txt, bundled:wdbc, synthetic:frost)");
     }
 
     private static String requirePath(String source, String path) {
         if (path.isBlank()) {
-            throw new DataException("data source '" + source + "' names no file; expected a path after the prefix");
+            throw BadInputException.of("data.source", "data source " + BadInputException.shown(source) + " names no file; expected a path after the prefix");
         }
         return path;
     }
@@ -99,7 +100,7 @@ public final class DataSources {
 
     private static void noLabel(String source, String labelColumn, String why) {
         if (labelColumn != null) {
-            throw new DataException(source + ": a label column ('" + labelColumn + "') was given, but " + why
+            throw BadInputException.inFile(source, "", "a label column ('" + labelColumn + "') was given, but " + why
                     + "; expected no label option");
         }
     }
@@ -112,11 +113,11 @@ public final class DataSources {
             for (String pair : spec.substring(q + 1).split("&", -1)) {
                 int eq = pair.indexOf('=');
                 if (eq <= 0) {
-                    throw new DataException(source + ": parameter '" + pair + "' is not key=value; expected e.g. "
+                    throw BadInputException.inFile(source, "", "parameter '" + pair + "' is not key=value; expected e.g. "
                             + "synthetic:" + generator + "?rows=500&seed=7");
                 }
                 if (params.put(pair.substring(0, eq), pair.substring(eq + 1)) != null) {
-                    throw new DataException(source + ": parameter '" + pair.substring(0, eq)
+                    throw BadInputException.inFile(source, "", "parameter '" + pair.substring(0, eq)
                             + "' is given twice; expected each key once");
                 }
             }
@@ -138,7 +139,7 @@ public final class DataSources {
                 data = Synthetic.frost(p.integer("rows", 1000), p.seed());
                 break;
             default:
-                throw new DataException(source + ": unknown generator '" + generator + "'; expected one of "
+                throw BadInputException.inFile(source, "", "unknown generator '" + generator + "'; expected one of "
                         + String.join(", ", GENERATORS));
         }
         return data;
@@ -163,7 +164,7 @@ public final class DataSources {
                 }
             }
             if (!unknown.isEmpty()) {
-                throw new DataException(source + ": unknown parameter '" + unknown.get(0) + "'; expected "
+                throw BadInputException.inFile(source, "", "unknown parameter '" + unknown.get(0) + "'; expected "
                         + String.join(", ", allowed));
             }
         }
@@ -176,7 +177,7 @@ public final class DataSources {
             try {
                 return Integer.parseInt(v.strip());
             } catch (NumberFormatException e) {
-                throw new DataException(source + ": " + key + " = '" + v + "' is not an integer; expected an integer");
+                throw BadInputException.inFile(source, "", "" + key + " = '" + v + "' is not an integer; expected an integer");
             }
         }
 
@@ -186,7 +187,7 @@ public final class DataSources {
                 return fallback;
             }
             if (settle.datasets.io.Numbers.classify(v) != settle.datasets.io.Numbers.OK) {
-                throw new DataException(source + ": " + key + " = '" + v + "' is not a finite number; expected a number");
+                throw BadInputException.inFile(source, "", "" + key + " = '" + v + "' is not a finite number; expected a number");
             }
             return settle.datasets.io.Numbers.parse(v);
         }
@@ -199,7 +200,7 @@ public final class DataSources {
             try {
                 return Long.parseLong(v.strip());
             } catch (NumberFormatException e) {
-                throw new DataException(source + ": seed = '" + v + "' is not an integer; expected a 64-bit integer");
+                throw BadInputException.inFile(source, "", "seed = '" + v + "' is not an integer; expected a 64-bit integer");
             }
         }
     }

@@ -2,6 +2,7 @@ package settle.datasets;
 
 import java.util.Arrays;
 import java.util.random.RandomGenerator;
+import settle.input.BadInputException;
 
 /** Seeded stratified splits: the test split, and the holdout carved from a training split. */
 public final class Splits {
@@ -23,12 +24,12 @@ public final class Splits {
      * @param fraction the share of the second part, strictly between 0 and 1
      * @param seed the generator seed
      * @return the two parts with their row indices
-     * @throws DataException when the fraction is out of range, or a class is too small to appear in both
+     * @throws BadInputException when the fraction is out of range, or a class is too small to appear in both
      *         parts at this fraction (the message names the class)
      */
     public static Split stratified(Dataset data, double fraction, long seed) {
         if (!(fraction > 0.0 && fraction < 1.0)) {
-            throw new DataException(data.name() + ": split fraction " + fraction
+            throw BadInputException.inFile(data.name(), "", "split fraction " + fraction
                     + " is out of range; expected a number strictly between 0 and 1");
         }
         int classes = data.classes();
@@ -47,7 +48,7 @@ public final class Splits {
         for (int k = 0; k < classes; k++) {
             long t = Math.round(fraction * counts[k]);
             if (t < 1 || t > counts[k] - 1) {
-                throw new DataException(data.name() + ": class '" + data.classNames().get(k) + "' has "
+                throw BadInputException.inFile(data.name(), "", "class '" + data.classNames().get(k) + "' has "
                         + counts[k] + " row" + (counts[k] == 1 ? "" : "s") + ", too few to appear in both parts of a "
                         + fraction + " split; expected a class with at least one row on each side");
             }

@@ -153,7 +153,7 @@ class ReportMarksTest {
     }
 
     @Test
-    void theBoundIsAbsentWithItsReasonForAnMlpAWithheldBoundAndAnOlderStudy() throws Exception {
+    void theBoundIsAbsentWithItsReasonForAnMlpAndAWithheldBound() throws Exception {
         SyntheticStudy mlp = marked(false);
         mlp.convex = false;
         mlp.bound = new double[] {3.0, 1.0, 2.0};
@@ -170,11 +170,5 @@ class ReportMarksTest {
         section = section(Files.readString(study.resolve("report.html")), "a-priori");
         assertFalse(section.contains("bound-ranking"), section);
         assertTrue(section.contains("Not shown: not computed: the bound is for SGD without momentum."), section);
-
-        study = marked(false).write(dir.resolve("older"));
-        Report.write(study);
-        section = section(Files.readString(study.resolve("report.html")), "a-priori");
-        assertFalse(section.contains("bound-ranking"), section);
-        assertTrue(section.contains("does not record the last-iterate bound"), section);
     }
 }

@@ -9,6 +9,7 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.reports.format.SummaryCsv;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.VerdictSentence;

@@ -3,6 +3,7 @@ package settle.engine.schedule;
 import java.math.BigDecimal;
 import java.util.List;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * {@code plateau}: cut the rate when the judged loss has stopped improving. The rate starts at {@code rate}.
@@ -122,7 +123,7 @@ public record Plateau(double rate, double cut, int stall, Gain gain, int rest, d
                 double a;
                 try {
                     a = r.toNumber("gain", g);
-                } catch (ScheduleException e) {
+                } catch (BadInputException e) {
                     throw r.badType("gain", g, "a percentage in [0%, 100%) such as 1%, or a finite number ≥ 0");
                 }
                 gain = new Gain(a, false);
@@ -195,7 +196,7 @@ public record Plateau(double rate, double cut, int stall, Gain gain, int rest, d
         public void epochEnded(int epoch, double trainObjective, double holdoutLoss) {
             double loss = p.judge == Judge.TRAIN ? trainObjective : holdoutLoss;
             if (p.judge == Judge.HOLDOUT && Double.isNaN(holdoutLoss)) {
-                throw new ScheduleException("judge", KIND + ": judge = 'holdout' needs a holdout loss, but the run "
+                throw BadInputException.of("judge", KIND + ": judge = 'holdout' needs a holdout loss, but the run "
                         + "has none; expected judge: train, or a plan with data.holdout-fraction > 0");
             }
             boolean lower = loss < best;

@@ -8,6 +8,7 @@ import settle.datasets.Split;
 import settle.datasets.Splits;
 import settle.datasets.Standardiser;
 import settle.engine.schedule.RunShape;
+import settle.input.BadInputException;
 
 /**
  * A plan's data, loaded and split the one way every command does it: the test split is carved from all rows
@@ -61,7 +62,7 @@ public final class PlanData {
      *
      * @param parsed the plan with its key positions
      * @return the splits
-     * @throws PlanException positioned at {@code data.source} when the data cannot be read, or at the
+     * @throws BadInputException positioned at {@code data.source} when the data cannot be read, or at the
      *         fraction whose split cannot be made
      */
     public static PlanData load(ParsedPlan parsed) {
@@ -69,7 +70,7 @@ public final class PlanData {
         Dataset all;
         try {
             all = DataSources.load(d.source(), d.label(), null);
-        } catch (IllegalArgumentException e) {
+        } catch (BadInputException e) {
             throw parsed.error(d.label() != null && e.getMessage() != null && e.getMessage().contains("label")
                     ? "data.label" : "data.source", e.getMessage());
         }
@@ -83,7 +84,7 @@ public final class PlanData {
      * @param parsed the plan with its key positions
      * @param all every row of the plan's data source, as read; not modified
      * @return the splits
-     * @throws PlanException positioned at the fraction whose split cannot be made
+     * @throws BadInputException positioned at the fraction whose split cannot be made
      */
     public static PlanData split(ParsedPlan parsed, Dataset all) {
         Plan plan = parsed.plan();
@@ -91,7 +92,7 @@ public final class PlanData {
         Split testSplit;
         try {
             testSplit = Splits.stratified(all, d.testFraction(), testSplitSeed(plan.seed()));
-        } catch (IllegalArgumentException e) {
+        } catch (BadInputException e) {
             throw parsed.error("data.test-fraction", e.getMessage());
         }
         Dataset train = testSplit.train();
@@ -100,7 +101,7 @@ public final class PlanData {
             Split h;
             try {
                 h = Splits.stratified(train, d.holdoutFraction(), holdoutSplitSeed(plan.seed()));
-            } catch (IllegalArgumentException e) {
+            } catch (BadInputException e) {
                 throw parsed.error("data.holdout-fraction", e.getMessage());
             }
             train = h.train();

@@ -20,14 +20,15 @@ import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
 import settle.engine.schedule.NudgeLog;
 import settle.engine.schedule.Schedule;
-import settle.engine.schedule.ScheduleException;
+import settle.input.BadInputException;
 import settle.engine.schedule.Schedules;
 import settle.engine.train.Sampling;
+import settle.reports.format.Grid;
 
 /**
  * Reads a plan file into a resolved {@link Plan}. This class is the one place where defaults are filled in
  * (see {@link #DEFAULTS_TABLE}). Unknown keys are errors with a near-miss suggestion; every error is a
- * {@link PlanException} naming the file, line, column and key path and what is accepted.
+ * {@link BadInputException} naming the file, line, column and key path and what is accepted.
  *
  * <p>Paths in a plan ({@code csv:PATH}, {@code libsvm:PATH}) are relative to the folder of the plan file and
  * are stored absolute in the resolved plan, so that the resolved plan written into a study directory means
@@ -108,7 +109,7 @@ public final class PlanParser {
     private final Map<String, int[]> positions = new HashMap<>();
     private final List<String> warnings = new ArrayList<>();
     private final List<String> armPaths = new ArrayList<>();
-    private final List<GridExpansion> grids = new ArrayList<>();
+    private final List<Grid> grids = new ArrayList<>();
 
     private PlanParser(String file, Path baseDirectory, String defaultStudy) {
         this.file = file;
@@ -121,7 +122,7 @@ public final class PlanParser {
      *
      * @param planFile the plan; named in messages as given
      * @return the resolved plan
-     * @throws PlanException when the file cannot be read or the plan is not valid
+     * @throws BadInputException when the file cannot be read or the plan is not valid
      */
     public static Plan parse(Path planFile) {
         return read(planFile).plan();
@@ -130,7 +131,7 @@ public final class PlanParser {
     /**
      * Reads and resolves a plan file, keeping the positions of its keys.
      *
-     * @throws PlanException when the file cannot be read or the plan is not valid
+     * @throws BadInputException when the file cannot be read or the plan is not valid
      */
     public static ParsedPlan read(Path planFile) {
         String name = planFile.toString();
@@ -140,11 +141,11 @@ public final class PlanParser {
                     .onUnmappableCharacter(CodingErrorAction.REPORT)
                     .decode(ByteBuffer.wrap(Files.readAllBytes(planFile))).toString();
         } catch (NoSuchFileException e) {
-            throw new PlanException(name, 0, 0, "", "no such file; give the path of a plan YAML file");
+            throw BadInputException.at(name, 0, 0, "", "no such file; give the path of a plan YAML file");
         } catch (CharacterCodingException e) {
-            throw new PlanException(name, 0, 0, "", "not UTF-8 text; save the plan as UTF-8");
+            throw BadInputException.at(name, 0, 0, "", "not UTF-8 text; save the plan as UTF-8");
         } catch (IOException e) {
-            throw new PlanException(name, 0, 0, "", "cannot read the plan: " + e.getMessage());
+            throw BadInputException.at(name, 0, 0, "", "cannot read the plan: " + e.getMessage());
         }
         Path parent = planFile.toAbsolutePath().getParent();
         return read(text, name, parent == null ? Path.of("") : parent);
@@ -156,7 +157,7 @@ public final class PlanParser {
      * @param text the YAML text
      * @param fileName the name used in messages; its name without extension is the default study name
      * @param baseDirectory the folder relative paths in the plan are resolved against
-     * @throws PlanException when the plan is not valid
+     * @throws BadInputException when the plan is not valid
      */
     public static ParsedPlan read(String text, String fileName, Path baseDirectory) {
         Path leaf = Path.of(fileName).getFileName();
@@ -272,7 +273,7 @@ public final class PlanParser {
             for (String k : List.of("hidden", "activation")) {
                 if (present(m, k)) {
                     YamlNode.Entry e = m.entries.get(k);
-                    warnings.add(new PlanException(file, e.keyLine, e.keyColumn, "model." + k,
+                    warnings.add(BadInputException.at(file, e.keyLine, e.keyColumn, "model." + k,
                             "applies to kind: mlp only; ignored for this logistic model").getMessage());
                 }
             }
@@ -483,16 +484,16 @@ public final class PlanParser {
         }
         List<ArmPlan> arms = new ArrayList<>();
         Map<String, String> seen = new LinkedHashMap<>();
-        GridExpansion[] byEntry = new GridExpansion[templates.size()];
+        Grid[] byEntry = new Grid[templates.size()];
         int entries = 0;
         for (Template t : templates) {
             List<ArmPlan> expanded = perTemplate.get(t.index);
             if (t.grid >= 0) {
-                List<GridExpansion.Expanded> indices = new ArrayList<>();
+                List<Grid.Member> indices = new ArrayList<>();
                 for (int i = 0; i < expanded.size(); i++) {
-                    indices.add(new GridExpansion.Expanded(arms.size() + i, t.gridChoices.get(i)));
+                    indices.add(new Grid.Member(arms.size() + i, t.gridChoices.get(i)));
                 }
-                byEntry[t.grid] = new GridExpansion(t.name, t.gridKeys, t.gridValues, indices);
+                byEntry[t.grid] = new Grid(t.name, t.gridKeys, t.gridValues, indices);
                 entries = Math.max(entries, t.grid + 1);
             }
             if (expanded == null) {
@@ -618,7 +619,7 @@ public final class PlanParser {
         Schedule schedule;
         try {
             schedule = Schedules.parse(raw);
-        } catch (ScheduleException e) {
+        } catch (BadInputException e) {
             String key = e.key() == null ? "" : e.key();
             String top = key.split("[.\\[]", 2)[0];
             String detail = e.getMessage();
@@ -628,8 +629,6 @@ public final class PlanParser {
             }
             throw positioned(key.isEmpty() ? schedulePath : schedulePath + "." + key,
                     detail + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
-        } catch (IllegalArgumentException e) {
-            throw positioned(schedulePath, e.getMessage() + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
         }
         Map<String, Object> resolved = schedule.resolved();
         if ("plateau".equals(resolved.get("kind")) && "holdout".equals(resolved.get("judge"))
@@ -838,7 +837,7 @@ public final class PlanParser {
             String kp = join(path, e.key);
             record(kp, e.value, e);
             if (!accepted.contains(e.key)) {
-                throw new PlanException(file, e.keyLine, e.keyColumn, kp, "unknown key '" + e.key + "' in "
+                throw BadInputException.at(file, e.keyLine, e.keyColumn, kp, "unknown key '" + e.key + "' in "
                         + where + NearMiss.suggestion(e.key, accepted) + " (accepted: "
                         + String.join(", ", accepted) + ")");
             }
@@ -881,23 +880,23 @@ public final class PlanParser {
         }
     }
 
-    private PlanException positioned(String path, String detail) {
+    private BadInputException positioned(String path, String detail) {
         String p = path;
         while (true) {
             int[] pos = positions.get(p);
             if (pos != null) {
-                return new PlanException(file, pos[0], pos[1], path, detail);
+                return BadInputException.at(file, pos[0], pos[1], path, detail);
             }
             int cut = Math.max(p.lastIndexOf('.'), p.lastIndexOf('['));
             if (cut <= 0) {
-                return new PlanException(file, 0, 0, path, detail);
+                return BadInputException.at(file, 0, 0, path, detail);
             }
             p = p.substring(0, cut);
         }
     }
 
-    private PlanException error(YamlNode at, String path, String detail) {
-        return new PlanException(file, at.line, at.column, path, detail);
+    private BadInputException error(YamlNode at, String path, String detail) {
+        return BadInputException.at(file, at.line, at.column, path, detail);
     }
 
     private static String join(String parent, String key) {

@@ -12,6 +12,7 @@ import java.util.ArrayDeque;
 import java.util.Deque;
 import org.yaml.snakeyaml.error.Mark;
 import org.yaml.snakeyaml.error.MarkedYAMLException;
+import settle.input.BadInputException;
 
 /**
  * Reads one YAML document into a {@link YamlNode} tree that keeps every position, through Jackson's
@@ -34,7 +35,7 @@ final class YamlReader {
      * @param text the whole file
      * @param file the file name used in messages
      * @return the root node, never null
-     * @throws PlanException on a syntax error, a duplicate key, an alias, an empty file or a second document
+     * @throws BadInputException on a syntax error, a duplicate key, an alias, an empty file or a second document
      */
     static YamlNode read(String text, String file) {
         return new YamlReader(file).parse(text);
@@ -45,21 +46,21 @@ final class YamlReader {
         try (JsonParser p = FACTORY.createParser(text)) {
             JsonToken t = p.nextToken();
             if (t == null) {
-                throw new PlanException(file, 1, 1, "", "the plan is empty; expected a map with at least "
+                throw BadInputException.at(file, 1, 1, "", "the plan is empty; expected a map with at least "
                         + "'data', 'arms' (and usually 'study', 'seed', 'replicates', 'model', 'training')");
             }
             YamlNode root = readValue(p, t, path);
             JsonToken next = p.nextToken();
             if (next != null) {
                 JsonLocation l = p.currentTokenLocation();
-                throw new PlanException(file, l.getLineNr(), l.getColumnNr(), "",
+                throw BadInputException.at(file, l.getLineNr(), l.getColumnNr(), "",
                         "a plan file holds one YAML document; found a second one (remove the '---' separator)");
             }
             return root;
         } catch (JsonProcessingException e) {
             throw syntaxError(e, path);
         } catch (IOException e) {
-            throw new PlanException(file, 0, 0, "", "cannot read: " + e.getMessage());
+            throw BadInputException.at(file, 0, 0, "", "cannot read: " + e.getMessage());
         }
     }
 
@@ -68,7 +69,7 @@ final class YamlReader {
         int line = l.getLineNr();
         int column = l.getColumnNr();
         if (p instanceof YAMLParser y && y.isCurrentAlias()) {
-            throw new PlanException(file, line, column, render(path),
+            throw BadInputException.at(file, line, column, render(path),
                     "YAML aliases (*name) are not supported in a plan; write the value out");
         }
         switch (t) {
@@ -81,7 +82,7 @@ final class YamlReader {
                     path.addLast(path.isEmpty() ? key : "." + key);
                     if (map.entries.containsKey(key)) {
                         YamlNode.Entry first = map.entries.get(key);
-                        throw new PlanException(file, kl.getLineNr(), kl.getColumnNr(), render(path),
+                        throw BadInputException.at(file, kl.getLineNr(), kl.getColumnNr(), render(path),
                                 "duplicate key '" + key + "' (first at line " + first.keyLine
                                         + "); remove one of them: each key may appear once in a map");
                     }
@@ -124,7 +125,7 @@ final class YamlReader {
             case VALUE_NULL:
                 return new YamlNode.Scalar(line, column, YamlNode.ScalarType.NULL, p.getText(), null);
             default:
-                throw new PlanException(file, line, column, render(path), "unexpected YAML content " + t);
+                throw BadInputException.at(file, line, column, render(path), "unexpected YAML content " + t);
         }
     }
 
@@ -153,7 +154,7 @@ final class YamlReader {
         return found(problem) + "; a plan is a map of 'key: value' lines, nested by indenting with spaces";
     }
 
-    private PlanException syntaxError(JsonProcessingException e, Deque<String> path) {
+    private BadInputException syntaxError(JsonProcessingException e, Deque<String> path) {
         Throwable c = e;
         while (c != null && !(c instanceof MarkedYAMLException)) {
             c = c.getCause();
@@ -166,20 +167,20 @@ final class YamlReader {
             if (context != null && contextText != null && contextText.contains("flow")) {
                 // An unclosed '[' or '{' swallows what follows; the bracket is the place to fix.
                 boolean sequence = contextText.contains("sequence");
-                return new PlanException(file, context.getLine() + 1, context.getColumn() + 1, render(path),
+                return BadInputException.at(file, context.getLine() + 1, context.getColumn() + 1, render(path),
                         "YAML syntax: '" + (sequence ? "[" : "{") + "' is not closed (" + found(what)
                                 + " at line " + (problem.getLine() + 1) + ", column " + (problem.getColumn() + 1)
                                 + "); close it with '" + (sequence ? "]" : "}") + "', and quote values that "
                                 + "contain ':', '?', ',', '[' or '{'");
             }
             if (problem != null) {
-                return new PlanException(file, problem.getLine() + 1, problem.getColumn() + 1, render(path),
+                return BadInputException.at(file, problem.getLine() + 1, problem.getColumn() + 1, render(path),
                         "YAML syntax: " + explain(what));
             }
         }
         JsonLocation l = e.getLocation();
         String msg = e.getOriginalMessage();
-        return new PlanException(file, l == null ? 0 : l.getLineNr(), l == null ? 0 : l.getColumnNr(),
+        return BadInputException.at(file, l == null ? 0 : l.getLineNr(), l == null ? 0 : l.getColumnNr(),
                 render(path), "YAML syntax: " + msg);
     }
 }

@@ -24,6 +24,9 @@ public record Grid(String arm, List<String> keys, List<List<String>> values, Lis
 
         /** @param values copied */
         public Member {
+            if (arm < 0) {
+                throw new IllegalArgumentException("an arm index is ≥ 0: " + arm);
+            }
             values = List.copyOf(values);
         }
     }
@@ -38,5 +41,16 @@ public record Grid(String arm, List<String> keys, List<List<String>> values, Lis
         keys = List.copyOf(keys);
         values = values.stream().map(List::copyOf).toList();
         members = List.copyOf(members);
+        if (keys.isEmpty() || values.size() != keys.size() || members.isEmpty()) {
+            throw new IllegalArgumentException("a grid sweeps at least one key with its values and expands into at "
+                    + "least one arm: " + keys.size() + " keys, " + values.size() + " value lists, " + members.size()
+                    + " arms");
+        }
+        for (Member m : members) {
+            if (m.values().size() != keys.size()) {
+                throw new IllegalArgumentException("arm " + m.arm() + " has " + m.values().size() + " grid values for "
+                        + keys.size() + " keys");
+            }
+        }
     }
 }

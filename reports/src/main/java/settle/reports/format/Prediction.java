@@ -1,8 +1,8 @@
 package settle.reports.format;
 
 /**
- * A replicate's predicted noise ball, as its file records it (study directory format 2). A number that does not
- * apply, is not finite or is not recorded is NaN; a count that is not recorded is −1.
+ * A replicate's predicted noise ball, as its file records it ({@code prediction}). A number that does not apply (JSON
+ * null) is NaN; the counts of a skipped prediction are −1.
  *
  * @param predicted false when the prediction was skipped
  * @param skipped why it was skipped ("" when predicted)
@@ -17,6 +17,8 @@ package settle.reports.format;
  * @param unstableFromUpdate the first such update (from 1), or 0 when stable
  * @param unstableRateTimesCurvature α_t·λmax at that update (NaN when stable)
  * @param epochDistanceSq predicted E‖θ − θ*‖² at the end of each epoch (NaN from the unstable epoch on), or null
+ *     when skipped
+ * @param epochExcessLoss predicted excess loss at the end of each epoch (NaN from the unstable epoch on), or null
  *     when skipped
  * @param tailUpdates L, the updates of the tail
  * @param tailDistanceSq predicted E‖θ_t − θ*‖² averaged over every tail update
@@ -33,8 +35,8 @@ package settle.reports.format;
  */
 public record Prediction(boolean predicted, String skipped, String kind, String label, String sampling,
         double momentum, double stabilityBound, double largestRateTimesCurvature, boolean stable,
-        long unstableFromUpdate, double unstableRateTimesCurvature, double[] epochDistanceSq, int tailUpdates,
-        double tailDistanceSq, int tailEpochEnds, double tailDistanceSqEpochEnds, double tailExcessLoss,
+        long unstableFromUpdate, double unstableRateTimesCurvature, double[] epochDistanceSq, double[] epochExcessLoss,
+        int tailUpdates, double tailDistanceSq, int tailEpochEnds, double tailDistanceSqEpochEnds, double tailExcessLoss,
         double finalDistanceSq, double finalExcessLoss, double finalBiasSq, double finalBall, double tailBiasSq,
         double tailBall, FixedPoint fixedPoint) {
 
@@ -58,7 +60,7 @@ public record Prediction(boolean predicted, String skipped, String kind, String 
      * @return a skipped prediction
      */
     public static Prediction skipped(String reason) {
-        return new Prediction(false, reason, "", "", "", 0, Double.NaN, Double.NaN, true, 0, Double.NaN, null, -1,
+        return new Prediction(false, reason, "", "", "", 0, Double.NaN, Double.NaN, true, 0, Double.NaN, null, null, -1,
                 Double.NaN, -1, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN,
                 Double.NaN, null);
     }

@@ -43,18 +43,8 @@ final class AprioriSection implements Section {
             return;
         }
         Bound bound = study.reference().bound();
-        if (bound == null) {
-            d.para("Not shown: this study's reference.json does not record the last-iterate bound (it was written "
-                    + "by an earlier settle); settle check " + study.directory().resolve("plan.yaml") + " prints it.");
-            return;
-        }
         if (!bound.computed()) {
             d.para("Not shown: " + bound.skipped() + ".");
-            return;
-        }
-        if (bound.values().length != study.armCount()) {
-            d.para("Not shown: reference.json records the bound for " + bound.values().length + " arms; the study has "
-                    + study.armCount() + ".");
             return;
         }
         w.open("p");
