@@ -149,6 +149,10 @@ public final class TraceCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
+        if (dump != null && Files.exists(dump) && !Files.isDirectory(dump)) {
+            throw BadInputException.of("--dump", "--dump " + dump + " is a file; expected a directory to write the"
+                    + " dump into (it is made if missing)");
+        }
         if (plan != null) {
             return tracePlan(out, err);
         }

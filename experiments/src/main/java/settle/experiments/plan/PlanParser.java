@@ -1,5 +1,7 @@
 package settle.experiments.plan;
 
+import static settle.input.BadInputException.shown;
+
 import settle.engine.text.NearMiss;
 import java.io.IOException;
 import java.nio.ByteBuffer;
@@ -181,15 +183,20 @@ public final class PlanParser {
         }
         checkKeys(top, "", "the plan", TOP_KEYS);
         String study;
+        if (top.entries.containsKey("study") && !present(top, "study")) {
+            // `study: ""` or `study:` would silently fall back to the file's name: say so instead
+            throw error(value(top, "study"), "study", "is empty; give the study's name (1-100 letters, digits, '.',"
+                    + " '_' or '-', not starting with '.'), or leave the key out to name it after the plan file");
+        }
         if (present(top, "study")) {
             study = string(top, "", "study");
             if (!Plan.validStudyName(study)) {
                 throw error(value(top, "study"), "study", "must be 1-100 letters, digits, '.', '_' or '-', "
-                        + "not starting with '.' (it names the study directory), got '" + study + "'");
+                        + "not starting with '.' (it names the study directory), got " + shown(study));
             }
         } else {
             if (!Plan.validStudyName(defaultStudy)) {
-                throw error(top, "study", "missing; the file name '" + defaultStudy + "' cannot name a study "
+                throw error(top, "study", "missing; the file name " + shown(defaultStudy) + " cannot name a study "
                         + "directory, so give 'study:' (letters, digits, '.', '_' or '-')");
             }
             study = defaultStudy;
@@ -222,12 +229,12 @@ public final class PlanParser {
         if (colon < 0) {
             String hint = raw.matches("[A-Za-z0-9_-]+") ? "; did you mean 'bundled:" + raw + "'?"
                     : raw.toLowerCase(Locale.ROOT).endsWith(".csv") ? "; did you mean 'csv:" + raw + "'?" : "";
-            throw error(at, "data.source", "must be " + SOURCE_FORMS + ", got '" + raw + "'" + hint);
+            throw error(at, "data.source", "must be " + SOURCE_FORMS + ", got " + shown(raw) + hint);
         }
         String kind = raw.substring(0, colon);
         String rest = raw.substring(colon + 1).trim();
         if (!SOURCE_KINDS.contains(kind)) {
-            throw error(at, "data.source", "unknown data source kind '" + kind + "'"
+            throw error(at, "data.source", "unknown data source kind " + shown(kind)
                     + NearMiss.suggestion(kind, SOURCE_KINDS) + " (accepted: " + SOURCE_FORMS + ")");
         }
         if (rest.isEmpty()) {
@@ -241,7 +248,7 @@ public final class PlanParser {
             try {
                 path = Path.of(rest);
             } catch (java.nio.file.InvalidPathException e) {
-                throw error(at, "data.source", "not a valid file path: '" + rest + "'");
+                throw error(at, "data.source", "not a valid file path: " + shown(rest));
             }
             source = kind + ":" + baseDirectory.resolve(path).normalize();
         } else {
@@ -452,7 +459,7 @@ public final class PlanParser {
                     + "), got " + k.describe());
         }
         if (!Schedules.kinds().contains(sc.text)) {
-            throw error(k, path + ".kind", "unknown schedule kind '" + sc.text + "'"
+            throw error(k, path + ".kind", "unknown schedule kind " + shown(sc.text)
                     + NearMiss.suggestion(sc.text, Schedules.kinds())
                     + " (accepted: " + String.join(", ", Schedules.kinds()) + ")");
         }
@@ -507,7 +514,7 @@ public final class PlanParser {
                     String at = t.grid >= 0 ? "grid[" + t.grid + "]" : t.path() + ".name";
                     YamlNode node = t.grid >= 0 ? null : (present(t.item, "name")
                             ? value(t.item, "name") : t.item);
-                    String detail = "duplicate arm name '" + a.name() + "' (also from " + earlier
+                    String detail = "duplicate arm name " + shown(a.name()) + " (also from " + earlier
                             + "); arm names must be unique"
                             + (present(t.item, "name") ? "" : ": give each arm a 'name'");
                     throw node == null ? positioned(at, detail) : error(node, at, detail);
@@ -535,17 +542,17 @@ public final class PlanParser {
         for (Template t : templates) {
             if (t.name.equals(name)) {
                 if (t.grid >= 0) {
-                    throw error(value(entry, "arm"), path + ".arm", "arm '" + name + "' is already expanded by grid["
+                    throw error(value(entry, "arm"), path + ".arm", "arm " + shown(name) + " is already expanded by grid["
                             + t.grid + "]; put all its keys in one grid entry");
                 }
                 if (entry.entries.size() < 2) {
-                    throw error(entry, path, "names no schedule key to vary; add KEY: [values] for a key of arm '"
-                            + name + "'");
+                    throw error(entry, path, "names no schedule key to vary; add KEY: [values] for a key of arm "
+                            + shown(name));
                 }
                 return t;
             }
         }
-        throw error(value(entry, "arm"), path + ".arm", "no arm named '" + name + "'"
+        throw error(value(entry, "arm"), path + ".arm", "no arm named " + shown(name)
                 + NearMiss.suggestion(name, names) + " (arms: " + quoted(names) + ")");
     }
 
@@ -572,7 +579,7 @@ public final class PlanParser {
         for (YamlNode.ListNode l : values) {
             combinations *= l.items.size();
             if (combinations > 10_000) {
-                throw error(entry, path, "expands arm '" + t.name + "' into more than 10000 arms; "
+                throw error(entry, path, "expands arm " + shown(t.name) + " into more than 10000 arms; "
                         + "a grid may expand one arm into at most 10000");
             }
         }
@@ -625,10 +632,10 @@ public final class PlanParser {
             String detail = e.getMessage();
             if (gridOrigin != null && gridOrigin.containsKey(top)) {
                 String at = gridOrigin.get(top) + key.substring(top.length());
-                throw positioned(at, detail + " (in arm '" + name + "')");
+                throw positioned(at, detail + " (in arm " + shown(name) + ")");
             }
             throw positioned(key.isEmpty() ? schedulePath : schedulePath + "." + key,
-                    detail + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
+                    detail + (gridOrigin == null ? "" : " (in arm " + shown(name) + ")"));
         }
         Map<String, Object> resolved = schedule.resolved();
         if ("plateau".equals(resolved.get("kind")) && "holdout".equals(resolved.get("judge"))
@@ -655,11 +662,11 @@ public final class PlanParser {
         }
         for (Template t : templates) {
             if (t.grid >= 0 && t.name.equals(b)) {
-                throw error(value(top, "baseline"), "baseline", "arm '" + b + "' is expanded by grid[" + t.grid
-                        + "] into several arms; name one of them, such as '" + firstExpanded(arms, b) + "'");
+                throw error(value(top, "baseline"), "baseline", "arm " + shown(b) + " is expanded by grid[" + t.grid
+                        + "] into several arms; name one of them, such as " + shown(firstExpanded(arms, b)));
             }
         }
-        throw error(value(top, "baseline"), "baseline", "no arm named '" + b + "'"
+        throw error(value(top, "baseline"), "baseline", "no arm named " + shown(b)
                 + NearMiss.suggestion(b, names) + " (arms: " + quoted(names) + ")");
     }
 
@@ -786,8 +793,8 @@ public final class PlanParser {
                     return e;
                 }
             }
-            throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got '" + s.text
-                    + "'" + NearMiss.suggestion(s.text, accepted));
+            throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got "
+                    + shown(s.text) + NearMiss.suggestion(s.text, accepted));
         }
         throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got " + v.describe());
     }
@@ -837,7 +844,7 @@ public final class PlanParser {
             String kp = join(path, e.key);
             record(kp, e.value, e);
             if (!accepted.contains(e.key)) {
-                throw BadInputException.at(file, e.keyLine, e.keyColumn, kp, "unknown key '" + e.key + "' in "
+                throw BadInputException.at(file, e.keyLine, e.keyColumn, kp, "unknown key " + shown(e.key) + " in "
                         + where + NearMiss.suggestion(e.key, accepted) + " (accepted: "
                         + String.join(", ", accepted) + ")");
             }

@@ -1,5 +1,7 @@
 package settle.experiments.plan;
 
+import static settle.input.BadInputException.shown;
+
 import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
@@ -68,6 +70,10 @@ final class YamlReader {
         JsonLocation l = p.currentTokenLocation();
         int line = l.getLineNr();
         int column = l.getColumnNr();
+        if (path.size() > MAX_DEPTH) {
+            throw BadInputException.at(file, line, column, render(path), "nested more than " + MAX_DEPTH + " levels"
+                    + " deep; a plan nests a few levels (arms, schedule, warmup), so a bracket may be unclosed here");
+        }
         if (p instanceof YAMLParser y && y.isCurrentAlias()) {
             throw BadInputException.at(file, line, column, render(path),
                     "YAML aliases (*name) are not supported in a plan; write the value out");
@@ -124,10 +130,17 @@ final class YamlReader {
                         t == JsonToken.VALUE_TRUE);
             case VALUE_NULL:
                 return new YamlNode.Scalar(line, column, YamlNode.ScalarType.NULL, p.getText(), null);
+            case VALUE_EMBEDDED_OBJECT:
+                throw BadInputException.at(file, line, column, render(path), "binary data (!!binary) is not accepted in"
+                        + " a plan; write the value as text or a number");
             default:
-                throw BadInputException.at(file, line, column, render(path), "unexpected YAML content " + t);
+                throw BadInputException.at(file, line, column, render(path), "this YAML is not accepted in a plan;"
+                        + " write plain 'key: value' lines, lists and maps");
         }
     }
+
+    /** Deeper than any plan nests (arms[0].schedule.points[0] is 4 levels); far below the parser's own limit. */
+    private static final int MAX_DEPTH = 64;
 
     private static String render(Deque<String> path) {
         return String.join("", path);
@@ -179,8 +192,24 @@ final class YamlReader {
             }
         }
         JsonLocation l = e.getLocation();
-        String msg = e.getOriginalMessage();
         return BadInputException.at(file, l == null ? 0 : l.getLineNr(), l == null ? 0 : l.getColumnNr(),
-                render(path), "YAML syntax: " + msg);
+                render(path), "YAML syntax: " + plain(String.valueOf(e.getOriginalMessage())));
+    }
+
+    /** The parser's own words name its internals (event classes, feature flags): say what is wrong in ours. */
+    private static String plain(String message) {
+        if (message.startsWith("Expected a field name")) {
+            return "a key must be plain text, not a list or a map; write 'key: value'";
+        }
+        if (message.startsWith("Malformed numeric value")) {
+            int q = message.indexOf('\'');
+            int r = q < 0 ? -1 : message.indexOf('\'', q + 1);
+            return (r > q ? shown(message.substring(q + 1, r)) + " is" : "this is") + " not a finite number; write a"
+                    + " number such as 0.1 (a plan holds no NaN or infinity)";
+        }
+        if (message.contains("nesting depth")) {
+            return "nested too deep; a plan nests a few levels (arms, schedule, warmup), so a bracket may be unclosed";
+        }
+        return "this is not valid YAML here; a plan is a map of 'key: value' lines, nested by indenting with spaces";
     }
 }
