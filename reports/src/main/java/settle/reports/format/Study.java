@@ -2,6 +2,7 @@ package settle.reports.format;
 
 import java.nio.file.Path;
 import java.util.List;
+import settle.reports.text.Names;
 
 /**
  * A study directory as read by {@link StudyReader}.
@@ -36,9 +37,12 @@ public record Study(Path directory, Manifest manifest, String planText, Referenc
         return manifest.replicates();
     }
 
-    /** @return the arm's name (0-based index) */
+    /**
+     * @return the arm's name (0-based index) as the report shows it: isolated for bidirectional text, its invisible
+     *     characters made visible ({@link Names}); the name as recorded is {@code manifest().arms().get(arm)}
+     */
     public String armName(int arm) {
-        return manifest.arms().get(arm);
+        return Names.shown(manifest.arms().get(arm));
     }
 
     /** @return replicate k (0-based) of arm a (0-based), or null when missing */
