@@ -14,7 +14,6 @@ import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.Set;
 import settle.input.BadInputException;
 
 /**
@@ -315,18 +314,6 @@ final class JsonIn {
             return (int) whole(key, min, max);
         }
 
-        /** @return the whole number at {@code key} in [min, max], or {@code otherwise} for null */
-        long wholeOrNull(String key, long min, long max, long otherwise) {
-            if (isNull(key)) {
-                return otherwise;
-            }
-            Object v = raw(key);
-            if (!(v instanceof Long l) || l < min || l > max) {
-                throw bad(key, wholeWords(min, max) + " or null", v);
-            }
-            return l;
-        }
-
         private static String wholeWords(long min, long max) {
             if (max == Long.MAX_VALUE) {
                 return min == Long.MIN_VALUE ? "a whole number" : "a whole number ≥ " + min;
@@ -490,16 +477,6 @@ final class JsonIn {
                 out[i] = (long) x;
             }
             return out;
-        }
-
-        /** Refuses keys other than {@code keys}: a file of this format holds exactly these. */
-        void only(Set<String> keys) {
-            for (String k : map.keySet()) {
-                if (!keys.contains(k)) {
-                    throw BadInputException.inFile(file, at(k), "not a key of this file in format "
-                            + StudyFormat.VERSION + "; expected only " + String.join(", ", keys));
-                }
-            }
         }
     }
 }
