@@ -24,6 +24,7 @@ import settle.experiments.run.ReplicateExecutor;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.run.ReplicateWork;
+import settle.experiments.run.WorkFailedException;
 import settle.experiments.study.ClusterExecutorFactory;
 import settle.experiments.study.StudyContext;
 import settle.experiments.study.StudyRunner;
@@ -199,10 +200,11 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
             while (cause.getCause() instanceof SparkException) {
                 cause = cause.getCause();
             }
-            throw new IllegalStateException("the Spark job failed after " + done + " of " + total + " replicates: "
+            throw new WorkFailedException("the Spark job failed after " + done + " of " + total + " replicates: "
                     + firstLine(cause.getMessage()), e);
         }
-        throw new IllegalStateException("the Spark job ended with " + done + " of " + total + " replicates returned");
+        throw new WorkFailedException("the Spark job ended with " + done + " of " + total + " replicates returned",
+                null);
     }
 
     private static String firstLine(String message) {

@@ -14,6 +14,7 @@ import java.util.List;
 import org.apache.spark.TaskContext;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.experiments.run.WorkFailedException;
 import settle.input.BadInputException;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.run.ReplicateKey;
@@ -69,7 +70,7 @@ class SparkExecutorTest {
             }
 
             received.clear();
-            IllegalStateException failed = assertThrows(IllegalStateException.class,
+            WorkFailedException failed = assertThrows(WorkFailedException.class,
                     () -> spark.runAll(List.of(BROKEN), key -> StudyRunner.outcome(context, key), received::add));
             assertTrue(received.isEmpty());
             String message = failed.getMessage();

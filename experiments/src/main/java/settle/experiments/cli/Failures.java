@@ -12,6 +12,7 @@ import java.util.concurrent.CompletionException;
 import java.util.concurrent.ExecutionException;
 import picocli.CommandLine;
 import settle.engine.minimum.NoMinimiserException;
+import settle.experiments.run.WorkFailedException;
 import settle.input.BadInputException;
 
 /**
@@ -21,7 +22,8 @@ import settle.input.BadInputException;
  * <ul>
  *   <li>{@link BadInputException}: exit 2 ({@link Main#BAD_INPUT}), its message alone (one line naming the file, line,
  *       column or key and what is accepted; {@code settle COMMAND: } in front when it names no file);</li>
- *   <li>the work failed — an I/O error ({@link IOException}, a lock held by a live run included), no minimiser:
+ *   <li>the work failed — an I/O error ({@link IOException}, a lock held by a live run included), no minimiser, a
+ *       cluster job that failed ({@link WorkFailedException}):
  *       exit 1 ({@link Main#FAILED}), {@code settle COMMAND: } and the reason;</li>
  *   <li>interrupted: exit 130 ({@link Main#INTERRUPTED});</li>
  *   <li>anything else is a fault in settle, never the user's: exit 1, one line saying "internal error" and the path
@@ -66,7 +68,7 @@ final class Failures {
         } else if (t instanceof InterruptedException) {
             Thread.currentThread().interrupt();
             err.println(command + ": interrupted; what was finished is kept, run the same command again to go on");
-        } else if (t instanceof IOException || t instanceof NoMinimiserException) {
+        } else if (t instanceof IOException || t instanceof NoMinimiserException || t instanceof WorkFailedException) {
             err.println(command + ": " + oneLine(t.getMessage() == null ? t.toString() : t.getMessage()));
         } else {
             err.println(command + ": internal error (a fault in settle, not in its input): " + oneLine(t.toString())
