@@ -47,6 +47,7 @@ import settle.input.BadInputException;
 import settle.reports.format.AtomicFile;
 import settle.experiments.study.ReplicateFile;
 import settle.experiments.study.StudyContext;
+import settle.reports.format.NumberText;
 import settle.reports.format.ReplicateJson;
 import settle.reports.format.StudyFormat;
 
@@ -508,7 +509,7 @@ public final class TraceCommand implements Callable<Integer> {
             double[] rates = result.rates();
             for (int t = 1; t <= rates.length; t++) {
                 int epoch = (t - 1) / updatesPerEpoch + 1;
-                w.write(epoch + "," + t + "," + rates[t - 1] + "\n");
+                w.write(epoch + "," + t + "," + NumberText.shortest(rates[t - 1]) + "\n");
             }
         }
         try (Writer w = Files.newBufferedWriter(dir.resolve("epochs.csv"), StandardCharsets.UTF_8)) {
@@ -520,14 +521,14 @@ public final class TraceCommand implements Callable<Integer> {
         }
         try (Writer w = Files.newBufferedWriter(dir.resolve("final.csv"), StandardCharsets.UTF_8)) {
             for (double v : result.finalParameters()) {
-                w.write(v + "\n");
+                w.write(NumberText.shortest(v) + "\n");
             }
         }
     }
 
     /** @return the shortest decimal that reads back as the same double; empty for NaN (not applicable) */
     private static String cell(double v) {
-        return Double.isNaN(v) ? "" : Double.toString(v);
+        return Double.isNaN(v) ? "" : NumberText.shortest(v);
     }
 
     private static String fmt(double v) {

@@ -112,7 +112,9 @@ public final class NudgeQueue {
             } catch (NoSuchFileException e) {
                 // taken by the runner meanwhile
             } catch (IOException | BadInputException e) {
-                bad.add(new Unreadable(id, "not a nudge request: " + e.getMessage()));
+                // say what is wrong in our words: the JSON parser's name its own internals
+                bad.add(new Unreadable(id, "not a nudge request: " + (e instanceof BadInputException
+                        ? e.getMessage() : "not the JSON settle nudge writes")));
             }
         }
         return new Pending(out, bad);

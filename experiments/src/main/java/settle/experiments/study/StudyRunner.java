@@ -174,13 +174,20 @@ public final class StudyRunner {
             for (int a = 1; a <= plan.arms().size(); a++) {
                 AtomicFile.removeLeftovers(StudyFormat.armDirectory(directory, a));
             }
-            for (ReplicateKey key : all) {
-                Replicate kept = resumable(key);
-                if (kept == null) {
+            // every file an earlier run left is read and checked once; files are independent, so in parallel, each
+            // into its own slot; a file that fails is then set aside in key order, so the notes come in a fixed order
+            String[] invalid = new String[all.size()];
+            java.util.stream.IntStream.range(0, all.size()).parallel().forEach(i -> invalid[i] = check(all.get(i)));
+            for (int i = 0; i < all.size(); i++) {
+                ReplicateKey key = all.get(i);
+                if (invalid[i] != null) {
+                    setAside(key, invalid[i]);
+                }
+                if (status[i] == null) {
                     (plan.arms().get(key.arm() - 1).manual() ? manualMissing : missing).add(key);
                 } else {
                     present[key.arm()]++;
-                    if (kept.diverged()) {
+                    if (status[i].equals(Replicate.DIVERGED)) {
                         presentDiverged[key.arm()]++;
                     }
                 }
@@ -303,40 +310,41 @@ public final class StudyRunner {
     }
 
     /**
-     * A replicate file an earlier run wrote, kept when it is valid: the file of this replicate, in this format, every
-     * field checked. One that is unreadable or invalid (cut short, NUL bytes, empty, another replicate's, a field
-     * missing, of another type or out of range, another format) is moved aside under a quarantine name (never
-     * deleted), named on stderr with the reason, and the replicate is trained again.
+     * Checks the replicate file an earlier run wrote for {@code key}: kept when it is this replicate's file, in this
+     * format, every field checked (its status and epochs.csv rows are then held in memory); one that is unreadable or
+     * invalid (cut short, NUL bytes, empty, another replicate's, a field missing, of another type or out of range,
+     * another format) is to be set aside and trained again.
      *
-     * @return the replicate kept (its status and epochs now held in memory), or null when it is to be trained
+     * @return null when the file is kept or there is none; else one line saying what is wrong with it
      */
-    private Replicate resumable(ReplicateKey key) throws IOException {
+    private String check(ReplicateKey key) {
         Path file = StudyFormat.replicateFile(directory, key.arm(), key.replicate());
         if (!Files.exists(file)) {
             return null;
         }
         Plan plan = context.plan();
-        Replicate.Seeds seeds = seeds(key.replicate());
         ReplicateJson.Expected expected = new ReplicateJson.Expected(key.arm(), plan.arms().get(key.arm() - 1).name(),
-                key.replicate(), plan.seed(), seeds, context.model().parameterCount(), context.model().classes(),
-                context.data().test().rows(), context.shape().updatesPerEpoch(), context.shape().totalUpdates(),
-                context.minimum() != null);
-        String why;
+                key.replicate(), plan.seed(), seeds(key.replicate()), context.model().parameterCount(),
+                context.model().classes(), context.data().test().rows(), context.shape().updatesPerEpoch(),
+                context.shape().totalUpdates(), context.minimum() != null);
         try {
             Replicate r = ReplicateJson.read(Files.readAllBytes(file), file.toString(), expected);
             int i = index(key);
             status[i] = r.status();
             epochRows[i] = EpochsCsv.rows(r.arm(), r.armName(), r.replicate(), r.epochs());
-            return r;
+            return null;
         } catch (BadInputException e) {
-            why = e.getMessage();
+            return e.getMessage();
         } catch (IOException e) {
-            why = file + ": cannot be read (" + e.getMessage() + ")";
+            return file + ": cannot be read (" + e.getMessage() + ")";
         }
-        Path aside = StudyFormat.quarantine(file);
+    }
+
+    /** Moves the invalid replicate file of {@code key} aside (never deleting it) and says so on stderr. */
+    private void setAside(ReplicateKey key, String why) throws IOException {
+        Path aside = StudyFormat.quarantine(StudyFormat.replicateFile(directory, key.arm(), key.replicate()));
         notes.println("settle run: " + why + "; moved aside to " + aside.getFileName() + " and trained again");
         notes.flush();
-        return null;
     }
 
     /** @return replicate {@code k}'s derived seeds as its file records them */
