@@ -107,6 +107,6 @@ class SparkExecutorTest {
         StringWriter err = new StringWriter();
         assertEquals(2, Studies.settle(new StringWriter(), err, "run", plan.toString(), "--cluster", "nowhere:7077",
                 "--out", dir.resolve("s").toString(), "--quiet"));
-        assertEquals("--cluster nowhere:7077: Could not parse Master URL: 'nowhere:7077'", err.toString().trim());
+        assertEquals("settle run: --cluster nowhere:7077: Could not parse Master URL: 'nowhere:7077'", err.toString().trim());
     }
 }

@@ -96,8 +96,12 @@ public final class StudyLock implements AutoCloseable {
         }
     }
 
+    /** Releases the lock; closing it again does nothing. */
     @Override
     public void close() throws IOException {
+        if (!channel.isOpen()) {
+            return;
+        }
         try {
             // an empty lock file tells readers that no run holds it any more
             channel.truncate(0);

@@ -95,9 +95,9 @@ public final class StudyRunner {
     /** The grid structure the manifest records: the plan's, or the one an earlier run of this study recorded. */
     private List<Grid> grids = List.of();
     /** Each replicate's status while the run goes on (null: no file yet), in {@link StudyContext#keys()} order. */
-    private String[] status;
+    private final String[] status;
     /** Each replicate's rows of epochs.csv (null: no file yet), in the same order. */
-    private String[] epochRows;
+    private final String[] epochRows;
 
     /**
      * @param context the plan, its data and trainers
