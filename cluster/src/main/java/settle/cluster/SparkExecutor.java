@@ -24,9 +24,11 @@ import settle.experiments.run.ReplicateExecutor;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.run.ReplicateWork;
+import settle.experiments.run.WorkFailedException;
 import settle.experiments.study.ClusterExecutorFactory;
 import settle.experiments.study.StudyContext;
 import settle.experiments.study.StudyRunner;
+import settle.input.BadInputException;
 
 /**
  * Runs a study's replicates as Apache Spark tasks: one job whose partitions are the replicates, one replicate
@@ -62,7 +64,7 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
      * @param master the Spark master URL ({@code local[2]}, {@code local[2,3]}, {@code spark://host:7077},
      *     {@code yarn}); the Spark context is started on first use
      * @param context the study on the driver
-     * @throws settle.experiments.plan.PlanException when the plan has manual arms
+     * @throws settle.input.BadInputException when the plan has manual arms
      */
     public SparkExecutor(String master, StudyContext context) {
         this(master, context, new Train());
@@ -70,7 +72,8 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
 
     SparkExecutor(String master, StudyContext context, TaskBody body) {
         if (master == null || master.isBlank()) {
-            throw new IllegalArgumentException("--cluster needs a Spark master URL, e.g. local[2], spark://host:7077 or yarn");
+            throw BadInputException.of("--cluster", "--cluster needs a Spark master URL, e.g. local[2],"
+                    + " spark://host:7077 or yarn");
         }
         ClusterExecutorFactory.refuseManualArms(context.parsed());
         this.master = master;
@@ -129,7 +132,8 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
                             ? " (settle's cluster build holds Spark's core only: submit to YARN or Kubernetes with"
                                     + " spark-submit from a Spark installation, docs/cluster.md)"
                             : "";
-                    throw new IllegalArgumentException("--cluster " + master + ": " + firstLine(e.getMessage()) + hint, e);
+                    throw BadInputException.of("--cluster", "--cluster " + master + ": " + firstLine(e.getMessage())
+                            + hint).because(e);
                 }
                 throw e;
             }
@@ -196,10 +200,11 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
             while (cause.getCause() instanceof SparkException) {
                 cause = cause.getCause();
             }
-            throw new IllegalStateException("the Spark job failed after " + done + " of " + total + " replicates: "
+            throw new WorkFailedException("the Spark job failed after " + done + " of " + total + " replicates: "
                     + firstLine(cause.getMessage()), e);
         }
-        throw new IllegalStateException("the Spark job ended with " + done + " of " + total + " replicates returned");
+        throw new WorkFailedException("the Spark job ended with " + done + " of " + total + " replicates returned",
+                null);
     }
 
     private static String firstLine(String message) {

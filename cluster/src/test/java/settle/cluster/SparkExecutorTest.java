@@ -14,7 +14,8 @@ import java.util.List;
 import org.apache.spark.TaskContext;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.experiments.plan.PlanException;
+import settle.experiments.run.WorkFailedException;
+import settle.input.BadInputException;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
@@ -69,7 +70,7 @@ class SparkExecutorTest {
             }
 
             received.clear();
-            IllegalStateException failed = assertThrows(IllegalStateException.class,
+            WorkFailedException failed = assertThrows(WorkFailedException.class,
                     () -> spark.runAll(List.of(BROKEN), key -> StudyRunner.outcome(context, key), received::add));
             assertTrue(received.isEmpty());
             String message = failed.getMessage();
@@ -84,7 +85,7 @@ class SparkExecutorTest {
     void manualArmsAreRefusedBeforeSparkStarts() throws Exception {
         String manual = String.join("\n", "  - name: by-hand", "    schedule: {kind: constant, rate: 0.3}",
                 "    manual: true");
-        PlanException refused = assertThrows(PlanException.class, () -> new SparkExecutor("local[2]", context(manual)));
+        BadInputException refused = assertThrows(BadInputException.class, () -> new SparkExecutor("local[2]", context(manual)));
         assertTrue(refused.getMessage().contains("arms[3].manual"), refused.getMessage());
 
         Path plan = dir.resolve("manual.yaml");
@@ -106,6 +107,6 @@ class SparkExecutorTest {
         StringWriter err = new StringWriter();
         assertEquals(2, Studies.settle(new StringWriter(), err, "run", plan.toString(), "--cluster", "nowhere:7077",
                 "--out", dir.resolve("s").toString(), "--quiet"));
-        assertEquals("--cluster nowhere:7077: Could not parse Master URL: 'nowhere:7077'", err.toString().trim());
+        assertEquals("settle run: --cluster nowhere:7077: Could not parse Master URL: 'nowhere:7077'", err.toString().trim());
     }
 }

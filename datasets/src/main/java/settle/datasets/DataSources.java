@@ -1,5 +1,6 @@
 package settle.datasets;
 
+import settle.input.BadInputException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -46,11 +47,11 @@ public final class DataSources {
      *        the dataset's own label name; for LIBSVM and synthetic data it must be null
      * @param relativeTo the directory relative paths are resolved against, or null for the working directory
      * @return the dataset
-     * @throws DataException for an unknown prefix, bad parameters, a missing file or malformed content
+     * @throws BadInputException for an unknown prefix, bad parameters, a missing file or malformed content
      */
     public static Dataset load(String source, String labelColumn, Path relativeTo) {
         if (source == null || source.isBlank()) {
-            throw new DataException("data source is empty; expected one of " + String.join(", ", PREFIXES)
+            throw BadInputException.of("", "data source is empty; expected one of " + String.join(", ", PREFIXES)
                     + " followed by a path or name, e.g. csv:data.csv");
         }
         String s = source.strip();
@@ -69,7 +70,7 @@ public final class DataSources {
             noLabel(source, labelColumn, "synthetic data carry their own labels");
             return synthetic(source, s.substring(10));
         }
-        throw new DataException("data source '" + source + "' has no known prefix; expected one of "
+        throw BadInputException.of("", "data source '" + source + "' has no known prefix; expected one of "
                 + String.join(", ", PREFIXES) + " (e.g. csv:data.csv, libsvm:data.txt, bundled:wdbc, synthetic:frost)");
     }
 
@@ -86,7 +87,7 @@ public final class DataSources {
      * @param relativeTo the directory relative paths are resolved against, or null for the working directory
      * @param rule the split fractions and seeds ({@link SplitRule#NONE}: every row trains)
      * @return the kept rows and the splits
-     * @throws DataException as {@link #load}, and keyed ({@link DataException#key()}) for the problems one of the
+     * @throws BadInputException as {@link #load}, and keyed ({@link BadInputException#key()}) for the problems one of the
      *         plan's {@code data} keys causes or can fix
      */
     public static PreparedData prepare(String source, String labelColumn, TableOptions options, Path relativeTo,
@@ -97,7 +98,7 @@ public final class DataSources {
             return TableEncoder.prepare(table, options, parts[0], parts[1], parts[2]);
         }
         if (!options.isDefault()) {
-            throw DataException.forKey(firstSetKey(options), source + ": data." + firstSetKey(options)
+            throw BadInputException.of("data." + firstSetKey(options), source + ": data." + firstSetKey(options)
                     + " applies to csv: tables only; expected it absent for this source");
         }
         Dataset all = load(source, labelColumn, relativeTo);
@@ -118,12 +119,12 @@ public final class DataSources {
      * @param labelColumn the label column, or null for the last
      * @param relativeTo the directory relative paths are resolved against, or null for the working directory
      * @return the table as read
-     * @throws DataException for a bad source string, a missing file or refused content
+     * @throws BadInputException for a bad source string, a missing file or refused content
      */
     public static SourceTable readTable(String source, String labelColumn, Path relativeTo) {
         String s = source.strip();
         if (!s.startsWith("csv:")) {
-            throw new DataException(source + ": not a csv: source; expected csv:PATH");
+            throw BadInputException.of("", source + ": not a csv: source; expected csv:PATH");
         }
         String rest = s.substring(4);
         char delimiter = TableReader.DETECT;
@@ -135,7 +136,7 @@ public final class DataSources {
                 case "semicolon", ";" -> ';';
                 case "tab" -> '\t';
                 case "auto" -> TableReader.DETECT;
-                default -> throw new DataException(source + ": delimiter '" + d
+                default -> throw BadInputException.of("", source + ": delimiter '" + d
                         + "' is not accepted; expected comma, semicolon, tab or auto");
             };
             rest = rest.substring(0, q);
@@ -146,7 +147,7 @@ public final class DataSources {
 
     private static String requirePath(String source, String path) {
         if (path.isBlank()) {
-            throw new DataException("data source '" + source + "' names no file; expected a path after the prefix");
+            throw BadInputException.of("", "data source '" + source + "' names no file; expected a path after the prefix");
         }
         return path;
     }
@@ -158,7 +159,7 @@ public final class DataSources {
 
     private static void noLabel(String source, String labelColumn, String why) {
         if (labelColumn != null) {
-            throw new DataException(source + ": a label column ('" + labelColumn + "') was given, but " + why
+            throw BadInputException.of("", source + ": a label column ('" + labelColumn + "') was given, but " + why
                     + "; expected no label option");
         }
     }
@@ -171,11 +172,11 @@ public final class DataSources {
             for (String pair : spec.substring(q + 1).split("&", -1)) {
                 int eq = pair.indexOf('=');
                 if (eq <= 0) {
-                    throw new DataException(source + ": parameter '" + pair + "' is not key=value; expected e.g. "
+                    throw BadInputException.of("", source + ": parameter '" + pair + "' is not key=value; expected e.g. "
                             + "synthetic:" + generator + "?rows=500&seed=7");
                 }
                 if (params.put(pair.substring(0, eq), pair.substring(eq + 1)) != null) {
-                    throw new DataException(source + ": parameter '" + pair.substring(0, eq)
+                    throw BadInputException.of("", source + ": parameter '" + pair.substring(0, eq)
                             + "' is given twice; expected each key once");
                 }
             }
@@ -197,7 +198,7 @@ public final class DataSources {
                 data = Synthetic.frost(p.integer("rows", 1000), p.seed());
                 break;
             default:
-                throw new DataException(source + ": unknown generator '" + generator + "'; expected one of "
+                throw BadInputException.of("", source + ": unknown generator '" + generator + "'; expected one of "
                         + String.join(", ", GENERATORS));
         }
         return data;
@@ -222,7 +223,7 @@ public final class DataSources {
                 }
             }
             if (!unknown.isEmpty()) {
-                throw new DataException(source + ": unknown parameter '" + unknown.get(0) + "'; expected "
+                throw BadInputException.of("", source + ": unknown parameter '" + unknown.get(0) + "'; expected "
                         + String.join(", ", allowed));
             }
         }
@@ -235,7 +236,7 @@ public final class DataSources {
             try {
                 return Integer.parseInt(v.strip());
             } catch (NumberFormatException e) {
-                throw new DataException(source + ": " + key + " = '" + v + "' is not an integer; expected an integer");
+                throw BadInputException.of("", source + ": " + key + " = '" + v + "' is not an integer; expected an integer");
             }
         }
 
@@ -245,7 +246,7 @@ public final class DataSources {
                 return fallback;
             }
             if (settle.datasets.io.Numbers.classify(v) != settle.datasets.io.Numbers.OK) {
-                throw new DataException(source + ": " + key + " = '" + v + "' is not a finite number; expected a number");
+                throw BadInputException.of("", source + ": " + key + " = '" + v + "' is not a finite number; expected a number");
             }
             return settle.datasets.io.Numbers.parse(v);
         }
@@ -258,7 +259,7 @@ public final class DataSources {
             try {
                 return Long.parseLong(v.strip());
             } catch (NumberFormatException e) {
-                throw new DataException(source + ": seed = '" + v + "' is not an integer; expected a 64-bit integer");
+                throw BadInputException.of("", source + ": seed = '" + v + "' is not an integer; expected a 64-bit integer");
             }
         }
     }

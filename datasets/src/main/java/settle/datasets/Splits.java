@@ -1,5 +1,6 @@
 package settle.datasets;
 
+import settle.input.BadInputException;
 import java.util.Arrays;
 import java.util.List;
 import java.util.random.RandomGenerator;
@@ -24,7 +25,7 @@ public final class Splits {
      * @param fraction the share of the second part, strictly between 0 and 1
      * @param seed the generator seed
      * @return the two parts with their row indices
-     * @throws DataException when the fraction is out of range, or a class is too small to appear in both
+     * @throws BadInputException when the fraction is out of range, or a class is too small to appear in both
      *         parts at this fraction (the message names the class)
      */
     public static Split stratified(Dataset data, double fraction, long seed) {
@@ -43,11 +44,11 @@ public final class Splits {
      * @param fraction the share of the second part, strictly between 0 and 1
      * @param seed the generator seed
      * @return the rows of the first part and of the second, each ascending
-     * @throws DataException as {@link #stratified(Dataset, double, long)}
+     * @throws BadInputException as {@link #stratified(Dataset, double, long)}
      */
     public static int[][] rows(String name, int[] labels, List<String> classNames, double fraction, long seed) {
         if (!(fraction > 0.0 && fraction < 1.0)) {
-            throw new DataException(name + ": split fraction " + fraction
+            throw BadInputException.of("", name + ": split fraction " + fraction
                     + " is out of range; expected a number strictly between 0 and 1");
         }
         int classes = classNames.size();
@@ -69,7 +70,7 @@ public final class Splits {
         for (int k = 0; k < classes; k++) {
             long t = Math.round(fraction * counts[k]);
             if (t < 1 || t > counts[k] - 1) {
-                throw new DataException(name + ": class '" + classNames.get(k) + "' has "
+                throw BadInputException.of("", name + ": class '" + classNames.get(k) + "' has "
                         + counts[k] + " row" + (counts[k] == 1 ? "" : "s") + ", too few to appear in both parts of a "
                         + fraction + " split; expected a class with at least one row on each side");
             }
@@ -111,7 +112,7 @@ public final class Splits {
      * @param classNames the class names
      * @param rule the fractions and seeds
      * @return training, holdout and test rows, each ascending (holdout or test empty when its fraction is 0)
-     * @throws DataException keyed {@code test-fraction} or {@code holdout-fraction} when a split cannot be made
+     * @throws BadInputException keyed {@code test-fraction} or {@code holdout-fraction} when a split cannot be made
      */
     public static int[][] parts(String name, int[] labels, List<String> classNames, SplitRule rule) {
         int[] train = new int[labels.length];
@@ -124,8 +125,8 @@ public final class Splits {
                 int[][] t = rows(name, labels, classNames, rule.testFraction(), rule.testSeed());
                 train = t[0];
                 test = t[1];
-            } catch (DataException e) {
-                throw DataException.forKey("test-fraction", e.getMessage());
+            } catch (BadInputException e) {
+                throw BadInputException.of("data.test-fraction", e.getMessage());
             }
         }
         int[] holdout = new int[0];
@@ -138,8 +139,8 @@ public final class Splits {
             try {
                 h = rows(name + (rule.testFraction() > 0 ? " (training part)" : ""), trainLabels, classNames,
                         rule.holdoutFraction(), rule.holdoutSeed());
-            } catch (DataException e) {
-                throw DataException.forKey("holdout-fraction", e.getMessage());
+            } catch (BadInputException e) {
+                throw BadInputException.of("data.holdout-fraction", e.getMessage());
             }
             int[] rest = new int[h[0].length];
             for (int i = 0; i < rest.length; i++) {

@@ -2,6 +2,7 @@ package settle.datasets;
 
 import java.util.ArrayList;
 import java.util.List;
+import settle.input.BadInputException;
 
 /**
  * A z-score fitted on one dataset (the training split) and applied to any dataset with the same features:
@@ -71,11 +72,11 @@ public final class Standardiser {
     /**
      * @param data a dataset with the fitted features; not modified
      * @return the standardised copy (same name, labels and classes)
-     * @throws DataException when the feature names differ from the fitted ones
+     * @throws BadInputException when the feature names differ from the fitted ones
      */
     public Dataset apply(Dataset data) {
         if (!data.featureNames().equals(featureNames)) {
-            throw new DataException(data.name() + ": features " + data.featureNames()
+            throw BadInputException.inFile(data.name(), "", "features " + data.featureNames()
                     + " differ from the fitted " + featureNames + "; expected the same columns");
         }
         int d = means.length;

@@ -8,6 +8,7 @@ import java.io.StringReader;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import settle.datasets.io.CsvReader;
+import settle.input.BadInputException;
 
 class CsvReaderTest {
 
@@ -16,7 +17,7 @@ class CsvReaderTest {
     }
 
     private static String error(String text, String label) {
-        return assertThrows(DataException.class, () -> read(text, label)).getMessage();
+        return assertThrows(BadInputException.class, () -> read(text, label)).getMessage();
     }
 
     @Test

@@ -8,6 +8,7 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.input.BadInputException;
 
 class DataSourcesTest {
 
@@ -35,12 +36,12 @@ class DataSourcesTest {
     void badSourcesListWhatIsAccepted() {
         assertEquals("data source 'data.csv' has no known prefix; expected one of csv:, libsvm:, bundled:, synthetic: "
                 + "(e.g. csv:data.csv, libsvm:data.txt, bundled:wdbc, synthetic:frost)",
-                assertThrows(DataException.class, () -> DataSources.load("data.csv", null, null)).getMessage());
+                assertThrows(BadInputException.class, () -> DataSources.load("data.csv", null, null)).getMessage());
         assertEquals("synthetic:spiral: unknown generator 'spiral'; expected one of gaussian, xor, frost",
-                assertThrows(DataException.class, () -> DataSources.load("synthetic:spiral", null, null)).getMessage());
+                assertThrows(BadInputException.class, () -> DataSources.load("synthetic:spiral", null, null)).getMessage());
         assertEquals("synthetic:xor?width=3: unknown parameter 'width'; expected rows, noise, seed",
-                assertThrows(DataException.class, () -> DataSources.load("synthetic:xor?width=3", null, null)).getMessage());
+                assertThrows(BadInputException.class, () -> DataSources.load("synthetic:xor?width=3", null, null)).getMessage());
         assertEquals("missing.csv: no such file",
-                assertThrows(DataException.class, () -> DataSources.load("csv:missing.csv", null, dir)).getMessage());
+                assertThrows(BadInputException.class, () -> DataSources.load("csv:missing.csv", null, dir)).getMessage());
     }
 }

@@ -11,6 +11,7 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import settle.datasets.io.LibsvmReader;
+import settle.input.BadInputException;
 
 class LibsvmReaderTest {
 
@@ -59,7 +60,7 @@ class LibsvmReaderTest {
         read("1 100000:1\n0 1:1\n"); // at the cap: accepted
         assertEquals("t.txt: line 1, column 3: index 100001 is above the width cap of 100000 features; "
                 + "expected indices from 1 to 100000",
-                assertThrows(DataException.class, () -> read("1 100001:1\n0 1:1\n")).getMessage());
+                assertThrows(BadInputException.class, () -> read("1 100001:1\n0 1:1\n")).getMessage());
     }
 
     @Test
@@ -70,6 +71,6 @@ class LibsvmReaderTest {
             b.append(i % 2).append(" 100000:1\n");
         }
         assertEquals("t.txt: line 2001: 2001 rows × 100000 features exceed the cap of 200000000 dense values; "
-                + "expected a smaller file", assertThrows(DataException.class, () -> read(b.toString())).getMessage());
+                + "expected a smaller file", assertThrows(BadInputException.class, () -> read(b.toString())).getMessage());
     }
 }

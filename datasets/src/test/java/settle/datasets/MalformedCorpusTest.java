@@ -16,6 +16,7 @@ import java.util.stream.Stream;
 import org.junit.jupiter.api.DynamicTest;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestFactory;
+import settle.input.BadInputException;
 
 /** Every file under malformed/ must fail with exactly the one-line message that expected.tsv gives it. */
 class MalformedCorpusTest {
@@ -60,7 +61,7 @@ class MalformedCorpusTest {
             String expected = row[2];
             String source = (file.endsWith(".csv") ? "csv:" : "libsvm:") + file;
             tests.add(DynamicTest.dynamicTest(file, () -> {
-                DataException e = assertThrows(DataException.class, () -> DataSources.load(source, label, DIR));
+                BadInputException e = assertThrows(BadInputException.class, () -> DataSources.load(source, label, DIR));
                 assertEquals(expected, e.getMessage());
                 assertFalse(e.getMessage().contains("\n"), "one line");
                 assertTrue(e.getMessage().startsWith(file + ": "), "names the file");

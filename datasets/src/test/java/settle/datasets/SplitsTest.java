@@ -8,6 +8,7 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import java.util.Arrays;
 import java.util.List;
 import org.junit.jupiter.api.Test;
+import settle.input.BadInputException;
 
 class SplitsTest {
 
@@ -72,10 +73,10 @@ class SplitsTest {
     @Test
     void classTooSmallIsNamed() {
         // class c has 5 rows: round(0.05·5) = 0 rows would go to the test part
-        DataException e = assertThrows(DataException.class, () -> Splits.stratified(threeClasses(), 0.05, 1));
+        BadInputException e = assertThrows(BadInputException.class, () -> Splits.stratified(threeClasses(), 0.05, 1));
         assertEquals("three: class 'c' has 5 rows, too few to appear in both parts of a 0.05 split; "
                 + "expected a class with at least one row on each side", e.getMessage());
-        assertThrows(DataException.class, () -> Splits.stratified(threeClasses(), 1.0, 1));
-        assertThrows(DataException.class, () -> Splits.stratified(threeClasses(), 0.0, 1));
+        assertThrows(BadInputException.class, () -> Splits.stratified(threeClasses(), 1.0, 1));
+        assertThrows(BadInputException.class, () -> Splits.stratified(threeClasses(), 0.0, 1));
     }
 }

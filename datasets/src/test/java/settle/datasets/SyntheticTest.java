@@ -9,6 +9,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
 import settle.datasets.synthetic.Synthetic;
+import settle.input.BadInputException;
 
 class SyntheticTest {
 
@@ -58,6 +59,6 @@ class SyntheticTest {
     @Test
     void badParametersAreNamed() {
         assertEquals("synthetic data: correlation = 1.0 is out of range; expected a number in [0, 1)",
-                assertThrows(DataException.class, () -> Synthetic.gaussian(100, 2, 2, 1, 1.0, 1)).getMessage());
+                assertThrows(BadInputException.class, () -> Synthetic.gaussian(100, 2, 2, 1, 1.0, 1)).getMessage());
     }
 }

@@ -7,9 +7,11 @@ import settle.reports.html.ReportPage;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.VerdictOptions;
-import settle.reports.study.Study;
-import settle.reports.study.StudyFormatException;
-import settle.reports.study.StudyReader;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.Study;
+import settle.reports.format.StudyFormat;
+import settle.reports.format.StudyReader;
 
 /**
  * Builds {@code report.html} and {@code summary.csv} in a study directory, from its files only (study
@@ -17,10 +19,6 @@ import settle.reports.study.StudyReader;
  */
 public final class Report {
 
-    /** File name of the report. */
-    public static final String REPORT = "report.html";
-    /** File name of the machine-readable summary. */
-    public static final String SUMMARY = "summary.csv";
 
     /**
      * What was written.
@@ -51,11 +49,12 @@ public final class Report {
     }
 
     /**
-     * Reads the study directory, analyses it and writes both files atomically.
+     * Reads the study directory, analyses it and writes both files atomically (first removing the temporary files a
+     * killed writer left there).
      *
      * @param directory the study directory
      * @return what was written
-     * @throws StudyFormatException for a missing or malformed study directory
+     * @throws BadInputException for a missing or invalid study directory (naming the file and the field)
      * @throws IOException when a file cannot be read or written
      */
     public static Outcome write(Path directory) throws IOException {
@@ -65,12 +64,13 @@ public final class Report {
     /** As {@link #write(Path)} with the given verdict settings. */
     public static Outcome write(Path directory, VerdictOptions options) throws IOException {
         Study study = StudyReader.read(directory);
+        AtomicFile.removeLeftovers(directory);
         StudyAnalysis analysis = StudyAnalysis.of(study, options);
-        Path summary = directory.resolve(SUMMARY);
-        Path report = directory.resolve(REPORT);
-        AtomicWrite.text(summary, SummaryCsv.render(analysis));
+        Path summary = directory.resolve(StudyFormat.SUMMARY);
+        Path report = directory.resolve(StudyFormat.REPORT);
+        AtomicFile.write(summary, SummaryTable.render(analysis));
         ReportPage.Rendered page = ReportPage.renderPage(analysis);
-        AtomicWrite.text(report, page.html());
+        AtomicFile.write(report, page.html());
         return new Outcome(report, summary, study.armCount() * study.replicateCount(), study.missing(),
                 study.diverged(), page.failedSections(), analysis.verdict());
     }

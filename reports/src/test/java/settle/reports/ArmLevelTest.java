@@ -10,7 +10,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.ArmLevel;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.StudyReader;
+import settle.reports.format.StudyReader;
 
 /** Arm-level metrics read from a study directory: the final iterate, test probabilities, jackknife intervals. */
 class ArmLevelTest {

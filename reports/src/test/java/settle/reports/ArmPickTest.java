@@ -11,8 +11,8 @@ import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.ArmPick;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.Comparison;
-import settle.reports.study.Metric;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Metric;
+import settle.reports.format.StudyReader;
 
 /**
  * The verdict's pick ({@link ArmPick}) on studies written with known final gaps: the arm with the smallest median

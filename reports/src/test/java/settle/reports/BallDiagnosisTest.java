@@ -11,8 +11,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.BallDiagnosis;
 import settle.reports.metrics.BallDiagnosis.State;
-import settle.reports.study.Study;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyReader;
 
 /**
  * "Has the arm reached its ball?": each rule of {@link BallDiagnosis} in its order, with its sentence, and the
@@ -122,7 +122,7 @@ class BallDiagnosisTest {
     void theDistanceTablePrintsARatioOnlyWhereItTestsTheTheory() throws Exception {
         Path path = study();
         Report.write(path);
-        String html = Files.readString(path.resolve("report.html"));
+        String html = TestText.plain(Files.readString(path.resolve("report.html")));
         String section = html.substring(html.indexOf("<section id=\"distance\">"),
                 html.indexOf("<section id=\"wander\">"));
         assertEquals(8, ReportHtmlTest.count(section, "<tbody class=\"arm-ball\""));

@@ -10,8 +10,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.DistanceCurves;
 import settle.reports.metrics.EpochBands;
-import settle.reports.study.Study;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyReader;
 
 /**
  * The per-epoch summaries the objective and distance charts draw, on a study written with known values (4 epochs of

@@ -14,10 +14,10 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.reports.study.Grid;
-import settle.reports.study.Manifest;
-import settle.reports.study.StudyFormatException;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Grid;
+import settle.reports.format.Manifest;
+import settle.input.BadInputException;
+import settle.reports.format.StudyReader;
 
 /**
  * What the report learns from the manifest and nowhere else: the study's name, the model's λ and the grid structure.
@@ -99,8 +99,8 @@ class ManifestRecordsTest {
             s.omitted.add(key);
             Path study = s.write(dir.resolve("without-" + key));
             Path manifest = study.resolve("manifest.json");
-            String message = assertThrows(StudyFormatException.class, () -> Report.write(study)).getMessage();
-            assertEquals(manifest + ": missing key '" + key + "' (the manifest records the study's name, model_l2 and"
+            String message = assertThrows(BadInputException.class, () -> Report.write(study)).getMessage();
+            assertEquals(manifest + ": " + key + ": missing (the manifest records the study's name, model_l2 and"
                     + " grid for the report since this settle); run the study's plan again with settle run PLAN --out "
                     + study.toAbsolutePath() + " to rewrite it: its finished replicates are kept", message);
             assertFalse(Files.exists(study.resolve("report.html")));
@@ -109,16 +109,15 @@ class ManifestRecordsTest {
 
     @Test
     void aMalformedGridOrLambdaIsRefusedWithItsKeyPath() throws Exception {
-        assertRefused("model_l2", MAPPER.getNodeFactory().numberNode(-1.0),
-                "'model_l2' must be the model's penalty λ, a number ≥ 0, not -1.0");
-        assertRefused("study", MAPPER.getNodeFactory().textNode(" "), "'study' must be the study's name, not \" \"");
-        assertRefused("grid", grid(6, "0.1"), "grid[0].arms[1].index is 6; the study has arms 1 to 3");
-        assertRefused("grid", grid(2, "0.1"), "grid[0].arms[1].index 2 is already listed by a grid; an arm comes from"
+        assertRefused("model_l2", MAPPER.getNodeFactory().numberNode(-1.0), "model_l2: must be a number ≥ 0, not -1.0");
+        assertRefused("study", MAPPER.getNodeFactory().textNode(" "), "study: is empty; expected the study's name");
+        assertRefused("grid", grid(6, "0.1"), "grid[0].arms[1].index: must be a whole number in [1, 3], not 6");
+        assertRefused("grid", grid(2, "0.1"), "grid[0].arms[1].index: 2 is already listed by a grid; an arm comes from"
                 + " at most one grid entry");
-        assertRefused("grid", grid(3, "0.5"), "grid[0].arms[1].values[0] is \"0.5\", not one of the values of 'rate'");
+        assertRefused("grid", grid(3, "0.5"), "grid[0].arms[1].values[0]: is '0.5', not one of the values of 'rate'");
         ObjectNode noName = grid(3, "0.2");
         ((ObjectNode) noName.get("grid").get(0)).remove("arm");
-        assertRefused("grid", noName, "missing key 'grid[0].arm'");
+        assertRefused("grid", noName, "grid[0].arm: missing; every 'grid[0]' has it");
     }
 
     /** @return a manifest "grid" with one entry over rate [0.1, 0.2], arms 2 (0.1) and {@code second} (value) */
@@ -146,6 +145,6 @@ class ManifestRecordsTest {
         }
         MAPPER.writeValue(manifest.toFile(), m);
         assertEquals(manifest + ": " + expected,
-                assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
+                assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 }

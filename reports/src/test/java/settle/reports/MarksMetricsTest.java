@@ -12,8 +12,8 @@ import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.ArmNudges;
 import settle.reports.metrics.PlateauSummary;
 import settle.reports.metrics.Replicates;
-import settle.reports.study.Study;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyReader;
 
 /**
  * What the rates section counts before it draws: the plateau cuts of an arm, the nudges of an arm (from

@@ -11,8 +11,8 @@ import java.util.List;
 import java.util.Locale;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.reports.study.Study;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Study;
+import settle.reports.format.StudyReader;
 
 /**
  * Nudges and plateau cuts drawn on the rate and objective charts and listed in tables, and the a-priori bound's
@@ -65,7 +65,7 @@ class ReportMarksTest {
     void everyNudgeAndEveryCutIsMarkedOnBothCharts() throws Exception {
         Path study = marked(true).write(dir.resolve("marked"));
         Report.write(study);
-        String html = Files.readString(study.resolve("report.html"));
+        String html = TestText.plain(Files.readString(study.resolve("report.html")));
         for (String chart : new String[] {"chart-rates", "chart-objective"}) {
             String svg = ReportHtmlTest.svg(html, chart);
             assertEquals(2, ReportHtmlTest.count(svg, "class=\"nudge\""), "one marker per nudge on " + chart);
@@ -91,7 +91,7 @@ class ReportMarksTest {
     void aNudgeNoteIsEscapedEverywhere() throws Exception {
         Path study = marked(true).write(dir.resolve("hostile"));
         Report.write(study);
-        String html = Files.readString(study.resolve("report.html"));
+        String html = TestText.plain(Files.readString(study.resolve("report.html")));
         assertFalse(html.toLowerCase(Locale.ROOT).contains("<script"), "no script element");
         String escaped = "&lt;script&gt;alert(&quot;nudge&quot;)&lt;/script&gt;";
         assertTrue(ReportHtmlTest.svg(html, "chart-rates").contains("<title>by-hand: rate × 0.25 from epoch 4 (rate "
@@ -111,7 +111,7 @@ class ReportMarksTest {
         assertEquals(4, s.replicate(1, 0).nudges().get(1).fromEpoch());
         assertEquals(2, s.replicate(2, 0).plateauCuts().size());
         Report.write(study);
-        String html = Files.readString(study.resolve("report.html"));
+        String html = TestText.plain(Files.readString(study.resolve("report.html")));
         assertEquals(2, ReportHtmlTest.count(ReportHtmlTest.svg(html, "chart-rates"), "class=\"nudge\""));
         assertEquals(2, ReportHtmlTest.count(ReportHtmlTest.svg(html, "chart-objective"), "class=\"nudge\""));
         assertEquals(2, ReportHtmlTest.count(section(html, "rates"), "<td>in the plan</td>"), "no time: fixed in the plan");
@@ -124,7 +124,7 @@ class ReportMarksTest {
         s.tailRadius(s.arm("decay", false, REPLICATES), 0.5, 0.6, 0.7);
         Path study = s.write(dir.resolve("plain"));
         Report.write(study);
-        String html = Files.readString(study.resolve("report.html"));
+        String html = TestText.plain(Files.readString(study.resolve("report.html")));
         assertEquals(0, ReportHtmlTest.count(html, "class=\"nudge\""));
         assertEquals(0, ReportHtmlTest.count(html, "class=\"cut\""));
         assertFalse(html.contains("id=\"nudges\"") || html.contains("id=\"plateau-cuts\""));
@@ -137,7 +137,7 @@ class ReportMarksTest {
         Path study = s.write(dir.resolve("bound"));
         assertArrayEquals(new double[] {3.0, 1.0, 2.0}, StudyReader.read(study).reference().bound().values());
         Report.write(study);
-        String section = section(Files.readString(study.resolve("report.html")), "a-priori");
+        String section = section(TestText.plain(Files.readString(study.resolve("report.html"))), "a-priori");
         assertTrue(section.contains("A worst-case bound, not a prediction."), section);
         String table = section.substring(section.indexOf("id=\"bound-ranking\""));
         assertEquals(REPLICATES, ReportHtmlTest.count(table, "<tr><th scope=\"row\">"), "one row per arm");
@@ -153,13 +153,13 @@ class ReportMarksTest {
     }
 
     @Test
-    void theBoundIsAbsentWithItsReasonForAnMlpAWithheldBoundAndAnOlderStudy() throws Exception {
+    void theBoundIsAbsentWithItsReasonForAnMlpAndAWithheldBound() throws Exception {
         SyntheticStudy mlp = marked(false);
         mlp.convex = false;
         mlp.bound = new double[] {3.0, 1.0, 2.0};
         Path study = mlp.write(dir.resolve("mlp"));
         Report.write(study);
-        String section = section(Files.readString(study.resolve("report.html")), "a-priori");
+        String section = section(TestText.plain(Files.readString(study.resolve("report.html"))), "a-priori");
         assertFalse(section.contains("bound-ranking"), section);
         assertTrue(section.contains("holds for convex objectives") && section.contains("is not convex"), section);
 
@@ -167,14 +167,8 @@ class ReportMarksTest {
         momentum.boundSkipped = "not computed: the bound is for SGD without momentum";
         study = momentum.write(dir.resolve("momentum"));
         Report.write(study);
-        section = section(Files.readString(study.resolve("report.html")), "a-priori");
+        section = section(TestText.plain(Files.readString(study.resolve("report.html"))), "a-priori");
         assertFalse(section.contains("bound-ranking"), section);
         assertTrue(section.contains("Not shown: not computed: the bound is for SGD without momentum."), section);
-
-        study = marked(false).write(dir.resolve("older"));
-        Report.write(study);
-        section = section(Files.readString(study.resolve("report.html")), "a-priori");
-        assertFalse(section.contains("bound-ranking"), section);
-        assertTrue(section.contains("does not record the last-iterate bound"), section);
     }
 }

@@ -15,14 +15,20 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import settle.reports.study.Metric;
-import settle.reports.study.Prediction;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
-import settle.reports.study.StudyFormatException;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Metric;
+import settle.reports.format.Prediction;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
+import settle.input.BadInputException;
+import settle.reports.format.StudyReader;
 
 class StudyReaderTest {
+
+    /** @return what a refusal of an invalid replicate file of {@code study} says to do */
+    static String remedy(Path study) {
+        return "settle run " + study.resolve("plan.yaml") + " --out " + study + " sets invalid replicate files aside and"
+                + " trains them again";
+    }
 
     @TempDir
     Path dir;
@@ -63,24 +69,24 @@ class StudyReaderTest {
 
     @Test
     void clearOneLineErrors() throws Exception {
-        StudyFormatException none = assertThrows(StudyFormatException.class, () -> StudyReader.read(dir.resolve("nope")));
+        BadInputException none = assertThrows(BadInputException.class, () -> StudyReader.read(dir.resolve("nope")));
         assertEquals(dir.resolve("nope") + ": no such study directory", none.getMessage());
 
         Files.createDirectories(dir.resolve("empty"));
-        assertTrue(assertThrows(StudyFormatException.class, () -> StudyReader.read(dir.resolve("empty"))).getMessage()
+        assertTrue(assertThrows(BadInputException.class, () -> StudyReader.read(dir.resolve("empty"))).getMessage()
                 .contains("not a study directory (no manifest.json"));
 
         Path study = twoArms().write(dir.resolve("s"));
         Path file = study.resolve("arms/1/2.json");
         Files.writeString(file, "{\"format\": 2,\n  \"arm\": oops}");
-        String message = assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage();
-        assertTrue(message.startsWith(file + ": not valid JSON at line 2, column"), message);
+        String message = assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage();
+        assertEquals(file + ":2:10: not valid JSON: it holds something that is not JSON here; " + remedy(study), message);
         assertEquals(-1, message.indexOf('\n'), "one line");
 
         Path manifest = study.resolve("manifest.json");
         Files.writeString(manifest, Files.readString(manifest).replace("\"format\":2", "\"format\":3"));
-        assertEquals(manifest + ": study directory format 3 is not supported; this settle reads format 2",
-                assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
+        assertEquals(manifest + ": format: study directory format 3 is not supported; this settle reads format 2",
+                assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 
     @Test
@@ -92,19 +98,18 @@ class StudyReaderTest {
                 + " earlier settle whose tail metrics came from snapshots and whose reshuffling prediction was"
                 + " approximate; rerun it with `settle run " + study.resolve("plan.yaml") + " --out " + study
                 + " --fresh` to rewrite it in format 2";
-        assertEquals(expected, assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
-        assertEquals(expected, assertThrows(StudyFormatException.class, () -> Report.write(study)).getMessage());
+        assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
+        assertEquals(expected, assertThrows(BadInputException.class, () -> Report.write(study)).getMessage());
         assertFalse(Files.exists(study.resolve("report.html")), "no report from numbers that mean something else");
         assertFalse(Files.exists(study.resolve("summary.csv")));
 
-        // A format-1 replicate file left in a format-2 directory is refused the same way, naming the file.
+        // A format-1 replicate file left in a format-2 directory is refused by name: settle run trains it again.
         Path mixed = twoArms().write(dir.resolve("mixed"));
         Path file = mixed.resolve("arms/2/1.json");
         Files.writeString(file, Files.readString(file).replace("\"format\":2", "\"format\":1"));
-        String message = assertThrows(StudyFormatException.class, () -> StudyReader.read(mixed)).getMessage();
-        assertEquals(file + ": this file is in format 1, written by an earlier settle whose tail metrics came from"
-                + " snapshots and whose reshuffling prediction was approximate; rerun it with `settle run "
-                + mixed.resolve("plan.yaml") + " --out " + mixed + " --fresh` to rewrite it in format 2", message);
+        String message = assertThrows(BadInputException.class, () -> StudyReader.read(mixed)).getMessage();
+        assertEquals(file + ": format: this file is in format 1; this settle reads format 2; " + remedy(mixed),
+                message);
     }
 
     @Test
@@ -123,7 +128,9 @@ class StudyReaderTest {
         Replicate one = study.replicate(0, 1);
         assertEquals(0.125, one.metric(Metric.TAIL_DISTANCE_EPOCH_ENDS));
         assertEquals(0.55, one.metric(Metric.TAIL_RADIUS_EPOCH_ENDS), "the fixture sets half the tail radius 1.1");
-        assertEquals(new Replicate.Tail(19, 2, 1, 0), one.tail());
+        assertEquals(19, one.tail().firstUpdate());
+        assertEquals(2, one.tail().length());
+        assertEquals(1, one.tail().epochEnds());
         Prediction p = one.prediction();
         assertTrue(p.predicted() && p.stable());
         assertEquals("first-order", p.kind());
@@ -162,8 +169,8 @@ class StudyReaderTest {
         ObjectNode root = (ObjectNode) mapper.readTree(file.toFile());
         ((ObjectNode) root.get("prediction")).remove("stable");
         mapper.writeValue(file.toFile(), root);
-        assertEquals(file + ": prediction.stable must be true or false in a predicted noise ball",
-                assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
+        assertEquals(file + ": prediction.stable: missing; every 'prediction' has it; " + remedy(study),
+                assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 
     @Test
@@ -171,7 +178,8 @@ class StudyReaderTest {
         Path study = twoArms().write(dir.resolve("s"));
         Files.copy(study.resolve("arms/1/1.json"), study.resolve("arms/1/3.json"),
                 java.nio.file.StandardCopyOption.REPLACE_EXISTING);
-        assertEquals(study.resolve("arms/1/3.json") + ": holds arm 1 replicate 1; its path says arm 1 replicate 3",
-                assertThrows(StudyFormatException.class, () -> StudyReader.read(study)).getMessage());
+        assertEquals(study.resolve("arms/1/3.json") + ": replicate: the file holds arm 1 replicate 1; its path says arm 1"
+                + " replicate 3; " + remedy(study),
+                assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 }

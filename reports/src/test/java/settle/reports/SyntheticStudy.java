@@ -57,6 +57,14 @@ final class SyntheticStudy {
         double unstableProduct = Double.NaN;
     }
 
+    /** The value of each metric a test leaves unset, for a finished replicate. */
+    private static final Map<String, Double> DEFAULTS = Map.ofEntries(Map.entry("final_objective", 0.3),
+            Map.entry("final_gap", 1e-3), Map.entry("final_distance", 0.1), Map.entry("tail_radius", 0.1),
+            Map.entry("tail_distance", 0.2), Map.entry("tail_radius_epoch_ends", 0.05),
+            Map.entry("tail_distance_epoch_ends", 0.18), Map.entry("tail_loss_spread", 1e-3),
+            Map.entry("averaged_objective", 0.3), Map.entry("averaged_gap", 1e-4), Map.entry("test_loss", 0.3),
+            Map.entry("test_accuracy", 0.9));
+
     final List<String> arms = new ArrayList<>();
     final List<Boolean> averaged = new ArrayList<>();
     final List<List<Rep>> replicates = new ArrayList<>();
@@ -190,6 +198,7 @@ final class SyntheticStudy {
         m.put("plan_sha256", "aa");
         m.put("data_sha256", "bb");
         m.put("split_sha256", "cc");
+        int testRows = testRows();
         ObjectNode data = m.putObject("data");
         data.put("source", "synthetic:test");
         data.put("rows", 100);
@@ -197,8 +206,8 @@ final class SyntheticStudy {
         ArrayNode fn = data.putArray("feature_names");
         featureNames.forEach(fn::add);
         data.putArray("class_names").add("no").add("yes");
-        data.put("train_rows", 80);
-        data.put("test_rows", 20);
+        data.put("train_rows", 100 - testRows);
+        data.put("test_rows", testRows);
         data.put("holdout_rows", 0);
         data.put("updates_per_epoch", updatesPerEpoch);
         m.putNull("standardisation");
@@ -237,13 +246,17 @@ final class SyntheticStudy {
                 theta.add(0.0);
             }
             r.put("gauge_dimension", 0);
-            r.putArray("eigenvalues").add(0.1).add(0.2).add(0.3);
+            ArrayNode eigen = r.putArray("eigenvalues");
+            for (int j = 0; j < p; j++) {
+                eigen.add(j == p - 1 ? 0.3 : 0.1 + 0.2 * j / (p - 1));
+            }
             r.put("lambda_min", 0.1);
             r.put("lambda_max", 0.3);
             r.put("stability_bound", 2 / 0.3);
-            if (boundSkipped != null) {
-                r.putObject("last_iterate_bound").put("source", "test").put("skipped", boundSkipped);
-            } else if (bound != null) {
+            if (boundSkipped != null || bound == null) {
+                r.putObject("last_iterate_bound").put("source", "test").put("rates", "planned")
+                        .put("skipped", boundSkipped != null ? boundSkipped : "not set by this test");
+            } else {
                 ObjectNode b = r.putObject("last_iterate_bound");
                 b.put("source", "Defazio et al. 2023, Theorem 10 (test)");
                 b.put("rates", "planned");
@@ -267,13 +280,25 @@ final class SyntheticStudy {
                 if (skipped.contains((a + 1) + "/" + (k + 1))) {
                     continue;
                 }
-                MAPPER.writeValue(armDir.resolve((k + 1) + ".json").toFile(), replicate(a, k, p));
+                MAPPER.writeValue(armDir.resolve((k + 1) + ".json").toFile(), replicate(a, k, p, testRows));
             }
         }
         return dir;
     }
 
-    private ObjectNode replicate(int a, int k, int p) {
+    /** @return the test rows: those of the probabilities a test set, else 20 */
+    private int testRows() {
+        for (List<Rep> arm : replicates) {
+            for (Rep r : arm) {
+                if (r.probabilities != null) {
+                    return r.probabilities.length / r.classes;
+                }
+            }
+        }
+        return 20;
+    }
+
+    private ObjectNode replicate(int a, int k, int p, int testRows) {
         Rep rep = replicates.get(a).get(k);
         boolean diverged = rep.status.equals("diverged");
         ObjectNode r = MAPPER.createObjectNode();
@@ -290,22 +315,34 @@ final class SyntheticStudy {
         r.put("average", averaged.get(a) ? "tail" : "none");
         r.put("initial_objective", 0.69);
         ObjectNode metrics = r.putObject("metrics");
+        List<String> convexOnly = List.of("final_gap", "final_distance", "tail_distance", "tail_distance_epoch_ends",
+                "averaged_gap");
         for (String key : List.of("final_objective", "final_gap", "final_distance", "tail_radius", "tail_distance",
                 "tail_radius_epoch_ends", "tail_distance_epoch_ends", "tail_loss_spread", "averaged_objective",
                 "averaged_gap", "test_loss", "test_accuracy")) {
             Double v = rep.metrics.get(key);
-            number(metrics, key, diverged || v == null ? Double.NaN : v);
+            if (v == null) {
+                v = DEFAULTS.get(key);
+            }
+            number(metrics, key, diverged || !convex && convexOnly.contains(key) ? Double.NaN : v);
         }
         if (diverged) {
             r.putNull("tail");
         } else {
             ObjectNode tail = r.putObject("tail");
-            tail.put("first_update", epochs * updatesPerEpoch - 1);
-            tail.put("length", 2);
+            int total = epochs * updatesPerEpoch;
+            int shots = Math.max(1, rep.snapshotRows);
+            int length = Math.max(2, shots);
+            tail.put("first_update", total - length + 1);
+            tail.put("length", length);
             tail.put("epoch_ends", 1);
-            tail.put("snapshots", rep.snapshotRows);
-            tail.putArray("snapshot_updates");
-            tail.putArray("snapshot_objectives");
+            tail.put("snapshots", shots);
+            ArrayNode updates = tail.putArray("snapshot_updates");
+            ArrayNode objectives = tail.putArray("snapshot_objectives");
+            for (int i = 0; i < shots; i++) {
+                updates.add(total - shots + 1 + i);
+                objectives.add(0.25);
+            }
         }
         ObjectNode e = r.putObject("epochs");
         int n = diverged ? 1 : epochs;
@@ -346,10 +383,10 @@ final class SyntheticStudy {
         }
         array(r.putArray("start"), new double[p]);
         array(r.putArray("last"), rep.last);
-        if (rep.tailMean == null) {
+        if (diverged) {
             r.putNull("tail_mean");
         } else {
-            array(r.putArray("tail_mean"), rep.tailMean);
+            array(r.putArray("tail_mean"), rep.tailMean != null ? rep.tailMean : rep.last);
         }
         if (diverged || rep.snapshots == null) {
             r.putNull("snapshots");
@@ -362,13 +399,23 @@ final class SyntheticStudy {
                 add(values, v);
             }
         }
-        if (diverged || rep.probabilities == null) {
+        if (diverged) {
             r.putNull("test_probabilities");
         } else {
+            // without probabilities set by the test, every replicate puts each test row in class 0 with 0.7
+            double[] probabilities = rep.probabilities;
+            if (probabilities == null) {
+                probabilities = new double[testRows * rep.classes];
+                for (int i = 0; i < testRows; i++) {
+                    for (int c = 0; c < rep.classes; c++) {
+                        probabilities[i * rep.classes + c] = c == 0 ? 0.7 : 0.3 / (rep.classes - 1);
+                    }
+                }
+            }
             ObjectNode s = r.putObject("test_probabilities");
-            s.put("rows", rep.probabilities.length / rep.classes);
+            s.put("rows", probabilities.length / rep.classes);
             s.put("columns", rep.classes);
-            array(s.putArray("values"), rep.probabilities);
+            array(s.putArray("values"), probabilities);
         }
         ObjectNode pr = r.putObject("prediction");
         if (convex && !diverged) {

@@ -17,7 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.VerdictSentence.Outcome;
-import settle.reports.study.StudyReader;
+import settle.reports.format.StudyReader;
 
 /**
  * The verdict in words ({@link VerdictSummary}) on a study written with known values: where each arm's returned
@@ -79,9 +79,9 @@ class VerdictSummaryTest {
         assertEquals(Outcome.LOWER, averaged.outcome());
         assertFalse(averaged.froze());
         assertEquals(2, v.pick().arm(), "the averaged arm ends closest among the arms that end detectably closer");
-        assertTrue(v.pickSentence().startsWith("Pick averaged: among the arms whose returned iterate ends detectably"
+        assertTrue(TestText.plain(v.pickSentence()).startsWith("Pick averaged: among the arms whose returned iterate ends detectably"
                 + " closer to the minimum than the baseline constant's, it ends closest (median final gap"),
-                v.pickSentence());
+                TestText.plain(v.pickSentence()));
         VerdictSummary.ArmVerdict better = v.arms().get(3);
         assertEquals(1, better.didNotLearn());
         assertTrue(better.headline().endsWith("; 1 of 8 replicates did not learn (final objective above the starting"
@@ -89,11 +89,11 @@ class VerdictSummaryTest {
         assertEquals(0, v.arms().get(0).didNotLearn());
         assertEquals("", v.arms().get(0).headline(), "the baseline has no headline");
 
-        List<String> lines = v.lines();
+        List<String> lines = v.lines().stream().map(TestText::plain).toList();
         assertEquals("verdict (final gap of the returned iterate against the baseline constant, 8 pairs):", lines.get(0));
         assertTrue(lines.get(1).startsWith("  froze     ends 100 % farther"), lines.get(1));
-        assertEquals(v.pickSentence(), lines.get(4));
-        assertTrue(v.pickSentence().endsWith(")."), "the pick in one sentence: " + v.pickSentence());
+        assertEquals(TestText.plain(v.pickSentence()), lines.get(4));
+        assertTrue(TestText.plain(v.pickSentence()).endsWith(")."), "the pick in one sentence: " + TestText.plain(v.pickSentence()));
 
         StringWriter text = new StringWriter();
         try (JsonGenerator g = new JsonFactory().createGenerator(text)) {
@@ -114,7 +114,7 @@ class VerdictSummaryTest {
         assertTrue(f.get("ci_low").asDouble() > 0, "the whole interval lies above no change");
 
         Report.write(dir.resolve("v"));
-        String html = Files.readString(dir.resolve("v/report.html"));
+        String html = TestText.plain(Files.readString(dir.resolve("v/report.html")));
         assertTrue(html.contains("<li class=\"froze\"><strong>froze</strong> ends 100 % farther"), "froze is marked");
         assertTrue(html.contains("Pick averaged"), "the pick leads the verdict");
         assertTrue(html.contains("finished, did not learn (final objective above the starting one)"), "flagged");
@@ -133,10 +133,10 @@ class VerdictSummaryTest {
         // bias² 0.4 against a ball of 0.05: 8×
         assertEquals("The baseline constant has not reached its noise ball in this budget (its remaining bias is 8×"
                 + " the ball): an arm that ends closer may only travel faster; train longer to compare the arms where"
-                + " they settle.", v.baselineNote());
-        assertTrue(v.pickSentence().endsWith(", or train longer: the baseline has not settled at its noise ball in"
-                + " this budget."), v.pickSentence());
-        assertEquals(v.baselineNote(), v.lines().get(v.lines().size() - 1));
+                + " they settle.", TestText.plain(v.baselineNote()));
+        assertTrue(TestText.plain(v.pickSentence()).endsWith(", or train longer: the baseline has not settled at its noise ball in"
+                + " this budget."), TestText.plain(v.pickSentence()));
+        assertEquals(TestText.plain(v.baselineNote()), TestText.plain(v.lines().get(v.lines().size() - 1)));
     }
 
     @Test
@@ -149,6 +149,6 @@ class VerdictSummaryTest {
         // One arm: 2/2ⁿ ≤ 0.05 from n = 6; four pairs reach only 2/16.
         assertEquals("No arm ends detectably closer to the minimum than the baseline constant (final gap, adjusted"
                 + " p ≤ 0.05 with an interval that agrees): keep the baseline, or run at least 6 replicates (this"
-                + " study pairs 4; fewer cannot detect a difference at this number of arms).", v.pickSentence());
+                + " study pairs 4; fewer cannot detect a difference at this number of arms).", TestText.plain(v.pickSentence()));
     }
 }

@@ -9,11 +9,12 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.reports.format.SummaryCsv;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.VerdictSentence;
-import settle.reports.study.Metric;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Metric;
+import settle.reports.format.StudyReader;
 
 /**
  * The verdict read from a study directory written here with known values: paired by replicate index, the primary
@@ -104,7 +105,7 @@ class VerdictWiringTest {
         assertEquals("no difference detected with 5 pairs (change −50 %; 5 pairs are too few for a Bonferroni 97.5 %"
                 + " interval; adjusted p = 0.13; 7 pairs needed to detect one with 2 arms)", sentence);
         Report.write(s.write(dir.resolve("few")));
-        String html = Files.readString(dir.resolve("few/report.html"));
+        String html = TestText.plain(Files.readString(dir.resolve("few/report.html")));
         assertTrue(html.contains("a verdict needs at least 7 replicates; this study pairs 5. It has fewer"));
         assertTrue(html.contains("No arm ends detectably closer to the minimum than the baseline constant (final gap,"
                 + " adjusted p ≤ 0.05 with an interval that agrees): keep the baseline, or run at least 7 replicates"

@@ -8,7 +8,7 @@ import java.security.NoSuchAlgorithmException;
 import java.util.ArrayList;
 import java.util.HexFormat;
 import java.util.List;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.Dataset;
 import settle.datasets.io.CsvReader;
 
@@ -89,7 +89,7 @@ public final class BundledData {
 
     /**
      * @return the registry entry of {@code name}
-     * @throws DataException for an unknown name (the message lists the known ones)
+     * @throws BadInputException for an unknown name (the message lists the known ones)
      */
     public static BundledDataset entry(String name) {
         for (BundledDataset d : ALL) {
@@ -97,7 +97,7 @@ public final class BundledData {
                 return d;
             }
         }
-        throw new DataException("bundled:" + name + ": no such bundled dataset; expected one of "
+        throw BadInputException.inFile("bundled:" + name, "", "no such bundled dataset; expected one of "
                 + String.join(", ", names()));
     }
 
@@ -107,23 +107,24 @@ public final class BundledData {
      * @param name wdbc, iris, wine or optdigits
      * @param labelColumn null, or the dataset's own label column name
      * @return the dataset, named {@code bundled:NAME}
-     * @throws DataException for an unknown name, another label column, a missing or altered resource
+     * @throws BadInputException for an unknown name or another label column
+     * @throws IllegalStateException when the resource is missing or altered (a damaged build)
      */
     public static Dataset load(String name, String labelColumn) {
         BundledDataset entry = entry(name);
         if (labelColumn != null && !labelColumn.equals(entry.labelColumn())) {
-            throw new DataException("bundled:" + name + ": the label column is '" + entry.labelColumn()
+            throw BadInputException.inFile("bundled:" + name, "", "the label column is '" + entry.labelColumn()
                     + "', not '" + labelColumn + "'; expected no label option or '" + entry.labelColumn() + "'");
         }
         byte[] bytes;
         try (InputStream in = BundledData.class.getResourceAsStream(entry.resource())) {
             if (in == null) {
-                throw new DataException("bundled:" + name + ": resource " + entry.resource()
+                throw new IllegalStateException("bundled:" + name + ": resource " + entry.resource()
                         + " is missing from the build; expected it in settle/datasets/bundled/");
             }
             bytes = in.readAllBytes();
         } catch (IOException e) {
-            throw new DataException("bundled:" + name + ": cannot read resource " + entry.resource() + ": "
+            throw new java.io.UncheckedIOException("bundled:" + name + ": cannot read resource " + entry.resource() + ": "
                     + e.getMessage(), e);
         }
         return verifyAndRead(entry, bytes);
@@ -133,7 +134,7 @@ public final class BundledData {
     static Dataset verifyAndRead(BundledDataset entry, byte[] bytes) {
         String found = sha256(bytes);
         if (!found.equals(entry.sha256())) {
-            throw new DataException("bundled:" + entry.name() + ": resource " + entry.resource()
+            throw new IllegalStateException("bundled:" + entry.name() + ": resource " + entry.resource()
                     + " has SHA-256 " + found + ", expected " + entry.sha256()
                     + "; the build is damaged: rebuild settle");
         }

@@ -13,7 +13,7 @@ import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.Dataset;
 
 /**
@@ -37,7 +37,7 @@ import settle.datasets.Dataset;
  *   <li>Labels may be numbers or strings; classes are the distinct labels sorted (numerically when all are
  *       numbers, lexically otherwise). At least two classes and one row are required.</li>
  * </ul>
- * Every error is a {@link DataException} whose one-line message names the file, line and column.
+ * Every error is a {@link BadInputException} whose one-line message names the file, line and column.
  */
 public final class CsvReader {
 
@@ -55,15 +55,15 @@ public final class CsvReader {
      * @param shownAs how messages and the dataset name refer to it (usually the path as the user wrote it)
      * @param labelColumn the label column's header name, or null for the last column
      * @param delimiter {@code ','}, {@code ';'}, {@code '\t'} or {@link #DETECT}
-     * @throws DataException for a missing or unreadable file and for every malformed content
+     * @throws BadInputException for a missing or unreadable file and for every malformed content
      */
     public static Dataset read(Path file, String shownAs, String labelColumn, char delimiter) {
         try (InputStream in = Files.newInputStream(file)) {
             return read(in, shownAs, labelColumn, delimiter);
         } catch (NoSuchFileException e) {
-            throw new DataException(shownAs + ": no such file");
+            throw BadInputException.of("", shownAs + ": no such file");
         } catch (IOException e) {
-            throw new DataException(shownAs + ": cannot read: " + e.getMessage(), e);
+            throw BadInputException.of("", shownAs + ": cannot read: " + e.getMessage()).because(e);
         }
     }
 
@@ -79,14 +79,14 @@ public final class CsvReader {
     /** As {@link #read(Path, String, String, char)}, from characters (not closed). */
     public static Dataset read(Reader in, String shownAs, String labelColumn, char delimiter) {
         if (delimiter != DETECT && delimiter != ',' && delimiter != ';' && delimiter != '\t') {
-            throw new DataException(shownAs + ": delimiter " + DataException.shown(String.valueOf(delimiter))
+            throw BadInputException.of("", shownAs + ": delimiter " + BadInputException.shown(String.valueOf(delimiter))
                     + " is not accepted; expected ',', ';' or tab");
         }
         CsvTokenizer t = new CsvTokenizer(in, shownAs);
         try {
             return parse(t, shownAs, labelColumn, delimiter);
         } catch (IOException e) {
-            throw new DataException(shownAs + ": cannot read: " + e.getMessage(), e);
+            throw BadInputException.of("", shownAs + ": cannot read: " + e.getMessage()).because(e);
         }
     }
 
@@ -94,7 +94,7 @@ public final class CsvReader {
         t.skipBom();
         t.skipEmptyLines();
         if (t.atEnd()) {
-            throw new DataException(src + ": empty file; expected a header row naming the columns");
+            throw BadInputException.of("", src + ": empty file; expected a header row naming the columns");
         }
         char delimiter = chosen == DETECT ? t.detectDelimiter() : chosen;
         t.delimiter(delimiter);
@@ -105,13 +105,13 @@ public final class CsvReader {
         for (int c = 0; c < width; c++) {
             String name = header.get(c);
             if (name.isEmpty()) {
-                throw DataException.at(src, headerLine, c + 1, null, "empty column name in the header; "
+                throw BadInputException.atCell(src, headerLine, c + 1, null, "empty column name in the header; "
                         + "expected a name for every column");
             }
             Integer before = seen.put(name, c);
             if (before != null) {
-                throw DataException.at(src, headerLine, c + 1, null, "duplicate column name "
-                        + DataException.shown(name) + " (also column " + (before + 1)
+                throw BadInputException.atCell(src, headerLine, c + 1, null, "duplicate column name "
+                        + BadInputException.shown(name) + " (also column " + (before + 1)
                         + "); expected unique column names");
             }
         }
@@ -121,13 +121,13 @@ public final class CsvReader {
         } else {
             Integer at = seen.get(labelColumn);
             if (at == null) {
-                throw DataException.atLine(src, headerLine, "no label column " + DataException.shown(labelColumn)
+                throw BadInputException.atLine(src, headerLine, "no label column " + BadInputException.shown(labelColumn)
                         + "; the columns are: " + String.join(", ", header));
             }
             labelAt = at;
         }
         if (width < 2) {
-            throw DataException.atLine(src, headerLine, "only one column (" + DataException.shown(header.get(0))
+            throw BadInputException.atLine(src, headerLine, "only one column (" + BadInputException.shown(header.get(0))
                     + "); expected feature columns and a label column separated by ',', ';' or tab");
         }
         List<String> featureNames = new ArrayList<>(width - 1);
@@ -149,16 +149,16 @@ public final class CsvReader {
             long line = t.nextRecord(fields);
             if (fields.size() != width) {
                 if (fields.size() > width) {
-                    throw DataException.at(src, line, width + 1, null, "the row has " + fields.size()
+                    throw BadInputException.atCell(src, line, width + 1, null, "the row has " + fields.size()
                             + " fields; expected " + width + " as in the header (line " + headerLine + ")");
                 }
                 int missing = fields.size();
-                throw DataException.at(src, line, missing + 1, header.get(missing), "missing; the row has "
+                throw BadInputException.atCell(src, line, missing + 1, header.get(missing), "missing; the row has "
                         + fields.size() + " field" + (fields.size() == 1 ? "" : "s") + ", expected " + width
                         + " as in the header (line " + headerLine + ")");
             }
             if ((labels.rows() + 1L) * features > MAX_VALUES) {
-                throw DataException.atLine(src, line, "more than " + MAX_VALUES
+                throw BadInputException.atLine(src, line, "more than " + MAX_VALUES
                         + " feature values; expected a dataset that fits one Java array");
             }
             for (int c = 0; c < width; c++) {
@@ -166,26 +166,26 @@ public final class CsvReader {
                 if (c == labelAt) {
                     String label = cell.strip();
                     if (label.isEmpty()) {
-                        throw DataException.at(src, line, c + 1, labelName, "empty label; expected a class label");
+                        throw BadInputException.atCell(src, line, c + 1, labelName, "empty label; expected a class label");
                     }
                     labels.add(label);
                 } else {
                     int kind = Numbers.classify(cell);
                     if (kind != Numbers.OK) {
-                        throw DataException.at(src, line, c + 1, header.get(c), Numbers.problem(kind, cell));
+                        throw BadInputException.atCell(src, line, c + 1, header.get(c), Numbers.problem(kind, cell));
                     }
                     values.add(Numbers.parse(cell));
                 }
             }
         }
         if (labels.rows() == 0) {
-            throw new DataException(src + ": no data rows after the header (line " + headerLine
+            throw BadInputException.of("", src + ": no data rows after the header (line " + headerLine
                     + "); expected at least one row");
         }
         labels.finish();
         if (labels.classNames().size() < 2) {
-            throw new DataException(src + ": label column " + DataException.shown(labelName)
-                    + " holds one class only (" + DataException.shown(labels.classNames().get(0))
+            throw BadInputException.of("", src + ": label column " + BadInputException.shown(labelName)
+                    + " holds one class only (" + BadInputException.shown(labels.classNames().get(0))
                     + "); expected at least two classes");
         }
         return new Dataset(src, values.toArray(), labels.labels(), featureNames, labels.classNames());

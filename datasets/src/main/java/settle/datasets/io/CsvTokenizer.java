@@ -3,7 +3,7 @@ package settle.datasets.io;
 import java.io.IOException;
 import java.io.Reader;
 import java.util.List;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 
 /**
  * Splits delimited text into records and fields, counting physical lines: the one CSV grammar of settle
@@ -19,7 +19,7 @@ import settle.datasets.DataException;
  *       occurs most often outside quotes (comma wins ties).</li>
  * </ul>
  * Characters are taken from the reader in blocks; U+FFFD (what a decoder set to replace puts for bytes that UTF-8
- * does not allow) stops the reading where it is met, with a message naming its line. Every error is a {@link DataException} whose
+ * does not allow) stops the reading where it is met, with a message naming its line. Every error is a {@link BadInputException} whose
  * one-line message names the source and the line (and the field, where there is one). Not thread-safe.
  */
 public final class CsvTokenizer {
@@ -62,8 +62,8 @@ public final class CsvTokenizer {
         return c;
     }
 
-    private DataException notUtf8(long at) {
-        return DataException.atLine(src, at, "not valid UTF-8 text (a byte sequence that UTF-8 does not allow, or "
+    private BadInputException notUtf8(long at) {
+        return BadInputException.atLine(src, at, "not valid UTF-8 text (a byte sequence that UTF-8 does not allow, or "
                 + "U+FFFD); expected a UTF-8 encoded file");
     }
 
@@ -190,7 +190,7 @@ public final class CsvTokenizer {
      * @param out receives the fields: unquoted ones stripped of surrounding blanks, quoted ones as written
      *        between the quotes
      * @return the line on which the record starts
-     * @throws DataException for an unterminated quote or text after a closing quote
+     * @throws BadInputException for an unterminated quote or text after a closing quote
      */
     public long nextRecord(List<String> out) throws IOException {
         out.clear();
@@ -209,7 +209,7 @@ public final class CsvTokenizer {
                 while (true) {
                     c = read();
                     if (c == -1) {
-                        throw DataException.at(src, opened, column, null,
+                        throw BadInputException.atCell(src, opened, column, null,
                                 "unterminated quoted field; expected a closing '\"'");
                     }
                     if (c == '"') {
@@ -231,8 +231,8 @@ public final class CsvTokenizer {
                     c = read();
                 }
                 if (c != delimiter && c != '\n' && c != '\r' && c != -1) {
-                    throw DataException.at(src, line, column, null, "unexpected "
-                            + DataException.shown(String.valueOf((char) c))
+                    throw BadInputException.atCell(src, line, column, null, "unexpected "
+                            + BadInputException.shown(String.valueOf((char) c))
                             + " after a closing quote; expected the delimiter or the end of the line");
                 }
             } else {

@@ -12,7 +12,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.Dataset;
 
 /**
@@ -28,7 +28,7 @@ import settle.datasets.Dataset;
  * <p>Caps, so that a huge sparse file fails with a message rather than running out of memory: an index
  * above {@value #MAX_FEATURES} is an error, and so is a dense matrix of more than {@value #MAX_VALUES}
  * values (1.6 GB). SVMlight's {@code qid:} query ids and multi-label lines are not accepted.
- * Every error is a {@link DataException} naming the file, line and character column.
+ * Every error is a {@link BadInputException} naming the file, line and character column.
  */
 public final class LibsvmReader {
 
@@ -44,15 +44,15 @@ public final class LibsvmReader {
     /**
      * @param file the file to read (UTF-8)
      * @param shownAs how messages and the dataset name refer to it
-     * @throws DataException for a missing or unreadable file and for every malformed line
+     * @throws BadInputException for a missing or unreadable file and for every malformed line
      */
     public static Dataset read(Path file, String shownAs) {
         try (InputStream in = Files.newInputStream(file)) {
             return read(in, shownAs);
         } catch (NoSuchFileException e) {
-            throw new DataException(shownAs + ": no such file");
+            throw BadInputException.inFile(shownAs, "", "no such file");
         } catch (IOException e) {
-            throw new DataException(shownAs + ": cannot read: " + e.getMessage(), e);
+            throw BadInputException.inFile(shownAs, "", "cannot read: " + e.getMessage()).because(e);
         }
     }
 
@@ -65,7 +65,7 @@ public final class LibsvmReader {
         try {
             return parse(reader, shownAs, lineNo);
         } catch (IOException e) {
-            throw new DataException(shownAs + ": cannot read: " + e.getMessage(), e);
+            throw BadInputException.inFile(shownAs, "", "cannot read: " + e.getMessage()).because(e);
         }
     }
 
@@ -88,7 +88,7 @@ public final class LibsvmReader {
             }
             int bad = text.indexOf('\uFFFD');
             if (bad >= 0 && bad < end) {
-                throw DataException.at(src, line, bad + 1, null, "not valid UTF-8 text (a byte sequence that UTF-8 "
+                throw BadInputException.atCell(src, line, bad + 1, null, "not valid UTF-8 text (a byte sequence that UTF-8 "
                         + "does not allow, or U+FFFD); expected a UTF-8 encoded file");
             }
             int pos = skipBlanks(text, 0, end);
@@ -99,9 +99,9 @@ public final class LibsvmReader {
             String label = text.substring(pos, tokenEnd);
             int kind = Numbers.classify(label);
             if (kind != Numbers.OK) {
-                String why = kind == Numbers.INVALID ? "expected a numeric label, found " + DataException.shown(label)
-                        : "label " + DataException.shown(label) + " is not a finite number; expected a numeric label";
-                throw DataException.at(src, line, pos + 1, null, why);
+                String why = kind == Numbers.INVALID ? "expected a numeric label, found " + BadInputException.shown(label)
+                        : "label " + BadInputException.shown(label) + " is not a finite number; expected a numeric label";
+                throw BadInputException.atCell(src, line, pos + 1, null, why);
             }
             int previous = 0;
             pos = skipBlanks(text, tokenEnd, end);
@@ -110,32 +110,32 @@ public final class LibsvmReader {
                 String token = text.substring(pos, tokenEnd);
                 int colon = token.indexOf(':');
                 if (colon < 0) {
-                    throw DataException.at(src, line, pos + 1, null, "missing ':' in " + DataException.shown(token)
+                    throw BadInputException.atCell(src, line, pos + 1, null, "missing ':' in " + BadInputException.shown(token)
                             + "; expected index:value");
                 }
                 String idx = token.substring(0, colon);
                 if (idx.equals("qid")) {
-                    throw DataException.at(src, line, pos + 1, null,
+                    throw BadInputException.atCell(src, line, pos + 1, null,
                             "query ids ('qid:') are not accepted; expected index:value pairs only");
                 }
                 int feature = parseIndex(idx);
                 if (feature < 0) {
-                    throw DataException.at(src, line, pos + 1, null, "expected a positive integer index before ':', found "
-                            + DataException.shown(idx));
+                    throw BadInputException.atCell(src, line, pos + 1, null, "expected a positive integer index before ':', found "
+                            + BadInputException.shown(idx));
                 }
                 if (feature == 0) {
-                    throw DataException.at(src, line, pos + 1, null, "index 0; expected indices from 1");
+                    throw BadInputException.atCell(src, line, pos + 1, null, "index 0; expected indices from 1");
                 }
                 if (feature > MAX_FEATURES) {
-                    throw DataException.at(src, line, pos + 1, null, "index " + idx + " is above the width cap of "
+                    throw BadInputException.atCell(src, line, pos + 1, null, "index " + idx + " is above the width cap of "
                             + MAX_FEATURES + " features; expected indices from 1 to " + MAX_FEATURES);
                 }
                 if (feature == previous) {
-                    throw DataException.at(src, line, pos + 1, null, "duplicate index " + feature
+                    throw BadInputException.atCell(src, line, pos + 1, null, "duplicate index " + feature
                             + "; expected each index at most once per line");
                 }
                 if (feature < previous) {
-                    throw DataException.at(src, line, pos + 1, null, "index " + feature + " after index " + previous
+                    throw BadInputException.atCell(src, line, pos + 1, null, "index " + feature + " after index " + previous
                             + "; expected ascending indices");
                 }
                 String value = token.substring(colon + 1);
@@ -143,7 +143,7 @@ public final class LibsvmReader {
                 if (vk != Numbers.OK) {
                     String why = vk == Numbers.EMPTY ? "no value after '" + idx + ":'; expected a finite number"
                             : Numbers.problem(vk, value);
-                    throw DataException.at(src, line, pos + colon + 2, null, why);
+                    throw BadInputException.atCell(src, line, pos + colon + 2, null, why);
                 }
                 if (entries == index.length) {
                     index = Arrays.copyOf(index, index.length * 2);
@@ -161,19 +161,19 @@ public final class LibsvmReader {
             }
             rowEnd[rows - 1] = entries;
             if ((long) rows * width > MAX_VALUES) {
-                throw DataException.atLine(src, line, rows + " rows × " + width + " features exceed the cap of "
+                throw BadInputException.atLine(src, line, rows + " rows × " + width + " features exceed the cap of "
                         + MAX_VALUES + " dense values; expected a smaller file");
             }
         }
         if (labels.rows() == 0) {
-            throw new DataException(src + ": no data lines; expected lines of 'label index:value ...'");
+            throw BadInputException.inFile(src, "", "no data lines; expected lines of 'label index:value ...'");
         }
         if (width == 0) {
-            throw new DataException(src + ": no feature values on any line; expected 'label index:value ...'");
+            throw BadInputException.inFile(src, "", "no feature values on any line; expected 'label index:value ...'");
         }
         labels.finish();
         if (labels.classNames().size() < 2) {
-            throw new DataException(src + ": one class only (" + DataException.shown(labels.classNames().get(0))
+            throw BadInputException.inFile(src, "", "one class only (" + BadInputException.shown(labels.classNames().get(0))
                     + "); expected at least two classes");
         }
         int rows = labels.rows();

@@ -1,6 +1,7 @@
 package settle.datasets.io;
 
 import java.util.Locale;
+import settle.input.BadInputException;
 
 /**
  * Strict number parsing for data files: an optional sign, digits with an optional decimal point, an optional
@@ -69,13 +70,13 @@ public final class Numbers {
             case EMPTY:
                 return "empty cell; expected a finite number";
             case MISSING:
-                return "missing value " + settle.datasets.DataException.shown(text.strip())
+                return "missing value " + BadInputException.shown(text.strip())
                         + "; expected a finite number (fill in or drop the row)";
             case INFINITE:
-                return "value " + settle.datasets.DataException.shown(text.strip())
+                return "value " + BadInputException.shown(text.strip())
                         + " is not finite; expected a finite number";
             default:
-                return "expected a number, found " + settle.datasets.DataException.shown(text);
+                return "expected a number, found " + BadInputException.shown(text);
         }
     }
 

@@ -3,7 +3,7 @@ package settle.datasets.synthetic;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.random.RandomGenerator;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.Dataset;
 import settle.datasets.Randomness;
 
@@ -182,7 +182,7 @@ public final class Synthetic {
 
     private static void check(boolean ok, String key, Object value, String expected) {
         if (!ok) {
-            throw new DataException("synthetic data: " + key + " = " + value + " is out of range; expected "
+            throw BadInputException.inFile("synthetic data", "", key + " = " + value + " is out of range; expected "
                     + expected);
         }
     }

@@ -8,7 +8,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.TreeSet;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.Dataset;
 import settle.datasets.PreparedData;
 import settle.datasets.io.Numbers;
@@ -51,9 +51,9 @@ public final class TableEncoder {
      * @param holdout the holdout rows, ascending (empty for none)
      * @param test the test rows, ascending (empty for none)
      * @return the encoded rows and splits
-     * @throws DataException for a key naming no column or the label, missing cells under {@code refuse}, a
+     * @throws BadInputException for a key naming no column or the label, missing cells under {@code refuse}, a
      *         categorical column with too many levels, a column without values in training, or a class left
-     *         without training rows; {@link DataException#key()} names the plan key
+     *         without training rows; {@link BadInputException#key()} names the plan key
      */
     public static PreparedData prepare(SourceTable table, TableOptions options, int[] train, int[] holdout,
             int[] test) {
@@ -65,8 +65,8 @@ public final class TableEncoder {
         Set<Integer> forced = new HashSet<>(indices(table, options.categorical(), "categorical"));
         for (int c : forced) {
             if (!features.contains(c)) {
-                throw DataException.forKey("categorical", src + ": data.categorical names "
-                        + DataException.shown(table.columnNames().get(c)) + ", which is not a feature ("
+                throw BadInputException.of("data.categorical", src + ": data.categorical names "
+                        + BadInputException.shown(table.columnNames().get(c)) + ", which is not a feature ("
                         + (c == table.labelColumn() ? "it is the label" : options.drop().contains(
                                 table.columnNames().get(c)) ? "data.drop takes it out" : "data.features leaves it out")
                         + "); expected feature columns only");
@@ -91,7 +91,7 @@ public final class TableEncoder {
         int[][] given = {train, holdout, test};
         for (int p = 0; p < 3; p++) {
             if (given[p].length > 0 && parts[p].length == 0) {
-                throw DataException.forKey("missing", src + ": data.missing: drop-rows dropped all " + given[p].length
+                throw BadInputException.of("data.missing", src + ": data.missing: drop-rows dropped all " + given[p].length
                         + " " + partNames[p] + " rows; expected some left (data.missing: impute, or data.drop the"
                         + " columns with the most gaps)");
             }
@@ -113,7 +113,7 @@ public final class TableEncoder {
         int[] kept = union(parts);
         int width = encoding.width();
         if ((long) kept.length * width > MAX_VALUES) {
-            throw DataException.forKey("features", src + ": " + kept.length + " rows × " + width
+            throw BadInputException.of("data.features", src + ": " + kept.length + " rows × " + width
                     + " encoded columns is more than " + MAX_VALUES + " values; expected a dataset that fits one"
                     + " Java array (fewer columns: data.drop, data.max-levels)");
         }
@@ -163,7 +163,7 @@ public final class TableEncoder {
             for (int j = 0; j < features.size(); j++) {
                 if (unseen[p][j] > 0) {
                     warnings.add(src + ": " + partNames[p] + " split: " + unseen[p][j] + " cell"
-                            + (unseen[p][j] == 1 ? " of " : "s of ") + DataException.shown(encoding.columns().get(j)
+                            + (unseen[p][j] == 1 ? " of " : "s of ") + BadInputException.shown(encoding.columns().get(j)
                             .name()) + (unseen[p][j] == 1 ? " holds" : " hold") + " a value (or gap) the training"
                             + " split does not have; encoded as zeros");
                 }
@@ -207,24 +207,24 @@ public final class TableEncoder {
         } else {
             for (int c : indices(table, options.features(), "features")) {
                 if (c == table.labelColumn()) {
-                    throw DataException.forKey("features", src + ": data.features names the label column "
-                            + DataException.shown(table.labelName()) + "; expected feature columns only");
+                    throw BadInputException.of("data.features", src + ": data.features names the label column "
+                            + BadInputException.shown(table.labelName()) + "; expected feature columns only");
                 }
                 features.add(c);
             }
         }
         for (int c : indices(table, options.drop(), "drop")) {
             if (c == table.labelColumn()) {
-                throw DataException.forKey("drop", src + ": data.drop names the label column "
-                        + DataException.shown(table.labelName()) + "; expected feature columns only");
+                throw BadInputException.of("data.drop", src + ": data.drop names the label column "
+                        + BadInputException.shown(table.labelName()) + "; expected feature columns only");
             }
             if (!features.remove(Integer.valueOf(c))) {
-                throw DataException.forKey("drop", src + ": data.drop names " + DataException.shown(
+                throw BadInputException.of("data.drop", src + ": data.drop names " + BadInputException.shown(
                         table.columnNames().get(c)) + ", which data.features does not list; expected a feature");
             }
         }
         if (features.isEmpty()) {
-            throw DataException.forKey(options.drop().isEmpty() ? "features" : "drop", src
+            throw BadInputException.of(options.drop().isEmpty() ? "data.features" : "data.drop", src
                     + ": no feature column is left; expected at least one");
         }
         return features;
@@ -235,12 +235,12 @@ public final class TableEncoder {
         Set<String> seen = new HashSet<>();
         for (String name : names) {
             if (!seen.add(name)) {
-                throw DataException.forKey(key, table.name() + ": data." + key + " names "
-                        + DataException.shown(name) + " twice; expected each column once");
+                throw BadInputException.of("data." + key, table.name() + ": data." + key + " names "
+                        + BadInputException.shown(name) + " twice; expected each column once");
             }
             int c = table.columnNames().indexOf(name);
             if (c < 0) {
-                throw DataException.forKey(key, table.name() + ": data." + key + " names " + DataException.shown(name)
+                throw BadInputException.of("data." + key, table.name() + ": data." + key + " names " + BadInputException.shown(name)
                         + ", which is not a column; expected one of: " + String.join(", ", table.columnNames()));
             }
             out.add(c);
@@ -272,7 +272,7 @@ public final class TableEncoder {
             if (i > 0) {
                 b.append(", ");
             }
-            b.append(DataException.shown(table.columnNames().get(c))).append(' ').append(table.missingCells(c))
+            b.append(BadInputException.shown(table.columnNames().get(c))).append(' ').append(table.missingCells(c))
                     .append(" (first on line ").append(table.facts(c).firstMissingLine()).append(')');
         }
         if (columns.length > shown) {
@@ -281,7 +281,7 @@ public final class TableEncoder {
         b.append("; expected none under data.missing: refuse (the default), or data.missing: drop-rows (drops those"
                 + " rows from each split) or impute (training medians plus a was-missing column for numbers, a level"
                 + " of its own for categories)");
-        throw DataException.forKey("missing", b.toString());
+        throw BadInputException.of("data.missing", b.toString());
     }
 
     /** @return the rows of {@code rows} without a missing feature cell */
@@ -308,8 +308,8 @@ public final class TableEncoder {
         }
         for (int k = 0; k < counts.length; k++) {
             if (counts[k] == 0) {
-                throw DataException.forKey("missing", table.name() + ": data.missing: drop-rows dropped " + dropped
-                        + " training rows and left class " + DataException.shown(table.classNames().get(k))
+                throw BadInputException.of("data.missing", table.name() + ": data.missing: drop-rows dropped " + dropped
+                        + " training rows and left class " + BadInputException.shown(table.classNames().get(k))
                         + " without any; expected every class in training (data.missing: impute, or data.drop the"
                         + " columns with the most gaps)");
             }
@@ -333,7 +333,7 @@ public final class TableEncoder {
             if (impute && (trainingGaps > 0 || anyMissing(table, c, holdout) || anyMissing(table, c, test))) {
                 median = median(table.numbers(c), train);
                 if (Double.isNaN(median)) {
-                    throw DataException.forKey("drop", table.name() + ": column " + DataException.shown(name)
+                    throw BadInputException.of("data.drop", table.name() + ": column " + BadInputException.shown(name)
                             + " has no values in the training split, so it has no median to impute; expected it"
                             + " in data.drop");
                 }
@@ -344,8 +344,8 @@ public final class TableEncoder {
         SourceTable.ColumnFacts facts = table.facts(c);
         if (!table.numeric(c) && !forced && facts.textCells() == 0) {
             // numbers in another notation (1,5  12%  4.5d): a column of numbers the file spells differently
-            throw DataException.forKey("categorical", DataException.at(table.name(), facts.firstNotationLine(),
-                    c + 1, name, "expected a number, found " + DataException.shown(facts.firstNotation())
+            throw BadInputException.of("data.categorical", BadInputException.atCell(table.name(), facts.firstNotationLine(),
+                    c + 1, name, "expected a number, found " + BadInputException.shown(facts.firstNotation())
                     + "; settle reads numbers with a decimal point and without thousands separators, '%' or"
                     + " suffixes: convert the column, or list it in data.categorical if it holds categories")
                     .getMessage());
@@ -375,7 +375,7 @@ public final class TableEncoder {
             levels = new ArrayList<>(values);
         }
         if (levels.size() > options.maxLevels()) {
-            throw DataException.forKey("max-levels", table.name() + ": categorical column " + DataException.shown(name)
+            throw BadInputException.of("data.max-levels", table.name() + ": categorical column " + BadInputException.shown(name)
                     + " has " + levels.size() + " distinct values in the training split, more than data.max-levels ("
                     + options.maxLevels() + "): likely an ID or free text" + textHint(table, c)
                     + "; expected it in data.drop, or a larger data.max-levels");
@@ -390,7 +390,7 @@ public final class TableEncoder {
         if (table.numeric(c) || f.numberCells() <= f.textCells()) {
             return "";
         }
-        return " (it is text because of " + DataException.shown(f.firstText()) + " on line " + f.firstTextLine()
+        return " (it is text because of " + BadInputException.shown(f.firstText()) + " on line " + f.firstTextLine()
                 + "; " + f.numberCells() + " of its cells are numbers)";
     }
 
@@ -488,7 +488,7 @@ public final class TableEncoder {
     private static List<String> columnWarnings(SourceTable table, List<Integer> features, Set<Integer> forced) {
         List<String> out = new ArrayList<>();
         for (int c : features) {
-            String name = DataException.shown(table.columnNames().get(c));
+            String name = BadInputException.shown(table.columnNames().get(c));
             SourceTable.ColumnFacts f = table.facts(c);
             int present = table.rows() - f.missing();
             if (present >= ID_WARNING_ROWS && allDistinct(table, c, present)) {
@@ -497,7 +497,7 @@ public final class TableEncoder {
             }
             if (!table.numeric(c) && !forced.contains(c) && f.numberCells() > f.textCells()) {
                 out.add(table.name() + ": column " + name + " is read as text (categories) because of "
-                        + DataException.shown(f.firstText()) + " on line " + f.firstTextLine() + ", although "
+                        + BadInputException.shown(f.firstText()) + " on line " + f.firstTextLine() + ", although "
                         + f.numberCells() + " of its " + table.rows() + " cells are numbers; fix those cells, or list"
                         + " it in data.categorical to keep it categorical");
             }

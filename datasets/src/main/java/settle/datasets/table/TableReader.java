@@ -13,7 +13,7 @@ import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.io.CsvTokenizer;
 import settle.datasets.io.LabelIndex;
 import settle.datasets.io.Numbers;
@@ -65,11 +65,11 @@ public final class TableReader {
      * @param labelColumn the label column's header name, or null for the last column
      * @param delimiter {@code ','}, {@code ';'}, {@code '\t'} or {@link #DETECT}
      * @return the table
-     * @throws DataException for a missing or unreadable file and for every refused content
+     * @throws BadInputException for a missing or unreadable file and for every refused content
      */
     public static SourceTable read(Path file, String shownAs, String labelColumn, char delimiter) {
         if (!Files.exists(file)) {
-            throw new DataException(shownAs + ": no such file");
+            throw BadInputException.of("", shownAs + ": no such file");
         }
         // malformed bytes become U+FFFD, which the tokenizer reports with its line
         return read(() -> new InputStreamReader(Files.newInputStream(file), StandardCharsets.UTF_8.newDecoder()
@@ -84,7 +84,7 @@ public final class TableReader {
 
     static SourceTable read(Text text, String src, String labelColumn, char delimiter) {
         if (delimiter != DETECT && delimiter != ',' && delimiter != ';' && delimiter != '\t') {
-            throw new DataException(src + ": delimiter " + DataException.shown(String.valueOf(delimiter))
+            throw BadInputException.of("", src + ": delimiter " + BadInputException.shown(String.valueOf(delimiter))
                     + " is not accepted; expected ',', ';' or tab");
         }
         try {
@@ -96,9 +96,9 @@ public final class TableReader {
                 return fill(new CsvTokenizer(in, src), src, survey);
             }
         } catch (NoSuchFileException e) {
-            throw new DataException(src + ": no such file");
+            throw BadInputException.of("", src + ": no such file");
         } catch (IOException e) {
-            throw new DataException(src + ": cannot read: " + e.getMessage(), e);
+            throw BadInputException.of("", src + ": cannot read: " + e.getMessage()).because(e);
         }
     }
 
@@ -128,7 +128,7 @@ public final class TableReader {
         t.skipBom();
         t.skipEmptyLines();
         if (t.atEnd()) {
-            throw new DataException(src + ": empty file; expected a header row naming the columns");
+            throw BadInputException.of("", src + ": empty file; expected a header row naming the columns");
         }
         s.delimiter = chosen == DETECT ? t.detectDelimiter() : chosen;
         t.delimiter(s.delimiter);
@@ -139,13 +139,13 @@ public final class TableReader {
         for (int c = 0; c < width; c++) {
             String name = header.get(c);
             if (name.isEmpty()) {
-                throw DataException.at(src, headerLine, c + 1, null, "empty column name in the header; "
+                throw BadInputException.atCell(src, headerLine, c + 1, null, "empty column name in the header; "
                         + "expected a name for every column");
             }
             Integer before = seen.put(name, c);
             if (before != null) {
-                throw DataException.at(src, headerLine, c + 1, null, "duplicate column name "
-                        + DataException.shown(name) + " (also column " + (before + 1)
+                throw BadInputException.atCell(src, headerLine, c + 1, null, "duplicate column name "
+                        + BadInputException.shown(name) + " (also column " + (before + 1)
                         + "); expected unique column names");
             }
         }
@@ -155,13 +155,13 @@ public final class TableReader {
         } else {
             Integer at = seen.get(labelColumn);
             if (at == null) {
-                throw DataException.atLine(src, headerLine, "no label column " + DataException.shown(labelColumn)
+                throw BadInputException.atLine(src, headerLine, "no label column " + BadInputException.shown(labelColumn)
                         + "; the columns are: " + String.join(", ", header));
             }
             labelAt = at;
         }
         if (width < 2) {
-            throw DataException.atLine(src, headerLine, "only one column (" + DataException.shown(header.get(0))
+            throw BadInputException.atLine(src, headerLine, "only one column (" + BadInputException.shown(header.get(0))
                     + "); expected feature columns and a label column separated by ',', ';' or tab");
         }
         s.header = List.copyOf(header);
@@ -189,16 +189,16 @@ public final class TableReader {
             long line = t.nextRecord(fields);
             if (fields.size() != width) {
                 if (fields.size() > width) {
-                    throw DataException.at(src, line, width + 1, null, "the row has " + fields.size()
+                    throw BadInputException.atCell(src, line, width + 1, null, "the row has " + fields.size()
                             + " fields; expected " + width + " as in the header (line " + headerLine + ")");
                 }
                 int present = fields.size();
-                throw DataException.at(src, line, present + 1, header.get(present), "missing; the row has "
+                throw BadInputException.atCell(src, line, present + 1, header.get(present), "missing; the row has "
                         + present + " field" + (present == 1 ? "" : "s") + ", expected " + width
                         + " as in the header (line " + headerLine + ")");
             }
             if (labels.rows() == MAX_ROWS) {
-                throw DataException.atLine(src, line, "more than " + MAX_ROWS + " rows; expected a table whose"
+                throw BadInputException.atLine(src, line, "more than " + MAX_ROWS + " rows; expected a table whose"
                         + " columns each fit one Java array");
             }
             for (int c = 0; c < width; c++) {
@@ -206,7 +206,7 @@ public final class TableReader {
                 if (c == labelAt) {
                     String label = cell.strip();
                     if (label.isEmpty()) {
-                        throw DataException.at(src, line, c + 1, labelName, "empty label; expected a class label");
+                        throw BadInputException.atCell(src, line, c + 1, labelName, "empty label; expected a class label");
                     }
                     labels.add(label);
                     continue;
@@ -239,18 +239,18 @@ public final class TableReader {
             }
         }
         if (labels.rows() == 0) {
-            throw new DataException(src + ": no data rows after the header (line " + headerLine
+            throw BadInputException.of("", src + ": no data rows after the header (line " + headerLine
                     + "); expected at least one row");
         }
         labels.finish();
         if (labels.classNames().size() < 2) {
-            throw new DataException(src + ": label column " + DataException.shown(labelName)
-                    + " holds one class only (" + DataException.shown(labels.classNames().get(0))
+            throw BadInputException.of("", src + ": label column " + BadInputException.shown(labelName)
+                    + " holds one class only (" + BadInputException.shown(labels.classNames().get(0))
                     + "); expected at least two classes");
         }
         String regression = labels.regressionProblem();
         if (regression != null) {
-            throw DataException.forKey("label", src + ": label column " + DataException.shown(labelName)
+            throw BadInputException.of("data.label", src + ": label column " + BadInputException.shown(labelName)
                     + " holds " + regression);
         }
         // an infinity in a number column is refused where it stands; in a text column it is just text
@@ -263,7 +263,7 @@ public final class TableReader {
             }
         }
         if (worst >= 0) {
-            throw DataException.at(src, worstLine, worst + 1, header.get(worst),
+            throw BadInputException.atCell(src, worstLine, worst + 1, header.get(worst),
                     Numbers.problem(Numbers.INFINITE, s.firstInfinite[worst]));
         }
         s.rows = labels.rows();
@@ -298,7 +298,7 @@ public final class TableReader {
             }
             long line = t.nextRecord(fields);
             if (row == s.rows || fields.size() != width) {
-                throw DataException.atLine(src, line, "the file changed while it was read; expected it unchanged");
+                throw BadInputException.atLine(src, line, "the file changed while it was read; expected it unchanged");
             }
             for (int c = 0; c < width; c++) {
                 String cell = fields.get(c);
@@ -307,7 +307,7 @@ public final class TableReader {
                     if (kind == Numbers.OK) {
                         double v = Numbers.parse(cell);
                         if (!Double.isFinite(v)) {
-                            throw DataException.at(src, line, c + 1, s.header.get(c),
+                            throw BadInputException.atCell(src, line, c + 1, s.header.get(c),
                                     Numbers.problem(Numbers.INFINITE, cell));
                         }
                         numbers[c][row] = v;
@@ -326,7 +326,7 @@ public final class TableReader {
             row++;
         }
         if (row != s.rows) {
-            throw new DataException(src + ": the file changed while it was read; expected it unchanged");
+            throw BadInputException.of("", src + ": the file changed while it was read; expected it unchanged");
         }
         Column<?>[] columns = new Column<?>[width];
         SourceTable.ColumnFacts[] facts = new SourceTable.ColumnFacts[width];

@@ -11,7 +11,7 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.DataSources;
 import settle.datasets.Dataset;
 
@@ -115,7 +115,7 @@ class BundledDataTest {
         BundledDataset iris = BundledData.entry("iris");
         byte[] bytes = BundledData.class.getResourceAsStream("iris.csv").readAllBytes();
         bytes[bytes.length - 3] ^= 1;
-        String message = assertThrows(DataException.class, () -> BundledData.verifyAndRead(iris, bytes)).getMessage();
+        String message = assertThrows(IllegalStateException.class, () -> BundledData.verifyAndRead(iris, bytes)).getMessage();
         assertEquals("bundled:iris: resource iris.csv has SHA-256 " + BundledData.sha256(bytes) + ", expected "
                 + iris.sha256() + "; the build is damaged: rebuild settle", message);
     }
@@ -123,8 +123,8 @@ class BundledDataTest {
     @Test
     void badNamesAndLabels() {
         assertEquals("bundled:mnist: no such bundled dataset; expected one of wdbc, iris, wine, optdigits",
-                assertThrows(DataException.class, () -> DataSources.load("bundled:mnist", null, null)).getMessage());
+                assertThrows(BadInputException.class, () -> DataSources.load("bundled:mnist", null, null)).getMessage());
         assertEquals("bundled:wdbc: the label column is 'diagnosis', not 'target'; expected no label option or 'diagnosis'",
-                assertThrows(DataException.class, () -> DataSources.load("bundled:wdbc", "target", null)).getMessage());
+                assertThrows(BadInputException.class, () -> DataSources.load("bundled:wdbc", "target", null)).getMessage());
     }
 }

@@ -7,7 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.List;
 import org.junit.jupiter.api.Test;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.Dataset;
 import settle.datasets.PreparedData;
 
@@ -43,8 +43,8 @@ class TableEncoderTest {
         return TableEncoder.prepare(t, o, all, NONE, NONE);
     }
 
-    static DataException refused(String text, TableOptions o) {
-        return assertThrows(DataException.class, () -> prepare(text, o));
+    static BadInputException refused(String text, TableOptions o) {
+        return assertThrows(BadInputException.class, () -> prepare(text, o));
     }
 
     @Test
@@ -115,7 +115,7 @@ class TableEncoderTest {
 
     @Test
     void refuseCountsTheMissingCellsPerColumnAndNamesTheOtherRules() {
-        DataException e = refused("a,b,c,y\n1,,x,p\nNA,2,,q\n3,4,z,p\n5,6,w,q\n", TableOptions.DEFAULTS);
+        BadInputException e = refused("a,b,c,y\n1,,x,p\nNA,2,,q\n3,4,z,p\n5,6,w,q\n", TableOptions.DEFAULTS);
         assertEquals("t.csv: missing cells (empty, NA, N/A, NaN, null, none or ?) in 2 of 4 rows: 'a' 1 (first on"
                 + " line 3), 'b' 1 (first on line 2), 'c' 1 (first on line 3); expected none under data.missing:"
                 + " refuse (the default), or data.missing: drop-rows (drops those rows from each split) or impute"
@@ -155,12 +155,12 @@ class TableEncoderTest {
 
     @Test
     void dropRowsThatLeavesAClassOrASplitEmptyIsRefused() {
-        DataException e = assertThrows(DataException.class, () -> prepare("a,y\n1,p\n,q\n2,p\n3,q\n",
+        BadInputException e = assertThrows(BadInputException.class, () -> prepare("a,y\n1,p\n,q\n2,p\n3,q\n",
                 missing(TableOptions.Missing.DROP_ROWS), new int[] {0, 1, 2}, NONE, new int[] {3}));
         assertEquals("t.csv: data.missing: drop-rows dropped 1 training rows and left class 'q' without any; expected"
                 + " every class in training (data.missing: impute, or data.drop the columns with the most gaps)",
                 e.getMessage());
-        e = assertThrows(DataException.class, () -> prepare("a,y\n1,p\n2,q\n,p\n",
+        e = assertThrows(BadInputException.class, () -> prepare("a,y\n1,p\n2,q\n,p\n",
                 missing(TableOptions.Missing.DROP_ROWS), new int[] {0, 1}, NONE, new int[] {2}));
         assertEquals("t.csv: data.missing: drop-rows dropped all 1 test rows; expected some left (data.missing:"
                 + " impute, or data.drop the columns with the most gaps)", e.getMessage());
@@ -228,7 +228,7 @@ class TableEncoderTest {
 
     @Test
     void tooManyLevelsIsRefusedNamingTheColumn() {
-        DataException e = refused("id,y\na,p\nb,q\nc,p\nd,q\n", options(null, List.of(), List.of(), 3,
+        BadInputException e = refused("id,y\na,p\nb,q\nc,p\nd,q\n", options(null, List.of(), List.of(), 3,
                 TableOptions.Missing.REFUSE));
         assertEquals("t.csv: categorical column 'id' has 4 distinct values in the training split, more than"
                 + " data.max-levels (3): likely an ID or free text; expected it in data.drop, or a larger"
@@ -257,7 +257,7 @@ class TableEncoderTest {
     @Test
     void numbersInAnotherNotationAreRefusedUnlessListedAsCategories() {
         String text = "a,y\n1,p\n\"1,5\",q\n2,p\n";
-        DataException e = refused(text, TableOptions.DEFAULTS);
+        BadInputException e = refused(text, TableOptions.DEFAULTS);
         assertEquals("t.csv: line 3, column 1 ('a'): expected a number, found '1,5'; settle reads numbers with a"
                 + " decimal point and without thousands separators, '%' or suffixes: convert the column, or list it in"
                 + " data.categorical if it holds categories", e.getMessage());
@@ -300,7 +300,7 @@ class TableEncoderTest {
                     + " columns only"},
         };
         for (Object[] c : cases) {
-            DataException e = refused(text, (TableOptions) c[0]);
+            BadInputException e = refused(text, (TableOptions) c[0]);
             assertEquals(c[2], e.getMessage());
             assertEquals(c[1], e.key());
         }
@@ -316,7 +316,7 @@ class TableEncoderTest {
             bad.append(r).append(',').append(r % 21 + 0.5).append('\n');
         }
         assertEquals(20, TableReader.read(ok.toString(), "t.csv", null, ',').classNames().size());
-        DataException e = assertThrows(DataException.class, () -> TableReader.read(bad.toString(), "t.csv", null, ','));
+        BadInputException e = assertThrows(BadInputException.class, () -> TableReader.read(bad.toString(), "t.csv", null, ','));
         assertEquals("t.csv: label column 'y' holds 21 distinct numbers in 40 rows, more than max(20, 5 % of the rows)"
                 + " = 20: looks like a regression target; settle trains classifiers; expected class labels",
                 e.getMessage());

@@ -1,5 +1,7 @@
 package settle.engine.model;
 
+import settle.input.BadInputException;
+
 /** The nonlinearity of an MLP's hidden layers (plan key {@code model.activation}). */
 public enum Activation {
     /** max(z, 0); its derivative is taken as 0 at z = 0 */
@@ -14,7 +16,7 @@ public enum Activation {
 
     /**
      * @param text {@code relu} or {@code tanh} (case-insensitive)
-     * @throws IllegalArgumentException naming {@code model.activation} and the accepted values
+     * @throws BadInputException naming {@code model.activation} and the accepted values
      */
     public static Activation parse(String text) {
         if (text != null) {
@@ -24,6 +26,7 @@ public enum Activation {
                 }
             }
         }
-        throw new IllegalArgumentException("model.activation must be relu or tanh: '" + text + "'");
+        throw BadInputException.of("model.activation", "model.activation must be relu or tanh, not "
+                + BadInputException.shown(String.valueOf(text)));
     }
 }

@@ -2,6 +2,7 @@ package settle.engine.model;
 
 import java.util.Arrays;
 import java.util.random.RandomGenerator;
+import settle.input.BadInputException;
 
 /**
  * A multilayer perceptron: hidden layers of the chosen {@link Activation}, then a softmax output layer over
@@ -69,7 +70,7 @@ public final class Mlp implements Model {
             biasOffset[l] = (int) offset;
             offset += sizes[l];
             if (offset > Integer.MAX_VALUE - 8) {
-                throw new IllegalArgumentException("model.hidden " + Arrays.toString(hidden)
+                throw BadInputException.of("model.hidden", "model.hidden " + Arrays.toString(hidden)
                         + " gives too many parameters for " + inputs + " inputs");
             }
         }

@@ -2,6 +2,7 @@ package settle.engine.model;
 
 import java.util.List;
 import java.util.Locale;
+import settle.input.BadInputException;
 
 /**
  * What a plan's {@code model:} block (or the {@code trace}/{@code minimum} options) asks for, validated; it
@@ -35,7 +36,7 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
 
         /**
          * @param text {@code logistic} or {@code mlp} (case-insensitive)
-         * @throws IllegalArgumentException naming {@code model.kind} and the accepted values
+         * @throws BadInputException naming {@code model.kind} and the accepted values
          */
         public static Kind parse(String text) {
             if (text != null) {
@@ -45,7 +46,8 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
                     }
                 }
             }
-            throw new IllegalArgumentException("model.kind must be logistic or mlp: '" + text + "'");
+            throw BadInputException.of("model.kind", "model.kind must be logistic or mlp, not "
+                    + BadInputException.shown(String.valueOf(text)));
         }
     }
 
@@ -114,7 +116,7 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
                 }
             }
         }
-        throw new IllegalArgumentException("model.init must be zeros, reference, glorot or he: '" + text + "'");
+        throw BadInputException.of("model.init", "model.init must be zeros, reference, glorot or he: '" + text + "'");
     }
 
     /** @return the plan spelling of an initialisation: zeros, reference, glorot or he */

@@ -1,16 +1,18 @@
 package settle.engine.schedule;
 
+import settle.input.BadInputException;
+
 /** Range checks shared by the schedule records; each failure names the kind, the key, the value and the range. */
 final class Check {
 
     private Check() {
     }
 
-    static ScheduleException bad(String kind, String key, String value, String accepted) {
-        return new ScheduleException(key, kind + ": " + key + " = " + value + " is not accepted; expected " + accepted);
+    static BadInputException bad(String kind, String key, String value, String accepted) {
+        return BadInputException.of(key, kind + ": " + key + " = " + value + " is not accepted; expected " + accepted);
     }
 
-    static ScheduleException bad(String kind, String key, double value, String accepted) {
+    static BadInputException bad(String kind, String key, double value, String accepted) {
         return bad(kind, key, Fmt.num(value), accepted);
     }
 
@@ -48,7 +50,7 @@ final class Check {
 
     static <T> T present(String kind, String key, T v) {
         if (v == null) {
-            throw new ScheduleException(key, kind + ": " + key + " is missing");
+            throw BadInputException.of(key, kind + ": " + key + " is missing");
         }
         return v;
     }

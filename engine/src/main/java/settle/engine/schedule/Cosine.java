@@ -1,6 +1,7 @@
 package settle.engine.schedule;
 
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * {@code cosine} annealing, optionally with restarts: α = floor + (rate − floor) · (1 + cos(π·p)) / 2, p the
@@ -33,7 +34,7 @@ public record Cosine(double rate, double floor, double restartEvery, double rest
             throw Check.bad(KIND, "restart-growth", restartGrowth, "a finite number ≥ 1");
         }
         if (restartEvery == 0 && restartGrowth != 1) {
-            throw new ScheduleException("restart-growth", KIND + ": restart-growth needs restart-every "
+            throw BadInputException.of("restart-growth", KIND + ": restart-growth needs restart-every "
                     + "(the first cycle's length in epochs)");
         }
         Check.present(KIND, "per", per);
@@ -46,7 +47,7 @@ public record Cosine(double rate, double floor, double restartEvery, double rest
         double floor = r.number("floor", 0.0);
         boolean restarts = r.has("restart-every");
         if (!restarts && r.has("restart-growth")) {
-            throw new ScheduleException("restart-growth", KIND + ": restart-growth needs restart-every "
+            throw BadInputException.of("restart-growth", KIND + ": restart-growth needs restart-every "
                     + "(the first cycle's length in epochs)");
         }
         double every = restarts ? r.number("restart-every", null) : 0;

@@ -8,6 +8,7 @@ import net.objecthunter.exp4j.Expression;
 import net.objecthunter.exp4j.ExpressionBuilder;
 import net.objecthunter.exp4j.ValidationResult;
 import net.objecthunter.exp4j.tokenizer.UnknownFunctionOrVariableException;
+import settle.input.BadInputException;
 
 /**
  * {@code formula}: α = expr, an expression (exp4j 0.4.8 syntax: + − * / ^ %, and the functions abs, ceil,
@@ -34,7 +35,7 @@ public final class Formula implements Schedule {
     /**
      * @param expr the expression
      * @param warmup the warmup, or {@link Warmup#NONE}
-     * @throws ScheduleException for an empty or malformed expression, or an unknown variable or function
+     * @throws BadInputException for an empty or malformed expression, or an unknown variable or function
      */
     public Formula(String expr, Warmup warmup) {
         this.expr = Check.present(KIND, "expr", expr);
@@ -53,15 +54,15 @@ public final class Formula implements Schedule {
         } catch (UnknownFunctionOrVariableException u) {
             String token = identifierAt(expr, u.getPosition(), u.getToken());
             String hint = NearMiss.closest(token, VARIABLES);
-            throw new ScheduleException("expr", KIND + ": expr = '" + expr + "' uses the unknown variable or function '"
-                    + token + "'" + (hint == null ? "" : "; did you mean '" + hint + "'?")
+            throw BadInputException.of("expr", KIND + ": expr = " + BadInputException.shown(expr) + " uses the unknown variable or function "
+                    + BadInputException.shown(token) + (hint == null ? "" : "; did you mean '" + hint + "'?")
                     + (hint == null ? "; expected variables " + String.join(", ", VARIABLES) : ""));
         } catch (IllegalArgumentException | java.util.EmptyStackException x) {
-            throw Check.bad(KIND, "expr", "'" + expr + "'", "a well-formed expression (" + x.getMessage() + ")");
+            throw Check.bad(KIND, "expr", BadInputException.shown(expr), "a well-formed expression (" + x.getMessage() + ")");
         }
         ValidationResult v = e.validate(false);
         if (!v.isValid()) {
-            throw Check.bad(KIND, "expr", "'" + expr + "'", "a well-formed expression (" + String.join("; ", v.getErrors()) + ")");
+            throw Check.bad(KIND, "expr", BadInputException.shown(expr), "a well-formed expression (" + String.join("; ", v.getErrors()) + ")");
         }
         return e;
     }
@@ -175,11 +176,11 @@ public final class Formula implements Schedule {
             try {
                 a = e.evaluate();
             } catch (ArithmeticException x) {
-                throw new ScheduleException("expr", KIND + ": expr = '" + expr + "' fails at epoch " + epoch
+                throw BadInputException.of("expr", KIND + ": expr = " + BadInputException.shown(expr) + " fails at epoch " + epoch
                         + ", update " + update + " (" + x.getMessage() + "); expected a finite rate ≥ 0");
             }
             if (!(a >= 0) || !Double.isFinite(a)) {
-                throw new ScheduleException("expr", KIND + ": expr = '" + expr + "' gives " + Fmt.num(a) + " at epoch "
+                throw BadInputException.of("expr", KIND + ": expr = " + BadInputException.shown(expr) + " gives " + Fmt.num(a) + " at epoch "
                         + epoch + ", update " + update + "; expected a finite rate ≥ 0");
             }
             return a * Warmup.factor(update, warmupUpdates);

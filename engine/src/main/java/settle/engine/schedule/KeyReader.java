@@ -6,6 +6,7 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import settle.input.BadInputException;
 
 /**
  * Reads the keys of one schedule map (values as a YAML parser produces them: Number, String, Boolean, List,
@@ -43,13 +44,13 @@ final class KeyReader {
         return map.get(key);
     }
 
-    ScheduleException badType(String path, Object value, String expected) {
+    BadInputException badType(String path, Object value, String expected) {
         return Check.bad(kind, path, show(value), expected);
     }
 
-    ScheduleException missing(String key, String expected) {
+    BadInputException missing(String key, String expected) {
         String p = path(key);
-        return new ScheduleException(p, kind + ": " + p + " is missing; expected " + expected);
+        return BadInputException.of(p, kind + ": " + p + " is missing; expected " + expected);
     }
 
     /** @return the number at {@code key}, or {@code fallback} when absent (null fallback: required) */
@@ -92,7 +93,7 @@ final class KeyReader {
         double d;
         try {
             d = toNumber(path, v);
-        } catch (ScheduleException e) {
+        } catch (BadInputException e) {
             throw badType(path, v, "an integer");
         }
         if (d != Math.rint(d) || Math.abs(d) > Integer.MAX_VALUE) {
@@ -187,18 +188,53 @@ final class KeyReader {
                 for (String a : accepted) {
                     keys.add(prefix + a);
                 }
-                throw new ScheduleException(p, kind + ": unknown key '" + p + "'; "
+                throw BadInputException.of(p, kind + ": unknown key '" + p + "'; "
                         + (hint == null ? "accepted keys: " + String.join(", ", keys)
                                 : "did you mean '" + prefix + hint + "'?"));
             }
         }
     }
 
-    /** @return a value as written: strings quoted, numbers as given */
+    /**
+     * @return a value as written, for a message: a string quoted, a list or map in YAML's flow form, cut to about
+     *     {@value BadInputException#SHOWN_LIMIT} characters
+     */
     static String show(Object v) {
         if (v instanceof String s) {
-            return "'" + s + "'";
+            return BadInputException.shown(s);
         }
-        return String.valueOf(v);
+        StringBuilder b = new StringBuilder();
+        flow(v, b);
+        return b.length() <= BadInputException.SHOWN_LIMIT ? b.toString()
+                : b.substring(0, BadInputException.SHOWN_LIMIT - 1) + "…";
+    }
+
+    /** Appends {@code v} in YAML's flow form, stopping once the text is longer than a message shows. */
+    private static void flow(Object v, StringBuilder b) {
+        if (b.length() > BadInputException.SHOWN_LIMIT) {
+            return;
+        }
+        if (v instanceof List<?> list) {
+            b.append('[');
+            for (int i = 0; i < list.size() && b.length() <= BadInputException.SHOWN_LIMIT; i++) {
+                b.append(i == 0 ? "" : ", ");
+                flow(list.get(i), b);
+            }
+            b.append(']');
+        } else if (v instanceof Map<?, ?> map) {
+            b.append('{');
+            boolean first = true;
+            for (Map.Entry<?, ?> e : map.entrySet()) {
+                if (b.length() > BadInputException.SHOWN_LIMIT) {
+                    break;
+                }
+                b.append(first ? "" : ", ").append(e.getKey()).append(": ");
+                flow(e.getValue(), b);
+                first = false;
+            }
+            b.append('}');
+        } else {
+            b.append(v);
+        }
     }
 }

@@ -3,6 +3,7 @@ package settle.engine.schedule;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * {@code piecewise} (manual decay by hand-set points): α = the rate of the last point whose epoch ≤ the
@@ -65,7 +66,7 @@ public record Piecewise(List<Point> points, Warmup warmup) implements CounterSch
             try {
                 epoch = r.toInteger(path, pair.get(0));
                 rate = r.toNumber(path, pair.get(1));
-            } catch (ScheduleException e) {
+            } catch (BadInputException e) {
                 throw r.badType(path, pair, "a pair [epoch, rate] of an integer and a number");
             }
             points.add(new Point(epoch, rate));

@@ -3,6 +3,7 @@ package settle.engine.schedule;
 import java.math.BigDecimal;
 import java.util.List;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * {@code plateau}: halve the rate once the judged loss has flattened, the step-halving rule of Bottou, Curtis &amp;
@@ -67,7 +68,7 @@ public record Plateau(double rate, double cut, int window, double gain, double f
     static Plateau parse(KeyReader r) {
         for (String gone : List.of("stall", "rest")) {
             if (r.has(gone)) {
-                throw new ScheduleException(gone, KIND + ": '" + gone + "' is not a key of plateau; it compares the mean"
+                throw BadInputException.of(gone, KIND + ": '" + gone + "' is not a key of plateau; it compares the mean"
                         + " judged loss of two consecutive windows of 'window' epochs and judges a new rate only on"
                         + " its own epochs (keys: rate, cut, window, gain, floor, judge)");
             }
@@ -162,7 +163,7 @@ public record Plateau(double rate, double cut, int window, double gain, double f
         public void epochEnded(int epoch, double trainObjective, double holdoutLoss) {
             double loss = p.judge == Judge.TRAIN ? trainObjective : holdoutLoss;
             if (p.judge == Judge.HOLDOUT && Double.isNaN(holdoutLoss)) {
-                throw new ScheduleException("judge", KIND + ": judge = 'holdout' needs a holdout loss, but the run "
+                throw BadInputException.of("judge", KIND + ": judge = 'holdout' needs a holdout loss, but the run "
                         + "has none; expected judge: train, or a plan with data.holdout-fraction > 0");
             }
             int w = p.window;

@@ -1,6 +1,7 @@
 package settle.engine.schedule;
 
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * A way of driving the learning rate: immutable, validated on construction, and the same YAML map in a
@@ -38,7 +39,7 @@ public interface Schedule {
      * Lists the rate of every update of a planned run without any data (plateau: its no-cut envelope).
      *
      * @return a fresh array, element u − 1 the rate of update u
-     * @throws ScheduleException when the schedule does not fit the run (a warmup longer than the run; a
+     * @throws BadInputException when the schedule does not fit the run (a warmup longer than the run; a
      *     formula giving a negative or non-finite rate)
      */
     default double[] plannedRates(RunShape shape) {

@@ -5,6 +5,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.function.Function;
+import settle.input.BadInputException;
 
 /** Builds schedules from their YAML maps (the same map in a plan and on the command line). */
 public final class Schedules {
@@ -39,21 +40,21 @@ public final class Schedules {
      *
      * @param map the schedule map, e.g. {@code {kind: reciprocal, rate: 0.2, decay: 1}}. Not modified.
      * @return the validated schedule
-     * @throws ScheduleException naming the key, the value and the accepted range, for a missing or unknown
+     * @throws BadInputException naming the key, the value and the accepted range, for a missing or unknown
      *     kind, an unknown or missing key, or a value out of range
      */
     public static Schedule parse(Map<String, ?> map) {
         if (map == null) {
-            throw new ScheduleException("kind", "schedule is missing; expected a map such as {kind: constant, rate: 0.1}");
+            throw BadInputException.of("kind", "schedule is missing; expected a map such as {kind: constant, rate: 0.1}");
         }
         Object kind = map.get("kind");
         if (kind == null) {
-            throw new ScheduleException("kind", "schedule kind is missing; expected one of " + String.join(", ", kinds()));
+            throw BadInputException.of("kind", "schedule kind is missing; expected one of " + String.join(", ", kinds()));
         }
         Function<KeyReader, Schedule> parser = kind instanceof String s ? KINDS.get(s) : null;
         if (parser == null) {
             String hint = kind instanceof String s ? NearMiss.closest(s, KINDS.keySet()) : null;
-            throw new ScheduleException("kind", "unknown schedule kind " + KeyReader.show(kind) + "; "
+            throw BadInputException.of("kind", "unknown schedule kind " + KeyReader.show(kind) + "; "
                     + (hint == null ? "expected one of " + String.join(", ", kinds()) : "did you mean '" + hint + "'?"));
         }
         return parser.apply(new KeyReader((String) kind, "", map));

@@ -3,6 +3,7 @@ package settle.engine.schedule;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * {@code stepped}: α = rate · cut^j, with j = ⌊(epoch − 1) / every⌋, or j = #{a ∈ after : a &lt; epoch}
@@ -26,7 +27,7 @@ public record Stepped(double rate, double cut, int every, List<Integer> after, W
         Check.present(KIND, "warmup", warmup);
         after = List.copyOf(Check.present(KIND, "after", after));
         if ((every > 0) == !after.isEmpty()) {
-            throw new ScheduleException("every", KIND + ": give exactly one of every (a period in epochs) "
+            throw BadInputException.of("every", KIND + ": give exactly one of every (a period in epochs) "
                     + "or after (a list of epochs)");
         }
         if (every < 0) {
@@ -51,7 +52,7 @@ public record Stepped(double rate, double cut, int every, List<Integer> after, W
         boolean hasEvery = r.has("every");
         List<?> list = r.list("after", "a list of increasing epochs, e.g. [10, 20]");
         if (hasEvery == (list != null)) {
-            throw new ScheduleException("every", KIND + ": give exactly one of every (a period in epochs) "
+            throw BadInputException.of("every", KIND + ": give exactly one of every (a period in epochs) "
                     + "or after (a list of epochs)");
         }
         int every = 0;

@@ -2,6 +2,7 @@ package settle.engine.schedule;
 
 import java.util.LinkedHashMap;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * Linear warmup on any kind: {@code warmup: {epochs: E}} or {@code warmup: {updates: W}}. The rate of update
@@ -24,7 +25,7 @@ public record Warmup(int epochs, long updates) {
             throw Check.bad("warmup", "warmup.updates", Long.toString(updates), "an integer ≥ 1");
         }
         if (epochs > 0 && updates > 0) {
-            throw new ScheduleException("warmup", "warmup: give either epochs or updates, not both");
+            throw BadInputException.of("warmup", "warmup: give either epochs or updates, not both");
         }
     }
 
@@ -35,7 +36,7 @@ public record Warmup(int epochs, long updates) {
 
     /**
      * @return W, the warmup length in updates for a run of this shape (0: none)
-     * @throws ScheduleException when the warmup is longer than the run
+     * @throws BadInputException when the warmup is longer than the run
      */
     public long updatesFor(RunShape shape, String kind) {
         long w = epochs > 0 ? (long) epochs * shape.updatesPerEpoch() : updates;
@@ -86,7 +87,7 @@ public record Warmup(int epochs, long updates) {
         boolean e = w.has("epochs");
         boolean u = w.has("updates");
         if (e == u) {
-            throw new ScheduleException("warmup", r.kind() + ": warmup = " + KeyReader.show(m)
+            throw BadInputException.of("warmup", r.kind() + ": warmup = " + KeyReader.show(m)
                     + " is not accepted; expected exactly one of {epochs: E} or {updates: W}");
         }
         if (e) {

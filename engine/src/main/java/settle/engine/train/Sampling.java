@@ -1,5 +1,7 @@
 package settle.engine.train;
 
+import settle.input.BadInputException;
+
 /** How an epoch's mini-batches are drawn from the training split (plan key {@code training.sampling}). */
 public enum Sampling {
     /** a fresh permutation each epoch, cut into batches of B in order; the last short batch is kept */
@@ -20,7 +22,7 @@ public enum Sampling {
 
     /**
      * @param text {@code shuffle} or {@code replacement}
-     * @throws IllegalArgumentException naming the key and the accepted values otherwise
+     * @throws BadInputException naming the key and the accepted values otherwise
      */
     public static Sampling parse(String text) {
         for (Sampling s : values()) {
@@ -28,7 +30,8 @@ public enum Sampling {
                 return s;
             }
         }
-        throw new IllegalArgumentException("sampling must be shuffle or replacement: " + text);
+        throw BadInputException.of("training.sampling", "sampling must be shuffle or replacement, not "
+                + BadInputException.shown(String.valueOf(text)));
     }
 
     @Override

@@ -12,6 +12,7 @@ import settle.engine.model.Model;
 import settle.engine.schedule.RateDriver;
 import settle.engine.schedule.RunShape;
 import settle.engine.schedule.Schedule;
+import settle.input.BadInputException;
 
 /**
  * Mini-batch SGD for one arm: {@link #run} trains one replicate, from its seeds, and measures its wander.
@@ -72,7 +73,7 @@ public final class Trainer {
         this.updatesPerEpoch = settings.updatesPerEpoch(train.rows());
         long planned = settings.totalUpdates(train.rows());
         if (planned > MAX_UPDATES) {
-            throw new IllegalArgumentException("training.epochs × ⌈N/B⌉ = " + planned + " updates; at most "
+            throw BadInputException.of("training.epochs", "training.epochs × ⌈N/B⌉ = " + planned + " updates; at most "
                     + MAX_UPDATES + " are supported");
         }
         this.tailPlan = TailPlan.of(planned, settings.tail(), settings.snapshots(), updatesPerEpoch);
@@ -97,11 +98,11 @@ public final class Trainer {
         }
         if (first != null) {
             if (first.length != p) {
-                throw new IllegalArgumentException("starting parameters: " + first.length + " values, the model has " + p);
+                throw BadInputException.of("--init", "starting parameters: " + first.length + " values, the model has " + p);
             }
             for (int i = 0; i < first.length; i++) {
                 if (!Double.isFinite(first[i])) {
-                    throw new IllegalArgumentException("starting parameters: value " + (i + 1) + " is not finite: " + first[i]);
+                    throw BadInputException.of("--init", "starting parameters: value " + (i + 1) + " is not finite: " + first[i]);
                 }
             }
             first = first.clone();
@@ -363,7 +364,7 @@ public final class Trainer {
     private int[][] checkOrders(int[][] given) {
         int epochs = settings.epochs();
         if (given.length != epochs) {
-            throw new IllegalArgumentException("order: " + given.length + " epoch lines for " + epochs + " epochs");
+            throw BadInputException.of("--order", "order: " + given.length + " epoch lines for " + epochs + " epochs");
         }
         int length = orderLength();
         int rows = train.rows();
@@ -371,13 +372,13 @@ public final class Trainer {
         for (int e = 0; e < epochs; e++) {
             int[] line = given[e];
             if (line.length != length) {
-                throw new IllegalArgumentException("order: epoch " + (e + 1) + " has " + line.length + " indices, expected "
+                throw BadInputException.of("--order", "order: epoch " + (e + 1) + " has " + line.length + " indices, expected "
                         + length + (settings.sampling() == Sampling.SHUFFLE ? " (one per training row)"
                                 : " (⌈N/B⌉·B for replacement sampling)"));
             }
             for (int i = 0; i < line.length; i++) {
                 if (line[i] < 0 || line[i] >= rows) {
-                    throw new IllegalArgumentException("order: epoch " + (e + 1) + ", position " + (i + 1) + ": index "
+                    throw BadInputException.of("--order", "order: epoch " + (e + 1) + ", position " + (i + 1) + ": index "
                             + line[i] + " is outside 0.." + (rows - 1));
                 }
             }

@@ -10,6 +10,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
 import org.junit.jupiter.params.provider.MethodSource;
 import org.junit.jupiter.api.Test;
+import settle.input.BadInputException;
 
 /** Every validation message, exactly: the key path, the value and the accepted range. */
 class ScheduleValidationTest {
@@ -116,7 +117,7 @@ class ScheduleValidationTest {
                                 + "updates_per_epoch, total_updates"),
                 Arguments.of(Maps.of("kind", "formula"), "expr", "formula: expr is missing; expected a string"),
                 Arguments.of(Maps.of("kind", "constant", "rate", 0.1, "warmup", Maps.of("epochs", 1, "updates", 3)),
-                        "warmup", "constant: warmup = {epochs=1, updates=3} is not accepted; "
+                        "warmup", "constant: warmup = {epochs: 1, updates: 3} is not accepted; "
                                 + "expected exactly one of {epochs: E} or {updates: W}"),
                 Arguments.of(Maps.of("kind", "constant", "rate", 0.1, "warmup", Maps.of("epoch", 2)), "warmup.epoch",
                         "constant: unknown key 'warmup.epoch'; did you mean 'warmup.epochs'?"),
@@ -129,7 +130,7 @@ class ScheduleValidationTest {
     @ParameterizedTest
     @MethodSource("rejected")
     void rejectedWithExactMessage(Map<String, Object> map, String key, String message) {
-        ScheduleException e = assertThrows(ScheduleException.class, () -> Schedules.parse(map));
+        BadInputException e = assertThrows(BadInputException.class, () -> Schedules.parse(map));
         assertEquals(message, e.getMessage());
         assertEquals(key, e.key());
     }
@@ -138,7 +139,7 @@ class ScheduleValidationTest {
     @Test
     void warmupLongerThanTheRun() {
         Schedule s = Schedules.parse(Maps.of("kind", "constant", "rate", 0.1, "warmup", Maps.of("epochs", 5)));
-        ScheduleException e = assertThrows(ScheduleException.class, () -> s.plannedRates(new RunShape(4, 3)));
+        BadInputException e = assertThrows(BadInputException.class, () -> s.plannedRates(new RunShape(4, 3)));
         assertEquals("constant: warmup.epochs = 5 is not accepted; expected at most the run's 4 epochs "
                 + "(a warmup longer than the run)", e.getMessage());
         assertEquals("warmup.epochs", e.key());
@@ -152,7 +153,7 @@ class ScheduleValidationTest {
     @Test
     void formulaNegativeWhenEvaluated() {
         Schedule s = Schedules.parse(Maps.of("kind", "formula", "expr", "0.5 - 0.25*epoch"));
-        ScheduleException e = assertThrows(ScheduleException.class, () -> s.plannedRates(new RunShape(3, 1)));
+        BadInputException e = assertThrows(BadInputException.class, () -> s.plannedRates(new RunShape(3, 1)));
         assertEquals("formula: expr = '0.5 - 0.25*epoch' gives -0.25 at epoch 3, update 3; expected a finite rate ≥ 0",
                 e.getMessage());
         assertEquals("expr", e.key());
@@ -162,7 +163,7 @@ class ScheduleValidationTest {
     @Test
     void formulaDivisionByZero() {
         Schedule s = Schedules.parse(Maps.of("kind", "formula", "expr", "1/(epoch-1)"));
-        ScheduleException e = assertThrows(ScheduleException.class, () -> s.plannedRates(new RunShape(3, 1)));
+        BadInputException e = assertThrows(BadInputException.class, () -> s.plannedRates(new RunShape(3, 1)));
         assertEquals("expr", e.key());
         assertEquals(true, e.getMessage().startsWith("formula: expr = '1/(epoch-1)' "), e.getMessage());
     }
@@ -180,7 +181,7 @@ class ScheduleValidationTest {
         RateDriver d = Schedules.parse(Maps.of("kind", "plateau", "rate", 0.1, "judge", "holdout"))
                 .start(new RunShape(3, 1));
         d.rate(1, 1);
-        ScheduleException e = assertThrows(ScheduleException.class, () -> d.epochEnded(1, 0.5, Double.NaN));
+        BadInputException e = assertThrows(BadInputException.class, () -> d.epochEnded(1, 0.5, Double.NaN));
         assertEquals("plateau: judge = 'holdout' needs a holdout loss, but the run has none; expected judge: train, "
                 + "or a plan with data.holdout-fraction > 0", e.getMessage());
         assertEquals("judge", e.key());

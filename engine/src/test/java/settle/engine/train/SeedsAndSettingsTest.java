@@ -9,6 +9,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
+import settle.input.BadInputException;
 
 class SeedsAndSettingsTest {
 
@@ -91,7 +92,8 @@ class SeedsAndSettingsTest {
         assertMessage("training.tail must be in (0, 1]", () -> TrainingSettings.of(1, 1).withTail(0, 5));
         assertMessage("training.tail", () -> TrainingSettings.of(1, 1).withTail(1.5, 5));
         assertMessage("training.snapshots", () -> TrainingSettings.of(1, 1).withTail(0.1, 0));
-        assertMessage("sampling must be shuffle or replacement", () -> Sampling.parse("bootstrap"));
+        assertEquals("sampling must be shuffle or replacement, not 'bootstrap'",
+                assertThrows(BadInputException.class, () -> Sampling.parse("bootstrap")).getMessage());
         assertEquals(Sampling.REPLACEMENT, Sampling.parse("replacement"));
     }
 

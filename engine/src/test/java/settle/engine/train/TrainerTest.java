@@ -22,6 +22,7 @@ import settle.engine.model.Model;
 import settle.engine.model.SoftmaxRegression;
 import settle.engine.schedule.RunShape;
 import settle.engine.schedule.Schedule;
+import settle.input.BadInputException;
 
 class TrainerTest {
 
@@ -439,9 +440,9 @@ class TrainerTest {
         bad[1][3] = 45;
         assertMessage("order: epoch 2, position 4: index 45 is outside 0..44",
                 () -> Trainer.builder(model, binary, CONSTANT, settings).orders(bad).build());
-        assertMessage("has 4 features, the model takes 3",
+        assertFault("has 4 features, the model takes 3",
                 () -> Trainer.builder(model, threeClasses, CONSTANT, settings).build());
-        assertMessage("model.init: reference", () -> Trainer.builder(model, binary, CONSTANT, settings)
+        assertFault("model.init: reference", () -> Trainer.builder(model, binary, CONSTANT, settings)
                 .initialisation(Initialisation.REFERENCE).build());
     }
 
@@ -465,8 +466,15 @@ class TrainerTest {
         return new double[] {Math.sqrt(deviations / vectors.size()), Math.sqrt(distances / vectors.size())};
     }
 
-    private static void assertMessage(String expected, org.junit.jupiter.api.function.Executable call) {
+    /** A precondition the caller (the plan parser, the command line) guarantees: a fault if broken, not bad input. */
+    private static void assertFault(String expected, org.junit.jupiter.api.function.Executable call) {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, call);
+        assertTrue(e.getMessage().contains(expected), e.getMessage());
+    }
+
+    private static void assertMessage(String expected, org.junit.jupiter.api.function.Executable call) {
+        // starting parameters and orders come from the files given to settle trace: bad input
+        BadInputException e = assertThrows(BadInputException.class, call);
         assertTrue(e.getMessage().contains(expected), e.getMessage());
     }
 }

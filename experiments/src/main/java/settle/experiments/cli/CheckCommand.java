@@ -24,7 +24,8 @@ import settle.engine.model.Model;
 import settle.engine.schedule.Asymptotics;
 import settle.engine.schedule.RateSums;
 import settle.engine.schedule.RunShape;
-import settle.engine.schedule.ScheduleException;
+import settle.experiments.study.StudyContext;
+import settle.input.BadInputException;
 import settle.experiments.plan.ArmPlan;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.Plan;
@@ -65,22 +66,16 @@ public final class CheckCommand implements Callable<Integer> {
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
-        try {
-            return check(out, err);
-        } catch (IllegalArgumentException e) {
-            out.flush();
-            err.println(e.getMessage());
-            return Main.BAD_INPUT;
-        }
-    }
-
-    private int check(PrintWriter out, PrintWriter err) {
         ParsedPlan parsed = PlanParser.read(planFile);
         Plan plan = parsed.plan();
         List<String> warnings = new ArrayList<>(parsed.warnings());
         PlanData data = PlanData.load(parsed);
-        RunShape shape = data.shape(plan);
         warnings.addAll(data.warnings());
+        // every check a run makes (the model, each arm's trainer, each arm's rates over the whole planned run, the
+        // reference minimiser) before the plan is called valid: what check accepts, run accepts
+        StudyContext context = StudyContext.build(parsed, data);
+        RunShape shape = context.shape();
+        List<double[]> rates = context.plannedRates();
 
         out.println("plan " + planFile + ": valid (sha256 " + PlanWriter.sha256(plan) + ")");
         out.println();
@@ -119,15 +114,6 @@ public final class CheckCommand implements Callable<Integer> {
                 detail -> warnings.add(parsed.error("replicates", detail).getMessage()));
         out.println();
 
-        List<double[]> rates = new ArrayList<>();
-        for (int i = 0; i < plan.arms().size(); i++) {
-            try {
-                rates.add(plan.arms().get(i).schedule().schedule().plannedRates(shape));
-            } catch (ScheduleException e) {
-                String key = e.key() == null || e.key().isEmpty() ? "" : "." + e.key();
-                throw parsed.error(armPath(parsed, i) + ".schedule" + key, e.getMessage());
-            }
-        }
         printArms(out, plan);
         out.println();
         printRates(out, plan, shape, rates);
@@ -146,7 +132,7 @@ public final class CheckCommand implements Callable<Integer> {
                         + " trains").getMessage());
             }
         }
-        int code = stability(out, parsed, data, rates, warnings);
+        int code = stability(out, parsed, context, rates, warnings);
         for (String w : warnings) {
             err.println("warning: " + w);
         }
@@ -184,10 +170,6 @@ public final class CheckCommand implements Callable<Integer> {
     }
 
     /** Grid-expanded arms have no position of their own; they report at their template's. */
-    private static String armPath(ParsedPlan parsed, int index) {
-        return parsed.armPath(index);
-    }
-
     private static void printArms(PrintWriter out, Plan plan) {
         out.println("arms (baseline: " + plan.baseline() + "):");
         for (int i = 0; i < plan.arms().size(); i++) {
@@ -260,29 +242,18 @@ public final class CheckCommand implements Callable<Integer> {
         }
     }
 
-    private int stability(PrintWriter out, ParsedPlan parsed, PlanData data, List<double[]> rates,
+    private int stability(PrintWriter out, ParsedPlan parsed, StudyContext context, List<double[]> rates,
             List<String> warnings) {
         Plan plan = parsed.plan();
-        Dataset train = data.train();
-        Model model = plan.model().build(train.features(), train.classes());
+        Dataset train = context.data().train();
+        Model model = context.model();
         Optional<String> skip = Curvature.skipReason(model);
         if (skip.isPresent()) {
             out.println("stability bound: not computed (" + skip.get() + ")");
             return Main.OK;
         }
-        Minimum minimum;
-        try {
-            minimum = new Minimiser().minimise(model, train);
-        } catch (NoMinimiserException e) {
-            out.flush();
-            for (String w : warnings) {
-                spec.commandLine().getErr().println("warning: " + w);
-            }
-            warnings.clear();
-            spec.commandLine().getErr().println(parsed.error("model.l2", e.getMessage()).getMessage());
-            return Main.FAILED;
-        }
-        Curvature c = Curvature.at(model, train, minimum.theta());
+        Minimum minimum = context.minimum();
+        Curvature c = context.curvature() != null ? context.curvature() : Curvature.at(model, train, minimum.theta());
         double lambdaMax = c.lambdaMax();
         double beta = plan.training().momentum();
         double bound = c.stabilityBound(beta);

@@ -5,7 +5,6 @@ import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Spec;
-import settle.datasets.DataException;
 import settle.datasets.Dataset;
 import settle.datasets.bundled.BundledData;
 import settle.datasets.bundled.BundledDataset;
@@ -26,13 +25,7 @@ public final class DatasetsCommand implements Callable<Integer> {
         out.println("All four come from the " + BundledData.REPOSITORY + ",");
         out.println("licensed CC BY 4.0: credit UCI and the original creators named below when you publish results.");
         for (BundledDataset d : BundledData.all()) {
-            Dataset loaded;
-            try {
-                loaded = BundledData.load(d.name(), null);
-            } catch (DataException e) {
-                spec.commandLine().getErr().println(e.getMessage());
-                return Main.FAILED;
-            }
+            Dataset loaded = BundledData.load(d.name(), null);
             out.println();
             out.println(d.name() + "  " + d.title());
             out.println("  rows      " + loaded.rows() + ", features " + loaded.features() + ", label column '"

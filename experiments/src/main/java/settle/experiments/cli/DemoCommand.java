@@ -50,7 +50,7 @@ public final class DemoCommand implements Callable<Integer> {
     }
 
     @Override
-    public Integer call() {
+    public Integer call() throws Exception {
         List<String> command = new ArrayList<>();
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());

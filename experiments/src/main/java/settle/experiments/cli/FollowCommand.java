@@ -21,6 +21,7 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import settle.experiments.manual.ProgressBoard;
 import settle.experiments.study.StudyLock;
+import settle.input.BadInputException;
 
 /**
  * {@code settle follow STUDY}: shows a run's {@code progress.json} live: each arm's state, and for manual
@@ -50,12 +51,11 @@ public final class FollowCommand implements Callable<Integer> {
     CommandSpec spec;
 
     @Override
-    public Integer call() {
+    public Integer call() throws IOException, InterruptedException {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         if (interval < 10 || interval > 60_000) {
-            err.println("settle follow: --interval must be between 10 and 60000 ms, got " + interval);
-            return Main.BAD_INPUT;
+            throw BadInputException.of("--interval", "--interval must be between 10 and 60000 ms, got " + interval);
         }
         boolean terminal = !plain && System.console() != null;
         Path file = study.resolve(ProgressBoard.FILE);
@@ -69,14 +69,13 @@ public final class FollowCommand implements Callable<Integer> {
                     text = Files.readString(file, StandardCharsets.UTF_8);
                 } catch (NoSuchFileException e) {
                     if (!Files.isDirectory(study)) {
-                        err.println("settle follow: " + study + " is not a directory; give a study directory");
-                        return Main.BAD_INPUT;
+                        throw BadInputException.inFile(study.toString(), "", (Files.exists(study) ? "a file" : "no such"
+                                + " directory") + "; give a study directory");
                     }
                     if (!StudyLock.heldByLiveProcess(study)
                             && System.currentTimeMillis() - waitedSince > START_WAIT_MILLIS) {
-                        err.println("settle follow: " + study + " has no " + ProgressBoard.FILE
+                        throw BadInputException.inFile(study.toString(), "", "no " + ProgressBoard.FILE
                                 + " and no live run; start one with settle run PLAN --out " + study);
-                        return Main.BAD_INPUT;
                     }
                     Thread.sleep(interval);
                     continue;
@@ -85,8 +84,8 @@ public final class FollowCommand implements Callable<Integer> {
                 try {
                     p = MAPPER.readTree(text);
                 } catch (IOException e) {
-                    err.println("settle follow: " + file + " is not a progress file: " + e.getMessage());
-                    return Main.BAD_INPUT;
+                    throw BadInputException.inFile(file.toString(), "", "not a progress file settle wrote (not valid"
+                            + " JSON)");
                 }
                 if (!text.equals(last)) {
                     last = text;
@@ -119,11 +118,7 @@ public final class FollowCommand implements Callable<Integer> {
                 Thread.sleep(interval);
             }
         } catch (IOException e) {
-            err.println("settle follow: cannot read " + file + ": " + e.getMessage());
-            return Main.FAILED;
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            return Main.INTERRUPTED;
+            throw new IOException("cannot read " + file + ": " + e.getMessage(), e);
         }
     }
 

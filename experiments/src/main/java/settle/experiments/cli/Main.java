@@ -8,9 +8,10 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Spec;
 
 /**
- * The {@code settle} command. Subcommands are thin: they parse options, call the modules and map failures
- * onto the exit codes of DESIGN.md (0 success, 1 the work failed, 2 bad input, 3 finished with diverged or
- * missing replicates, 130 interrupted).
+ * The {@code settle} command. Subcommands are thin: they parse options, call the modules and return 0 or 3; a
+ * failure they throw is mapped to its exit code and its line in one place, {@link Failures} (0 success, 1 the work
+ * failed, 2 bad input, 3 finished with diverged or missing replicates, 130 interrupted), and a bad option or an
+ * unknown command or option to exit 2 with a suggestion ({@link #oneLineUsageError}).
  */
 @Command(
         name = "settle",
@@ -46,20 +47,58 @@ public final class Main implements Callable<Integer> {
         CommandLine cl = new CommandLine(new Main());
         applyExitCodes(cl);
         cl.setParameterExceptionHandler(Main::oneLineUsageError);
+        cl.setExitCodeExceptionMapper(Failures::exitCode);
+        cl.setExecutionExceptionHandler(Failures::handle);
         return cl;
     }
 
     /**
      * Bad options get one line on stderr, naming the option and what is accepted, and a pointer to the
-     * command's help; never the whole usage text, never a stack trace.
+     * command's help; never the whole usage text, never a stack trace. An unknown command or option gets the
+     * nearest known one as a suggestion ({@code settle rnu}: did you mean 'run'?).
      */
     private static int oneLineUsageError(CommandLine.ParameterException e, String[] args) {
         CommandLine cl = e.getCommandLine();
         PrintWriter err = cl.getErr();
         String command = cl.getCommandSpec().qualifiedName();
-        err.println(command + ": " + e.getMessage() + " (see '" + command + " --help')");
+        String message = e.getMessage();
+        if (e instanceof CommandLine.UnmatchedArgumentException u && !u.getUnmatched().isEmpty()) {
+            message = unmatched(cl, u.getUnmatched().get(0));
+        }
+        err.println(command + ": " + message + " (see '" + command + " --help')");
         err.flush();
         return BAD_INPUT;
+    }
+
+    /** @return the line for an argument no command or option takes, with the nearest known name */
+    private static String unmatched(CommandLine cl, String given) {
+        CommandLine.Model.CommandSpec spec = cl.getCommandSpec();
+        String shown = settle.input.BadInputException.shown(given);
+        if (given.startsWith("-")) {
+            String name = given.contains("=") ? given.substring(0, given.indexOf('=')) : given;
+            java.util.List<String> options = new java.util.ArrayList<>();
+            for (CommandLine.Model.OptionSpec o : spec.options()) {
+                options.addAll(java.util.List.of(o.names()));
+            }
+            String near = settle.engine.text.NearMiss.closest(name, options);
+            return "unknown option " + shown + (near == null ? "; the options are listed by --help"
+                    : "; did you mean '" + near + "'?");
+        }
+        if (!spec.subcommands().isEmpty()) {
+            String near = settle.engine.text.NearMiss.closest(given, spec.subcommands().keySet());
+            return "unknown command " + shown + (near == null ? "; the commands are listed by --help"
+                    : "; did you mean '" + near + "'?");
+        }
+        return "unexpected argument " + shown + "; " + spec.qualifiedName() + " takes "
+                + (spec.positionalParameters().isEmpty() ? "no arguments" : "only "
+                        + spec.positionalParameters().size() + " argument"
+                        + (spec.positionalParameters().size() == 1 ? "" : "s"));
+    }
+
+    /** @return settle's version from the jar manifest, or "(development build)" */
+    static String version() {
+        String v = Main.class.getPackage().getImplementationVersion();
+        return v == null ? "(development build)" : v;
     }
 
     private static void applyExitCodes(CommandLine cl) {
@@ -89,8 +128,7 @@ public final class Main implements Callable<Integer> {
     static final class Version implements CommandLine.IVersionProvider {
         @Override
         public String[] getVersion() {
-            String v = Main.class.getPackage().getImplementationVersion();
-            return new String[] {"settle " + (v == null ? "(development build)" : v)};
+            return new String[] {"settle " + version()};
         }
     }
 }

@@ -2,8 +2,6 @@ package settle.experiments.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.io.Writer;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
@@ -22,9 +20,11 @@ import settle.datasets.Standardiser;
 import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
-import settle.engine.minimum.NoMinimiserException;
 import settle.engine.model.Model;
 import settle.engine.model.ModelSpec;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.NumberText;
 
 /**
  * {@code settle minimum}: the exact minimiser θ* of the full-batch objective on the whole dataset, F(θ*), the
@@ -69,46 +69,35 @@ public final class MinimumCommand implements Callable<Integer> {
     private Path out;
 
     @Override
-    public Integer call() {
+    public Integer call() throws IOException {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
-        Dataset dataset;
-        Model built;
-        try {
-            ModelSpec.Kind kind = ModelSpec.Kind.parse(model);
-            if (kind != ModelSpec.Kind.LOGISTIC) {
-                throw new IllegalArgumentException("--model " + model + " has no exact minimiser; accepted: logistic");
-            }
-            if (!(l2 >= 0) || Double.isInfinite(l2)) {
-                throw new IllegalArgumentException("--l2 must be a finite number >= 0, got " + l2);
-            }
-            ModelSpec modelSpec = ModelSpec.logistic(l2);
-            // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused)
-            PreparedData prepared = DataSources.prepare(data, label, TableOptions.DEFAULTS, null, SplitRule.NONE);
-            for (String warning : prepared.warnings()) {
+        if (!"logistic".equalsIgnoreCase(model.strip())) {
+            throw BadInputException.of("--model", "--model " + BadInputException.shown(model) + " has no exact"
+                    + " minimiser; accepted: logistic");
+        }
+        if (!(l2 >= 0) || Double.isInfinite(l2)) {
+            throw BadInputException.of("--l2", "--l2 must be a finite number >= 0, got " + l2);
+        }
+        if (out != null && Files.isDirectory(out)) {
+            throw BadInputException.of("--out", "--out " + out + " is a directory; expected the file to write θ* to");
+        }
+        ModelSpec modelSpec = ModelSpec.logistic(l2);
+        // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused)
+        PreparedData prepared = DataSources.prepare(data, label, TableOptions.DEFAULTS, null, SplitRule.NONE);
+        for (String warning : prepared.warnings()) {
+            stderr.println("warning: " + warning);
+        }
+        Dataset dataset = prepared.all();
+        if (standardize) {
+            Standardiser standardiser = Standardiser.fit(dataset);
+            for (String warning : standardiser.warnings()) {
                 stderr.println("warning: " + warning);
             }
-            dataset = prepared.all();
-            if (standardize) {
-                Standardiser standardiser = Standardiser.fit(dataset);
-                for (String warning : standardiser.warnings()) {
-                    stderr.println("warning: " + warning);
-                }
-                dataset = standardiser.apply(dataset);
-            }
-            built = modelSpec.build(dataset.features(), dataset.classes());
-        } catch (IllegalArgumentException e) {
-            stderr.println("settle minimum: " + e.getMessage().replace('\n', ' '));
-            return Main.BAD_INPUT;
+            dataset = standardiser.apply(dataset);
         }
-
-        Minimum minimum;
-        try {
-            minimum = new Minimiser().minimise(built, dataset);
-        } catch (NoMinimiserException e) {
-            stderr.println("settle minimum: " + e.getMessage());
-            return Main.FAILED;
-        }
+        Model built = modelSpec.build(dataset.features(), dataset.classes());
+        Minimum minimum = new Minimiser().minimise(built, dataset);
 
         stdout.println("data: " + dataset + (standardize ? ", standardised on all rows" : ""));
         stdout.println("model: " + built.describe() + ", l2 " + l2);
@@ -136,14 +125,14 @@ public final class MinimumCommand implements Callable<Integer> {
 
         double[] theta = minimum.theta();
         if (out != null) {
-            try (Writer writer = Files.newBufferedWriter(out, StandardCharsets.UTF_8)) {
-                for (double v : theta) {
-                    writer.write(Double.toString(v));
-                    writer.write('\n');
-                }
+            StringBuilder text = new StringBuilder();
+            for (double v : theta) {
+                text.append(NumberText.shortest(v)).append('\n');
+            }
+            try {
+                AtomicFile.write(out, text.toString());
             } catch (IOException e) {
-                stderr.println("settle minimum: cannot write " + out + ": " + e.getMessage());
-                return Main.FAILED;
+                throw new IOException("cannot write " + out + ": " + e.getMessage(), e);
             }
             stdout.println("θ*: " + theta.length + " values written to " + out);
         } else {

@@ -14,17 +14,17 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
-import settle.experiments.manual.AppliedNudge;
+import settle.input.BadInputException;
+import settle.reports.format.NudgeRecord;
 import settle.experiments.manual.LockstepRunner;
 import settle.experiments.manual.NudgeQueue;
 import settle.experiments.manual.NudgeRequest;
-import settle.experiments.manual.NudgesCsv;
+import settle.reports.format.NudgesCsv;
 import settle.experiments.manual.ProgressBoard;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanParser;
-import settle.experiments.run.ReplicateKey;
-import settle.experiments.study.ReplicateFile;
 import settle.experiments.study.StudyLock;
+import settle.reports.format.StudyFormat;
 
 /**
  * {@code settle nudge STUDY --arm NAME (--factor F | --rate R) [--note TEXT]}: asks the run of a study to
@@ -64,27 +64,10 @@ public final class NudgeCommand implements Callable<Integer> {
     CommandSpec spec;
 
     @Override
-    public Integer call() {
+    public Integer call() throws IOException, InterruptedException {
         PrintWriter out = spec.commandLine().getOut();
-        PrintWriter err = spec.commandLine().getErr();
-        try {
-            return nudge(out, err);
-        } catch (IllegalArgumentException e) {
-            err.println("settle nudge: " + e.getMessage());
-            return Main.BAD_INPUT;
-        } catch (IOException e) {
-            err.println("settle nudge: cannot write the request into " + NudgeQueue.folder(study) + ": " + e.getMessage());
-            return Main.FAILED;
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            err.println("settle nudge: interrupted while waiting; the request stays queued");
-            return Main.INTERRUPTED;
-        }
-    }
-
-    private int nudge(PrintWriter out, PrintWriter err) throws IOException, InterruptedException {
         if ((factor == null) == (rate == null)) {
-            throw new IllegalArgumentException("give exactly one of --factor F and --rate R");
+            throw BadInputException.of("--factor", "give exactly one of --factor F and --rate R");
         }
         if (factor != null) {
             NudgeRequest.checkPositive("--factor", factor);
@@ -92,20 +75,26 @@ public final class NudgeCommand implements Callable<Integer> {
             NudgeRequest.checkPositive("--rate", rate);
         }
         if (!(waitSeconds >= 0) || waitSeconds > 86_400) {
-            throw new IllegalArgumentException("--wait must be between 0 and 86400 seconds, got " + waitSeconds);
+            throw BadInputException.of("--wait", "--wait must be between 0 and 86400 seconds, got " + waitSeconds);
         }
-        Path planFile = study.resolve("plan.yaml");
+        Path planFile = study.resolve(StudyFormat.PLAN);
         if (!Files.isRegularFile(planFile)) {
-            throw new IllegalArgumentException(study + " is not a study directory (it has no plan.yaml); give the"
-                    + " directory a run writes into, such as studies/<study>");
+            throw BadInputException.inFile(study.toString(), "", "not a study directory (it has no " + StudyFormat.PLAN
+                    + "); give the directory a run writes into, such as studies/<study>");
         }
         Plan plan = PlanParser.parse(planFile);
         int index = LockstepRunner.armIndex(plan, arm);
         if (index == 0 || !plan.arms().get(index - 1).manual() || finished(plan, index)) {
-            throw new IllegalArgumentException(LockstepRunner.refusal(plan, arm, index));
+            throw BadInputException.of("--arm", LockstepRunner.refusal(plan, arm, index));
         }
-        NudgeRequest request = NudgeQueue.submit(study, arm, factor == null ? Double.NaN : factor,
-                rate == null ? Double.NaN : rate, note);
+        NudgeRequest request;
+        try {
+            request = NudgeQueue.submit(study, arm, factor == null ? Double.NaN : factor,
+                    rate == null ? Double.NaN : rate, note);
+        } catch (IOException e) {
+            throw new IOException("cannot write the request into " + NudgeQueue.folder(study) + ": " + e.getMessage(),
+                    e);
+        }
         String asked = "arm '" + arm + "', " + request.describe();
         if (!StudyLock.heldByLiveProcess(study)) {
             out.println("queued " + asked + " (request " + request.id() + "): no run is live in " + study
@@ -114,17 +103,16 @@ public final class NudgeCommand implements Callable<Integer> {
         }
         long deadline = System.nanoTime() + (long) (waitSeconds * 1e9);
         while (true) {
-            Optional<AppliedNudge> applied = applied(request.id());
+            Optional<NudgeRecord> applied = applied(request.id());
             if (applied.isPresent()) {
-                AppliedNudge n = applied.get();
+                NudgeRecord n = applied.get();
                 out.printf(Locale.ROOT, "applied %s: from epoch %d, factor %s (rate %s at its first update)%n", asked,
                         n.fromEpoch(), n.factor(), n.rate());
                 return Main.OK;
             }
             Optional<String> refused = NudgeQueue.refusal(study, request.id());
             if (refused.isPresent()) {
-                err.println("settle nudge: refused: " + refused.get());
-                return Main.BAD_INPUT;
+                throw BadInputException.of("--arm", "refused: " + refused.get());
             }
             if (System.nanoTime() >= deadline) {
                 out.println("queued " + asked + " (request " + request.id() + "): the run has not reached an epoch end"
@@ -136,14 +124,14 @@ public final class NudgeCommand implements Callable<Integer> {
         }
     }
 
-    private Optional<AppliedNudge> applied(String id) {
+    private Optional<NudgeRecord> applied(String id) {
         try {
-            for (AppliedNudge n : NudgesCsv.read(study)) {
+            for (NudgeRecord n : NudgesCsv.read(study)) {
                 if (n.request().equals(id)) {
                     return Optional.of(n);
                 }
             }
-        } catch (IOException | IllegalArgumentException e) {
+        } catch (IOException | BadInputException e) {
             // being rewritten; read it again next time
         }
         return Optional.empty();
@@ -153,7 +141,7 @@ public final class NudgeCommand implements Callable<Integer> {
     private boolean finished(Plan plan, int index) {
         boolean all = true;
         for (int r = 1; r <= plan.replicates() && all; r++) {
-            all = Files.exists(study.resolve(ReplicateFile.relativePath(new ReplicateKey(index, r))));
+            all = Files.exists(StudyFormat.replicateFile(study, index, r));
         }
         if (all) {
             return true;

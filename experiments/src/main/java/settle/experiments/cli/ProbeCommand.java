@@ -2,6 +2,7 @@ package settle.experiments.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -21,7 +22,8 @@ import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.probe.Probe;
 import settle.experiments.probe.ProbePage;
-import settle.experiments.study.AtomicFiles;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
 
 /**
  * {@code settle probe PLAN}: a learning-rate range test on the plan's data and model (Smith, WACV 2017, with
@@ -59,20 +61,15 @@ public final class ProbeCommand implements Callable<Integer> {
     CommandSpec spec;
 
     @Override
-    public Integer call() {
+    public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
-        PrintWriter err = spec.commandLine().getErr();
-        ParsedPlan parsed;
-        Probe.Result r;
-        try {
-            parsed = PlanParser.read(planFile);
-            int s = seeds != null ? seeds : Math.min(5, parsed.plan().replicates());
-            r = Probe.run(parsed, s, from, to, updates);
-        } catch (IllegalArgumentException e) {
-            out.flush();
-            err.println(e.getMessage());
-            return Main.BAD_INPUT;
+        if (html != null && Files.isDirectory(html)) {
+            throw BadInputException.of("--html", "--html " + html + " is a directory; expected the file to write the"
+                    + " page to");
         }
+        ParsedPlan parsed = PlanParser.read(planFile);
+        int s = seeds != null ? seeds : Math.min(5, parsed.plan().replicates());
+        Probe.Result r = Probe.run(parsed, s, from, to, updates);
         String study = parsed.plan().study();
         out.printf(Locale.ROOT, "rate range test of plan %s: %d sweeps (replicates 1..%d), %d updates each, rate"
                 + " grown geometrically from %s to %s; a sweep stops once the training objective exceeds %s× its"
@@ -108,10 +105,9 @@ public final class ProbeCommand implements Callable<Integer> {
         }
         Path page = html != null ? html : Path.of(study + "-probe.html");
         try {
-            AtomicFiles.write(page, ProbePage.html(study, r, arms));
+            AtomicFile.write(page, ProbePage.html(study, r, arms));
         } catch (IOException e) {
-            err.println("settle probe: cannot write " + page + ": " + e.getMessage());
-            return Main.FAILED;
+            throw new IOException("cannot write " + page + ": " + e.getMessage(), e);
         }
         out.println("wrote " + page);
         return Main.OK;

@@ -17,6 +17,7 @@ import settle.engine.schedule.RateSums;
 import settle.engine.schedule.RunShape;
 import settle.engine.schedule.Schedule;
 import settle.engine.schedule.Schedules;
+import settle.input.BadInputException;
 
 /**
  * {@code settle rates SCHEDULE --epochs E --updates-per-epoch U [--format csv|table]}: previews a schedule
@@ -56,27 +57,22 @@ public final class RatesCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
-        PrintWriter err = spec.commandLine().getErr();
         if (epochs < 1) {
-            return bad(err, "--epochs = " + epochs + " is not accepted; expected an integer ≥ 1");
+            throw BadInputException.of("--epochs", "--epochs = " + epochs + " is not accepted; expected an integer ≥ 1");
         }
         if (updatesPerEpoch < 1) {
-            return bad(err, "--updates-per-epoch = " + updatesPerEpoch + " is not accepted; expected an integer ≥ 1");
+            throw BadInputException.of("--updates-per-epoch", "--updates-per-epoch = " + updatesPerEpoch
+                    + " is not accepted; expected an integer ≥ 1");
         }
-        Map<String, Object> map;
-        try {
-            map = readMap(schedule);
-        } catch (IllegalArgumentException e) {
-            return bad(err, e.getMessage());
-        }
+        Map<String, Object> map = readMap(schedule);
         RunShape shape = new RunShape(epochs, updatesPerEpoch);
         Schedule s;
         double[] rates;
         try {
             s = Schedules.parse(map);
             rates = s.plannedRates(shape);
-        } catch (IllegalArgumentException e) {
-            return bad(err, "schedule: " + e.getMessage());
+        } catch (BadInputException e) {
+            throw BadInputException.of("schedule", "schedule: " + e.getMessage());
         }
         if (format == Format.csv) {
             out.println("epoch,update,rate");
@@ -120,30 +116,25 @@ public final class RatesCommand implements Callable<Integer> {
     /**
      * Reads a YAML flow map such as {@code {kind: constant, rate: 0.1}}.
      *
-     * @throws IllegalArgumentException with a one-line message when the text is not a YAML map
+     * @throws BadInputException with a one-line message when the text is not a YAML map
      */
     static Map<String, Object> readMap(String text) {
         Object value;
         try {
             value = new ObjectMapper(new YAMLFactory()).readValue(text, Object.class);
         } catch (JacksonException e) {
-            String msg = e.getOriginalMessage();
-            int nl = msg == null ? -1 : msg.indexOf('\n');
-            throw new IllegalArgumentException("schedule: not a YAML map (" + (nl < 0 ? msg : msg.substring(0, nl))
-                    + "); expected e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'");
+            // the parser's own words name its internals: say where, in ours
+            var at = e.getLocation();
+            throw BadInputException.of("schedule", "schedule: " + BadInputException.shown(text) + " is not a YAML map"
+                    + (at == null || at.getColumnNr() < 1 ? "" : " (a syntax error at character " + at.getColumnNr()
+                            + ")") + "; expected e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'");
         }
         if (!(value instanceof Map<?, ?> m)) {
-            throw new IllegalArgumentException("schedule: '" + text + "' is not a YAML map; expected e.g. "
-                    + "'{kind: reciprocal, rate: 0.2, decay: 1}'");
+            throw BadInputException.of("schedule", "schedule: " + BadInputException.shown(text) + " is not a YAML"
+                    + " map; expected e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'");
         }
         @SuppressWarnings("unchecked")
         Map<String, Object> typed = (Map<String, Object>) m;
         return typed;
-    }
-
-    private static int bad(PrintWriter err, String message) {
-        err.println("settle rates: " + message);
-        err.flush();
-        return Main.BAD_INPUT;
     }
 }

@@ -9,13 +9,13 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import settle.reports.Report;
-import settle.reports.study.StudyFormatException;
 
 /**
  * {@code settle report STUDY_DIR}: (re)builds {@code report.html} and {@code summary.csv} from a study
  * directory. Exit 0; 3 when replicates are missing (a partial study still gets its report) or diverged; 2 for a
- * missing or malformed study directory, or one in an older format; 1 when a file cannot be read or written, or the
- * report could not be drawn whole (a fault in settle; one line says what, and the sections drawn are written).
+ * missing or invalid study directory or file (naming the file and the field), or one in an older format; 1 when a
+ * file cannot be read or written, or the report could not be drawn whole (a fault in settle; one line says what, and
+ * the sections drawn are written). The mapping is {@link Failures}'.
  */
 @Command(name = "report", mixinStandardHelpOptions = true,
         description = "(Re)build report.html and summary.csv from a study directory.")
@@ -28,23 +28,10 @@ public final class ReportCommand implements Callable<Integer> {
     CommandSpec spec;
 
     @Override
-    public Integer call() {
+    public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
-        Report.Outcome outcome;
-        try {
-            outcome = Report.write(directory);
-        } catch (StudyFormatException e) {
-            err.println("settle report: " + e.getMessage());
-            return Main.BAD_INPUT;
-        } catch (IOException e) {
-            err.println("settle report: " + directory + ": " + e.getMessage());
-            return Main.FAILED;
-        } catch (RuntimeException e) {
-            err.println("settle report: the report was not written: " + e + " (a fault in settle, not in the study "
-                    + directory + ")");
-            return Main.FAILED;
-        }
+        Report.Outcome outcome = Report.write(directory);
         RunCommand.printVerdict(out, outcome);
         out.println("summary: " + outcome.summary().toAbsolutePath().normalize());
         if (outcome.partial()) {

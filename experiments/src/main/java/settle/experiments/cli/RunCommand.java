@@ -26,6 +26,7 @@ import settle.experiments.study.ClusterExecutorFactory;
 import settle.experiments.study.StudyContext;
 import settle.experiments.study.StudyLock;
 import settle.experiments.study.StudyRunner;
+import settle.input.BadInputException;
 import settle.reports.Report;
 
 /**
@@ -70,7 +71,7 @@ public final class RunCommand implements Callable<Integer> {
     CommandSpec spec;
 
     @Override
-    public Integer call() {
+    public Integer call() throws Exception {
         List<String> command = new ArrayList<>();
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());
@@ -94,60 +95,40 @@ public final class RunCommand implements Callable<Integer> {
      * @param pace at least this many milliseconds between two epoch ends of a manual arm (0: no pause)
      */
     static int execute(CommandSpec spec, PlanSource source, Path out, int threads, String cluster, boolean fresh,
-            boolean quiet, boolean json, List<String> command, long pace) {
+            boolean quiet, boolean json, List<String> command, long pace) throws Exception {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
         if (threads < 1) {
-            stderr.println("--threads must be at least 1: " + threads);
-            return Main.BAD_INPUT;
+            throw BadInputException.of("--threads", "--threads must be at least 1: " + threads);
         }
         if (pace < 0) {
-            stderr.println("--pace must be at least 0 milliseconds: " + pace);
-            return Main.BAD_INPUT;
+            throw BadInputException.of("--pace", "--pace must be at least 0 milliseconds: " + pace);
         }
         StudyRunner.Outcome outcome;
+        ClusterExecutorFactory factory = cluster == null ? null : ClusterExecutorFactory.find();
+        ParsedPlan parsed = source.read();
+        for (String w : parsed.warnings()) {
+            stderr.println("warning: " + w);
+        }
+        if (factory != null) {
+            ClusterExecutorFactory.refuseManualArms(parsed);
+        }
+        StudyContext context = StudyContext.build(parsed);
+        for (String w : context.data().warnings()) {
+            stderr.println("warning: " + w);
+        }
+        Path directory = out != null ? out : Path.of("studies", parsed.plan().study());
+        stderr.flush();
+        PrintStream progressStream = System.err;
+        ReplicateExecutor executor = factory == null ? new LocalExecutor(threads) : factory.create(cluster, context);
         try {
-            ClusterExecutorFactory factory = cluster == null ? null : ClusterExecutorFactory.find();
-            ParsedPlan parsed = source.read();
-            for (String w : parsed.warnings()) {
-                stderr.println("warning: " + w);
+            StudyRunner runner = new StudyRunner(context, directory, executor, command, progressStream, stderr,
+                    Progress.choose(quiet), pace);
+            outcome = runner.run(fresh);
+        } finally {
+            if (executor instanceof AutoCloseable closeable) {
+                closeable.close();
             }
-            if (factory != null) {
-                ClusterExecutorFactory.refuseManualArms(parsed);
-            }
-            StudyContext context = StudyContext.build(parsed);
-            for (String w : context.data().warnings()) {
-                stderr.println("warning: " + w);
-            }
-            Path directory = out != null ? out : Path.of("studies", parsed.plan().study());
-            stderr.flush();
-            PrintStream progressStream = System.err;
-            ReplicateExecutor executor = factory == null ? new LocalExecutor(threads) : factory.create(cluster, context);
-            try {
-                StudyRunner runner = new StudyRunner(context, directory, executor, command, progressStream,
-                        Progress.choose(quiet), pace);
-                outcome = runner.run(fresh);
-            } finally {
-                if (executor instanceof AutoCloseable closeable) {
-                    closeable.close();
-                }
-            }
-        } catch (NoMinimiserException | StudyLock.LockHeldException e) {
-            stderr.println("settle run: " + e.getMessage());
-            return Main.FAILED;
-        } catch (IllegalArgumentException e) {
-            stderr.println(e.getMessage());
-            return Main.BAD_INPUT;
-        } catch (IOException e) {
-            stderr.println("settle run: " + e.getMessage());
-            return Main.FAILED;
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            stderr.println("settle run: interrupted; finished replicates are kept, run the same command again to finish");
-            return Main.INTERRUPTED;
-        } catch (Exception e) {
-            stderr.println("settle run: " + e);
-            return Main.FAILED;
         }
         int code = outcome.exitCode();
         String where = outcome.directory().toString();

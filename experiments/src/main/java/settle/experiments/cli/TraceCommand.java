@@ -44,9 +44,13 @@ import settle.experiments.plan.PlanData;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.run.ReplicateKey;
-import settle.experiments.study.AtomicFiles;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
 import settle.experiments.study.ReplicateFile;
 import settle.experiments.study.StudyContext;
+import settle.reports.format.NumberText;
+import settle.reports.format.ReplicateJson;
+import settle.reports.format.StudyFormat;
 
 /**
  * {@code settle trace}: trains one replicate (replicate 1 of the root seed) and prints it epoch by epoch; with
@@ -144,14 +148,18 @@ public final class TraceCommand implements Callable<Integer> {
     private Path dump;
 
     @Override
-    public Integer call() {
+    public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
+        if (dump != null && Files.exists(dump) && !Files.isDirectory(dump)) {
+            throw BadInputException.of("--dump", "--dump " + dump + " is a file; expected a directory to write the"
+                    + " dump into (it is made if missing)");
+        }
         if (plan != null) {
             return tracePlan(out, err);
         }
         if (arm != null || replicate != null) {
-            return bad(err, "--arm and --replicate go with --plan");
+            throw BadInputException.of("--arm", "--arm and --replicate go with --plan");
         }
         List<String> missing = new ArrayList<>();
         if (data == null) {
@@ -167,15 +175,10 @@ public final class TraceCommand implements Callable<Integer> {
             missing.add("--batch=B");
         }
         if (!missing.isEmpty()) {
-            return bad(err, "missing " + String.join(", ", missing)
+            throw BadInputException.of("", "missing " + String.join(", ", missing)
                     + " (or give --plan PLAN --arm NAME --replicate K to rerun one replicate of a study)");
         }
-        Prepared prepared;
-        try {
-            prepared = prepare(err);
-        } catch (IllegalArgumentException e) {
-            return bad(err, e.getMessage());
-        }
+        Prepared prepared = prepare(err);
         Trainer trainer = prepared.trainer;
         out.println(prepared.model.describe() + "; " + prepared.train.rows() + " training rows"
                 + (prepared.test == null ? "" : ", " + prepared.test.rows() + " test rows") + "; "
@@ -194,9 +197,7 @@ public final class TraceCommand implements Callable<Integer> {
             try {
                 writeDump(dump, result, trainer.shape().updatesPerEpoch());
             } catch (IOException e) {
-                err.println("settle trace: cannot write " + dump + ": " + e.getMessage());
-                err.flush();
-                return Main.FAILED;
+                throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);
             }
             out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
                     + dump.resolve("final.csv"));
@@ -210,7 +211,7 @@ public final class TraceCommand implements Callable<Integer> {
      * split, model, reference and seeds), prints it epoch by epoch, and with {@code --dump} also writes the
      * replicate file, byte for byte the one in the study directory.
      */
-    private int tracePlan(PrintWriter out, PrintWriter err) {
+    private int tracePlan(PrintWriter out, PrintWriter err) throws IOException {
         List<String> stray = new ArrayList<>();
         for (String option : List.of("--data", "--label", "--model", "--hidden", "--activation", "--l2", "--schedule",
                 "--epochs", "--batch", "--sampling", "--momentum", "--seed", "--test-fraction", "--standardize",
@@ -220,15 +221,15 @@ public final class TraceCommand implements Callable<Integer> {
             }
         }
         if (!stray.isEmpty()) {
-            return bad(err, String.join(", ", stray) + (stray.size() == 1 ? " does" : " do")
+            throw BadInputException.of("", String.join(", ", stray) + (stray.size() == 1 ? " does" : " do")
                     + " not go with --plan: the plan fixes the data, model and training");
         }
         if (arm == null || replicate == null) {
-            return bad(err, "--plan needs --arm NAME and --replicate K");
+            throw BadInputException.of("--plan", "--plan needs --arm NAME and --replicate K");
         }
         StudyContext context;
         ReplicateKey key;
-        try {
+        {
             ParsedPlan parsed = PlanParser.read(plan);
             Plan p = parsed.plan();
             int index = -1;
@@ -240,20 +241,15 @@ public final class TraceCommand implements Callable<Integer> {
                 }
             }
             if (index < 0) {
-                return bad(err, "--arm: no arm named '" + arm + "' in " + plan + NearMiss.suggestion(arm, names)
-                        + " (the arms: " + String.join(", ", names) + ")");
+                throw BadInputException.of("--arm", "--arm: no arm named " + BadInputException.shown(arm) + " in " + plan
+                        + NearMiss.suggestion(arm, names) + " (the arms: " + String.join(", ", names) + ")");
             }
             if (replicate < 1 || replicate > p.replicates()) {
-                return bad(err, "--replicate = " + replicate + " is not accepted; the plan has replicates 1.." + p.replicates());
+                throw BadInputException.of("--replicate", "--replicate = " + replicate + " is not accepted; the plan has"
+                        + " replicates 1.." + p.replicates());
             }
             key = new ReplicateKey(index, replicate);
             context = StudyContext.build(parsed);
-        } catch (NoMinimiserException e) {
-            err.println("settle trace: " + e.getMessage());
-            err.flush();
-            return Main.FAILED;
-        } catch (IllegalArgumentException e) {
-            return bad(err, e.getMessage());
         }
         Trainer trainer = context.trainer(key.arm());
         ReplicateSeeds seeds = context.seeds(key.replicate());
@@ -268,15 +264,14 @@ public final class TraceCommand implements Callable<Integer> {
         if (dump != null) {
             try {
                 writeDump(dump, result, trainer.shape().updatesPerEpoch());
-                AtomicFiles.write(dump.resolve("replicate.json"), ReplicateFile.of(context, key, result));
+                AtomicFile.write(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(context, key,
+                        result)));
             } catch (IOException e) {
-                err.println("settle trace: cannot write " + dump + ": " + e.getMessage());
-                err.flush();
-                return Main.FAILED;
+                throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);
             }
             out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
                     + dump.resolve("final.csv") + " and " + dump.resolve("replicate.json")
-                    + " (the study's " + ReplicateFile.relativePath(key) + ")");
+                    + " (the study's " + StudyFormat.replicatePath(key.arm(), key.replicate()) + ")");
             out.flush();
         }
         return result.diverged() ? Main.INCOMPLETE : Main.OK;
@@ -316,37 +311,36 @@ public final class TraceCommand implements Callable<Integer> {
 
     private Prepared prepare(PrintWriter err) {
         if (epochs < 1) {
-            throw new IllegalArgumentException("--epochs = " + epochs + " is not accepted; expected an integer ≥ 1");
+            throw BadInputException.of("--epochs", "--epochs = " + epochs + " is not accepted; expected an integer ≥ 1");
         }
         if (batch < 1) {
-            throw new IllegalArgumentException("--batch = " + batch + " is not accepted; expected an integer ≥ 1");
+            throw BadInputException.of("--batch", "--batch = " + batch + " is not accepted; expected an integer ≥ 1");
         }
         if (!(momentum >= 0 && momentum < 1)) {
-            throw new IllegalArgumentException("--momentum = " + momentum + " is not accepted; expected a number in [0, 1)");
+            throw BadInputException.of("--momentum", "--momentum = " + momentum + " is not accepted; expected a number in [0, 1)");
         }
         if (testFraction != null && !(testFraction > 0 && testFraction < 1)) {
-            throw new IllegalArgumentException("--test-fraction = " + testFraction
+            throw BadInputException.of("--test-fraction", "--test-fraction = " + testFraction
                     + " is not accepted; expected a number strictly between 0 and 1");
         }
         Sampling mode;
         try {
             mode = Sampling.parse(sampling);
-        } catch (IllegalArgumentException e) {
-            throw new IllegalArgumentException("--sampling must be shuffle or replacement: '" + sampling + "'");
+        } catch (BadInputException e) {
+            throw BadInputException.of("--sampling", "--sampling must be shuffle or replacement: '" + sampling + "'");
         }
         ModelSpec modelSpec = modelSpec();
         Map<String, Object> map;
         try {
             map = RatesCommand.readMap(schedule);
-        } catch (IllegalArgumentException e) {
-            String message = e.getMessage();
-            throw new IllegalArgumentException("--" + (message.startsWith("schedule:") ? message : "schedule: " + message));
+        } catch (BadInputException e) {
+            throw BadInputException.of("--schedule", "--" + e.getMessage());
         }
         Schedule parsed;
         try {
             parsed = Schedules.parse(map);
-        } catch (IllegalArgumentException e) {
-            throw new IllegalArgumentException("--schedule: " + e.getMessage());
+        } catch (BadInputException e) {
+            throw BadInputException.of("--schedule", "--schedule: " + e.getMessage());
         }
 
         // a CSV table takes the default table keys here (text columns one-hot, gaps refused); levels are fitted on
@@ -402,11 +396,11 @@ public final class TraceCommand implements Callable<Integer> {
         ModelSpec.Kind kind;
         try {
             kind = ModelSpec.Kind.parse(modelKind);
-        } catch (IllegalArgumentException e) {
-            throw new IllegalArgumentException("--model must be logistic or mlp: '" + modelKind + "'");
+        } catch (BadInputException e) {
+            throw BadInputException.of("--model", "--model must be logistic or mlp: '" + modelKind + "'");
         }
         if (!(l2 >= 0) || Double.isInfinite(l2)) {
-            throw new IllegalArgumentException("--l2 = " + l2 + " is not accepted; expected a finite number ≥ 0");
+            throw BadInputException.of("--l2", "--l2 = " + l2 + " is not accepted; expected a finite number ≥ 0");
         }
         if (kind == ModelSpec.Kind.LOGISTIC) {
             return ModelSpec.logistic(l2);
@@ -420,15 +414,15 @@ public final class TraceCommand implements Callable<Integer> {
                 }
                 sizes.add(size);
             } catch (NumberFormatException e) {
-                throw new IllegalArgumentException("--hidden '" + hidden
+                throw BadInputException.of("--hidden", "--hidden '" + hidden
                         + "' is not accepted; expected comma-separated layer sizes ≥ 1, e.g. 32,16");
             }
         }
         Activation act;
         try {
             act = Activation.parse(activation);
-        } catch (IllegalArgumentException e) {
-            throw new IllegalArgumentException("--activation must be relu or tanh: '" + activation + "'");
+        } catch (BadInputException e) {
+            throw BadInputException.of("--activation", "--activation must be relu or tanh: '" + activation + "'");
         }
         return ModelSpec.mlp(sizes, act, l2);
     }
@@ -438,7 +432,7 @@ public final class TraceCommand implements Callable<Integer> {
         List<String> lines = lines(file, "--init");
         int p = model.parameterCount();
         if (lines.size() != p) {
-            throw new IllegalArgumentException(file + ": " + lines.size() + " values, the model has " + p
+            throw BadInputException.inFile(file.toString(), "", "" + lines.size() + " values, the model has " + p
                     + " parameters (" + model.describe() + "; one value per line)");
         }
         double[] theta = new double[p];
@@ -447,10 +441,10 @@ public final class TraceCommand implements Callable<Integer> {
             try {
                 theta[i] = Double.parseDouble(cell);
             } catch (NumberFormatException e) {
-                throw new IllegalArgumentException(file + " line " + (i + 1) + ": '" + cell + "' is not a number");
+                throw BadInputException.at(file.toString(), i + 1, 0, "", "'" + cell + "' is not a number");
             }
             if (!Double.isFinite(theta[i])) {
-                throw new IllegalArgumentException(file + " line " + (i + 1) + ": '" + cell + "' is not finite");
+                throw BadInputException.at(file.toString(), i + 1, 0, "", "'" + cell + "' is not finite");
             }
         }
         return theta;
@@ -460,7 +454,7 @@ public final class TraceCommand implements Callable<Integer> {
     static int[][] readOrder(Path file, TrainingSettings settings, int rows) {
         List<String> lines = lines(file, "--order");
         if (lines.size() != settings.epochs()) {
-            throw new IllegalArgumentException(file + ": " + lines.size() + " lines, expected one per epoch ("
+            throw BadInputException.inFile(file.toString(), "", "" + lines.size() + " lines, expected one per epoch ("
                     + settings.epochs() + ")");
         }
         int length = SampleOrders.length(settings.sampling(), rows, settings.batch());
@@ -468,7 +462,7 @@ public final class TraceCommand implements Callable<Integer> {
         for (int e = 0; e < orders.length; e++) {
             String[] cells = lines.get(e).split(",", -1);
             if (cells.length != length) {
-                throw new IllegalArgumentException(file + " line " + (e + 1) + ": " + cells.length + " indices, expected "
+                throw BadInputException.at(file.toString(), e + 1, 0, "", "" + cells.length + " indices, expected "
                         + length + (settings.sampling() == Sampling.SHUFFLE ? " (one per training row)"
                                 : " (⌈N/B⌉·B = " + length + " for replacement sampling)"));
             }
@@ -479,11 +473,11 @@ public final class TraceCommand implements Callable<Integer> {
                 try {
                     index = Integer.parseInt(cell);
                 } catch (NumberFormatException ex) {
-                    throw new IllegalArgumentException(file + " line " + (e + 1) + ", item " + (i + 1) + ": '" + cell
+                    throw BadInputException.at(file.toString(), e + 1, i + 1, "", "item " + (i + 1) + ": '" + cell
                             + "' is not a row index; expected an integer in 0.." + (rows - 1));
                 }
                 if (index < 0 || index >= rows) {
-                    throw new IllegalArgumentException(file + " line " + (e + 1) + ", item " + (i + 1) + ": index "
+                    throw BadInputException.at(file.toString(), e + 1, i + 1, "", "item " + (i + 1) + ": index "
                             + index + " is outside the training rows 0.." + (rows - 1));
                 }
                 orders[e][i] = index;
@@ -497,7 +491,7 @@ public final class TraceCommand implements Callable<Integer> {
         try {
             lines = new ArrayList<>(Files.readAllLines(file, StandardCharsets.UTF_8));
         } catch (IOException e) {
-            throw new IllegalArgumentException(option + ": cannot read " + file + " (" + e.getClass().getSimpleName()
+            throw BadInputException.of(option, option + ": cannot read " + file + " (" + e.getClass().getSimpleName()
                     + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
         }
         while (!lines.isEmpty() && lines.get(lines.size() - 1).isBlank()) {
@@ -505,7 +499,7 @@ public final class TraceCommand implements Callable<Integer> {
         }
         for (int i = 0; i < lines.size(); i++) {
             if (lines.get(i).isBlank()) {
-                throw new IllegalArgumentException(file + " line " + (i + 1) + ": empty line");
+                throw BadInputException.at(file.toString(), i + 1, 0, "", "empty line");
             }
         }
         return lines;
@@ -522,7 +516,7 @@ public final class TraceCommand implements Callable<Integer> {
             double[] rates = result.rates();
             for (int t = 1; t <= rates.length; t++) {
                 int epoch = (t - 1) / updatesPerEpoch + 1;
-                w.write(epoch + "," + t + "," + rates[t - 1] + "\n");
+                w.write(epoch + "," + t + "," + NumberText.shortest(rates[t - 1]) + "\n");
             }
         }
         try (Writer w = Files.newBufferedWriter(dir.resolve("epochs.csv"), StandardCharsets.UTF_8)) {
@@ -534,14 +528,14 @@ public final class TraceCommand implements Callable<Integer> {
         }
         try (Writer w = Files.newBufferedWriter(dir.resolve("final.csv"), StandardCharsets.UTF_8)) {
             for (double v : result.finalParameters()) {
-                w.write(v + "\n");
+                w.write(NumberText.shortest(v) + "\n");
             }
         }
     }
 
     /** @return the shortest decimal that reads back as the same double; empty for NaN (not applicable) */
     private static String cell(double v) {
-        return Double.isNaN(v) ? "" : Double.toString(v);
+        return Double.isNaN(v) ? "" : NumberText.shortest(v);
     }
 
     private static String fmt(double v) {
@@ -550,11 +544,5 @@ public final class TraceCommand implements Callable<Integer> {
 
     private static String number(double v) {
         return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
-    }
-
-    private static int bad(PrintWriter err, String message) {
-        err.println("settle trace: " + message);
-        err.flush();
-        return Main.BAD_INPUT;
     }
 }

@@ -24,6 +24,8 @@ import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.study.ReplicateFile;
 import settle.experiments.study.StudyContext;
+import settle.reports.format.NudgeRecord;
+import settle.reports.format.NudgesCsv;
 
 /**
  * Trains the replicates of manual arms in step: every replicate of an arm has its own thread, and each
@@ -51,7 +53,7 @@ public final class LockstepRunner {
     private final ProgressBoard board;
     private final Semaphore permits;
     private final long paceNanos;
-    private final List<AppliedNudge> applied;
+    private final List<NudgeRecord> applied;
     private final Set<String> appliedIds = new HashSet<>();
     private final Map<Integer, Integer> resumeEpochs;
     private final AtomicReference<Throwable> failure = new AtomicReference<>();
@@ -68,7 +70,7 @@ public final class LockstepRunner {
      *     applies requests no earlier than where the run it resumes had reached)
      */
     public LockstepRunner(StudyContext context, Path directory, ProgressBoard board, int parallelism, long paceMillis,
-            List<AppliedNudge> applied, Map<Integer, Integer> resumeEpochs) {
+            List<NudgeRecord> applied, Map<Integer, Integer> resumeEpochs) {
         if (parallelism < 1) {
             throw new IllegalArgumentException("parallelism must be at least 1: " + parallelism);
         }
@@ -78,7 +80,7 @@ public final class LockstepRunner {
         this.permits = new Semaphore(parallelism);
         this.paceNanos = Math.max(0, paceMillis) * 1_000_000L;
         this.applied = applied;
-        for (AppliedNudge n : applied) {
+        for (NudgeRecord n : applied) {
             appliedIds.add(n.request());
         }
         this.resumeEpochs = Map.copyOf(resumeEpochs);
@@ -191,8 +193,7 @@ public final class LockstepRunner {
                     throw new CancellationException("stopped: another replicate failed");
                 }
             });
-            ReplicateOutcome outcome = new ReplicateOutcome(key, ReplicateFile.of(context, key, result),
-                    result.diverged(), result.rates().length);
+            ReplicateOutcome outcome = ReplicateFile.outcome(context, key, result);
             synchronized (sinkLock) {
                 sink.accept(outcome);
             }
@@ -296,7 +297,7 @@ public final class LockstepRunner {
         String note = r.note();
         log.append(new NudgeLog.Entry(from, factor, note));
         double rate = base * log.multiplier(from);
-        applied.add(new AppliedNudge(arm, r.arm(), from, factor, rate, note, Instant.now().toString(), r.id()));
+        applied.add(new NudgeRecord(arm, r.arm(), from, factor, rate, note, Instant.now().toString(), r.id()));
         appliedIds.add(r.id());
         NudgesCsv.write(directory, applied);
         List<NudgeLog> logs = new ArrayList<>();

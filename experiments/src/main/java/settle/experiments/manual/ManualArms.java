@@ -8,7 +8,9 @@ import settle.engine.schedule.NudgeLog;
 import settle.experiments.plan.ArmPlan;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanWriter;
-import settle.experiments.study.AtomicFiles;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.StudyFormat;
 
 /**
  * Rules and records shared by everything that runs manual arms: the refusal any executor that cannot pause
@@ -17,7 +19,7 @@ import settle.experiments.study.AtomicFiles;
 public final class ManualArms {
 
     /** The replay plan's file name in a study directory. */
-    public static final String REPLAY_FILE = "replay.yaml";
+    public static final String REPLAY_FILE = StudyFormat.REPLAY;
 
     private ManualArms() {
     }
@@ -38,12 +40,12 @@ public final class ManualArms {
      * end in this JVM (a cluster engine). Call it before running anything.
      *
      * @param executor the executor's description, for the message
-     * @throws IllegalArgumentException naming the first manual arm and what would be accepted
+     * @throws BadInputException naming the first manual arm and what would be accepted
      */
     public static void refuseUnlessLocal(Plan plan, String executor) {
         for (ArmPlan a : plan.arms()) {
             if (a.manual()) {
-                throw new IllegalArgumentException("arm '" + a.name() + "' is manual: its replicates must pause"
+                throw BadInputException.of("--cluster", "arm " + BadInputException.shown(a.name()) + " is manual: its replicates must pause"
                         + " together at each epoch end to take nudges, which " + executor + " cannot do; run the plan"
                         + " without --cluster, or set manual: false (a replay.yaml of a manual arm runs anywhere)");
             }
@@ -78,6 +80,6 @@ public final class ManualArms {
         String text = "# replay of study " + plan.study() + ": its manual arms with the nudges applied so far fixed"
                 + " in place;\n# settle run replay.yaml --out DIR reproduces their replicate files exactly\n"
                 + PlanWriter.toYaml(replayPlan(plan, logs));
-        AtomicFiles.write(study.resolve(REPLAY_FILE), text);
+        AtomicFile.write(study.resolve(REPLAY_FILE), text);
     }
 }

@@ -14,7 +14,9 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
 import java.util.concurrent.ThreadLocalRandom;
-import settle.experiments.study.AtomicFiles;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.StudyFormat;
 
 /**
  * The control channel of a running study: the folder {@code .nudge/} in its study directory, one JSON file
@@ -27,7 +29,7 @@ import settle.experiments.study.AtomicFiles;
 public final class NudgeQueue {
 
     /** The queue's folder inside a study directory. */
-    public static final String FOLDER = ".nudge";
+    public static final String FOLDER = StudyFormat.NUDGE_QUEUE;
 
     private static final ObjectMapper MAPPER = new ObjectMapper();
     private static final String REQUEST = ".json";
@@ -47,7 +49,7 @@ public final class NudgeQueue {
      * @param factor the multiplier, or NaN
      * @param rate the target rate, or NaN
      * @return the request as written (its id names its file)
-     * @throws IllegalArgumentException unless exactly one of factor and rate is given, positive and finite
+     * @throws BadInputException unless exactly one of factor and rate is given, positive and finite
      */
     public static NudgeRequest submit(Path study, String arm, double factor, double rate, String note)
             throws IOException {
@@ -65,7 +67,7 @@ public final class NudgeQueue {
         }
         o.put("note", request.note());
         o.put("asked", request.asked());
-        AtomicFiles.write(folder(study).resolve(id + REQUEST), MAPPER.writerWithDefaultPrettyPrinter()
+        AtomicFile.write(folder(study).resolve(id + REQUEST), MAPPER.writerWithDefaultPrettyPrinter()
                 .writeValueAsString(o) + "\n");
         return request;
     }
@@ -103,14 +105,16 @@ public final class NudgeQueue {
                 double factor = n.has("factor") ? n.path("factor").asDouble(Double.NaN) : Double.NaN;
                 double rate = n.has("rate") ? n.path("rate").asDouble(Double.NaN) : Double.NaN;
                 if (!n.path("arm").isTextual()) {
-                    throw new IllegalArgumentException("no arm named in it");
+                    throw BadInputException.of("arm", "no arm named in it");
                 }
                 out.add(new NudgeRequest(id, n.path("arm").asText(), factor, rate, n.path("note").asText(""),
                         n.path("asked").asText("")));
             } catch (NoSuchFileException e) {
                 // taken by the runner meanwhile
-            } catch (IOException | IllegalArgumentException e) {
-                bad.add(new Unreadable(id, "not a nudge request: " + e.getMessage()));
+            } catch (IOException | BadInputException e) {
+                // say what is wrong in our words: the JSON parser's name its own internals
+                bad.add(new Unreadable(id, "not a nudge request: " + (e instanceof BadInputException
+                        ? e.getMessage() : "not the JSON settle nudge writes")));
             }
         }
         return new Pending(out, bad);
@@ -123,7 +127,7 @@ public final class NudgeQueue {
 
     /** Replaces request {@code id} by its refusal, holding {@code reason} (one line). */
     public static void refuse(Path study, String id, String reason) throws IOException {
-        AtomicFiles.write(folder(study).resolve(id + REFUSED), reason + "\n");
+        AtomicFile.write(folder(study).resolve(id + REFUSED), reason + "\n");
         remove(study, id);
     }
 

@@ -1,6 +1,7 @@
 package settle.experiments.manual;
 
 import java.util.Objects;
+import settle.input.BadInputException;
 
 /**
  * A nudge asked for by {@code settle nudge} and not yet applied: the arm, and either a factor or a target
@@ -21,15 +22,15 @@ public record NudgeRequest(String id, String arm, double factor, double rate, St
         note = note == null ? "" : note;
         asked = asked == null ? "" : asked;
         if (Double.isNaN(factor) == Double.isNaN(rate)) {
-            throw new IllegalArgumentException("a nudge gives either a factor or a rate, not both or neither");
+            throw BadInputException.of("--factor", "a nudge gives either a factor or a rate, not both or neither");
         }
         checkPositive(Double.isNaN(factor) ? "--rate" : "--factor", Double.isNaN(factor) ? rate : factor);
     }
 
-    /** @throws IllegalArgumentException unless {@code value} is positive and finite, naming {@code option} */
+    /** @throws BadInputException unless {@code value} is positive and finite, naming {@code option} */
     public static void checkPositive(String option, double value) {
         if (!(value > 0) || value == Double.POSITIVE_INFINITY) {
-            throw new IllegalArgumentException(option + " must be a positive, finite number, got " + value);
+            throw BadInputException.of(option, option + " must be a positive, finite number, got " + value);
         }
     }
 

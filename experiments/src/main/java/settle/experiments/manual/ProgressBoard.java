@@ -8,8 +8,9 @@ import java.util.ArrayList;
 import java.util.List;
 import settle.experiments.plan.ArmPlan;
 import settle.experiments.plan.Plan;
-import settle.experiments.study.AtomicFiles;
-import settle.experiments.study.Json;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.JsonOut;
+import settle.reports.format.StudyFormat;
 import settle.reports.stats.Quantiles;
 
 /**
@@ -20,7 +21,7 @@ import settle.reports.stats.Quantiles;
 public final class ProgressBoard {
 
     /** The file name in a study directory. */
-    public static final String FILE = "progress.json";
+    public static final String FILE = StudyFormat.PROGRESS;
 
     /** What an arm is doing. */
     public enum State {
@@ -147,7 +148,7 @@ public final class ProgressBoard {
 
     /** Writes {@code progress.json} atomically. */
     public synchronized void write() throws IOException {
-        byte[] bytes = Json.document(g -> {
+        byte[] bytes = JsonOut.document(g -> {
             g.writeStartObject();
             g.writeNumberField("format", 1);
             g.writeStringField("study", study);
@@ -168,8 +169,8 @@ public final class ProgressBoard {
                 g.writeNumberField("diverged", a.diverged);
                 if (a.manual) {
                     g.writeNumberField("epoch", a.epoch);
-                    Json.number(g, "rate", a.rate);
-                    Json.number(g, "next_rate", a.nextRate);
+                    JsonOut.number(g, "rate", a.rate);
+                    JsonOut.number(g, "next_rate", a.nextRate);
                     g.writeNumberField("nudges", a.nudges);
                     spread(g, "objective", a.objective);
                     spread(g, "test_loss", a.testLoss);
@@ -180,7 +181,7 @@ public final class ProgressBoard {
             g.writeEndArray();
             g.writeEndObject();
         });
-        AtomicFiles.write(directory.resolve(FILE), bytes);
+        AtomicFile.write(directory.resolve(FILE), bytes);
     }
 
     private static void spread(JsonGenerator g, String key, Spread s) throws IOException {
@@ -190,9 +191,9 @@ public final class ProgressBoard {
             return;
         }
         g.writeStartObject();
-        Json.number(g, "median", s.median());
-        Json.number(g, "q1", s.q1());
-        Json.number(g, "q3", s.q3());
+        JsonOut.number(g, "median", s.median());
+        JsonOut.number(g, "q1", s.q1());
+        JsonOut.number(g, "q3", s.q3());
         g.writeEndObject();
     }
 }

@@ -3,6 +3,8 @@ package settle.experiments.plan;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import settle.input.BadInputException;
+import settle.reports.format.Grid;
 
 /**
  * A resolved plan together with where each of its keys was written, so that a later step (loading the
@@ -16,10 +18,10 @@ public final class ParsedPlan {
     private final List<String> warnings;
 
     private final List<String> armPaths;
-    private final List<GridExpansion> grids;
+    private final List<Grid> grids;
 
     ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings, List<String> armPaths,
-            List<GridExpansion> grids) {
+            List<Grid> grids) {
         this.armPaths = List.copyOf(armPaths);
         this.grids = List.copyOf(grids);
         this.warnings = List.copyOf(warnings);
@@ -50,7 +52,7 @@ public final class ParsedPlan {
      * @return what each {@code grid} entry of the plan expanded into, in the order the entries are written; empty
      *     for a plan without a grid (such as a resolved {@code plan.yaml}, whose grid is already expanded)
      */
-    public List<GridExpansion> grids() {
+    public List<Grid> grids() {
         return grids;
     }
 
@@ -84,8 +86,8 @@ public final class ParsedPlan {
      * @param detail what is wrong and what is accepted
      * @return an exception positioned at that key, to throw
      */
-    public PlanException error(String keyPath, String detail) {
+    public BadInputException error(String keyPath, String detail) {
         int[] pos = position(keyPath);
-        return new PlanException(file, pos[0], pos[1], keyPath, detail);
+        return BadInputException.at(file, pos[0], pos[1], keyPath, detail);
     }
 }

@@ -2,7 +2,7 @@ package settle.experiments.plan;
 
 import java.util.ArrayList;
 import java.util.List;
-import settle.datasets.DataException;
+import settle.input.BadInputException;
 import settle.datasets.DataSources;
 import settle.datasets.Dataset;
 import settle.datasets.PreparedData;
@@ -10,6 +10,7 @@ import settle.datasets.SplitRule;
 import settle.datasets.Standardiser;
 import settle.datasets.table.TableReport;
 import settle.engine.schedule.RunShape;
+import settle.input.BadInputException;
 
 /**
  * A plan's data, loaded and split the one way every command does it: the test split is carved from all rows
@@ -66,7 +67,7 @@ public final class PlanData {
      *
      * @param parsed the plan with its key positions
      * @return the splits
-     * @throws PlanException positioned at {@code data.source} when the data cannot be read, at the {@code data} key
+     * @throws BadInputException positioned at {@code data.source} when the data cannot be read, at the {@code data} key
      *         that causes or can fix a problem ({@code data.missing}, {@code data.features}, …), or at the fraction
      *         whose split cannot be made
      */
@@ -77,14 +78,12 @@ public final class PlanData {
         try {
             prepared = DataSources.prepare(d.source(), d.label(), d.table(), null, new SplitRule(d.testFraction(),
                     testSplitSeed(plan.seed()), d.holdoutFraction(), holdoutSplitSeed(plan.seed())));
-        } catch (DataException e) {
-            String key = e.key() != null ? "data." + e.key()
+        } catch (BadInputException e) {
+            // a problem a data key causes or can fix comes keyed data.KEY; any other points at the source
+            String key = e.file().isEmpty() && e.key().startsWith("data.") ? e.key()
                     : d.label() != null && e.getMessage() != null && e.getMessage().contains("label") ? "data.label"
                     : "data.source";
             throw parsed.error(key, e.getMessage());
-        } catch (IllegalArgumentException e) {
-            throw parsed.error(d.label() != null && e.getMessage() != null && e.getMessage().contains("label")
-                    ? "data.label" : "data.source", e.getMessage());
         }
         return of(parsed, prepared);
     }

@@ -1,5 +1,7 @@
 package settle.experiments.plan;
 
+import static settle.input.BadInputException.shown;
+
 import settle.engine.text.NearMiss;
 import java.io.IOException;
 import java.nio.ByteBuffer;
@@ -20,15 +22,16 @@ import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
 import settle.engine.schedule.NudgeLog;
 import settle.engine.schedule.Schedule;
-import settle.engine.schedule.ScheduleException;
+import settle.input.BadInputException;
 import settle.engine.schedule.Schedules;
 import settle.engine.train.Sampling;
 import settle.datasets.table.TableOptions;
+import settle.reports.format.Grid;
 
 /**
  * Reads a plan file into a resolved {@link Plan}. This class is the one place where defaults are filled in
  * (see {@link #DEFAULTS_TABLE}). Unknown keys are errors with a near-miss suggestion; every error is a
- * {@link PlanException} naming the file, line, column and key path and what is accepted.
+ * {@link BadInputException} naming the file, line, column and key path and what is accepted.
  *
  * <p>Paths in a plan ({@code csv:PATH}, {@code libsvm:PATH}) are relative to the folder of the plan file and
  * are stored absolute in the resolved plan, so that the resolved plan written into a study directory means
@@ -117,7 +120,7 @@ public final class PlanParser {
     private final Map<String, int[]> positions = new HashMap<>();
     private final List<String> warnings = new ArrayList<>();
     private final List<String> armPaths = new ArrayList<>();
-    private final List<GridExpansion> grids = new ArrayList<>();
+    private final List<Grid> grids = new ArrayList<>();
 
     private PlanParser(String file, Path baseDirectory, String defaultStudy) {
         this.file = file;
@@ -130,7 +133,7 @@ public final class PlanParser {
      *
      * @param planFile the plan; named in messages as given
      * @return the resolved plan
-     * @throws PlanException when the file cannot be read or the plan is not valid
+     * @throws BadInputException when the file cannot be read or the plan is not valid
      */
     public static Plan parse(Path planFile) {
         return read(planFile).plan();
@@ -139,7 +142,7 @@ public final class PlanParser {
     /**
      * Reads and resolves a plan file, keeping the positions of its keys.
      *
-     * @throws PlanException when the file cannot be read or the plan is not valid
+     * @throws BadInputException when the file cannot be read or the plan is not valid
      */
     public static ParsedPlan read(Path planFile) {
         String name = planFile.toString();
@@ -149,11 +152,11 @@ public final class PlanParser {
                     .onUnmappableCharacter(CodingErrorAction.REPORT)
                     .decode(ByteBuffer.wrap(Files.readAllBytes(planFile))).toString();
         } catch (NoSuchFileException e) {
-            throw new PlanException(name, 0, 0, "", "no such file; give the path of a plan YAML file");
+            throw BadInputException.at(name, 0, 0, "", "no such file; give the path of a plan YAML file");
         } catch (CharacterCodingException e) {
-            throw new PlanException(name, 0, 0, "", "not UTF-8 text; save the plan as UTF-8");
+            throw BadInputException.at(name, 0, 0, "", "not UTF-8 text; save the plan as UTF-8");
         } catch (IOException e) {
-            throw new PlanException(name, 0, 0, "", "cannot read the plan: " + e.getMessage());
+            throw BadInputException.at(name, 0, 0, "", "cannot read the plan: " + e.getMessage());
         }
         Path parent = planFile.toAbsolutePath().getParent();
         return read(text, name, parent == null ? Path.of("") : parent);
@@ -165,7 +168,7 @@ public final class PlanParser {
      * @param text the YAML text
      * @param fileName the name used in messages; its name without extension is the default study name
      * @param baseDirectory the folder relative paths in the plan are resolved against
-     * @throws PlanException when the plan is not valid
+     * @throws BadInputException when the plan is not valid
      */
     public static ParsedPlan read(String text, String fileName, Path baseDirectory) {
         Path leaf = Path.of(fileName).getFileName();
@@ -189,15 +192,20 @@ public final class PlanParser {
         }
         checkKeys(top, "", "the plan", TOP_KEYS);
         String study;
+        if (top.entries.containsKey("study") && !present(top, "study")) {
+            // `study: ""` or `study:` would silently fall back to the file's name: say so instead
+            throw error(value(top, "study"), "study", "is empty; give the study's name (1-100 letters, digits, '.',"
+                    + " '_' or '-', not starting with '.'), or leave the key out to name it after the plan file");
+        }
         if (present(top, "study")) {
             study = string(top, "", "study");
             if (!Plan.validStudyName(study)) {
                 throw error(value(top, "study"), "study", "must be 1-100 letters, digits, '.', '_' or '-', "
-                        + "not starting with '.' (it names the study directory), got '" + study + "'");
+                        + "not starting with '.' (it names the study directory), got " + shown(study));
             }
         } else {
             if (!Plan.validStudyName(defaultStudy)) {
-                throw error(top, "study", "missing; the file name '" + defaultStudy + "' cannot name a study "
+                throw error(top, "study", "missing; the file name " + shown(defaultStudy) + " cannot name a study "
                         + "directory, so give 'study:' (letters, digits, '.', '_' or '-')");
             }
             study = defaultStudy;
@@ -230,12 +238,12 @@ public final class PlanParser {
         if (colon < 0) {
             String hint = raw.matches("[A-Za-z0-9_-]+") ? "; did you mean 'bundled:" + raw + "'?"
                     : raw.toLowerCase(Locale.ROOT).endsWith(".csv") ? "; did you mean 'csv:" + raw + "'?" : "";
-            throw error(at, "data.source", "must be " + SOURCE_FORMS + ", got '" + raw + "'" + hint);
+            throw error(at, "data.source", "must be " + SOURCE_FORMS + ", got " + shown(raw) + hint);
         }
         String kind = raw.substring(0, colon);
         String rest = raw.substring(colon + 1).trim();
         if (!SOURCE_KINDS.contains(kind)) {
-            throw error(at, "data.source", "unknown data source kind '" + kind + "'"
+            throw error(at, "data.source", "unknown data source kind " + shown(kind)
                     + NearMiss.suggestion(kind, SOURCE_KINDS) + " (accepted: " + SOURCE_FORMS + ")");
         }
         if (rest.isEmpty()) {
@@ -249,7 +257,7 @@ public final class PlanParser {
             try {
                 path = Path.of(rest);
             } catch (java.nio.file.InvalidPathException e) {
-                throw error(at, "data.source", "not a valid file path: '" + rest + "'");
+                throw error(at, "data.source", "not a valid file path: " + shown(rest));
             }
             source = kind + ":" + baseDirectory.resolve(path).normalize();
         } else {
@@ -325,7 +333,7 @@ public final class PlanParser {
             for (String k : List.of("hidden", "activation")) {
                 if (present(m, k)) {
                     YamlNode.Entry e = m.entries.get(k);
-                    warnings.add(new PlanException(file, e.keyLine, e.keyColumn, "model." + k,
+                    warnings.add(BadInputException.at(file, e.keyLine, e.keyColumn, "model." + k,
                             "applies to kind: mlp only; ignored for this logistic model").getMessage());
                 }
             }
@@ -504,7 +512,7 @@ public final class PlanParser {
                     + "), got " + k.describe());
         }
         if (!Schedules.kinds().contains(sc.text)) {
-            throw error(k, path + ".kind", "unknown schedule kind '" + sc.text + "'"
+            throw error(k, path + ".kind", "unknown schedule kind " + shown(sc.text)
                     + NearMiss.suggestion(sc.text, Schedules.kinds())
                     + " (accepted: " + String.join(", ", Schedules.kinds()) + ")");
         }
@@ -536,16 +544,16 @@ public final class PlanParser {
         }
         List<ArmPlan> arms = new ArrayList<>();
         Map<String, String> seen = new LinkedHashMap<>();
-        GridExpansion[] byEntry = new GridExpansion[templates.size()];
+        Grid[] byEntry = new Grid[templates.size()];
         int entries = 0;
         for (Template t : templates) {
             List<ArmPlan> expanded = perTemplate.get(t.index);
             if (t.grid >= 0) {
-                List<GridExpansion.Expanded> indices = new ArrayList<>();
+                List<Grid.Member> indices = new ArrayList<>();
                 for (int i = 0; i < expanded.size(); i++) {
-                    indices.add(new GridExpansion.Expanded(arms.size() + i, t.gridChoices.get(i)));
+                    indices.add(new Grid.Member(arms.size() + i, t.gridChoices.get(i)));
                 }
-                byEntry[t.grid] = new GridExpansion(t.name, t.gridKeys, t.gridValues, indices);
+                byEntry[t.grid] = new Grid(t.name, t.gridKeys, t.gridValues, indices);
                 entries = Math.max(entries, t.grid + 1);
             }
             if (expanded == null) {
@@ -559,7 +567,7 @@ public final class PlanParser {
                     String at = t.grid >= 0 ? "grid[" + t.grid + "]" : t.path() + ".name";
                     YamlNode node = t.grid >= 0 ? null : (present(t.item, "name")
                             ? value(t.item, "name") : t.item);
-                    String detail = "duplicate arm name '" + a.name() + "' (also from " + earlier
+                    String detail = "duplicate arm name " + shown(a.name()) + " (also from " + earlier
                             + "); arm names must be unique"
                             + (present(t.item, "name") ? "" : ": give each arm a 'name'");
                     throw node == null ? positioned(at, detail) : error(node, at, detail);
@@ -587,17 +595,17 @@ public final class PlanParser {
         for (Template t : templates) {
             if (t.name.equals(name)) {
                 if (t.grid >= 0) {
-                    throw error(value(entry, "arm"), path + ".arm", "arm '" + name + "' is already expanded by grid["
+                    throw error(value(entry, "arm"), path + ".arm", "arm " + shown(name) + " is already expanded by grid["
                             + t.grid + "]; put all its keys in one grid entry");
                 }
                 if (entry.entries.size() < 2) {
-                    throw error(entry, path, "names no schedule key to vary; add KEY: [values] for a key of arm '"
-                            + name + "'");
+                    throw error(entry, path, "names no schedule key to vary; add KEY: [values] for a key of arm "
+                            + shown(name));
                 }
                 return t;
             }
         }
-        throw error(value(entry, "arm"), path + ".arm", "no arm named '" + name + "'"
+        throw error(value(entry, "arm"), path + ".arm", "no arm named " + shown(name)
                 + NearMiss.suggestion(name, names) + " (arms: " + quoted(names) + ")");
     }
 
@@ -624,7 +632,7 @@ public final class PlanParser {
         for (YamlNode.ListNode l : values) {
             combinations *= l.items.size();
             if (combinations > 10_000) {
-                throw error(entry, path, "expands arm '" + t.name + "' into more than 10000 arms; "
+                throw error(entry, path, "expands arm " + shown(t.name) + " into more than 10000 arms; "
                         + "a grid may expand one arm into at most 10000");
             }
         }
@@ -671,18 +679,16 @@ public final class PlanParser {
         Schedule schedule;
         try {
             schedule = Schedules.parse(raw);
-        } catch (ScheduleException e) {
+        } catch (BadInputException e) {
             String key = e.key() == null ? "" : e.key();
             String top = key.split("[.\\[]", 2)[0];
             String detail = e.getMessage();
             if (gridOrigin != null && gridOrigin.containsKey(top)) {
                 String at = gridOrigin.get(top) + key.substring(top.length());
-                throw positioned(at, detail + " (in arm '" + name + "')");
+                throw positioned(at, detail + " (in arm " + shown(name) + ")");
             }
             throw positioned(key.isEmpty() ? schedulePath : schedulePath + "." + key,
-                    detail + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
-        } catch (IllegalArgumentException e) {
-            throw positioned(schedulePath, e.getMessage() + (gridOrigin == null ? "" : " (in arm '" + name + "')"));
+                    detail + (gridOrigin == null ? "" : " (in arm " + shown(name) + ")"));
         }
         Map<String, Object> resolved = schedule.resolved();
         if ("plateau".equals(resolved.get("kind")) && "holdout".equals(resolved.get("judge"))
@@ -709,11 +715,11 @@ public final class PlanParser {
         }
         for (Template t : templates) {
             if (t.grid >= 0 && t.name.equals(b)) {
-                throw error(value(top, "baseline"), "baseline", "arm '" + b + "' is expanded by grid[" + t.grid
-                        + "] into several arms; name one of them, such as '" + firstExpanded(arms, b) + "'");
+                throw error(value(top, "baseline"), "baseline", "arm " + shown(b) + " is expanded by grid[" + t.grid
+                        + "] into several arms; name one of them, such as " + shown(firstExpanded(arms, b)));
             }
         }
-        throw error(value(top, "baseline"), "baseline", "no arm named '" + b + "'"
+        throw error(value(top, "baseline"), "baseline", "no arm named " + shown(b)
                 + NearMiss.suggestion(b, names) + " (arms: " + quoted(names) + ")");
     }
 
@@ -840,8 +846,8 @@ public final class PlanParser {
                     return e;
                 }
             }
-            throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got '" + s.text
-                    + "'" + NearMiss.suggestion(s.text, accepted));
+            throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got "
+                    + shown(s.text) + NearMiss.suggestion(s.text, accepted));
         }
         throw error(v, join(parent, key), "must be one of " + String.join(" | ", accepted) + ", got " + v.describe());
     }
@@ -891,7 +897,7 @@ public final class PlanParser {
             String kp = join(path, e.key);
             record(kp, e.value, e);
             if (!accepted.contains(e.key)) {
-                throw new PlanException(file, e.keyLine, e.keyColumn, kp, "unknown key '" + e.key + "' in "
+                throw BadInputException.at(file, e.keyLine, e.keyColumn, kp, "unknown key " + shown(e.key) + " in "
                         + where + NearMiss.suggestion(e.key, accepted) + " (accepted: "
                         + String.join(", ", accepted) + ")");
             }
@@ -934,23 +940,23 @@ public final class PlanParser {
         }
     }
 
-    private PlanException positioned(String path, String detail) {
+    private BadInputException positioned(String path, String detail) {
         String p = path;
         while (true) {
             int[] pos = positions.get(p);
             if (pos != null) {
-                return new PlanException(file, pos[0], pos[1], path, detail);
+                return BadInputException.at(file, pos[0], pos[1], path, detail);
             }
             int cut = Math.max(p.lastIndexOf('.'), p.lastIndexOf('['));
             if (cut <= 0) {
-                return new PlanException(file, 0, 0, path, detail);
+                return BadInputException.at(file, 0, 0, path, detail);
             }
             p = p.substring(0, cut);
         }
     }
 
-    private PlanException error(YamlNode at, String path, String detail) {
-        return new PlanException(file, at.line, at.column, path, detail);
+    private BadInputException error(YamlNode at, String path, String detail) {
+        return BadInputException.at(file, at.line, at.column, path, detail);
     }
 
     private static String join(String parent, String key) {

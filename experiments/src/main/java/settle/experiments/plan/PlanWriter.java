@@ -12,7 +12,7 @@ import java.util.regex.Pattern;
 import settle.datasets.table.TableOptions;
 import settle.engine.model.ModelSpec;
 import settle.engine.schedule.NudgeLog;
-import settle.experiments.study.AtomicFiles;
+import settle.reports.format.AtomicFile;
 
 /**
  * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included, except the
@@ -112,7 +112,7 @@ public final class PlanWriter {
      * @throws IOException when the file cannot be written
      */
     public static void write(Plan plan, Path file) throws IOException {
-        AtomicFiles.write(file, toYaml(plan));
+        AtomicFile.write(file, toYaml(plan));
     }
 
     /** @return the lower-case hexadecimal SHA-256 of the UTF-8 bytes of {@link #toYaml(Plan)} */

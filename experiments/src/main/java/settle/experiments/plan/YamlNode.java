@@ -6,6 +6,7 @@ import java.util.Collections;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * A YAML value with the position it was written at: a map (keys in file order, each with the position of the
@@ -112,7 +113,7 @@ abstract class YamlNode {
 
         @Override
         String describe() {
-            return type == ScalarType.NULL ? "no value" : "'" + text + "'";
+            return type == ScalarType.NULL ? "no value" : BadInputException.shown(text);
         }
 
         @Override

@@ -1,5 +1,7 @@
 package settle.experiments.plan;
 
+import static settle.input.BadInputException.shown;
+
 import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
@@ -12,6 +14,7 @@ import java.util.ArrayDeque;
 import java.util.Deque;
 import org.yaml.snakeyaml.error.Mark;
 import org.yaml.snakeyaml.error.MarkedYAMLException;
+import settle.input.BadInputException;
 
 /**
  * Reads one YAML document into a {@link YamlNode} tree that keeps every position, through Jackson's
@@ -34,7 +37,7 @@ final class YamlReader {
      * @param text the whole file
      * @param file the file name used in messages
      * @return the root node, never null
-     * @throws PlanException on a syntax error, a duplicate key, an alias, an empty file or a second document
+     * @throws BadInputException on a syntax error, a duplicate key, an alias, an empty file or a second document
      */
     static YamlNode read(String text, String file) {
         return new YamlReader(file).parse(text);
@@ -45,21 +48,21 @@ final class YamlReader {
         try (JsonParser p = FACTORY.createParser(text)) {
             JsonToken t = p.nextToken();
             if (t == null) {
-                throw new PlanException(file, 1, 1, "", "the plan is empty; expected a map with at least "
+                throw BadInputException.at(file, 1, 1, "", "the plan is empty; expected a map with at least "
                         + "'data', 'arms' (and usually 'study', 'seed', 'replicates', 'model', 'training')");
             }
             YamlNode root = readValue(p, t, path);
             JsonToken next = p.nextToken();
             if (next != null) {
                 JsonLocation l = p.currentTokenLocation();
-                throw new PlanException(file, l.getLineNr(), l.getColumnNr(), "",
+                throw BadInputException.at(file, l.getLineNr(), l.getColumnNr(), "",
                         "a plan file holds one YAML document; found a second one (remove the '---' separator)");
             }
             return root;
         } catch (JsonProcessingException e) {
             throw syntaxError(e, path);
         } catch (IOException e) {
-            throw new PlanException(file, 0, 0, "", "cannot read: " + e.getMessage());
+            throw BadInputException.at(file, 0, 0, "", "cannot read: " + e.getMessage());
         }
     }
 
@@ -67,8 +70,12 @@ final class YamlReader {
         JsonLocation l = p.currentTokenLocation();
         int line = l.getLineNr();
         int column = l.getColumnNr();
+        if (path.size() > MAX_DEPTH) {
+            throw BadInputException.at(file, line, column, render(path), "nested more than " + MAX_DEPTH + " levels"
+                    + " deep; a plan nests a few levels (arms, schedule, warmup), so a bracket may be unclosed here");
+        }
         if (p instanceof YAMLParser y && y.isCurrentAlias()) {
-            throw new PlanException(file, line, column, render(path),
+            throw BadInputException.at(file, line, column, render(path),
                     "YAML aliases (*name) are not supported in a plan; write the value out");
         }
         switch (t) {
@@ -81,7 +88,7 @@ final class YamlReader {
                     path.addLast(path.isEmpty() ? key : "." + key);
                     if (map.entries.containsKey(key)) {
                         YamlNode.Entry first = map.entries.get(key);
-                        throw new PlanException(file, kl.getLineNr(), kl.getColumnNr(), render(path),
+                        throw BadInputException.at(file, kl.getLineNr(), kl.getColumnNr(), render(path),
                                 "duplicate key '" + key + "' (first at line " + first.keyLine
                                         + "); remove one of them: each key may appear once in a map");
                     }
@@ -123,10 +130,17 @@ final class YamlReader {
                         t == JsonToken.VALUE_TRUE);
             case VALUE_NULL:
                 return new YamlNode.Scalar(line, column, YamlNode.ScalarType.NULL, p.getText(), null);
+            case VALUE_EMBEDDED_OBJECT:
+                throw BadInputException.at(file, line, column, render(path), "binary data (!!binary) is not accepted in"
+                        + " a plan; write the value as text or a number");
             default:
-                throw new PlanException(file, line, column, render(path), "unexpected YAML content " + t);
+                throw BadInputException.at(file, line, column, render(path), "this YAML is not accepted in a plan;"
+                        + " write plain 'key: value' lines, lists and maps");
         }
     }
+
+    /** Deeper than any plan nests (arms[0].schedule.points[0] is 4 levels); far below the parser's own limit. */
+    private static final int MAX_DEPTH = 64;
 
     private static String render(Deque<String> path) {
         return String.join("", path);
@@ -153,7 +167,7 @@ final class YamlReader {
         return found(problem) + "; a plan is a map of 'key: value' lines, nested by indenting with spaces";
     }
 
-    private PlanException syntaxError(JsonProcessingException e, Deque<String> path) {
+    private BadInputException syntaxError(JsonProcessingException e, Deque<String> path) {
         Throwable c = e;
         while (c != null && !(c instanceof MarkedYAMLException)) {
             c = c.getCause();
@@ -166,20 +180,36 @@ final class YamlReader {
             if (context != null && contextText != null && contextText.contains("flow")) {
                 // An unclosed '[' or '{' swallows what follows; the bracket is the place to fix.
                 boolean sequence = contextText.contains("sequence");
-                return new PlanException(file, context.getLine() + 1, context.getColumn() + 1, render(path),
+                return BadInputException.at(file, context.getLine() + 1, context.getColumn() + 1, render(path),
                         "YAML syntax: '" + (sequence ? "[" : "{") + "' is not closed (" + found(what)
                                 + " at line " + (problem.getLine() + 1) + ", column " + (problem.getColumn() + 1)
                                 + "); close it with '" + (sequence ? "]" : "}") + "', and quote values that "
                                 + "contain ':', '?', ',', '[' or '{'");
             }
             if (problem != null) {
-                return new PlanException(file, problem.getLine() + 1, problem.getColumn() + 1, render(path),
+                return BadInputException.at(file, problem.getLine() + 1, problem.getColumn() + 1, render(path),
                         "YAML syntax: " + explain(what));
             }
         }
         JsonLocation l = e.getLocation();
-        String msg = e.getOriginalMessage();
-        return new PlanException(file, l == null ? 0 : l.getLineNr(), l == null ? 0 : l.getColumnNr(),
-                render(path), "YAML syntax: " + msg);
+        return BadInputException.at(file, l == null ? 0 : l.getLineNr(), l == null ? 0 : l.getColumnNr(),
+                render(path), "YAML syntax: " + plain(String.valueOf(e.getOriginalMessage())));
+    }
+
+    /** The parser's own words name its internals (event classes, feature flags): say what is wrong in ours. */
+    private static String plain(String message) {
+        if (message.startsWith("Expected a field name")) {
+            return "a key must be plain text, not a list or a map; write 'key: value'";
+        }
+        if (message.startsWith("Malformed numeric value")) {
+            int q = message.indexOf('\'');
+            int r = q < 0 ? -1 : message.indexOf('\'', q + 1);
+            return (r > q ? shown(message.substring(q + 1, r)) + " is" : "this is") + " not a finite number; write a"
+                    + " number such as 0.1 (a plan holds no NaN or infinity)";
+        }
+        if (message.contains("nesting depth")) {
+            return "nested too deep; a plan nests a few levels (arms, schedule, warmup), so a bracket may be unclosed";
+        }
+        return "this is not valid YAML here; a plan is a map of 'key: value' lines, nested by indenting with spaces";
     }
 }

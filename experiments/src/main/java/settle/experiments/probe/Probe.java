@@ -15,6 +15,7 @@ import settle.engine.train.ReplicateSeeds;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
+import settle.input.BadInputException;
 
 /**
  * {@code settle probe}'s computation: a learning-rate range test ({@link RangeTest}) on a plan's training
@@ -86,19 +87,19 @@ public final class Probe {
     public static Result run(ParsedPlan parsed, int seeds, double from, double to, int updates) {
         Plan plan = parsed.plan();
         if (seeds < 1 || seeds > 1000) {
-            throw new IllegalArgumentException("--seeds must be in 1..1000, got " + seeds);
+            throw BadInputException.of("--seeds", "--seeds must be in 1..1000, got " + seeds);
         }
         if (updates < 10 || updates > 1_000_000) {
-            throw new IllegalArgumentException("--updates must be in 10..1000000, got " + updates);
+            throw BadInputException.of("--updates", "--updates must be in 10..1000000, got " + updates);
         }
         if (!(from > 0) || !(to > from) || to == Double.POSITIVE_INFINITY) {
-            throw new IllegalArgumentException("the sweep needs 0 < --from < --to < ∞, got " + from + " and " + to);
+            throw BadInputException.of("--from", "the sweep needs 0 < --from < --to < ∞, got " + from + " and " + to);
         }
         PlanData data = PlanData.load(parsed);
         Model model;
         try {
             model = plan.model().build(data.train().features(), data.train().classes());
-        } catch (IllegalArgumentException e) {
+        } catch (BadInputException e) {
             throw parsed.error("model", e.getMessage());
         }
         Initialisation init = plan.model().init();

@@ -3,13 +3,15 @@ package settle.experiments.run;
 import java.io.Serializable;
 
 /**
- * What one finished replicate hands back to the driver: its replicate file, byte for byte, and the little
- * the progress display needs.
+ * What one finished replicate hands back to the driver: its replicate file, byte for byte, and what the driver keeps
+ * of it in memory (its status, its rows of {@code epochs.csv}) so that it never reads the file back.
  *
  * @param key which replicate
  * @param file the replicate JSON exactly as it is written to {@code arms/<arm>/<replicate>.json}
  * @param diverged whether the replicate diverged
  * @param updates the updates it ran
+ * @param epochRows its rows of {@code epochs.csv}
  */
-public record ReplicateOutcome(ReplicateKey key, byte[] file, boolean diverged, long updates) implements Serializable {
+public record ReplicateOutcome(ReplicateKey key, byte[] file, boolean diverged, long updates, String epochRows)
+        implements Serializable {
 }

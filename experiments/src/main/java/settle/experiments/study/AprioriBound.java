@@ -1,7 +1,5 @@
 package settle.experiments.study;
 
-import com.fasterxml.jackson.core.JsonGenerator;
-import java.io.IOException;
 import java.util.List;
 import settle.datasets.Dataset;
 import settle.engine.model.Initialisation;
@@ -9,6 +7,7 @@ import settle.engine.model.Model;
 import settle.engine.theory.LastIterateBound;
 import settle.engine.train.ReplicateSeeds;
 import settle.experiments.plan.Plan;
+import settle.reports.format.Bound;
 
 /**
  * Each arm's value of the convex last-iterate bound ({@link LastIterateBound}: Defazio et al. 2023, arXiv:2310.07831,
@@ -23,8 +22,8 @@ import settle.experiments.plan.Plan;
  */
 public record AprioriBound(double d, double g, double[] values, String skipped) {
 
-    /** Key of the block in {@code reference.json}. */
-    public static final String KEY = "last_iterate_bound";
+    /** Which rates the bound is computed for, as written beside it. */
+    public static final String RATES = "planned (plateau: without cuts; nudged arms: before nudges)";
 
     /** Where the bound comes from, as written beside it. */
     public static final String SOURCE = "Defazio, Cutkosky, Mehta, Mishchenko 2023, arXiv:2310.07831, Theorem 10;"
@@ -70,27 +69,11 @@ public record AprioriBound(double d, double g, double[] values, String skipped) 
         return new AprioriBound(d, g, values, "");
     }
 
-    /** Writes the block {@code "last_iterate_bound": {...}} (README, study directory, {@code reference.json}). */
-    void write(JsonGenerator g, List<String> armNames) throws IOException {
-        g.writeObjectFieldStart(KEY);
-        g.writeStringField("source", SOURCE);
-        g.writeStringField("rates", "planned (plateau: without cuts; nudged arms: before nudges)");
+    /** @return the bound as {@code reference.json} records it, with the arms' names in plan order */
+    public Bound record(List<String> armNames) {
         if (!computed()) {
-            g.writeStringField("skipped", skipped);
-            g.writeEndObject();
-            return;
+            return new Bound(SOURCE, RATES, Double.NaN, Double.NaN, List.of(), new double[0], skipped);
         }
-        Json.number(g, "d", d);
-        Json.number(g, "g", this.g);
-        g.writeArrayFieldStart("arms");
-        for (int i = 0; i < values.length; i++) {
-            g.writeStartObject();
-            g.writeNumberField("index", i + 1);
-            g.writeStringField("name", armNames.get(i));
-            Json.number(g, "value", values[i]);
-            g.writeEndObject();
-        }
-        g.writeEndArray();
-        g.writeEndObject();
+        return new Bound(SOURCE, RATES, d, g, armNames, values, "");
     }
 }

@@ -5,6 +5,7 @@ import java.util.ServiceLoader;
 import settle.experiments.plan.ArmPlan;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.run.ReplicateExecutor;
+import settle.input.BadInputException;
 
 /**
  * Makes an executor that runs a study's replicates on a cluster engine ({@code settle run --cluster MASTER}).
@@ -31,13 +32,13 @@ public interface ClusterExecutorFactory {
 
     /**
      * @return the factory of the cluster build on the class path
-     * @throws IllegalArgumentException when there is none, with a one-line message saying how to get it
+     * @throws BadInputException when there is none, with a one-line message saying how to get it
      */
     static ClusterExecutorFactory find() {
         Iterator<ClusterExecutorFactory> found =
                 ServiceLoader.load(ClusterExecutorFactory.class, ClusterExecutorFactory.class.getClassLoader()).iterator();
         if (!found.hasNext()) {
-            throw new IllegalArgumentException("--cluster needs settle's cluster build, which is not on the class path: "
+            throw BadInputException.of("--cluster", "--cluster needs settle's cluster build, which is not on the class path: "
                     + HOW_TO_GET_IT);
         }
         return found.next();
@@ -46,7 +47,7 @@ public interface ClusterExecutorFactory {
     /**
      * A cluster run takes no nudges (DESIGN.md, study directory): it refuses a plan with manual arms.
      *
-     * @throws settle.experiments.plan.PlanException positioned at the first manual arm
+     * @throws settle.input.BadInputException positioned at the first manual arm
      */
     static void refuseManualArms(ParsedPlan parsed) {
         for (int i = 0; i < parsed.plan().arms().size(); i++) {

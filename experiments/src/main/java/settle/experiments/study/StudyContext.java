@@ -29,6 +29,7 @@ import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.TrainingPlan;
 import settle.experiments.run.ReplicateKey;
+import settle.input.BadInputException;
 
 /**
  * Everything needed to train any replicate of a plan: the data loaded and split, the model, the reference
@@ -46,10 +47,13 @@ public final class StudyContext {
     private final String theorySkipped;
     private final List<Trainer> trainers;
     private final List<NudgeLog> nudgeLogs;
+    private final List<double[]> plannedRates;
 
     private StudyContext(ParsedPlan parsed, PlanData data, Model model, Minimum minimum, Curvature curvature,
-            NoiseBallTheory theory, String theorySkipped, List<Trainer> trainers, List<NudgeLog> nudgeLogs) {
+            NoiseBallTheory theory, String theorySkipped, List<Trainer> trainers, List<NudgeLog> nudgeLogs,
+            List<double[]> plannedRates) {
         this.nudgeLogs = nudgeLogs;
+        this.plannedRates = plannedRates;
         this.parsed = parsed;
         this.data = data;
         this.model = model;
@@ -63,8 +67,9 @@ public final class StudyContext {
     /**
      * Loads the plan's data, builds the model, finds θ* for a convex model and prepares each arm's trainer.
      *
-     * @throws settle.experiments.plan.PlanException for bad data or settings, positioned in the plan
-     * @throws NoMinimiserException when a convex model's objective has no minimiser
+     * @throws BadInputException for bad data, settings or schedules (a rate that is not finite or negative anywhere
+     *     in the planned run included), positioned in the plan
+     * @throws NoMinimiserException when a convex model's objective has no minimiser (positioned at model.l2)
      */
     public static StudyContext build(ParsedPlan parsed) {
         return build(parsed, PlanData.load(parsed));
@@ -82,10 +87,15 @@ public final class StudyContext {
         Model model;
         try {
             model = plan.model().build(data.train().features(), data.train().classes());
-        } catch (IllegalArgumentException e) {
+        } catch (BadInputException e) {
             throw parsed.error("model", e.getMessage());
         }
-        Minimum minimum = model.convex() ? new Minimiser().minimise(model, data.train()) : null;
+        Minimum minimum;
+        try {
+            minimum = model.convex() ? new Minimiser().minimise(model, data.train()) : null;
+        } catch (NoMinimiserException e) {
+            throw new NoMinimiserException(parsed.error("model.l2", e.getMessage()).getMessage());
+        }
         ReferencePoint reference = minimum == null ? null : new ReferencePoint(minimum.theta(), minimum.objective());
         Curvature curvature = null;
         NoiseBallTheory theory = null;
@@ -111,7 +121,7 @@ public final class StudyContext {
             TrainingSettings settings;
             try {
                 settings = t.settings(arm.average() == ArmPlan.Averaging.TAIL);
-            } catch (IllegalArgumentException e) {
+            } catch (BadInputException e) {
                 throw parsed.error("training", e.getMessage());
             }
             Schedule schedule = arm.schedule().schedule();
@@ -132,12 +142,30 @@ public final class StudyContext {
             }
             try {
                 trainers.add(b.build());
-            } catch (IllegalArgumentException e) {
+            } catch (BadInputException e) {
                 throw parsed.error("arms[" + i + "]", e.getMessage());
             }
         }
+        RunShape shape = trainers.get(0).shape();
+        List<double[]> rates = new ArrayList<>();
+        for (int i = 0; i < plan.arms().size(); i++) {
+            try {
+                rates.add(plan.arms().get(i).schedule().schedule().plannedRates(shape));
+            } catch (BadInputException e) {
+                String key = e.key().isEmpty() ? "" : "." + e.key();
+                throw parsed.error(parsed.armPath(i) + ".schedule" + key, e.getMessage());
+            }
+        }
         return new StudyContext(parsed, data, model, minimum, curvature, theory, theorySkipped, trainers,
-                java.util.Collections.unmodifiableList(logs));
+                java.util.Collections.unmodifiableList(logs), List.copyOf(rates));
+    }
+
+    /**
+     * @return each arm's rate at every update of the planned run, in plan order (plateau arms: the no-cut envelope;
+     *     nudged arms: before their nudges); every one finite and ≥ 0, or the plan was refused at the arm's schedule
+     */
+    public List<double[]> plannedRates() {
+        return plannedRates;
     }
 
     /** @return the plan with its key positions */

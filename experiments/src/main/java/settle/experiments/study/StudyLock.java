@@ -11,6 +11,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
+import settle.reports.format.StudyFormat;
 
 /**
  * The {@code .lock} of a study directory, held by a live run. It is an operating-system file lock, which
@@ -20,7 +21,7 @@ import java.nio.file.StandardOpenOption;
 public final class StudyLock implements AutoCloseable {
 
     /** File name of the lock inside a study directory. */
-    public static final String FILE = ".lock";
+    public static final String FILE = StudyFormat.LOCK;
 
     private final FileChannel channel;
     private final FileLock lock;
@@ -95,8 +96,12 @@ public final class StudyLock implements AutoCloseable {
         }
     }
 
+    /** Releases the lock; closing it again does nothing. */
     @Override
     public void close() throws IOException {
+        if (!channel.isOpen()) {
+            return;
+        }
         try {
             // an empty lock file tells readers that no run holds it any more
             channel.truncate(0);

@@ -1,6 +1,5 @@
 package settle.experiments.study;
 
-import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
@@ -10,37 +9,46 @@ import java.nio.file.Path;
 import java.security.MessageDigest;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
-import java.util.Optional;
-import java.util.HashMap;
 import java.util.Map;
+import java.util.Optional;
 import java.util.concurrent.atomic.AtomicInteger;
 import settle.datasets.Standardiser;
+import settle.engine.minimum.Curvature;
+import settle.engine.minimum.Minimum;
 import settle.engine.schedule.NudgeLog;
-import settle.experiments.manual.AppliedNudge;
+import settle.engine.train.ReplicateSeeds;
 import settle.experiments.manual.LockstepRunner;
 import settle.experiments.manual.ManualArms;
 import settle.experiments.manual.NudgeQueue;
 import settle.experiments.manual.NudgeRequest;
-import settle.experiments.manual.NudgesCsv;
 import settle.experiments.manual.ProgressBoard;
-import settle.experiments.run.LocalExecutor;
-import settle.engine.minimum.Curvature;
-import settle.engine.minimum.Minimum;
-import settle.engine.train.ReplicateResult;
-import settle.engine.train.ReplicateSeeds;
-import settle.experiments.plan.ArmPlan;
-import settle.experiments.plan.GridExpansion;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanWriter;
+import settle.experiments.run.LocalExecutor;
 import settle.experiments.run.Progress;
 import settle.experiments.run.ReplicateExecutor;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.run.ReplicateWork;
+import settle.input.BadInputException;
 import settle.reports.Report;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.Bound;
+import settle.reports.format.EpochsCsv;
+import settle.reports.format.Grid;
+import settle.reports.format.Manifest;
+import settle.reports.format.ManifestJson;
+import settle.reports.format.NudgeRecord;
+import settle.reports.format.NudgesCsv;
+import settle.reports.format.Reference;
+import settle.reports.format.ReferenceJson;
+import settle.reports.format.Replicate;
+import settle.reports.format.ReplicateJson;
+import settle.reports.format.StudyFormat;
 
 /**
  * Runs a plan into its study directory: takes the lock, refuses a plan or data that changed under an existing
@@ -73,23 +81,7 @@ public final class StudyRunner {
         }
     }
 
-    /** The plan or its data changed under an existing study directory. */
-    public static final class ChangedPlanException extends IllegalArgumentException {
-        ChangedPlanException(String message) {
-            super(message);
-        }
-    }
-
-    /**
-     * An existing study directory (or a replicate file in it) written in an older format: its numbers mean something
-     * else, so this run neither resumes it nor writes beside it.
-     */
-    public static final class OlderFormatException extends IllegalArgumentException {
-        OlderFormatException(String message) {
-            super(message);
-        }
-    }
-
+    /** Reads progress.json, the live state an earlier run of manual arms left. */
     private static final ObjectMapper MAPPER = new ObjectMapper();
 
     private final StudyContext context;
@@ -97,29 +89,30 @@ public final class StudyRunner {
     private final ReplicateExecutor executor;
     private final List<String> commandLine;
     private final PrintStream err;
+    private final java.io.PrintWriter notes;
     private final Progress.Mode progressMode;
     private final long paceMillis;
     /** The grid structure the manifest records: the plan's, or the one an earlier run of this study recorded. */
-    private List<GridExpansion> grids = List.of();
+    private List<Grid> grids = List.of();
+    /** Each replicate's status while the run goes on (null: no file yet), in {@link StudyContext#keys()} order. */
+    private final String[] status;
+    /** Each replicate's rows of epochs.csv (null: no file yet), in the same order. */
+    private final String[] epochRows;
 
     /**
      * @param context the plan, its data and trainers
      * @param directory the study directory (created when missing)
      * @param executor where replicates run
      * @param commandLine the command as typed, for the manifest
-     * @param err where progress and notes go
-     */
-    public StudyRunner(StudyContext context, Path directory, ReplicateExecutor executor, List<String> commandLine,
-            PrintStream err, Progress.Mode progressMode) {
-        this(context, directory, executor, commandLine, err, progressMode, 0);
-    }
-
-    /**
+     * @param err where the progress display and the note on an interrupt go
+     * @param notes where the lines for the user go (a replicate file set aside, an unreadable progress file)
+     * @param progressMode how progress is shown
      * @param paceMillis manual arms: the least time between two epoch ends, so that a person can follow and
      *     nudge a short study (0: as fast as they train); results do not depend on it
      */
     public StudyRunner(StudyContext context, Path directory, ReplicateExecutor executor, List<String> commandLine,
-            PrintStream err, Progress.Mode progressMode, long paceMillis) {
+            PrintStream err, java.io.PrintWriter notes, Progress.Mode progressMode, long paceMillis) {
+        this.notes = notes;
         if (paceMillis < 0) {
             throw new IllegalArgumentException("--pace must be at least 0 milliseconds: " + paceMillis);
         }
@@ -130,13 +123,17 @@ public final class StudyRunner {
         this.commandLine = List.copyOf(commandLine);
         this.err = err;
         this.progressMode = progressMode;
+        int count = context.keys().size();
+        this.status = new String[count];
+        this.epochRows = new String[count];
     }
 
     /**
      * Runs the study.
      *
      * @param fresh discard an existing study's results first
-     * @throws ChangedPlanException when the plan or data differ from the existing study's and not fresh
+     * @throws BadInputException when the plan or data differ from the existing study's and not fresh, or the
+     *     directory is in an older format; nothing is then written, and a directory this run created is removed
      * @throws StudyLock.LockHeldException when another live run holds the directory
      */
     public Outcome run(boolean fresh) throws Exception {
@@ -144,46 +141,53 @@ public final class StudyRunner {
         String planHash = PlanWriter.sha256(plan);
         String dataHash = Hashes.of(context.data().all());
         String splitHash = splitHash(context.data());
+        if (Files.exists(directory) && !Files.isDirectory(directory)) {
+            throw BadInputException.inFile(directory.toString(), "--out", "a file, not a directory; expected the study"
+                    + " directory (it is made if missing)");
+        }
+        boolean existed = Files.exists(directory);
         try (StudyLock lock = StudyLock.acquire(directory)) {
-            Path manifestFile = directory.resolve("manifest.json");
-            if (!fresh) {
-                refuseOlderFormat(manifestFile);
-            }
-            grids = context.parsed().grids();
-            if (Files.exists(manifestFile) && !fresh) {
-                refuseChanged(manifestFile, planHash, dataHash, splitHash);
-                if (grids.isEmpty()) {
-                    grids = recordedGrids(manifestFile);
+            try {
+                prepare(fresh, planHash, dataHash, splitHash);
+            } catch (BadInputException e) {
+                lock.close();
+                if (!existed) {
+                    removeCreated();
                 }
-            }
-            if (fresh) {
-                clear();
+                throw e;
             }
             List<Integer> manualArms = ManualArms.indices(plan);
-            if (!manualArms.isEmpty() && !(executor instanceof LocalExecutor)) {
-                ManualArms.refuseUnlessLocal(plan, executor.describe());
-            }
             String started = Instant.now().toString();
-            PlanWriter.write(plan, directory.resolve("plan.yaml"));
+            PlanWriter.write(plan, directory.resolve(StudyFormat.PLAN));
             if (context.minimum() != null) {
-                AtomicFiles.write(directory.resolve("reference.json"), referenceJson());
+                AtomicFile.write(directory.resolve(StudyFormat.REFERENCE), ReferenceJson.write(reference()));
             }
             Map<Integer, Integer> resume = resumeEpochs(manualArms);
-            List<AppliedNudge> logged = replayLoggedNudges();
+            List<NudgeRecord> logged = replayLoggedNudges();
             List<ReplicateKey> all = context.keys();
             List<ReplicateKey> missing = new ArrayList<>();
             List<ReplicateKey> manualMissing = new ArrayList<>();
             ProgressBoard board = new ProgressBoard(directory, plan);
             int[] present = new int[plan.arms().size() + 1];
             int[] presentDiverged = new int[plan.arms().size() + 1];
-            for (ReplicateKey key : all) {
-                Path file = directory.resolve(ReplicateFile.relativePath(key));
-                AtomicFiles.removeLeftovers(file.getParent());
-                if (!Files.exists(file)) {
+            AtomicFile.removeLeftovers(directory);
+            for (int a = 1; a <= plan.arms().size(); a++) {
+                AtomicFile.removeLeftovers(StudyFormat.armDirectory(directory, a));
+            }
+            // every file an earlier run left is read and checked once; files are independent, so in parallel, each
+            // into its own slot; a file that fails is then set aside in key order, so the notes come in a fixed order
+            String[] invalid = new String[all.size()];
+            java.util.stream.IntStream.range(0, all.size()).parallel().forEach(i -> invalid[i] = check(all.get(i)));
+            for (int i = 0; i < all.size(); i++) {
+                ReplicateKey key = all.get(i);
+                if (invalid[i] != null) {
+                    setAside(key, invalid[i]);
+                }
+                if (status[i] == null) {
                     (plan.arms().get(key.arm() - 1).manual() ? manualMissing : missing).add(key);
                 } else {
                     present[key.arm()]++;
-                    if ("diverged".equals(MAPPER.readTree(file.toFile()).path("status").asText())) {
+                    if (status[i].equals(Replicate.DIVERGED)) {
                         presentDiverged[key.arm()]++;
                     }
                 }
@@ -211,10 +215,16 @@ public final class StudyRunner {
             }, "settle-interrupt-note");
             Runtime.getRuntime().addShutdownHook(onInterrupt);
             ReplicateExecutor.Sink sink = outcome -> {
-                AtomicFiles.write(directory.resolve(ReplicateFile.relativePath(outcome.key())), outcome.file());
+                ReplicateKey key = outcome.key();
+                AtomicFile.write(StudyFormat.replicateFile(directory, key.arm(), key.replicate()), outcome.file());
+                int i = index(key);
+                synchronized (status) {
+                    status[i] = outcome.diverged() ? Replicate.DIVERGED : Replicate.FINISHED;
+                    epochRows[i] = outcome.epochRows();
+                }
                 written.incrementAndGet();
                 progress.finished(outcome);
-                board.replicateWritten(outcome.key().arm(), outcome.diverged());
+                board.replicateWritten(key.arm(), outcome.diverged());
                 board.write();
             };
             try {
@@ -233,12 +243,114 @@ public final class StudyRunner {
                 board.write();
             }
             missing.addAll(manualMissing);
-            EpochsTable.write(directory, plan, all);
+            List<String> rows = new ArrayList<>();
+            for (String r : epochRows) {
+                if (r != null) {
+                    rows.add(r);
+                }
+            }
+            EpochsCsv.write(directory, rows);
             Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash);
             ReportWritten report = writeReport();
             return new Outcome(directory, outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
                     missing.size(), report.problem(), report.outcome());
         }
+    }
+
+    /**
+     * Everything that may refuse the run, before anything is written: an older or unreadable manifest, a plan or data
+     * that changed under the study (unless fresh), manual arms on a cluster; then, when fresh, discards the results.
+     */
+    private void prepare(boolean fresh, String planHash, String dataHash, String splitHash) throws IOException {
+        Path manifestFile = directory.resolve(StudyFormat.MANIFEST);
+        grids = context.parsed().grids();
+        if (Files.exists(manifestFile) && !fresh) {
+            ManifestJson.Earlier earlier = ManifestJson.earlier(Files.readAllBytes(manifestFile),
+                    manifestFile.toString(), rerun());
+            refuseChanged(earlier, planHash, dataHash, splitHash);
+            if (grids.isEmpty() && fitsThisPlan(earlier.grids())) {
+                grids = earlier.grids();
+            }
+        }
+        List<Integer> manualArms = ManualArms.indices(context.plan());
+        if (!manualArms.isEmpty() && !(executor instanceof LocalExecutor)) {
+            ManualArms.refuseUnlessLocal(context.plan(), executor.describe());
+        }
+        if (fresh) {
+            clear();
+        }
+    }
+
+    /** @return true when every arm a recorded grid names is an arm of this plan */
+    private boolean fitsThisPlan(List<Grid> recorded) {
+        for (Grid g : recorded) {
+            for (Grid.Member m : g.members()) {
+                if (m.arm() >= context.plan().arms().size()) {
+                    return false;
+                }
+            }
+        }
+        return true;
+    }
+
+    /** Removes what acquiring the lock created in a directory that did not exist before this run. */
+    private void removeCreated() throws IOException {
+        Files.deleteIfExists(directory.resolve(StudyFormat.LOCK));
+        try (var entries = Files.list(directory)) {
+            if (entries.findAny().isPresent()) {
+                return;
+            }
+        }
+        Files.deleteIfExists(directory);
+    }
+
+    /** @return the position of {@code key} in {@link StudyContext#keys()} */
+    private int index(ReplicateKey key) {
+        return (key.arm() - 1) * context.plan().replicates() + key.replicate() - 1;
+    }
+
+    /**
+     * Checks the replicate file an earlier run wrote for {@code key}: kept when it is this replicate's file, in this
+     * format, every field checked (its status and epochs.csv rows are then held in memory); one that is unreadable or
+     * invalid (cut short, NUL bytes, empty, another replicate's, a field missing, of another type or out of range,
+     * another format) is to be set aside and trained again.
+     *
+     * @return null when the file is kept or there is none; else one line saying what is wrong with it
+     */
+    private String check(ReplicateKey key) {
+        Path file = StudyFormat.replicateFile(directory, key.arm(), key.replicate());
+        if (!Files.exists(file)) {
+            return null;
+        }
+        Plan plan = context.plan();
+        ReplicateJson.Expected expected = new ReplicateJson.Expected(key.arm(), plan.arms().get(key.arm() - 1).name(),
+                key.replicate(), plan.seed(), seeds(key.replicate()), context.model().parameterCount(),
+                context.model().classes(), context.data().test().rows(), context.shape().updatesPerEpoch(),
+                context.shape().totalUpdates(), context.minimum() != null);
+        try {
+            Replicate r = ReplicateJson.read(Files.readAllBytes(file), file.toString(), expected);
+            int i = index(key);
+            status[i] = r.status();
+            epochRows[i] = EpochsCsv.rows(r.arm(), r.armName(), r.replicate(), r.epochs());
+            return null;
+        } catch (BadInputException e) {
+            return e.getMessage();
+        } catch (IOException e) {
+            return file + ": cannot be read (" + e.getMessage() + ")";
+        }
+    }
+
+    /** Moves the invalid replicate file of {@code key} aside (never deleting it) and says so on stderr. */
+    private void setAside(ReplicateKey key, String why) throws IOException {
+        Path aside = StudyFormat.quarantine(StudyFormat.replicateFile(directory, key.arm(), key.replicate()));
+        notes.println("settle run: " + why + "; moved aside to " + aside.getFileName() + " and trained again");
+        notes.flush();
+    }
+
+    /** @return replicate {@code k}'s derived seeds as its file records them */
+    private Replicate.Seeds seeds(int k) {
+        ReplicateSeeds s = context.seeds(k);
+        return new Replicate.Seeds(s.algorithm(), s.rootSeed(), s.initialisationSeed(), s.samplingSeed());
     }
 
     /**
@@ -257,7 +369,7 @@ public final class StudyRunner {
                         + String.join("; ", written.failedSections()) + " (a fault in settle: each says so in its place)");
             }
             return new ReportWritten(written, "");
-        } catch (IOException | RuntimeException e) {
+        } catch (IOException e) {
             String why = e.getMessage() == null ? e.toString() : e.getMessage();
             return new ReportWritten(null, "the report was not written: " + why.replace('\n', ' ') + "; " + rebuild);
         }
@@ -265,36 +377,6 @@ public final class StudyRunner {
 
     /** The report a run wrote, or null, and one line on what went wrong ("" when nothing did). */
     private record ReportWritten(Report.Outcome outcome, String problem) {
-    }
-
-    /**
-     * Refuses to resume a study directory whose manifest or replicate files are in an older format than this settle
-     * writes, before anything is written into it.
-     */
-    private void refuseOlderFormat(Path manifestFile) throws IOException {
-        List<Path> files = new ArrayList<>();
-        if (Files.isRegularFile(manifestFile)) {
-            files.add(manifestFile);
-        }
-        Path arms = directory.resolve("arms");
-        if (Files.isDirectory(arms)) {
-            try (var walk = Files.walk(arms, 2)) {
-                walk.filter(f -> f.getFileName().toString().endsWith(".json") && Files.isRegularFile(f)).sorted()
-                        .forEach(files::add);
-            }
-        }
-        for (Path file : files) {
-            JsonNode node;
-            try {
-                node = MAPPER.readTree(file.toFile());
-            } catch (IOException e) {
-                continue; // an unreadable manifest is refused as such below; a broken replicate file is retrained
-            }
-            int format = node.path("format").asInt(ReplicateFile.FORMAT);
-            if (format < ReplicateFile.FORMAT) {
-                throw new OlderFormatException(settle.reports.study.StudyReader.olderFormat(file, format, rerun()));
-            }
-        }
     }
 
     /** @return the command as typed with {@code --fresh} added: what rewrites the study in this format */
@@ -326,37 +408,29 @@ public final class StudyRunner {
 
     /** @return the finished replicate {@code key} of {@code context}, as its file's bytes */
     public static ReplicateOutcome outcome(StudyContext context, ReplicateKey key) {
-        ReplicateResult result = context.train(key);
-        return new ReplicateOutcome(key, ReplicateFile.of(context, key, result), result.diverged(),
-                result.rates().length);
+        return ReplicateFile.outcome(context, key, context.train(key));
     }
 
-    private void refuseChanged(Path manifestFile, String planHash, String dataHash, String splitHash) throws IOException {
-        JsonNode old;
-        try {
-            old = MAPPER.readTree(manifestFile.toFile());
-        } catch (IOException e) {
-            throw new ChangedPlanException(manifestFile + ": unreadable manifest of an existing study ("
-                    + e.getMessage() + "); run with --fresh to start the study again");
-        }
+    private void refuseChanged(ManifestJson.Earlier old, String planHash, String dataHash, String splitHash) {
         List<String> changed = new ArrayList<>();
-        if (!planHash.equals(old.path("plan_sha256").asText())) {
+        if (!planHash.equals(old.planSha256())) {
             changed.add("the plan");
         }
-        if (!dataHash.equals(old.path("data_sha256").asText())) {
+        if (!dataHash.equals(old.dataSha256())) {
             changed.add("the data");
         }
-        if (!splitHash.equals(old.path("split_sha256").asText())) {
+        if (!splitHash.equals(old.splitSha256())) {
             changed.add("the split");
         }
         if (!changed.isEmpty()) {
-            throw new ChangedPlanException(directory + ": " + String.join(" and ", changed)
-                    + " changed since this study was run; use --fresh to discard its results, or --out DIR for a new study");
+            throw BadInputException.inFile(directory.toString(), "", String.join(" and ", changed)
+                    + " changed since this study was run; use --fresh to discard its results, or --out DIR for a new"
+                    + " study");
         }
     }
 
     private void clear() throws IOException {
-        Path arms = directory.resolve("arms");
+        Path arms = directory.resolve(StudyFormat.ARMS);
         if (Files.exists(arms)) {
             try (var walk = Files.walk(arms)) {
                 List<Path> paths = walk.sorted((a, b) -> b.getNameCount() - a.getNameCount()).toList();
@@ -365,8 +439,9 @@ public final class StudyRunner {
                 }
             }
         }
-        for (String name : List.of("manifest.json", "reference.json", "epochs.csv", "summary.csv", "report.html",
-                "plan.yaml", ProgressBoard.FILE, NudgesCsv.FILE, ManualArms.REPLAY_FILE)) {
+        for (String name : List.of(StudyFormat.MANIFEST, StudyFormat.REFERENCE, StudyFormat.EPOCHS,
+                StudyFormat.SUMMARY, StudyFormat.REPORT, StudyFormat.PLAN, StudyFormat.PROGRESS, StudyFormat.NUDGES,
+                StudyFormat.REPLAY)) {
             Files.deleteIfExists(directory.resolve(name));
         }
         NudgeQueue.clear(directory);
@@ -385,20 +460,21 @@ public final class StudyRunner {
      * Puts the nudges recorded in {@code nudges.csv} (by the run this one resumes) back into the manual arms'
      * logs, so the replicates still to train replay them.
      */
-    private List<AppliedNudge> replayLoggedNudges() throws IOException {
-        List<AppliedNudge> logged = NudgesCsv.read(directory);
+    private List<NudgeRecord> replayLoggedNudges() throws IOException {
+        List<NudgeRecord> logged = NudgesCsv.read(directory);
         Plan plan = context.plan();
         for (int a = 1; a <= plan.arms().size(); a++) {
             if (context.nudgeLog(a) != null) {
                 context.nudgeLog(a).replaceAll(plan.arms().get(a - 1).nudges());
             }
         }
-        for (AppliedNudge n : logged) {
+        for (NudgeRecord n : logged) {
             int a = n.armIndex();
             if (a > plan.arms().size() || !plan.arms().get(a - 1).name().equals(n.arm())
                     || !plan.arms().get(a - 1).manual()) {
-                throw new ChangedPlanException(directory.resolve(NudgesCsv.FILE) + ": a nudge of arm " + a + " '"
-                        + n.arm() + "', which is not a manual arm of this plan; use --fresh to discard the study");
+                throw BadInputException.inFile(directory.resolve(StudyFormat.NUDGES).toString(), "", "a nudge of arm "
+                        + a + " " + BadInputException.shown(n.arm()) + ", which is not a manual arm of this plan; use"
+                        + " --fresh to discard the study");
             }
             context.nudgeLog(a).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
         }
@@ -419,13 +495,13 @@ public final class StudyRunner {
             JsonNode old = MAPPER.readTree(file.toFile());
             for (JsonNode arm : old.path("arms")) {
                 int index = arm.path("index").asInt();
-                if (manualArms.contains(index) && arm.path("name").asText().equals(
+                if (manualArms.contains(index) && index <= context.plan().arms().size() && arm.path("name").asText().equals(
                         context.plan().arms().get(index - 1).name())) {
                     out.put(index, arm.path("epoch").asInt(0) + 1);
                 }
             }
-        } catch (IOException | RuntimeException e) {
-            err.println("settle: note: " + file + " is unreadable (" + e.getMessage() + "); waiting nudges apply"
+        } catch (IOException e) {
+            notes.println("settle: note: " + file + " is unreadable (" + e.getMessage() + "); waiting nudges apply"
                     + " from the first epoch end");
         }
         return out;
@@ -456,7 +532,8 @@ public final class StudyRunner {
         return Hashes.hex(d);
     }
 
-    private byte[] referenceJson() {
+    /** @return θ*, its curvature and the a-priori bound, as reference.json records them */
+    private Reference reference() {
         Minimum m = context.minimum();
         Optional<String> skip = Curvature.skipReason(context.model());
         Curvature c = context.curvature() != null ? context.curvature()
@@ -468,236 +545,64 @@ public final class StudyRunner {
             rates.add(arm.schedule().schedule().plannedRates(context.shape()));
             names.add(arm.name());
         }
-        AprioriBound bound = AprioriBound.of(plan, context.model(), context.data().train(), m.theta(), rates);
-        return Json.document(g -> {
-            g.writeStartObject();
-            g.writeNumberField("format", ReplicateFile.FORMAT);
-            g.writeStringField("model", context.model().describe());
-            g.writeStringField("method", m.method().name().toLowerCase(Locale.ROOT));
-            g.writeNumberField("iterations", m.iterations());
-            g.writeBooleanField("converged", m.converged());
-            Json.number(g, "objective", m.objective());
-            Json.number(g, "gradient_norm", m.gradientNorm());
-            Json.array(g, "theta", m.theta());
-            if (c == null) {
-                g.writeStringField("curvature_skipped", skip.orElse(""));
-            } else {
-                g.writeNumberField("gauge_dimension", c.gaugeDimension());
-                Json.array(g, "eigenvalues", c.eigenvalues());
-                Json.number(g, "lambda_min", c.lambdaMin());
-                Json.number(g, "lambda_max", c.lambdaMax());
-                Json.number(g, "stability_bound", c.stabilityBound(plan.training().momentum()));
-            }
-            bound.write(g, names);
-            g.writeEndObject();
-        });
+        Bound bound = AprioriBound.of(plan, context.model(), context.data().train(), m.theta(), rates).record(names);
+        String model = context.model().describe();
+        String method = m.method().name().toLowerCase(Locale.ROOT);
+        if (c == null) {
+            return new Reference(model, method, m.iterations(), m.converged(), m.objective(), m.gradientNorm(),
+                    m.theta(), -1, null, Double.NaN, Double.NaN, Double.NaN, skip.orElse(""), bound);
+        }
+        return new Reference(model, method, m.iterations(), m.converged(), m.objective(), m.gradientNorm(), m.theta(),
+                c.gaugeDimension(), c.eigenvalues(), c.lambdaMin(), c.lambdaMax(),
+                c.stabilityBound(plan.training().momentum()), null, bound);
     }
 
+    /** Writes the manifest, with each replicate's status as held in memory. */
     private Outcome writeManifest(String started, String ended, String planHash, String dataHash, String splitHash)
             throws IOException {
         Plan plan = context.plan();
         PlanData data = context.data();
         List<ReplicateKey> keys = context.keys();
-        String[] status = new String[keys.size()];
+        List<Manifest.Status> statuses = new ArrayList<>();
         int finished = 0;
         int diverged = 0;
         int missingCount = 0;
-        for (int i = 0; i < keys.size(); i++) {
-            Path file = directory.resolve(ReplicateFile.relativePath(keys.get(i)));
-            if (!Files.exists(file)) {
-                status[i] = ended == null ? "pending" : "missing";
-                missingCount++;
-            } else {
-                status[i] = MAPPER.readTree(file.toFile()).path("status").asText();
-                if ("diverged".equals(status[i])) {
+        synchronized (status) {
+            for (int i = 0; i < keys.size(); i++) {
+                String s = status[i];
+                if (s == null) {
+                    s = ended == null ? Manifest.PENDING : Manifest.MISSING;
+                    missingCount++;
+                } else if (s.equals(Replicate.DIVERGED)) {
                     diverged++;
                 } else {
                     finished++;
                 }
+                statuses.add(new Manifest.Status(keys.get(i).arm(), keys.get(i).replicate(), s));
             }
         }
-        byte[] manifest = Json.document(g -> {
-            g.writeStartObject();
-            g.writeNumberField("format", ReplicateFile.FORMAT);
-            g.writeStringField("study", plan.study());
-            g.writeObjectFieldStart("tool");
-            g.writeStringField("name", "settle");
-            g.writeStringField("version", Provenance.version());
-            g.writeStringField("git_commit", Provenance.gitCommit());
-            g.writeEndObject();
-            g.writeObjectFieldStart("jvm");
-            g.writeStringField("vendor", System.getProperty("java.vm.vendor", ""));
-            g.writeStringField("name", System.getProperty("java.vm.name", ""));
-            g.writeStringField("version", System.getProperty("java.runtime.version", System.getProperty("java.version", "")));
-            g.writeEndObject();
-            g.writeObjectFieldStart("cpu");
-            g.writeStringField("model", Provenance.cpuModel());
-            g.writeStringField("arch", System.getProperty("os.arch", ""));
-            g.writeNumberField("cores", Runtime.getRuntime().availableProcessors());
-            g.writeEndObject();
-            g.writeStringField("executor", executor.describe());
-            g.writeNumberField("threads", executor.parallelism());
-            g.writeArrayFieldStart("command");
-            for (String arg : commandLine) {
-                g.writeString(arg);
-            }
-            g.writeEndArray();
-            g.writeStringField("generator", ReplicateSeeds.ALGORITHM);
-            g.writeNumberField("root_seed", plan.seed());
-            g.writeStringField("started", started);
-            if (ended == null) {
-                g.writeNullField("ended");
-            } else {
-                g.writeStringField("ended", ended);
-            }
-            g.writeStringField("plan_sha256", planHash);
-            g.writeStringField("data_sha256", dataHash);
-            g.writeStringField("split_sha256", splitHash);
-            g.writeObjectFieldStart("data");
-            g.writeStringField("source", plan.data().source());
-            g.writeNumberField("rows", data.all().rows());
-            g.writeNumberField("features", data.all().features());
-            g.writeArrayFieldStart("feature_names");
-            for (String f : data.all().featureNames()) {
-                g.writeString(f);
-            }
-            g.writeEndArray();
-            g.writeArrayFieldStart("class_names");
-            for (String c : data.all().classNames()) {
-                g.writeString(c);
-            }
-            g.writeEndArray();
-            g.writeNumberField("train_rows", data.train().rows());
-            g.writeNumberField("test_rows", data.test().rows());
-            g.writeNumberField("holdout_rows", data.holdout() == null ? 0 : data.holdout().rows());
-            g.writeNumberField("updates_per_epoch", data.updatesPerEpoch(plan.training().batch()));
-            g.writeEndObject();
-            Standardiser s = data.standardiser();
-            if (s == null) {
-                g.writeNullField("standardisation");
-            } else {
-                g.writeObjectFieldStart("standardisation");
-                Json.array(g, "means", s.means());
-                Json.array(g, "scales", s.scales());
-                g.writeEndObject();
-            }
-            g.writeStringField("model", context.model().describe());
-            g.writeNumberField("parameters", context.model().parameterCount());
-            g.writeNumberField("model_l2", plan.model().l2());
-            g.writeStringField("reference", context.minimum() == null ? "none: the model is not convex" : "reference.json");
-            g.writeStringField("baseline", plan.baseline());
-            g.writeArrayFieldStart("arms");
-            for (int a = 0; a < plan.arms().size(); a++) {
-                g.writeStartObject();
-                g.writeNumberField("index", a + 1);
-                g.writeStringField("name", plan.arms().get(a).name());
-                g.writeStringField("directory", "arms/" + (a + 1));
-                g.writeEndObject();
-            }
-            g.writeEndArray();
-            writeGrids(g, grids);
-            g.writeArrayFieldStart("replicates");
-            for (int i = 0; i < keys.size(); i++) {
-                g.writeStartObject();
-                g.writeNumberField("arm", keys.get(i).arm());
-                g.writeNumberField("replicate", keys.get(i).replicate());
-                g.writeStringField("status", status[i]);
-                g.writeEndObject();
-            }
-            g.writeEndArray();
-            g.writeEndObject();
-        });
-        AtomicFiles.write(directory.resolve("manifest.json"), manifest);
+        Standardiser st = data.standardiser();
+        List<String> arms = new ArrayList<>();
+        for (var arm : plan.arms()) {
+            arms.add(arm.name());
+        }
+        Manifest manifest = new Manifest(StudyFormat.VERSION, plan.study(),
+                new Manifest.Tool("settle", Provenance.version(), Provenance.gitCommit()),
+                new Manifest.Jvm(System.getProperty("java.vm.vendor", ""), System.getProperty("java.vm.name", ""),
+                        System.getProperty("java.runtime.version", System.getProperty("java.version", ""))),
+                new Manifest.Cpu(Provenance.cpuModel(), System.getProperty("os.arch", ""),
+                        Runtime.getRuntime().availableProcessors()),
+                executor.describe(), executor.parallelism(), commandLine, ReplicateSeeds.ALGORITHM, plan.seed(),
+                started, ended, planHash, dataHash, splitHash,
+                new Manifest.Data(plan.data().source(), data.all().rows(), data.all().features(),
+                        data.all().featureNames(), data.all().classNames(), data.train().rows(), data.test().rows(),
+                        data.holdout() == null ? 0 : data.holdout().rows(),
+                        data.updatesPerEpoch(plan.training().batch())),
+                st == null ? null : new Manifest.Standardisation(st.means(), st.scales()),
+                context.model().describe(), context.model().parameterCount(), plan.model().l2(),
+                context.minimum() == null ? "none: the model is not convex" : StudyFormat.REFERENCE, plan.baseline(),
+                arms, grids, statuses);
+        AtomicFile.write(directory.resolve(StudyFormat.MANIFEST), ManifestJson.write(manifest));
         return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "", null);
-    }
-
-    /**
-     * Writes the manifest's {@code grid}: per grid entry of the plan, the template arm, the swept keys with their
-     * values as written, and each expanded arm's index (from 1) with its value of each key; an empty array for a
-     * plan without a grid.
-     */
-    private static void writeGrids(JsonGenerator g, List<GridExpansion> grids) throws IOException {
-        g.writeArrayFieldStart("grid");
-        for (GridExpansion grid : grids) {
-            g.writeStartObject();
-            g.writeStringField("arm", grid.arm());
-            g.writeArrayFieldStart("keys");
-            for (int k = 0; k < grid.keys().size(); k++) {
-                g.writeStartObject();
-                g.writeStringField("name", grid.keys().get(k));
-                g.writeArrayFieldStart("values");
-                for (String v : grid.values().get(k)) {
-                    g.writeString(v);
-                }
-                g.writeEndArray();
-                g.writeEndObject();
-            }
-            g.writeEndArray();
-            g.writeArrayFieldStart("arms");
-            for (GridExpansion.Expanded e : grid.arms()) {
-                g.writeStartObject();
-                g.writeNumberField("index", e.index() + 1);
-                g.writeArrayFieldStart("values");
-                for (String v : e.values()) {
-                    g.writeString(v);
-                }
-                g.writeEndArray();
-                g.writeEndObject();
-            }
-            g.writeEndArray();
-            g.writeEndObject();
-        }
-        g.writeEndArray();
-    }
-
-    /**
-     * The grid an earlier run of this study recorded in its manifest, kept when the study is resumed from a plan that
-     * has none: the study's own resolved {@code plan.yaml} has its grid expanded (and hashes the same as the plan
-     * that expanded it), so running it again must not drop the structure. Empty when the manifest records none, or
-     * records one that does not fit this plan's arms.
-     */
-    private List<GridExpansion> recordedGrids(Path manifestFile) throws IOException {
-        JsonNode list = MAPPER.readTree(manifestFile.toFile()).path("grid");
-        int arms = context.plan().arms().size();
-        List<GridExpansion> out = new ArrayList<>();
-        try {
-            for (JsonNode grid : list) {
-                List<String> keys = new ArrayList<>();
-                List<List<String>> values = new ArrayList<>();
-                for (JsonNode key : grid.path("keys")) {
-                    keys.add(text(key.path("name")));
-                    values.add(texts(key.path("values")));
-                }
-                List<GridExpansion.Expanded> expanded = new ArrayList<>();
-                for (JsonNode arm : grid.path("arms")) {
-                    int index = arm.path("index").asInt(0);
-                    if (index < 1 || index > arms) {
-                        return List.of();
-                    }
-                    expanded.add(new GridExpansion.Expanded(index - 1, texts(arm.path("values"))));
-                }
-                out.add(new GridExpansion(text(grid.path("arm")), keys, values, expanded));
-            }
-        } catch (IllegalArgumentException e) {
-            return List.of(); // not this settle's grid record: nothing to keep
-        }
-        return out;
-    }
-
-    /** @return the strings of a JSON array; throws IllegalArgumentException for an element that is not one */
-    private static List<String> texts(JsonNode array) {
-        List<String> out = new ArrayList<>();
-        for (JsonNode v : array) {
-            out.add(text(v));
-        }
-        return out;
-    }
-
-    /** @return a JSON string's text; throws IllegalArgumentException for any other node */
-    private static String text(JsonNode v) {
-        if (!v.isTextual()) {
-            throw new IllegalArgumentException("not a string: " + v);
-        }
-        return v.textValue();
     }
 }

@@ -22,7 +22,7 @@ import java.util.stream.Stream;
 import org.junit.jupiter.api.DynamicTest;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestFactory;
-import settle.experiments.plan.PlanException;
+import settle.input.BadInputException;
 import settle.experiments.plan.PlanParser;
 
 /**
@@ -131,7 +131,7 @@ class BadPlansTest {
                 Path plan = dir.resolve(e.getKey());
                 try {
                     PlanParser.parse(plan);
-                } catch (PlanException p) {
+                } catch (BadInputException p) {
                     String expectedMessage = e.getValue()[1].replaceFirst(Pattern.quote(e.getKey()),
                             Matcher.quoteReplacement(plan.toString()));
                     assertEquals(expectedMessage, p.getMessage());

@@ -33,7 +33,7 @@ class ClusterOptionTest {
         int code = Main.run(new PrintWriter(new StringWriter()), new PrintWriter(err), "run", plan.toString(),
                 "--cluster", "local[2]", "--out", study.toString(), "--quiet");
         assertEquals(Main.BAD_INPUT, code);
-        assertEquals("--cluster needs settle's cluster build, which is not on the class path: "
+        assertEquals("settle run: --cluster needs settle's cluster build, which is not on the class path: "
                 + ClusterExecutorFactory.HOW_TO_GET_IT, err.toString().trim());
         assertFalse(Files.exists(study), "a refused run must not create the study directory");
     }

@@ -82,11 +82,11 @@ class MinimumCommandTest {
         Result unknown = run("minimum", "--data", "bundled:nosuch");
         assertEquals(2, unknown.code());
         assertEquals(1, unknown.err().strip().lines().count(), unknown.err());
-        assertTrue(unknown.err().startsWith("settle minimum: "), unknown.err());
+        assertTrue(unknown.err().startsWith("bundled:nosuch: no such bundled dataset"), unknown.err());
 
         Result mlp = run("minimum", "--data", "bundled:iris", "--model", "mlp");
         assertEquals(2, mlp.code());
-        assertEquals("settle minimum: --model mlp has no exact minimiser; accepted: logistic", mlp.err().strip());
+        assertEquals("settle minimum: --model 'mlp' has no exact minimiser; accepted: logistic", mlp.err().strip());
 
         Result negative = run("minimum", "--data", "bundled:iris", "--l2", "-1");
         assertEquals(2, negative.code());

@@ -87,7 +87,8 @@ class RatesCommandTest {
         Result r = run("rates", "{kind: [", "--epochs", "2", "--updates-per-epoch", "1");
         assertEquals(2, r.code());
         assertEquals(1, r.err().strip().split("\n").length, r.err());
-        assertTrue(r.err().startsWith("settle rates: schedule: not a YAML map ("), r.err());
+        assertEquals("settle rates: schedule: '{kind: [' is not a YAML map (a syntax error at character 9); expected"
+                + " e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'", r.err().strip());
         assertFalse(r.err().contains("\tat "), r.err());
     }
 

@@ -19,6 +19,9 @@ import org.junit.jupiter.api.io.TempDir;
 import settle.experiments.study.StudyFiles;
 import settle.experiments.cli.Main;
 import settle.experiments.plan.PlanParser;
+import settle.input.BadInputException;
+import settle.reports.format.NudgeRecord;
+import settle.reports.format.NudgesCsv;
 
 /**
  * Manual arms end to end: a real child JVM runs {@code settle run}, the test steers it with
@@ -119,10 +122,10 @@ class ManualArmTest {
         }
         assertEquals(0, run.exitValue());
 
-        List<AppliedNudge> nudges = NudgesCsv.read(study);
+        List<NudgeRecord> nudges = NudgesCsv.read(study);
         assertEquals(2, nudges.size());
-        AppliedNudge halve = nudges.get(0);
-        AppliedNudge target = nudges.get(1);
+        NudgeRecord halve = nudges.get(0);
+        NudgeRecord target = nudges.get(1);
         assertEquals("steered", halve.arm());
         assertEquals(2, halve.armIndex());
         assertEquals(0.5, halve.factor());
@@ -197,7 +200,7 @@ class ManualArmTest {
 
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out",
                 study.toString(), "--quiet"));
-        List<AppliedNudge> nudges = NudgesCsv.read(study);
+        List<NudgeRecord> nudges = NudgesCsv.read(study);
         assertEquals(2, nudges.size());
         assertEquals(pending.requests().get(0).id(), nudges.get(0).request());
         assertEquals(0.25, nudges.get(0).factor());
@@ -221,7 +224,7 @@ class ManualArmTest {
         Path study = dir.resolve("small");
         assertEquals(2, nudge(study, "--arm", "steered", "--factor", "0.5").code,
                 "not a study directory yet");
-        assertTrue(nudge(study, "--arm", "steered", "--factor", "0.5").err.contains("is not a study directory"));
+        assertTrue(nudge(study, "--arm", "steered", "--factor", "0.5").err.contains(": not a study directory"));
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out",
                 study.toString(), "--quiet"));
         String[][] cases = {
@@ -257,7 +260,7 @@ class ManualArmTest {
 
     @Test
     void aClusterRunRefusesManualArms() {
-        IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> ManualArms.refuseUnlessLocal(
+        BadInputException e = assertThrows(BadInputException.class, () -> ManualArms.refuseUnlessLocal(
                 PlanParser.read(plan("c", 2), "c.yaml", dir).plan(), "a cluster engine"));
         assertEquals("arm 'steered' is manual: its replicates must pause together at each epoch end to take nudges,"
                 + " which a cluster engine cannot do; run the plan without --cluster, or set manual: false (a"
@@ -268,7 +271,7 @@ class ManualArmTest {
     void aManualPlateauArmIsRefusedAtItsKey() {
         String text = plan("p", 2).replace("{kind: reciprocal, rate: 0.3, decay: 0.01, per: update}",
                 "{kind: plateau, rate: 0.3}");
-        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+        BadInputException e = assertThrows(BadInputException.class,
                 () -> PlanParser.read(text, "p.yaml", dir));
         assertTrue(e.getMessage().startsWith("p.yaml:20:"), e.getMessage());
         assertTrue(e.getMessage().contains("arms[1].manual"), e.getMessage());

@@ -20,6 +20,8 @@ import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
 import settle.engine.train.Sampling;
 import settle.datasets.table.TableOptions;
+import settle.input.BadInputException;
+import settle.reports.format.Grid;
 
 class PlanParserTest {
 
@@ -133,13 +135,13 @@ class PlanParserTest {
     @Test
     void gridStructureIsKeptBesideThePlanWithIndicesAndValuesAsWritten() {
         ParsedPlan parsed = PlanParser.read(resource("grid.yaml"));
-        List<GridExpansion.Expanded> arms = new ArrayList<>();
+        List<Grid.Member> arms = new ArrayList<>();
         String[] rates = {"0.05", "0.1", "0.2"};
         String[] decays = {"0.3", "1.0", "3e0"};
         for (int i = 0; i < 9; i++) {
-            arms.add(new GridExpansion.Expanded(1 + i, List.of(rates[i / 3], decays[i % 3])));
+            arms.add(new Grid.Member(1 + i, List.of(rates[i / 3], decays[i % 3])));
         }
-        assertEquals(List.of(new GridExpansion("reciprocal", List.of("rate", "decay"),
+        assertEquals(List.of(new Grid("reciprocal", List.of("rate", "decay"),
                 List.of(List.of(rates), List.of(decays)), arms)), parsed.grids());
 
         // Two entries, written in the opposite order of their arms, with a plain arm between: each entry keeps its
@@ -156,10 +158,10 @@ class PlanParserTest {
                   - {arm: b, rate: [0.1, 0.2]}
                 """);
         assertEquals(List.of(
-                new GridExpansion("d", List.of("base"), List.of(List.of("0.5", "0.90")), List.of(
-                        new GridExpansion.Expanded(4, List.of("0.5")), new GridExpansion.Expanded(5, List.of("0.90")))),
-                new GridExpansion("b", List.of("rate"), List.of(List.of("0.1", "0.2")), List.of(
-                        new GridExpansion.Expanded(1, List.of("0.1")), new GridExpansion.Expanded(2, List.of("0.2"))))),
+                new Grid("d", List.of("base"), List.of(List.of("0.5", "0.90")), List.of(
+                        new Grid.Member(4, List.of("0.5")), new Grid.Member(5, List.of("0.90")))),
+                new Grid("b", List.of("rate"), List.of(List.of("0.1", "0.2")), List.of(
+                        new Grid.Member(1, List.of("0.1")), new Grid.Member(2, List.of("0.2"))))),
                 two.grids());
         assertEquals("foo[a=1,b=2]", two.plan().arms().get(3).name(), "a plain arm, whatever its name");
 
@@ -318,7 +320,7 @@ class PlanParserTest {
         assertEquals(List.of(2, 11), List.of(p.position("data.source")[0], p.position("data.source")[1]));
         assertEquals(5, p.position("arms[0].schedule.rate")[0]);
         assertEquals(1, p.position("data.label")[0], "an absent key reports its parent");
-        PlanException e = p.error("data.source", "cannot read");
+        BadInputException e = p.error("data.source", "cannot read");
         assertEquals("plan.yaml:2:11: data.source: cannot read", e.getMessage());
         assertThrows(IllegalArgumentException.class, () -> p.plan().arm("nope"));
     }
@@ -347,7 +349,7 @@ class PlanParserTest {
 
     @Test
     void gridErrorsPointAtTheOffendingValue() {
-        PlanException e = assertThrows(PlanException.class, () -> text("""
+        BadInputException e = assertThrows(BadInputException.class, () -> text("""
                 data: {source: "synthetic:xor"}
                 arms:
                   - {name: r, schedule: {kind: reciprocal, rate: 0.2, decay: 1}}
@@ -359,6 +361,6 @@ class PlanParserTest {
                 + " (in arm 'r[decay=fast]')", e.getMessage());
         assertEquals(6, e.line());
         assertEquals(19, e.column());
-        assertEquals("grid[0].decay[2]", e.keyPath());
+        assertEquals("grid[0].decay[2]", e.key());
     }
 }

@@ -80,7 +80,7 @@ class OlderFormatTest {
 
         err = new StringWriter();
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
-        assertEquals("settle report: " + study.resolve("manifest.json") + ": this study directory" + WHY + "settle run "
+        assertEquals(study.resolve("manifest.json") + ": this study directory" + WHY + "settle run "
                 + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 2",
                 err.toString().trim());
         assertArrayEquals(before.get(Path.of("report.html")), Files.readAllBytes(study.resolve("report.html")),
@@ -93,18 +93,29 @@ class OlderFormatTest {
     }
 
     @Test
-    void aFormatOneReplicateFileInAFormatTwoDirectoryIsRefusedByName() throws Exception {
+    void aFormatOneReplicateFileInAFormatTwoDirectoryIsSetAsideAndTrainedAgain() throws Exception {
         Path plan = dir.resolve("plan.yaml");
         Files.writeString(plan, StudyRunnerTest.plan("mixed", 3, ""));
         Path study = dir.resolve("study");
         assertEquals(0, StudyRunnerTest.settle(new StringWriter(), new StringWriter(), "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1"));
         Path file = study.resolve("arms/3/2.json");
+        byte[] whole = Files.readAllBytes(file);
         makeFormatOne(study, file);
+        byte[] older = Files.readAllBytes(file);
+
         StringWriter err = new StringWriter();
-        assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
+        assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
+        assertEquals(file + ": format: this file is in format 1; this settle reads format 2; settle run "
+                + study.resolve("plan.yaml") + " --out " + study + " sets invalid replicate files aside and trains them"
+                + " again", err.toString().trim());
+
+        err = new StringWriter();
+        assertEquals(0, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet"));
-        assertEquals(file + ": this file" + WHY + "settle run " + plan + " --out " + study + " --quiet --fresh` to"
-                + " rewrite it in format 2", err.toString().trim());
+        assertEquals("settle run: " + file + ": format: this file is in format 1; this settle reads format 2; moved"
+                + " aside to 2.json.quarantined-1 and trained again", err.toString().trim());
+        assertArrayEquals(whole, Files.readAllBytes(file), "trained again, byte for byte");
+        assertArrayEquals(older, Files.readAllBytes(study.resolve("arms/3/2.json.quarantined-1")), "kept aside");
     }
 }

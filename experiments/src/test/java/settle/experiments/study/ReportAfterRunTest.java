@@ -51,6 +51,6 @@ class ReportAfterRunTest {
 
         err = new StringWriter();
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", dir.resolve("nothing").toString()));
-        assertEquals("settle report: " + dir.resolve("nothing") + ": no such study directory", err.toString().trim());
+        assertEquals(dir.resolve("nothing") + ": no such study directory", err.toString().trim());
     }
 }

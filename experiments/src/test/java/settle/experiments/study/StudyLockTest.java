@@ -48,19 +48,6 @@ class StudyLockTest {
         }
     }
 
-    @Test
-    void atomicWriteReplacesWholeFilesAndLeavesNoTemporaries() throws Exception {
-        Path target = dir.resolve("arms/1/3.json");
-        AtomicFiles.write(target, "{\"a\": 1}");
-        AtomicFiles.write(target, "{\"a\": 2}");
-        assertEquals("{\"a\": 2}", Files.readString(target));
-        try (var s = Files.list(target.getParent())) {
-            assertEquals(List.of(target), s.toList());
-        }
-        Files.writeString(dir.resolve("arms/1/.3.json.123" + AtomicFiles.TEMP_SUFFIX), "half");
-        assertEquals(1, AtomicFiles.removeLeftovers(target.getParent()));
-    }
-
     /** Child process: takes the lock, says so, and waits to be killed. */
     public static final class LockHolder {
         public static void main(String[] args) throws Exception {

@@ -16,6 +16,7 @@ import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.experiments.cli.Main;
+import settle.reports.format.AtomicFile;
 
 class StudyRunnerTest {
 
@@ -107,7 +108,9 @@ class StudyRunnerTest {
                 "--quiet"));
         Files.delete(resumed.resolve("arms/2/3.json"));
         Files.delete(resumed.resolve("arms/3/1.json"));
-        Files.writeString(resumed.resolve("arms/3/.1.json.999.1.1" + AtomicFiles.TEMP_SUFFIX), "{\"half");
+        // what a writer killed outright leaves: a temporary file named with its (no longer live) pid
+        String leftover = ".1.json." + deadPid() + ".1" + AtomicFile.TEMP_SUFFIX;
+        Files.writeString(resumed.resolve("arms/3").resolve(leftover), "{\"half");
         StringWriter out = new StringWriter();
         assertEquals(0, settle(out, new StringWriter(), "run", planFile.toString(), "--out", resumed.toString(), "--quiet",
                 "--json"));
@@ -125,7 +128,7 @@ class StudyRunnerTest {
             assertTrue(arm.path("headline").asText().startsWith("ends "), arm.toString());
         }
         StudyFiles.assertSameReplicateFiles(whole, resumed);
-        assertFalse(Files.exists(resumed.resolve("arms/3/.1.json.999.1.1" + AtomicFiles.TEMP_SUFFIX)));
+        assertFalse(Files.exists(resumed.resolve("arms/3").resolve(leftover)));
     }
 
     @Test
@@ -266,5 +269,12 @@ class StudyRunnerTest {
         return new ProcessBuilder(List.of(java, "-cp", System.getProperty("java.class.path"), Main.class.getName(),
                 "run", planFile.toString(), "--out", study.toString(), "--threads", "1", "--quiet"))
                 .redirectErrorStream(true).redirectOutput(ProcessBuilder.Redirect.DISCARD).start();
+    }
+
+    /** @return the pid of a process that has ended */
+    static long deadPid() throws Exception {
+        Process p = new ProcessBuilder("true").start();
+        p.waitFor();
+        return p.pid();
     }
 }

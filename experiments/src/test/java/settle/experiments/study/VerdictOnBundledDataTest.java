@@ -18,8 +18,8 @@ import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.VerdictSentence;
 import settle.reports.stats.VerdictSentence.Outcome;
-import settle.reports.study.Metric;
-import settle.reports.study.StudyReader;
+import settle.reports.format.Metric;
+import settle.reports.format.StudyReader;
 
 /**
  * The verdict on real data: the example plans of the bundled datasets (UCI Breast Cancer Wisconsin (Diagnostic), Iris,

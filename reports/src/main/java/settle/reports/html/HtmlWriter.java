@@ -2,6 +2,7 @@ package settle.reports.html;
 
 import java.util.ArrayDeque;
 import java.util.Deque;
+import settle.reports.text.Names;
 
 /**
  * A streaming HTML (and inline SVG) writer that escapes by default: text and attribute values always go
@@ -20,7 +21,9 @@ public final class HtmlWriter {
 
     /**
      * @param s any text
-     * @return s with {@code & < > " '} replaced by character references
+     * @return s with {@code & < > " '} replaced by character references, and control characters (but tab and line
+     *     breaks) and the bidirectional embeddings and overrides (U+202A–U+202E) shown as visible signs
+     *     ({@link Names}), so that no text from a study can hide itself or reverse the line it stands in
      */
     public static String escape(String s) {
         StringBuilder b = null;
@@ -32,7 +35,8 @@ public final class HtmlWriter {
                 case '>' -> "&gt;";
                 case '"' -> "&quot;";
                 case '\'' -> "&#39;";
-                default -> null;
+                case '\t', '\n', '\r' -> null;
+                default -> hidden(c) ? visible(c) : null;
             };
             if (r != null) {
                 if (b == null) {
@@ -44,6 +48,20 @@ public final class HtmlWriter {
             }
         }
         return b == null ? s : b.toString();
+    }
+
+    /** @return true for a control character or an explicit embedding or override, which text must not hold raw */
+    private static boolean hidden(char c) {
+        return c < 0x20 || c >= 0x7F && c <= 0x9F || c >= '\u202A' && c <= '\u202E';
+    }
+
+    private static String visible(char c) {
+        if (c >= '\u202A' && c <= '\u202E') {
+            return Names.codePoint(c);
+        }
+        StringBuilder b = new StringBuilder(8);
+        Names.visible(c, b);
+        return b.toString();
     }
 
     /** Writes the doctype line. */

@@ -7,8 +7,8 @@ import settle.reports.html.sections.Section;
 import settle.reports.html.sections.Sections;
 import settle.reports.metrics.Replicates;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.Manifest;
-import settle.reports.study.Study;
+import settle.reports.format.Manifest;
+import settle.reports.format.Study;
 
 /**
  * {@code report.html}: one self-contained page (inline CSS and SVG, no script, a Content-Security-Policy

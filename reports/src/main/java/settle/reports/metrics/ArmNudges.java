@@ -2,10 +2,10 @@ package settle.reports.metrics;
 
 import java.util.ArrayList;
 import java.util.List;
-import settle.reports.study.Nudge;
-import settle.reports.study.NudgeRecord;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Nudge;
+import settle.reports.format.NudgeRecord;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * The nudges of every arm, as the rate and objective charts mark them and the nudge table lists them. An arm's

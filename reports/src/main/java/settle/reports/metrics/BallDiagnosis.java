@@ -2,10 +2,10 @@ package settle.reports.metrics;
 
 import java.util.List;
 import java.util.Locale;
-import settle.reports.study.Metric;
-import settle.reports.study.Prediction;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Prediction;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * Has an arm reached its noise ball? The answer decides whether measured/predicted tests the linearised theory

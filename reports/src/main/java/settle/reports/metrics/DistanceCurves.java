@@ -1,8 +1,8 @@
 package settle.reports.metrics;
 
-import settle.reports.study.Prediction;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Prediction;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * An arm's measured and predicted squared distance to θ* at each epoch end, over its finished replicates: the

@@ -5,8 +5,8 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.function.Function;
 import settle.reports.stats.Quantiles;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * One per-epoch series of an arm summarised over its finished replicates, epoch by epoch: the type-7 quartiles of

@@ -5,7 +5,7 @@ import java.util.Arrays;
 import java.util.Comparator;
 import java.util.List;
 import settle.reports.stats.ArmSummary;
-import settle.reports.study.Grid;
+import settle.reports.format.Grid;
 
 /**
  * The table a grid's heatmap draws: the first swept key's values as rows and the second's as columns (one column,

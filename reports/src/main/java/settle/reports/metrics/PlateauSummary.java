@@ -4,8 +4,8 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import settle.reports.stats.Quantiles;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * Where a plateau schedule cut an arm's rate, over its present replicates (finished or diverged): how many cuts each

@@ -1,7 +1,7 @@
 package settle.reports.metrics;
 
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * An arm's rates in numbers, from its first present replicate (every replicate of an arm runs the same rates unless

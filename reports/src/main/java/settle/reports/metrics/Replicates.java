@@ -2,9 +2,9 @@ package settle.reports.metrics;
 
 import java.util.ArrayList;
 import java.util.List;
-import settle.reports.study.Prediction;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Prediction;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * Which replicate files a section reads when it shows one value for an arm or for the study: the first present

@@ -14,9 +14,9 @@ import settle.reports.stats.Jackknife;
 import settle.reports.stats.Scale;
 import settle.reports.stats.Verdict;
 import settle.reports.stats.VerdictOptions;
-import settle.reports.study.Metric;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * Everything a report shows that spans replicates: per-arm summaries of every per-replicate metric, the

@@ -9,10 +9,11 @@ import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.VerdictSentence;
 import settle.reports.stats.VerdictSentence.Outcome;
-import settle.reports.study.Metric;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 import settle.reports.text.Format;
+import settle.reports.text.Names;
 
 /**
  * The verdict in words, once, for the report's verdict section, the terminal and the JSON summary: for every arm
@@ -26,7 +27,7 @@ import settle.reports.text.Format;
  *
  * @param primary the primary metric
  * @param baseline the baseline's arm index (0-based)
- * @param baselineName its name
+ * @param baselineName its name as recorded (the terminal and the page show it through {@link settle.reports.text.Names})
  * @param arms every arm's verdict, in arm order (the baseline's has no comparison)
  * @param pick the pick
  * @param pickSentence the pick in one sentence, or why there is none and what would help
@@ -41,7 +42,7 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
      * One arm's verdict.
      *
      * @param arm its index (0-based)
-     * @param name its name
+     * @param name its name as recorded
      * @param primary its comparison with the baseline on the primary metric (null for the baseline)
      * @param outcome what that comparison claims
      * @param radius its comparison on the tail radius (null for the baseline)
@@ -93,14 +94,16 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
             Outcome moves = VerdictSentence.outcome(radius);
             boolean froze = outcome == Outcome.HIGHER && moves == Outcome.LOWER;
             String headline = a == base ? "" : headline(primary, c, outcome, radius, moves, froze, stalled, finished);
-            arms.add(new ArmVerdict(a, study.armName(a), c, outcome, radius, headline, froze, stalled, finished));
+            arms.add(new ArmVerdict(a, study.manifest().arms().get(a), c, outcome, radius, headline, froze, stalled,
+                    finished));
         }
         ArmPick pick = ArmPick.of(analysis);
         String baselineNote = study.convex() ? baselineNote(study.armName(base), BallDiagnosis.of(study, base)) : "";
         int pairs = analysis.pairedReplicates().length;
         int needed = analysis.replicatesNeeded();
         String sentence = pickSentence(analysis, primary, base, pick, arms, pairs, needed, !baselineNote.isEmpty());
-        return new VerdictSummary(primary, base, study.armName(base), List.copyOf(arms), pick, sentence, baselineNote,
+        return new VerdictSummary(primary, base, study.manifest().arms().get(base), List.copyOf(arms), pick, sentence,
+                baselineNote,
                 pairs, needed);
     }
 
@@ -224,18 +227,19 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
      */
     public List<String> lines() {
         List<String> out = new ArrayList<>();
-        out.add("verdict (" + primary.words() + " of the returned iterate against the baseline " + baselineName + ", "
+        out.add("verdict (" + primary.words() + " of the returned iterate against the baseline "
+                + Names.shown(baselineName) + ", "
                 + pairs + " pairs):");
         int width = 0;
         for (ArmVerdict a : arms) {
-            width = Math.max(width, a.name().length());
+            width = Math.max(width, Names.shown(a.name()).length());
         }
         width = Math.min(width, 30);
         for (ArmVerdict a : arms) {
             if (a.arm() == baseline) {
                 continue;
             }
-            out.add(String.format(Locale.ROOT, "  %-" + width + "s  %s", a.name(), a.headline()));
+            out.add(String.format(Locale.ROOT, "  %-" + width + "s  %s", Names.shown(a.name()), a.headline()));
         }
         out.add((pick.picked() ? "" : "pick: none. ") + pickSentence);
         if (!baselineNote.isEmpty()) {

@@ -8,7 +8,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import settle.reports.stats.ArmSummary;
-import settle.reports.study.Grid;
+import settle.reports.format.Grid;
 
 /** The heatmap layout of a grid as the manifest records it: rows, columns and the arm in each cell. */
 class GridTableTest {

@@ -4,10 +4,10 @@ import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.Ranks;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.Bound;
-import settle.reports.study.Manifest;
-import settle.reports.study.Metric;
-import settle.reports.study.Study;
+import settle.reports.format.Bound;
+import settle.reports.format.Manifest;
+import settle.reports.format.Metric;
+import settle.reports.format.Study;
 
 /**
  * "A-priori ranking by a convex bound": each arm's value of the convex last-iterate bound for its planned rates (read
@@ -43,18 +43,8 @@ final class AprioriSection implements Section {
             return;
         }
         Bound bound = study.reference().bound();
-        if (bound == null) {
-            d.para("Not shown: this study's reference.json does not record the last-iterate bound (it was written "
-                    + "by an earlier settle); settle check " + study.directory().resolve("plan.yaml") + " prints it.");
-            return;
-        }
         if (!bound.computed()) {
             d.para("Not shown: " + bound.skipped() + ".");
-            return;
-        }
-        if (bound.values().length != study.armCount()) {
-            d.para("Not shown: reference.json records the bound for " + bound.values().length + " arms; the study has "
-                    + study.armCount() + ".");
             return;
         }
         w.open("p");

@@ -9,9 +9,9 @@ import settle.reports.html.SvgChart;
 import settle.reports.metrics.BallDiagnosis;
 import settle.reports.metrics.DistanceCurves;
 import settle.reports.metrics.Replicates;
-import settle.reports.study.Prediction;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Prediction;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * "Distance to θ*: measured and predicted": what the prediction is, per arm a panel of the measured and predicted

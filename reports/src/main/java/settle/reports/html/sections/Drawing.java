@@ -11,9 +11,9 @@ import settle.reports.html.Palette;
 import settle.reports.html.SvgChart;
 import settle.reports.metrics.ArmNudges;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.Manifest;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Manifest;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * The page being drawn, as every section sees it: the writer, the analysed study, and the drawing helpers the

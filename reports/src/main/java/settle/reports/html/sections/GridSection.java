@@ -8,8 +8,8 @@ import settle.reports.html.SvgChart;
 import settle.reports.metrics.GridTable;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.ArmSummary;
-import settle.reports.study.Grid;
-import settle.reports.study.Metric;
+import settle.reports.format.Grid;
+import settle.reports.format.Metric;
 
 /**
  * "Grid": for each grid entry of the plan that expanded an arm into two or more (the manifest's {@code grid}; never

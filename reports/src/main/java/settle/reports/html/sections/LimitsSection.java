@@ -2,8 +2,8 @@ package settle.reports.html.sections;
 
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.Manifest;
-import settle.reports.study.Study;
+import settle.reports.format.Manifest;
+import settle.reports.format.Study;
 
 /**
  * "Limits of this result": what the result does not say (this dataset, model and budget only; few replicates give

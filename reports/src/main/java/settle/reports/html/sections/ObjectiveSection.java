@@ -9,8 +9,8 @@ import settle.reports.html.SvgChart;
 import settle.reports.metrics.ArmNudges;
 import settle.reports.metrics.EpochBands;
 import settle.reports.metrics.Replicates;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * "Training objective per epoch": per arm the median and interquartile band ({@link EpochBands}) of the training

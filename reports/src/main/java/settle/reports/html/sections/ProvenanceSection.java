@@ -3,9 +3,9 @@ package settle.reports.html.sections;
 import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.Replicates;
-import settle.reports.study.Manifest;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Manifest;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * "Provenance": the commands that reproduce the study and rebuild the report, what the manifest records (tool,

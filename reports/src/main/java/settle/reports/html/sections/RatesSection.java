@@ -12,8 +12,8 @@ import settle.reports.metrics.ArmNudges;
 import settle.reports.metrics.PlateauSummary;
 import settle.reports.metrics.RateSummary;
 import settle.reports.metrics.Replicates;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * "Learning rate of every arm": the rate of every update on a log scale (plateau cuts ticked, nudges marked), each

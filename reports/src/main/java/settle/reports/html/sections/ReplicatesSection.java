@@ -6,9 +6,9 @@ import java.util.List;
 import settle.reports.text.Format;
 import settle.reports.html.HtmlWriter;
 import settle.reports.metrics.StudyAnalysis;
-import settle.reports.study.Metric;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * "Every replicate": each replicate's status (diverged at which update, missing, or finished but did not learn: its

@@ -6,7 +6,7 @@ import settle.reports.html.HtmlWriter;
 import settle.reports.html.Palette;
 import settle.reports.html.SvgChart;
 import settle.reports.metrics.TailCloud;
-import settle.reports.study.Study;
+import settle.reports.format.Study;
 
 /**
  * "Tail cloud of every arm": each arm's tail snapshots projected on the principal axes of all arms' snapshots pooled

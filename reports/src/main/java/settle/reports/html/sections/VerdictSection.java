@@ -11,9 +11,10 @@ import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Interval;
 import settle.reports.stats.VerdictSentence;
-import settle.reports.study.Manifest;
-import settle.reports.study.Metric;
-import settle.reports.study.Study;
+import settle.reports.format.Manifest;
+import settle.reports.format.Metric;
+import settle.reports.format.Study;
+import settle.reports.text.Names;
 
 /**
  * "Verdict": which arm to pick and at what cost ({@link VerdictSummary}), one headline per arm against the baseline
@@ -58,7 +59,7 @@ final class VerdictSection implements Section {
                     continue;
                 }
                 w.open("li", "class", v.froze() ? "froze" : null);
-                w.element("strong", v.name());
+                w.element("strong", Names.shown(v.name()));
                 w.text(" " + v.headline() + ".");
                 List<String> more = new ArrayList<>();
                 for (Metric m : analysis.compared()) {

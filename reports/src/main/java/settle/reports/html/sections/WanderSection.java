@@ -9,9 +9,9 @@ import settle.reports.html.SvgChart;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.VerdictOptions;
-import settle.reports.study.Metric;
-import settle.reports.study.Replicate;
-import settle.reports.study.Study;
+import settle.reports.format.Metric;
+import settle.reports.format.Replicate;
+import settle.reports.format.Study;
 
 /**
  * "Wander of every replicate": strip plots of the tail radius and (convex models) the final gap, one mark per

@@ -1,0 +1,102 @@
+package settle.reports.format;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import settle.input.BadInputException;
+
+/**
+ * The study directory's names and version: the contract between the runner ({@code experiments}) and the report
+ * (README, "Study directory"). The files' contents are spelled by one codec each in this package
+ * ({@link ManifestJson}, {@link ReferenceJson}, {@link ReplicateJson}, {@link NudgesCsv}, {@link EpochsCsv},
+ * {@link SummaryCsv}); nothing outside it names a key of them.
+ */
+public final class StudyFormat {
+
+    /** The study directory format this settle writes and reads. */
+    public static final int VERSION = 2;
+
+    /** The resolved plan. */
+    public static final String PLAN = "plan.yaml";
+    /** Provenance and each replicate's status. */
+    public static final String MANIFEST = "manifest.json";
+    /** θ* and its curvature (convex models). */
+    public static final String REFERENCE = "reference.json";
+    /** The directory of the replicate files, one subdirectory per arm index. */
+    public static final String ARMS = "arms";
+    /** Every replicate's per-epoch records. */
+    public static final String EPOCHS = "epochs.csv";
+    /** The report. */
+    public static final String REPORT = "report.html";
+    /** The report's machine-readable summary. */
+    public static final String SUMMARY = "summary.csv";
+    /** Manual arms: every nudge applied. */
+    public static final String NUDGES = "nudges.csv";
+    /** Manual arms: the plan that replays the nudges applied. */
+    public static final String REPLAY = "replay.yaml";
+    /** Live state of a running study for {@code settle follow}. */
+    public static final String PROGRESS = "progress.json";
+    /** Manual arms: the queue of nudge requests. */
+    public static final String NUDGE_QUEUE = ".nudge";
+    /** Held by a live run. */
+    public static final String LOCK = ".lock";
+
+    /** What a replicate file set aside as invalid is renamed to: {@code <k>.json.quarantined-<n>}. */
+    public static final String QUARANTINED = ".quarantined-";
+
+    private StudyFormat() {
+    }
+
+    /** @return the replicate file of replicate {@code k} (from 1) of arm {@code arm} (from 1), relative to the study */
+    public static String replicatePath(int arm, int k) {
+        return ARMS + "/" + arm + "/" + k + ".json";
+    }
+
+    /** @return the replicate file of replicate {@code k} of arm {@code arm} in study directory {@code directory} */
+    public static Path replicateFile(Path directory, int arm, int k) {
+        return armDirectory(directory, arm).resolve(k + ".json");
+    }
+
+    /** @return the directory of arm {@code arm}'s replicate files */
+    public static Path armDirectory(Path directory, int arm) {
+        return directory.resolve(ARMS).resolve(Integer.toString(arm));
+    }
+
+    /**
+     * Moves an invalid replicate file aside, never deleting it: it is renamed to
+     * {@code <name>.quarantined-<n>} with the first n from 1 not yet taken, beside where it was.
+     *
+     * @return the new path
+     */
+    public static Path quarantine(Path file) throws IOException {
+        for (int n = 1;; n++) {
+            Path aside = file.resolveSibling(file.getFileName() + QUARANTINED + n);
+            if (!Files.exists(aside)) {
+                return Files.move(file, aside, StandardCopyOption.ATOMIC_MOVE);
+            }
+        }
+    }
+
+    /**
+     * The one-line refusal of a file written in an older format: its tail radius and distance came from the
+     * snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside format 2's.
+     *
+     * @param file the manifest (or the file) in the older format
+     * @param format the format it records
+     * @param rerun the command that rewrites the study, e.g. {@code settle run plan.yaml --out DIR --fresh}
+     * @return the refusal, naming the file
+     */
+    public static BadInputException olderFormat(Path file, int format, String rerun) {
+        String what = file.getFileName() != null && file.getFileName().toString().equals(MANIFEST)
+                ? "this study directory" : "this file";
+        return BadInputException.inFile(file.toString(), "", what + " is in format " + format + ", written by an"
+                + " earlier settle whose tail metrics came from snapshots and whose reshuffling prediction was"
+                + " approximate; rerun it with `" + rerun + "` to rewrite it in format " + VERSION);
+    }
+
+    /** @return the command that rewrites a study directory from its own plan */
+    public static String rerun(Path directory) {
+        return "settle run " + directory.resolve(PLAN) + " --out " + directory + " --fresh";
+    }
+}
