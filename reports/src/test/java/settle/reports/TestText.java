@@ -7,7 +7,7 @@ final class TestText {
     }
 
     /**
-     * @return {@code s} without the U+2068 … U+2069 isolates that wrap every arm name the report shows
+     * @return {@code s} without the U+2068 … U+2069 isolates that wrap a right-to-left arm name the report shows
      *     ({@link settle.reports.text.Names}); they are invisible, so a sentence reads the same without them
      */
     static String plain(String s) {

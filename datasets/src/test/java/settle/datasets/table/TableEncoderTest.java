@@ -121,7 +121,7 @@ class TableEncoderTest {
                 + " refuse (the default), or data.missing: drop-rows (drops those rows from each split) or impute"
                 + " (training medians plus a was-missing column for numbers, a level of its own for categories)",
                 e.getMessage());
-        assertEquals("missing", e.key());
+        assertEquals("data.missing", e.key());
         // a gap in a column that is not a feature does not count
         Dataset d = prepare("a,b,y\n1,,p\n2,,q\n", options(null, List.of("b"), List.of(), 50,
                 TableOptions.Missing.REFUSE)).all();
@@ -233,7 +233,7 @@ class TableEncoderTest {
         assertEquals("t.csv: categorical column 'id' has 4 distinct values in the training split, more than"
                 + " data.max-levels (3): likely an ID or free text; expected it in data.drop, or a larger"
                 + " data.max-levels", e.getMessage());
-        assertEquals("max-levels", e.key());
+        assertEquals("data.max-levels", e.key());
         e = refused("v,y\n1,p\n2,q\n3,p\nx,q\n", options(null, List.of(), List.of(), 3, TableOptions.Missing.REFUSE));
         assertEquals("t.csv: categorical column 'v' has 4 distinct values in the training split, more than"
                 + " data.max-levels (3): likely an ID or free text (it is text because of 'x' on line 5; 3 of its"
@@ -261,7 +261,7 @@ class TableEncoderTest {
         assertEquals("t.csv: line 3, column 1 ('a'): expected a number, found '1,5'; settle reads numbers with a"
                 + " decimal point and without thousands separators, '%' or suffixes: convert the column, or list it in"
                 + " data.categorical if it holds categories", e.getMessage());
-        assertEquals("categorical", e.key());
+        assertEquals("data.categorical", e.key());
         Dataset d = prepare(text, options(null, List.of(), List.of("a"), 50, TableOptions.Missing.REFUSE)).all();
         assertEquals(List.of("a=1", "a=1,5", "a=2"), d.featureNames());
     }
@@ -302,7 +302,7 @@ class TableEncoderTest {
         for (Object[] c : cases) {
             BadInputException e = refused(text, (TableOptions) c[0]);
             assertEquals(c[2], e.getMessage());
-            assertEquals(c[1], e.key());
+            assertEquals("data." + c[1], e.key());
         }
     }
 
@@ -320,7 +320,7 @@ class TableEncoderTest {
         assertEquals("t.csv: label column 'y' holds 21 distinct numbers in 40 rows, more than max(20, 5 % of the rows)"
                 + " = 20: looks like a regression target; settle trains classifiers; expected class labels",
                 e.getMessage());
-        assertEquals("label", e.key());
+        assertEquals("data.label", e.key());
         // 1 000 rows: the cap is 5 % = 50 numbers; text labels are never capped
         StringBuilder many = new StringBuilder("a,y\n");
         for (int r = 0; r < 1000; r++) {

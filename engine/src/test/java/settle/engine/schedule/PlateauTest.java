@@ -5,6 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
 import org.junit.jupiter.api.Test;
+import settle.input.BadInputException;
 
 /** Plateau cuts, hand-computed from the rule of {@link Plateau}: window means, gain, floor, judge. */
 class PlateauTest {
@@ -68,12 +69,12 @@ class PlateauTest {
     void defaultsAndKeysThatAreNotPlateaus() {
         Plateau p = (Plateau) Schedules.parse(Maps.of("kind", "plateau", "rate", 0.3));
         assertEquals(new Plateau(0.3, 0.5, 5, 1.0, 0.0, Plateau.Judge.TRAIN, Warmup.NONE), p);
-        ScheduleException stall = assertThrows(ScheduleException.class,
+        BadInputException stall = assertThrows(BadInputException.class,
                 () -> Schedules.parse(Maps.of("kind", "plateau", "rate", 0.3, "stall", 3)));
         assertEquals("plateau: 'stall' is not a key of plateau; it compares the mean judged loss of two consecutive"
                 + " windows of 'window' epochs and judges a new rate only on its own epochs (keys: rate, cut, window,"
                 + " gain, floor, judge)", stall.getMessage());
-        ScheduleException absolute = assertThrows(ScheduleException.class,
+        BadInputException absolute = assertThrows(BadInputException.class,
                 () -> Schedules.parse(Maps.of("kind", "plateau", "rate", 0.3, "gain", 0.1)));
         assertEquals("gain", absolute.key());
         assertEquals(true, absolute.getMessage().contains("a percentage in [0%, 100%) such as 1%"),

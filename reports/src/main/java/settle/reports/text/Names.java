@@ -24,9 +24,24 @@ public final class Names {
     private Names() {
     }
 
-    /** @return {@code name} isolated for bidirectional text, its invisible characters made visible */
+    /**
+     * @return {@code name} with its invisible characters made visible, isolated for bidirectional text when it holds
+     *     a right-to-left letter or a bidirectional formatting character (a name of left-to-right letters, digits and
+     *     punctuation cannot reorder the left-to-right sentence around it, and stays as it is: plain on a terminal
+     *     and in a log)
+     */
     public static String shown(String name) {
-        StringBuilder b = new StringBuilder(name.length() + 2).append(ISOLATE);
+        boolean isolate = false;
+        for (int i = 0; i < name.length() && !isolate; i++) {
+            char c = name.charAt(i);
+            byte d = Character.getDirectionality(c);
+            isolate = BadInputException.isBidiControl(c) || d == Character.DIRECTIONALITY_RIGHT_TO_LEFT
+                    || d == Character.DIRECTIONALITY_RIGHT_TO_LEFT_ARABIC;
+        }
+        StringBuilder b = new StringBuilder(name.length() + 2);
+        if (isolate) {
+            b.append(ISOLATE);
+        }
         for (int i = 0; i < name.length(); i++) {
             char c = name.charAt(i);
             if (BadInputException.isBidiControl(c)) {
@@ -35,7 +50,10 @@ public final class Names {
                 visible(c, b);
             }
         }
-        return b.append(END_ISOLATE).toString();
+        if (isolate) {
+            b.append(END_ISOLATE);
+        }
+        return b.toString();
     }
 
     /**
