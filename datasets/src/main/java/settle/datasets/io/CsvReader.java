@@ -10,9 +10,7 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.List;
-import java.util.Map;
 import settle.input.BadInputException;
 import settle.datasets.Dataset;
 
@@ -42,7 +40,7 @@ import settle.datasets.Dataset;
 public final class CsvReader {
 
     /** Pass as {@code delimiter} to detect it from the header line. */
-    public static final char DETECT = 0;
+    public static final char DETECT = CsvHeader.DETECT;
 
     /** The most feature values one dataset may hold (one Java array). */
     public static final long MAX_VALUES = Integer.MAX_VALUE - 16L;
@@ -91,45 +89,11 @@ public final class CsvReader {
     }
 
     private static Dataset parse(CsvTokenizer t, String src, String labelColumn, char chosen) throws IOException {
-        t.skipBom();
-        t.skipEmptyLines();
-        if (t.atEnd()) {
-            throw BadInputException.of("", src + ": empty file; expected a header row naming the columns");
-        }
-        char delimiter = chosen == DETECT ? t.detectDelimiter() : chosen;
-        t.delimiter(delimiter);
-        List<String> header = new ArrayList<>();
-        long headerLine = t.nextRecord(header);
+        CsvHeader h = CsvHeader.read(t, src, labelColumn, chosen);
+        List<String> header = h.names();
+        long headerLine = h.line();
         int width = header.size();
-        Map<String, Integer> seen = new HashMap<>();
-        for (int c = 0; c < width; c++) {
-            String name = header.get(c);
-            if (name.isEmpty()) {
-                throw BadInputException.atCell(src, headerLine, c + 1, null, "empty column name in the header; "
-                        + "expected a name for every column");
-            }
-            Integer before = seen.put(name, c);
-            if (before != null) {
-                throw BadInputException.atCell(src, headerLine, c + 1, null, "duplicate column name "
-                        + BadInputException.shown(name) + " (also column " + (before + 1)
-                        + "); expected unique column names");
-            }
-        }
-        int labelAt;
-        if (labelColumn == null) {
-            labelAt = width - 1;
-        } else {
-            Integer at = seen.get(labelColumn);
-            if (at == null) {
-                throw BadInputException.atLine(src, headerLine, "no label column " + BadInputException.shown(labelColumn)
-                        + "; the columns are: " + String.join(", ", header));
-            }
-            labelAt = at;
-        }
-        if (width < 2) {
-            throw BadInputException.atLine(src, headerLine, "only one column (" + BadInputException.shown(header.get(0))
-                    + "); expected feature columns and a label column separated by ',', ';' or tab");
-        }
+        int labelAt = h.labelAt();
         List<String> featureNames = new ArrayList<>(width - 1);
         for (int c = 0; c < width; c++) {
             if (c != labelAt) {

@@ -10,10 +10,9 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.List;
-import java.util.Map;
 import settle.input.BadInputException;
+import settle.datasets.io.CsvHeader;
 import settle.datasets.io.CsvTokenizer;
 import settle.datasets.io.LabelIndex;
 import settle.datasets.io.Numbers;
@@ -45,7 +44,7 @@ import tech.tablesaw.columns.Column;
 public final class TableReader {
 
     /** Pass as the delimiter to detect it from the header line. */
-    public static final char DETECT = 0;
+    public static final char DETECT = CsvHeader.DETECT;
 
     /** The most data rows a table may have (one Java array per column). */
     public static final int MAX_ROWS = Integer.MAX_VALUE - 16;
@@ -125,45 +124,12 @@ public final class TableReader {
 
     private static Survey survey(CsvTokenizer t, String src, String labelColumn, char chosen) throws IOException {
         Survey s = new Survey();
-        t.skipBom();
-        t.skipEmptyLines();
-        if (t.atEnd()) {
-            throw BadInputException.of("", src + ": empty file; expected a header row naming the columns");
-        }
-        s.delimiter = chosen == DETECT ? t.detectDelimiter() : chosen;
-        t.delimiter(s.delimiter);
-        List<String> header = new ArrayList<>();
-        long headerLine = t.nextRecord(header);
+        CsvHeader h = CsvHeader.read(t, src, labelColumn, chosen);
+        s.delimiter = h.delimiter();
+        List<String> header = h.names();
+        long headerLine = h.line();
         int width = header.size();
-        Map<String, Integer> seen = new HashMap<>();
-        for (int c = 0; c < width; c++) {
-            String name = header.get(c);
-            if (name.isEmpty()) {
-                throw BadInputException.atCell(src, headerLine, c + 1, null, "empty column name in the header; "
-                        + "expected a name for every column");
-            }
-            Integer before = seen.put(name, c);
-            if (before != null) {
-                throw BadInputException.atCell(src, headerLine, c + 1, null, "duplicate column name "
-                        + BadInputException.shown(name) + " (also column " + (before + 1)
-                        + "); expected unique column names");
-            }
-        }
-        int labelAt;
-        if (labelColumn == null) {
-            labelAt = width - 1;
-        } else {
-            Integer at = seen.get(labelColumn);
-            if (at == null) {
-                throw BadInputException.atLine(src, headerLine, "no label column " + BadInputException.shown(labelColumn)
-                        + "; the columns are: " + String.join(", ", header));
-            }
-            labelAt = at;
-        }
-        if (width < 2) {
-            throw BadInputException.atLine(src, headerLine, "only one column (" + BadInputException.shown(header.get(0))
-                    + "); expected feature columns and a label column separated by ',', ';' or tab");
-        }
+        int labelAt = h.labelAt();
         s.header = List.copyOf(header);
         s.headerLine = headerLine;
         s.labelAt = labelAt;
