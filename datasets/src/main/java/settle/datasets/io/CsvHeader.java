@@ -75,4 +75,30 @@ public record CsvHeader(List<String> names, long line, int labelAt, char delimit
         }
         return new CsvHeader(header, headerLine, labelAt, delimiter);
     }
+
+    /**
+     * Reads the next data row into {@code fields}, skipping empty lines, and checks that it has the header's width.
+     *
+     * @param src the file as the user named it
+     * @return the row's line, or −1 at the end of the file
+     */
+    public long nextRow(CsvTokenizer t, String src, List<String> fields) throws IOException {
+        t.skipEmptyLines();
+        if (t.atEnd()) {
+            return -1;
+        }
+        long row = t.nextRecord(fields);
+        int width = names.size();
+        if (fields.size() > width) {
+            throw BadInputException.atCell(src, row, width + 1, null, "the row has " + fields.size()
+                    + " fields; expected " + width + " as in the header (line " + line + ")");
+        }
+        if (fields.size() < width) {
+            int present = fields.size();
+            throw BadInputException.atCell(src, row, present + 1, names.get(present), "missing; the row has "
+                    + present + " field" + (present == 1 ? "" : "s") + ", expected " + width
+                    + " as in the header (line " + line + ")");
+        }
+        return row;
+    }
 }

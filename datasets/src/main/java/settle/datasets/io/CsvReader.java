@@ -105,22 +105,7 @@ public final class CsvReader {
         LabelIndex labels = new LabelIndex();
         List<String> fields = new ArrayList<>(width);
         long features = width - 1L;
-        while (true) {
-            t.skipEmptyLines();
-            if (t.atEnd()) {
-                break;
-            }
-            long line = t.nextRecord(fields);
-            if (fields.size() != width) {
-                if (fields.size() > width) {
-                    throw BadInputException.atCell(src, line, width + 1, null, "the row has " + fields.size()
-                            + " fields; expected " + width + " as in the header (line " + headerLine + ")");
-                }
-                int missing = fields.size();
-                throw BadInputException.atCell(src, line, missing + 1, header.get(missing), "missing; the row has "
-                        + fields.size() + " field" + (fields.size() == 1 ? "" : "s") + ", expected " + width
-                        + " as in the header (line " + headerLine + ")");
-            }
+        for (long line = h.nextRow(t, src, fields); line >= 0; line = h.nextRow(t, src, fields)) {
             if ((labels.rows() + 1L) * features > MAX_VALUES) {
                 throw BadInputException.atLine(src, line, "more than " + MAX_VALUES
                         + " feature values; expected a dataset that fits one Java array");

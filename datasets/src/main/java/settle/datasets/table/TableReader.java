@@ -147,22 +147,7 @@ public final class TableReader {
         LabelIndex labels = new LabelIndex();
         List<String> fields = new ArrayList<>(width);
         String labelName = header.get(labelAt);
-        while (true) {
-            t.skipEmptyLines();
-            if (t.atEnd()) {
-                break;
-            }
-            long line = t.nextRecord(fields);
-            if (fields.size() != width) {
-                if (fields.size() > width) {
-                    throw BadInputException.atCell(src, line, width + 1, null, "the row has " + fields.size()
-                            + " fields; expected " + width + " as in the header (line " + headerLine + ")");
-                }
-                int present = fields.size();
-                throw BadInputException.atCell(src, line, present + 1, header.get(present), "missing; the row has "
-                        + present + " field" + (present == 1 ? "" : "s") + ", expected " + width
-                        + " as in the header (line " + headerLine + ")");
-            }
+        for (long line = h.nextRow(t, src, fields); line >= 0; line = h.nextRow(t, src, fields)) {
             if (labels.rows() == MAX_ROWS) {
                 throw BadInputException.atLine(src, line, "more than " + MAX_ROWS + " rows; expected a table whose"
                         + " columns each fit one Java array");
