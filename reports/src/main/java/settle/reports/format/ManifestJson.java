@@ -139,15 +139,7 @@ public final class ManifestJson {
      *     missing, of another type or out of its range
      */
     public static Manifest read(byte[] bytes, String file, String rerun) {
-        Obj m = JsonIn.read(bytes, file);
-        int format = m.integer("format", Integer.MIN_VALUE, Integer.MAX_VALUE);
-        if (format < StudyFormat.VERSION) {
-            throw StudyFormat.olderFormat(java.nio.file.Path.of(file), format, rerun);
-        }
-        if (format != StudyFormat.VERSION) {
-            throw m.problem("format", "study directory format " + format + " is not supported; this settle reads format "
-                    + StudyFormat.VERSION);
-        }
+        Obj m = thisFormat(bytes, file, rerun);
         for (String key : new String[] {"study", "model_l2", "grid"}) {
             if (!m.has(key)) {
                 throw m.problem(key, "missing (the manifest records the study's name, model_l2 and grid for the report"
@@ -212,7 +204,7 @@ public final class ManifestJson {
         }
         List<Grid> grids = grids(m, arms.size());
         List<Manifest.Status> statuses = statuses(m, arms.size());
-        return new Manifest(format, study, tool, jvm, cpu, executor, threads, command, generator, rootSeed, started,
+        return new Manifest(StudyFormat.VERSION, study, tool, jvm, cpu, executor, threads, command, generator, rootSeed, started,
                 ended, planHash, dataHash, splitHash, data, standardisation, model, parameters, l2, reference, baseline,
                 arms, grids, statuses);
     }
@@ -230,13 +222,10 @@ public final class ManifestJson {
     }
 
     /**
-     * Reads what a resumed run needs from an earlier run's manifest. Only these keys are required, so that a
-     * manifest of format 2 written before the study's name, λ and grid were recorded is rewritten, not refused.
-     *
-     * @param rerun the command that rewrites the study in this format, for the refusal of an older one
-     * @throws BadInputException for a manifest in an older format, not JSON, or without the hashes
+     * @return the manifest's JSON object, once its {@code format} is this settle's (an older one is refused with how
+     *     to rewrite it, a newer or unknown one as not supported)
      */
-    public static Earlier earlier(byte[] bytes, String file, String rerun) {
+    private static Obj thisFormat(byte[] bytes, String file, String rerun) {
         Obj m = JsonIn.read(bytes, file);
         int format = m.integer("format", Integer.MIN_VALUE, Integer.MAX_VALUE);
         if (format < StudyFormat.VERSION) {
@@ -246,6 +235,18 @@ public final class ManifestJson {
             throw m.problem("format", "study directory format " + format + " is not supported; this settle reads format "
                     + StudyFormat.VERSION);
         }
+        return m;
+    }
+
+    /**
+     * Reads what a resumed run needs from an earlier run's manifest. Only these keys are required, so that a
+     * manifest of format 2 written before the study's name, λ and grid were recorded is rewritten, not refused.
+     *
+     * @param rerun the command that rewrites the study in this format, for the refusal of an older one
+     * @throws BadInputException for a manifest in an older format, not JSON, or without the hashes
+     */
+    public static Earlier earlier(byte[] bytes, String file, String rerun) {
+        Obj m = thisFormat(bytes, file, rerun);
         List<Grid> grids;
         try {
             grids = m.has("grid") ? grids(m, m.objects("arms").size()) : List.of();
