@@ -101,4 +101,19 @@ public record CsvHeader(List<String> names, long line, int labelAt, char delimit
         }
         return row;
     }
+
+    /**
+     * @param fields a data row read by {@link #nextRow}
+     * @param src the file as the user named it
+     * @param row the row's line
+     * @return the row's class label, stripped of surrounding blanks; an empty one is refused at its cell
+     */
+    public String label(List<String> fields, String src, long row) {
+        String label = fields.get(labelAt).strip();
+        if (label.isEmpty()) {
+            throw BadInputException.atCell(src, row, labelAt + 1, names.get(labelAt), "empty label; expected a class"
+                    + " label");
+        }
+        return label;
+    }
 }

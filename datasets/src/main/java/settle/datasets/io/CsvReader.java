@@ -113,11 +113,7 @@ public final class CsvReader {
             for (int c = 0; c < width; c++) {
                 String cell = fields.get(c);
                 if (c == labelAt) {
-                    String label = cell.strip();
-                    if (label.isEmpty()) {
-                        throw BadInputException.atCell(src, line, c + 1, labelName, "empty label; expected a class label");
-                    }
-                    labels.add(label);
+                    labels.add(h.label(fields, src, line));
                 } else {
                     int kind = Numbers.classify(cell);
                     if (kind != Numbers.OK) {
