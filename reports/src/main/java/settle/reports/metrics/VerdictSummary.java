@@ -163,10 +163,10 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
         }
         if (moves == Outcome.LOWER) {
             b.append(", and settles ").append(VerdictSentence.size(radius)).append(" tighter (tail radius")
-                    .append(", ").append(pOnly(radius)).append(')');
+                    .append(", ").append(VerdictSentence.pText(radius)).append(')');
         } else if (moves == Outcome.HIGHER) {
             b.append(", and still moves ").append(VerdictSentence.size(radius)).append(" more at the end (tail radius, ")
-                    .append(pOnly(radius)).append(')');
+                    .append(VerdictSentence.pText(radius)).append(')');
         }
         if (froze) {
             b.append(": it froze before reaching the minimum, its rate fell too fast for this budget");
@@ -176,12 +176,6 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
                     + " objective above the starting one)");
         }
         return b.toString();
-    }
-
-    /** @return "adjusted p = 0.0024" or "p = 0.0024" */
-    private static String pOnly(Comparison c) {
-        String detail = VerdictSentence.detail(c);
-        return detail.substring(detail.lastIndexOf(", ") + 2);
     }
 
     private static String pickSentence(StudyAnalysis analysis, Metric primary, int base, ArmPick pick,

@@ -215,7 +215,8 @@ public final class VerdictSentence {
         return c.arms() > 1 ? "Bonferroni " + level : level;
     }
 
-    private static String pText(Comparison c) {
+    /** @return the p as shown: "adjusted p = 0.0024" with several arms, "p = 0.0024" with one */
+    public static String pText(Comparison c) {
         String name = c.arms() > 1 ? "adjusted p" : "p";
         double p = c.arms() > 1 ? c.pAdjusted() : c.p();
         if (p < SMALLEST_SHOWN_P) {
