@@ -58,11 +58,6 @@ public record Comparison(String metric, String arm, String baseline, Direction d
         }
     }
 
-    /** @return 100·(exp(logRatio) − 1): the % change of the arm relative to the baseline */
-    public static double percent(double logRatio) {
-        return 100.0 * Math.expm1(logRatio);
-    }
-
     /** @return the estimated change as shown: % (log ratio) or percentage points (NaN without finite pairs) */
     public double change() {
         return scale.shown(estimate);

@@ -73,14 +73,6 @@ public final class VerdictSentence {
     }
 
     /**
-     * @param c a comparison whose outcome is {@link Outcome#LOWER} or {@link Outcome#HIGHER}
-     * @return the magnitude of its change as shown, with its unit: "92 %", "> 99.9 %", "2 percentage points"
-     */
-    public static String size(Comparison c) {
-        return magnitude(c);
-    }
-
-    /**
      * @param c a comparison with an effect
      * @return the metric, its signed change, its interval and p, as "final gap −92 %, Bonferroni 99 % CI −95 to
      *     −88 %, adjusted p = 0.0024" (no interval when the pairs are too few for its level)
@@ -105,7 +97,7 @@ public final class VerdictSentence {
             main = "has the same " + c.metric() + " as the baseline in all " + c.effectPairs() + " pairs";
             effectShown = true;
         } else if (c.detected() && reachesLevel(c) && effectAgrees(c)) {
-            main = (c.armLarger() ? "increases " : "reduces ") + c.metric() + " by " + magnitude(c) + " ("
+            main = (c.armLarger() ? "increases " : "reduces ") + c.metric() + " by " + size(c) + " ("
                     + ciText(c, false) + ", " + pText(c) + ")";
             effectShown = true;
         } else if (!c.detected() && (!reachesLevel(c) || !c.intervalExcludesZero())) {
@@ -230,7 +222,7 @@ public final class VerdictSentence {
     }
 
     /** @return the estimate's magnitude with its unit: "64 %", "> 99.9 %", "0.87 percentage points" */
-    private static String magnitude(Comparison c) {
+    public static String size(Comparison c) {
         String m = magnitudeOf(c.scale(), c.change());
         return c.scale() == Scale.LOG_RATIO ? m + " %" : m + " percentage point" + (m.equals("1") ? "" : "s");
     }

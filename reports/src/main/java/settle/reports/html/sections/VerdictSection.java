@@ -10,6 +10,7 @@ import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.ArmSummary;
 import settle.reports.stats.Comparison;
 import settle.reports.stats.Interval;
+import settle.reports.stats.Scale;
 import settle.reports.stats.VerdictSentence;
 import settle.reports.format.Manifest;
 import settle.reports.format.Metric;
@@ -194,7 +195,8 @@ final class VerdictSection implements Section {
 
     /** @return an interval of log-ratios as a range of % changes, or "—" when undefined */
     private static String range(Interval i) {
-        return i.isDefined() ? Format.percentRange(Comparison.percent(i.low()), Comparison.percent(i.high())) : "—";
+        return i.isDefined() ? Format.percentRange(Scale.LOG_RATIO.shown(i.low()), Scale.LOG_RATIO.shown(i.high()))
+                : "—";
     }
 
     /** @return "median [IQR]" of metric m for arm a, or "—" when the metric is unavailable */
