@@ -1,27 +1,34 @@
 #!/usr/bin/python3
-"""Makes settle's bundled dataset resources from the copies in Debian's python3-sklearn 1.2.1.
+"""Makes settle's bundled dataset resources, each with its provenance.
 
-Run once with the system python (/usr/bin/python3, Debian python3-sklearn 1.2.1):
+Run once from the repository root with the system python and R:
     OMP_NUM_THREADS=1 /usr/bin/python3 datasets/src/main/bundled/make_bundled.py
-It reads sklearn/datasets/data/{breast_cancer.csv, iris.csv, wine_data.csv, digits.csv.gz}, copies every
-feature value as the text written there (no float round trip), replaces the integer targets by string
-labels, takes the feature names from scikit-learn's own loaders, and writes
-datasets/src/main/resources/settle/datasets/bundled/<name>.csv (header row, label column last, LF line ends).
-It prints the SHA-256 of each file for BundledData.java.
+It needs Debian's python3-sklearn 1.2.1 (for the WDBC and wine copies), r-base 4.2.2 and r-cran-mlbench 2.1-3
+(for Satellite and HouseVotes84). Every value is copied as the text written at the source (no float round trip),
+and each file is written to datasets/src/main/resources/settle/datasets/bundled/<name>.csv (header row, label
+column last, LF line ends). It prints the SHA-256 of each file for BundledData.java.
 
-Relabelling:
-  wdbc      breast_cancer.csv codes malignant as 0 and benign as 1 (its header: 569,30,malignant,benign);
-            written as 'malignant' / 'benign', so settle's lexical class order is benign < malignant and
-            malignant is class 1, the positive class.
-  iris      0, 1, 2 -> setosa, versicolor, virginica (iris.csv header)
-  wine      0, 1, 2 -> class_0, class_1, class_2 (wine_data.csv header; the three cultivars)
-  optdigits 0 .. 9 stay digits 0 .. 9
+  wdbc          sklearn/datasets/data/breast_cancer.csv (UCI Breast Cancer Wisconsin (Diagnostic)); it codes
+                malignant as 0 and benign as 1 (its header: 569,30,malignant,benign); written as 'malignant' /
+                'benign', so settle's lexical class order is benign < malignant and malignant is class 1, the
+                positive class. Feature names from scikit-learn's load_breast_cancer.
+  wine          sklearn/datasets/data/wine_data.csv (UCI Wine); the targets 0, 1, 2 are the UCI file's classes
+                1, 2, 3, which its documentation (wine.names) describes only as "three different cultivars":
+                written as 'cultivar 1', 'cultivar 2', 'cultivar 3'. Feature names from load_wine.
+  satellite     mlbench's Satellite (UCI Statlog (Landsat Satellite), training and test files together, 6 435
+                rows): the 36 values x.1 .. x.36 are four spectral bands of each pixel of a 3x3 neighbourhood,
+                pixels left-to-right, top-to-bottom (?Satellite), named here pixelP.bandB (P = 1..9, the centre
+                is pixel 5; B = 1..4: bands 1 and 2 visible green and red, 3 and 4 near infra-red); the label
+                'cover' is the factor 'classes' with mlbench's level names.
+  housevotes84  mlbench's HouseVotes84 (UCI Congressional Voting Records): the columns V1 .. V16 renamed to
+                the 16 votes as ?HouseVotes84 lists them, y/n answers kept as text, the 392 unknown
+                dispositions written as empty cells; the label 'party' (democrat / republican) moved last.
 """
 import csv
-import gzip
 import hashlib
 import io
 import os
+import subprocess
 
 import sklearn
 from sklearn import datasets
@@ -31,45 +38,51 @@ assert sklearn.__version__ == "1.2.1", sklearn.__version__
 DATA = os.path.join(os.path.dirname(datasets.__file__), "data")
 OUT = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "resources", "settle", "datasets", "bundled")
 
+VOTES = ["handicapped-infants", "water-project-cost-sharing", "adoption-of-the-budget-resolution",
+         "physician-fee-freeze", "el-salvador-aid", "religious-groups-in-schools", "anti-satellite-test-ban",
+         "aid-to-nicaraguan-contras", "mx-missile", "immigration", "synfuels-corporation-cutback",
+         "education-spending", "superfund-right-to-sue", "crime", "duty-free-exports",
+         "export-administration-act-south-africa"]
 
-def rows_of(text, skip_header):
-    reader = csv.reader(io.StringIO(text))
-    rows = list(reader)
-    return rows[1:] if skip_header else rows
 
-
-def write(name, feature_names, label_name, rows, label_of):
-    path = os.path.join(OUT, name + ".csv")
-    lines = [",".join(list(feature_names) + [label_name])]
-    for row in rows:
-        values, target = row[:-1], row[-1]
-        assert len(values) == len(feature_names), (name, len(values))
-        lines.append(",".join(v.strip() for v in values) + "," + label_of(target.strip()))
+def write(name, header, rows):
+    lines = [",".join(header)] + [",".join(row) for row in rows]
     data = ("\n".join(lines) + "\n").encode("utf-8")
-    with open(path, "wb") as f:
+    with open(os.path.join(OUT, name + ".csv"), "wb") as f:
         f.write(data)
     print(name, len(rows), "rows", hashlib.sha256(data).hexdigest())
 
 
-def read(name):
-    with open(os.path.join(DATA, name), encoding="utf-8") as f:
-        return f.read()
+def sklearn_rows(file, label_of):
+    with open(os.path.join(DATA, file), encoding="utf-8") as f:
+        rows = list(csv.reader(f))[1:]
+    return [[v.strip() for v in row[:-1]] + [label_of(row[-1].strip())] for row in rows]
+
+
+def r_csv(expression):
+    """Runs R, which writes a data frame as CSV (no quotes, NA as empty) to stdout; returns header and rows."""
+    program = ('library(mlbench); stopifnot(packageVersion("mlbench") == "2.1.3"); ' + expression)
+    text = subprocess.run(["Rscript", "-e", program], check=True, capture_output=True, text=True).stdout
+    rows = list(csv.reader(io.StringIO(text)))
+    return rows[0], rows[1:]
 
 
 bc = datasets.load_breast_cancer()
 assert list(bc.target_names) == ["malignant", "benign"]
-write("wdbc", bc.feature_names, "diagnosis", rows_of(read("breast_cancer.csv"), True),
-      lambda t: {"0": "malignant", "1": "benign"}[t])
-
-iris = datasets.load_iris()
-write("iris", iris.feature_names, "species", rows_of(read("iris.csv"), True),
-      lambda t: list(iris.target_names)[int(t)])
+write("wdbc", list(bc.feature_names) + ["diagnosis"],
+      sklearn_rows("breast_cancer.csv", lambda t: {"0": "malignant", "1": "benign"}[t]))
 
 wine = datasets.load_wine()
-write("wine", wine.feature_names, "cultivar", rows_of(read("wine_data.csv"), True),
-      lambda t: list(wine.target_names)[int(t)])
+write("wine", list(wine.feature_names) + ["cultivar"],
+      sklearn_rows("wine_data.csv", lambda t: "cultivar " + str(int(t) + 1)))
 
-digits = datasets.load_digits()
-with gzip.open(os.path.join(DATA, "digits.csv.gz"), "rt", encoding="utf-8") as f:
-    digit_rows = rows_of(f.read(), False)
-write("optdigits", digits.feature_names, "digit", digit_rows, lambda t: str(int(float(t))))
+header, rows = r_csv('data(Satellite); write.csv(Satellite, stdout(), quote = FALSE, row.names = FALSE)')
+assert header == ["x.%d" % k for k in range(1, 37)] + ["classes"], header
+assert len(rows) == 6435
+write("satellite", ["pixel%d.band%d" % (p, b) for p in range(1, 10) for b in range(1, 5)] + ["cover"], rows)
+
+header, rows = r_csv('data(HouseVotes84); write.csv(HouseVotes84, stdout(), quote = FALSE, na = "", '
+                     'row.names = FALSE)')
+assert header == ["Class"] + ["V%d" % k for k in range(1, 17)], header
+assert len(rows) == 435 and sum(v == "" for row in rows for v in row) == 392
+write("housevotes84", VOTES + ["party"], [row[1:] + [row[0]] for row in rows])

@@ -6,6 +6,8 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import settle.datasets.bundled.BundledData;
+import settle.datasets.bundled.BundledDataset;
 import settle.datasets.io.LibsvmReader;
 import settle.datasets.synthetic.Synthetic;
 import settle.datasets.table.SourceTable;
@@ -21,7 +23,8 @@ import settle.datasets.table.TableReader;
  *                               categorical; see {@link #prepare} for the plan's column keys)
  *   csv:PATH?delimiter=D        D = comma | semicolon | tab | auto
  *   libsvm:PATH                 a LIBSVM / SVMlight text file
- *   bundled:NAME                wdbc | iris | wine | optdigits
+ *   bundled:NAME                wdbc | wine | satellite | housevotes84 (a table with text columns and gaps:
+ *                               read like a csv: table, so the plan's column keys apply)
  *   synthetic:gaussian?rows=500&amp;features=5&amp;classes=2&amp;separation=2&amp;correlation=0&amp;seed=1
  *   synthetic:xor?rows=400&amp;noise=0.5&amp;seed=1
  *   synthetic:frost?rows=1000&amp;seed=1       the demo scenario (invented data)
@@ -55,7 +58,7 @@ public final class DataSources {
                     + " followed by a path or name, e.g. csv:data.csv");
         }
         String s = source.strip();
-        if (s.startsWith("csv:")) {
+        if (s.startsWith("csv:") || isBundledTable(s)) {
             return prepare(source, labelColumn, TableOptions.DEFAULTS, relativeTo, SplitRule.NONE).all();
         }
         if (s.startsWith("libsvm:")) {
@@ -64,7 +67,7 @@ public final class DataSources {
             return LibsvmReader.read(resolve(path, relativeTo), path);
         }
         if (s.startsWith("bundled:")) {
-            return settle.datasets.bundled.BundledData.load(s.substring(8), labelColumn);
+            return BundledData.load(s.substring(8), labelColumn);
         }
         if (s.startsWith("synthetic:")) {
             noLabel(source, labelColumn, "synthetic data carry their own labels");
@@ -92,14 +95,15 @@ public final class DataSources {
      */
     public static PreparedData prepare(String source, String labelColumn, TableOptions options, Path relativeTo,
             SplitRule rule) {
-        if (source != null && source.strip().startsWith("csv:")) {
+        if (source != null && (source.strip().startsWith("csv:") || isBundledTable(source.strip()))) {
             SourceTable table = readTable(source, labelColumn, relativeTo);
             int[][] parts = Splits.parts(table.name(), table.labels(), table.classNames(), rule);
             return TableEncoder.prepare(table, options, parts[0], parts[1], parts[2]);
         }
         if (!options.isDefault()) {
             throw BadInputException.of("data." + firstSetKey(options), source + ": data." + firstSetKey(options)
-                    + " applies to csv: tables only; expected it absent for this source");
+                    + " applies to csv: tables and bundled tables (" + String.join(", ", bundledTables())
+                    + ") only; expected it absent for this source");
         }
         Dataset all = load(source, labelColumn, relativeTo);
         int[][] parts = Splits.parts(all.name(), all.labels(), all.classNames(), rule);
@@ -113,9 +117,38 @@ public final class DataSources {
     }
 
     /**
-     * Reads a {@code csv:} source into its typed columns.
+     * @param source a source string, stripped
+     * @return whether it names a bundled table ({@link BundledDataset#table()}), which is read and encoded like a
+     *         {@code csv:} table
+     */
+    public static boolean isBundledTable(String source) {
+        if (!source.startsWith("bundled:")) {
+            return false;
+        }
+        String name = source.substring(8);
+        for (BundledDataset d : BundledData.all()) {
+            if (d.name().equals(name)) {
+                return d.table();
+            }
+        }
+        return false;
+    }
+
+    /** @return the names of the bundled tables, in registry order */
+    public static List<String> bundledTables() {
+        List<String> names = new ArrayList<>();
+        for (BundledDataset d : BundledData.all()) {
+            if (d.table()) {
+                names.add(d.name());
+            }
+        }
+        return names;
+    }
+
+    /**
+     * Reads a {@code csv:} source or a bundled table into its typed columns.
      *
-     * @param source {@code csv:PATH} or {@code csv:PATH?delimiter=D}
+     * @param source {@code csv:PATH}, {@code csv:PATH?delimiter=D} or {@code bundled:NAME} of a bundled table
      * @param labelColumn the label column, or null for the last
      * @param relativeTo the directory relative paths are resolved against, or null for the working directory
      * @return the table as read
@@ -123,8 +156,11 @@ public final class DataSources {
      */
     public static SourceTable readTable(String source, String labelColumn, Path relativeTo) {
         String s = source.strip();
+        if (isBundledTable(s)) {
+            return BundledData.readTable(s.substring(8), labelColumn);
+        }
         if (!s.startsWith("csv:")) {
-            throw BadInputException.of("", source + ": not a csv: source; expected csv:PATH");
+            throw BadInputException.of("", source + ": not a csv: source or bundled table; expected csv:PATH");
         }
         String rest = s.substring(4);
         char delimiter = TableReader.DETECT;

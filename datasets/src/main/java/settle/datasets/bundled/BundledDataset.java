@@ -8,10 +8,13 @@ import java.util.List;
  * @param name the name after {@code bundled:}
  * @param title the dataset's full name at its source
  * @param resource the class-path resource holding it (CSV, header row, label column last)
+ * @param table true for a table with text columns or gaps, read through the table path
+ *        ({@link settle.datasets.table.TableReader}, so the plan's {@code data.*} column keys apply); false for an
+ *        all-numeric file without gaps, read by {@link settle.datasets.io.CsvReader}
  * @param sha256 the SHA-256 of the resource's bytes, lower-case hex; verified on every load
  * @param labelColumn the label column's name
  * @param rows N
- * @param features d
+ * @param features the input columns before encoding (d, for an all-numeric file)
  * @param classNames the classes in settle's order (sorted labels)
  * @param classCounts rows per class, in that order
  * @param source where the copy was taken from
@@ -19,7 +22,8 @@ import java.util.List;
  * @param credit the creators to credit
  * @param citation the original citation (and the repository's DOI)
  */
-public record BundledDataset(String name, String title, String resource, String sha256, String labelColumn, int rows,
+public record BundledDataset(String name, String title, String resource, boolean table, String sha256,
+        String labelColumn, int rows,
         int features, List<String> classNames, List<Integer> classCounts, String source, String licence, String credit,
         String citation) {
 

@@ -8,6 +8,7 @@ import picocli.CommandLine.Spec;
 import settle.datasets.Dataset;
 import settle.datasets.bundled.BundledData;
 import settle.datasets.bundled.BundledDataset;
+import settle.datasets.table.SourceTable;
 
 /** {@code settle datasets}: the bundled datasets with their provenance, each checked against its SHA-256. */
 @Command(name = "datasets", mixinStandardHelpOptions = true,
@@ -22,16 +23,30 @@ public final class DatasetsCommand implements Callable<Integer> {
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
         out.println("Bundled datasets: use them as --data bundled:NAME or data.source: bundled:NAME.");
-        out.println("All four come from the " + BundledData.REPOSITORY + ",");
+        out.println("Each comes from the " + BundledData.REPOSITORY + ",");
         out.println("licensed CC BY 4.0: credit UCI and the original creators named below when you publish results.");
         for (BundledDataset d : BundledData.all()) {
-            Dataset loaded = BundledData.load(d.name(), null);
             out.println();
             out.println(d.name() + "  " + d.title());
-            out.println("  rows      " + loaded.rows() + ", features " + loaded.features() + ", label column '"
-                    + d.labelColumn() + "'");
-            out.println("  classes   " + loaded.classes() + ": " + d.classSummary()
-                    + (loaded.classes() == 2 ? " (class 1, the positive class: " + d.classNames().get(1) + ")" : ""));
+            int classes;
+            if (d.table()) {
+                SourceTable table = BundledData.readTable(d.name(), null);
+                int missing = 0;
+                for (int c = 0; c < table.columnNames().size(); c++) {
+                    missing += c == table.labelColumn() ? 0 : table.missingCells(c);
+                }
+                classes = table.classNames().size();
+                out.println("  rows      " + table.rows() + ", input columns " + (table.columnNames().size() - 1)
+                        + " (" + missing + " missing cells; a table: the data.* column keys apply), label column '"
+                        + d.labelColumn() + "'");
+            } else {
+                Dataset loaded = BundledData.load(d.name(), null);
+                classes = loaded.classes();
+                out.println("  rows      " + loaded.rows() + ", features " + loaded.features() + ", label column '"
+                        + d.labelColumn() + "'");
+            }
+            out.println("  classes   " + classes + ": " + d.classSummary()
+                    + (classes == 2 ? " (class 1, the positive class: " + d.classNames().get(1) + ")" : ""));
             out.println("  source    " + d.source());
             out.println("  licence   " + d.licence());
             out.println("  creators  " + d.credit());

@@ -25,6 +25,7 @@ import settle.engine.schedule.Schedule;
 import settle.input.BadInputException;
 import settle.engine.schedule.Schedules;
 import settle.engine.train.Sampling;
+import settle.datasets.DataSources;
 import settle.datasets.table.TableOptions;
 import settle.reports.format.Grid;
 
@@ -269,11 +270,12 @@ public final class PlanParser {
         double holdout = present(m, "holdout-fraction")
                 ? number(m, "data", "holdout-fraction", Range.HALF_OPEN_UNIT) : DEFAULT_HOLDOUT_FRACTION;
         boolean standardize = !present(m, "standardize") || bool(m, "data", "standardize");
-        if (!kind.equals("csv")) {
+        if (!kind.equals("csv") && !DataSources.isBundledTable(source)) {
             for (String key : TABLE_KEYS) {
                 if (present(m, key)) {
-                    throw error(value(m, key), "data." + key, "applies to csv: tables only, not to " + kind
-                            + ": sources (they have no columns to choose or encode); remove it");
+                    throw error(value(m, key), "data." + key, "applies to csv: tables and bundled tables ("
+                            + String.join(", ", DataSources.bundledTables()) + ") only, not to " + shown(source)
+                            + " (it has no columns to choose or encode); remove it");
                 }
             }
         }
