@@ -117,15 +117,21 @@ X, y = X[perm], y[perm]
 fit("multinomial", X, y, 0.02, True)
 fit("multinomial-unpenalised", X, y, 0.0, False)
 
-# Bundled data (Debian's copies shipped with scikit-learn 1.2.1), standardised on all rows with
+# Bundled data (WDBC and wine: Debian's copies shipped with scikit-learn 1.2.1), standardised on all rows with
 # StandardScaler (divisor N, constant columns scale 1), as `settle minimum --standardize` does.
 # Breast cancer: scikit-learn codes malignant as 0, benign as 1; settle's classes are the sorted names
 # (benign 0, malignant 1), so y = 1 - target.
 bc = datasets.load_breast_cancer()
 fit("wdbc", StandardScaler().fit_transform(bc.data), 1 - bc.target, 0.01, False)
-# Iris: targets 0, 1, 2 are setosa, versicolor, virginica, already in sorted order.
-ir = datasets.load_iris()
-fit("iris", StandardScaler().fit_transform(ir.data), ir.target, 0.01, False)
-# Wine: targets 0, 1, 2 are class_0, class_1, class_2, in sorted order.
+# Landsat satellite: R mlbench 2.1-3's data(Satellite) (Debian r-cran-mlbench, R 4.2.2), the rows settle bundles;
+# classes in sorted order of their names, as settle orders them.
+import csv, io, subprocess
+sat = list(csv.reader(io.StringIO(subprocess.run(["Rscript", "-e", 'library(mlbench); stopifnot(packageVersion('
+    '"mlbench") == "2.1.3"); data(Satellite); write.csv(Satellite, stdout(), row.names = FALSE)'], check=True,
+    capture_output=True, text=True).stdout)))[1:]
+covers = sorted({r[-1] for r in sat})
+fit("satellite", StandardScaler().fit_transform(np.array([[float(v) for v in r[:-1]] for r in sat])),
+    np.array([covers.index(r[-1]) for r in sat]), 0.01, False)
+# Wine: targets 0, 1, 2 are the cultivars 1, 2, 3 (settle: 'cultivar 1' .. 'cultivar 3'), in sorted order.
 wi = datasets.load_wine()
 fit("wine", StandardScaler().fit_transform(wi.data), wi.target, 0.01, False)
