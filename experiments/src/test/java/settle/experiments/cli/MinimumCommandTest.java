@@ -55,16 +55,16 @@ class MinimumCommandTest {
     @Test
     void writesThetaOnePerLine(@TempDir Path dir) throws IOException {
         Path file = dir.resolve("theta.csv");
-        Result r = run("minimum", "--data", "bundled:iris", "--standardize", "--l2", "0.01", "--out", file.toString());
+        Result r = run("minimum", "--data", "bundled:wine", "--standardize", "--l2", "0.01", "--out", file.toString());
         assertEquals(0, r.code(), r.err());
         List<String> lines = Files.readAllLines(file, StandardCharsets.UTF_8);
-        assertEquals(15, lines.size());
+        assertEquals(42, lines.size()); // 3 cultivars × 13 weights, then 3 biases
         double biasSum = 0;
-        for (int k = 12; k < 15; k++) {
+        for (int k = 39; k < 42; k++) {
             biasSum += Double.parseDouble(lines.get(k));
         }
         assertEquals(0.0, biasSum, 1e-12, "softmax biases centred");
-        assertTrue(r.out().contains("(14 of 15 directions)"), r.out());
+        assertTrue(r.out().contains("(41 of 42 directions)"), r.out());
     }
 
     @Test
@@ -84,15 +84,15 @@ class MinimumCommandTest {
         assertEquals(1, unknown.err().strip().lines().count(), unknown.err());
         assertTrue(unknown.err().startsWith("bundled:nosuch: no such bundled dataset"), unknown.err());
 
-        Result mlp = run("minimum", "--data", "bundled:iris", "--model", "mlp");
+        Result mlp = run("minimum", "--data", "bundled:wine", "--model", "mlp");
         assertEquals(2, mlp.code());
         assertEquals("settle minimum: --model 'mlp' has no exact minimiser; accepted: logistic", mlp.err().strip());
 
-        Result negative = run("minimum", "--data", "bundled:iris", "--l2", "-1");
+        Result negative = run("minimum", "--data", "bundled:wine", "--l2", "-1");
         assertEquals(2, negative.code());
         assertEquals("settle minimum: --l2 must be a finite number >= 0, got -1.0", negative.err().strip());
 
-        assertEquals(2, run("minimum", "--data", "bundled:iris", "--l2", "abc").code());
+        assertEquals(2, run("minimum", "--data", "bundled:wine", "--l2", "abc").code());
         assertEquals(2, run("minimum").code());
     }
 }

@@ -160,12 +160,12 @@ class TraceCommandTest {
 
     @Test
     void printsEpochByEpochWithTestMetrics() {
-        Result r = run("trace", "--data", "bundled:iris", "--test-fraction", "0.2", "--standardize", "--schedule",
+        Result r = run("trace", "--data", "bundled:wine", "--test-fraction", "0.2", "--standardize", "--schedule",
                 "{kind: reciprocal, rate: 0.5, decay: 0.1}", "--epochs", "3", "--batch", "16");
         assertEquals(0, r.code(), r.err());
         String[] lines = r.out().replace("\r\n", "\n").split("\n");
-        assertTrue(lines[0].startsWith("multinomial logistic regression, 4 features, 3 classes; 120 training rows, "
-                + "30 test rows; 3 epochs × 8 updates of batch 16 (shuffle)"), lines[0]);
+        assertTrue(lines[0].startsWith("multinomial logistic regression, 13 features, 3 classes; 142 training rows, "
+                + "36 test rows; 3 epochs × 9 updates of batch 16 (shuffle)"), lines[0]);
         int header = 0;
         while (!lines[header].startsWith("epoch")) {
             header++;

@@ -170,8 +170,8 @@ class ProbeTest {
     }
 
     @Test
-    void anMlpOnIris() throws Exception {
-        checkUpperEnd("bundled:iris", "  kind: mlp\n  hidden: [16]\n", false);
+    void anMlpOnWine() throws Exception {
+        checkUpperEnd("bundled:wine", "  kind: mlp\n  hidden: [16]\n", false);
     }
 
     @Test

@@ -18,7 +18,7 @@ class ExamplePlansTest {
     Path dir;
 
     @ParameterizedTest
-    @ValueSource(strings = {"demo", "wdbc", "iris", "wine", "optdigits", "mlp", "grid"})
+    @ValueSource(strings = {"demo", "wdbc", "wine", "satellite", "housevotes84", "mlp", "grid"})
     void examplePlanRunsAtAReducedBudgetIntoAValidStudyDirectory(String name) throws Exception {
         String text = Files.readString(Path.of("plans", name + ".yaml"));
         String reduced = text.replaceFirst("(?m)^replicates: \\d+$", "replicates: 2")
