@@ -170,8 +170,8 @@ class ProbeTest {
     }
 
     @Test
-    void anMlpOnWine() throws Exception {
-        checkUpperEnd("bundled:wine", "  kind: mlp\n  hidden: [16]\n", false);
+    void anMlpOnSatellite() throws Exception {
+        checkUpperEnd("bundled:satellite", "  kind: mlp\n  hidden: [16]\n", false);
     }
 
     @Test
