@@ -10,6 +10,7 @@ import settle.datasets.table.TableReport;
 import settle.experiments.plan.PlanData;
 import settle.input.BadInputException;
 import settle.reports.format.EncodingRecord;
+import settle.reports.format.StudyFormat;
 
 /**
  * The study's {@code encoding.json} from its prepared data ({@link EncodingRecord}), and the check a resumed run
@@ -103,8 +104,9 @@ public final class EncodingFile {
         }
         String[] change = change(recorded, now);
         if (change != null) {
-            throw BadInputException.inFile(directory.toString(), change[0], change[1] + " since this study was run; use"
-                    + " --fresh to discard its results, or --out DIR for a new study");
+            throw BadInputException.inFile(directory.toString(), change[0], change[1] + "; this study was run with"
+                    + " the encoding it records in " + StudyFormat.ENCODING + ": use --fresh to discard its results, or"
+                    + " --out DIR for a new study");
         }
     }
 
@@ -209,7 +211,7 @@ public final class EncodingFile {
     }
 
     private static String shown(String name) {
-        return "'" + BadInputException.shown(name) + "'";
+        return BadInputException.shown(name);
     }
 
     /** @return the levels as a list, at most 8 shown then "… (n in all)" */
