@@ -137,8 +137,11 @@ public final class MinimumCommand implements Callable<Integer> {
             stdout.println("θ*: " + theta.length + " values written to " + out);
         } else {
             stdout.println("θ* (" + theta.length + " values, " + order(built) + "):");
-            for (double v : theta) {
-                stdout.println(v);
+            settle.reports.metrics.Coefficients co = settle.reports.metrics.Coefficients.of(theta, dataset.features(),
+                    dataset.classNames());
+            java.util.List<String> labels = co == null ? null : co.labels(dataset.featureNames());
+            for (int i = 0; i < theta.length; i++) {
+                stdout.println(labels == null ? Double.toString(theta[i]) : theta[i] + "  " + labels.get(i));
             }
         }
         return Main.OK;

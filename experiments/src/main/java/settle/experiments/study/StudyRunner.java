@@ -37,6 +37,8 @@ import settle.experiments.run.ReplicateWork;
 import settle.input.BadInputException;
 import settle.reports.Report;
 import settle.reports.format.AtomicFile;
+import settle.reports.format.EncodingJson;
+import settle.reports.format.EncodingRecord;
 import settle.reports.format.Bound;
 import settle.reports.format.EpochsCsv;
 import settle.reports.format.Grid;
@@ -98,6 +100,7 @@ public final class StudyRunner {
     private final String[] status;
     /** Each replicate's rows of epochs.csv (null: no file yet), in the same order. */
     private final String[] epochRows;
+    private EncodingRecord encoding;
 
     /**
      * @param context the plan, its data and trainers
@@ -159,6 +162,7 @@ public final class StudyRunner {
             List<Integer> manualArms = ManualArms.indices(plan);
             String started = Instant.now().toString();
             PlanWriter.write(plan, directory.resolve(StudyFormat.PLAN));
+            AtomicFile.write(directory.resolve(StudyFormat.ENCODING), EncodingJson.write(encoding()));
             if (context.minimum() != null) {
                 AtomicFile.write(directory.resolve(StudyFormat.REFERENCE), ReferenceJson.write(reference()));
             }
@@ -267,6 +271,11 @@ public final class StudyRunner {
         if (Files.exists(manifestFile) && !fresh) {
             ManifestJson.Earlier earlier = ManifestJson.earlier(Files.readAllBytes(manifestFile),
                     manifestFile.toString(), rerun());
+            Path encodingFile = directory.resolve(StudyFormat.ENCODING);
+            if (Files.isRegularFile(encodingFile)) {
+                EncodingFile.refuseChanged(directory, EncodingJson.read(Files.readAllBytes(encodingFile),
+                        encodingFile.toString()), encoding());
+            }
             refuseChanged(earlier, planHash, dataHash, splitHash);
             if (grids.isEmpty() && fitsThisPlan(earlier.grids())) {
                 grids = earlier.grids();
@@ -411,6 +420,14 @@ public final class StudyRunner {
         return ReplicateFile.outcome(context, key, context.train(key));
     }
 
+    /** @return this run's encoding.json: how the data's columns became the inputs, and the test labels */
+    private EncodingRecord encoding() {
+        if (encoding == null) {
+            encoding = EncodingFile.of(context.plan().data().source(), context.data());
+        }
+        return encoding;
+    }
+
     private void refuseChanged(ManifestJson.Earlier old, String planHash, String dataHash, String splitHash) {
         List<String> changed = new ArrayList<>();
         if (!planHash.equals(old.planSha256())) {
@@ -439,9 +456,9 @@ public final class StudyRunner {
                 }
             }
         }
-        for (String name : List.of(StudyFormat.MANIFEST, StudyFormat.REFERENCE, StudyFormat.EPOCHS,
-                StudyFormat.SUMMARY, StudyFormat.REPORT, StudyFormat.PLAN, StudyFormat.PROGRESS, StudyFormat.NUDGES,
-                StudyFormat.REPLAY)) {
+        for (String name : List.of(StudyFormat.MANIFEST, StudyFormat.REFERENCE, StudyFormat.ENCODING,
+                StudyFormat.EPOCHS, StudyFormat.SUMMARY, StudyFormat.REPORT, StudyFormat.PLAN, StudyFormat.PROGRESS,
+                StudyFormat.NUDGES, StudyFormat.REPLAY)) {
             Files.deleteIfExists(directory.resolve(name));
         }
         NudgeQueue.clear(directory);

@@ -65,6 +65,20 @@ final class StudySchema {
             assertEquals("arms/" + (a + 1), arm.path("directory").asText());
             assertTrue(arm.path("name").isTextual());
         }
+        JsonNode enc = MAPPER.readTree(dir.resolve("encoding.json").toFile());
+        assertEquals(2, enc.path("format").asInt(), "encoding format");
+        assertTrue(List.of("table", "plain").contains(enc.path("kind").asText()), "encoding.kind");
+        List<String> outputs = new ArrayList<>();
+        for (JsonNode f : enc.path("features")) {
+            f.path("outputs").forEach(o -> outputs.add(o.asText()));
+        }
+        List<String> names = new ArrayList<>();
+        data.path("feature_names").forEach(n -> names.add(n.asText()));
+        assertEquals(names, outputs, "encoding.json's outputs are the manifest's feature names");
+        assertEquals(data.path("test_rows").asInt(), enc.path("test_labels").size(), "encoding.test_labels");
+        for (JsonNode y : enc.path("test_labels")) {
+            assertTrue(y.isInt() && y.asInt() >= 0 && y.asInt() < classes, "encoding.test_labels[]");
+        }
         assertTrue(m.path("study").isTextual() && !m.path("study").asText().isBlank(), "manifest.study");
         assertTrue(m.path("model_l2").isNumber() && m.path("model_l2").asDouble() >= 0, "manifest.model_l2");
         assertTrue(m.path("grid").isArray(), "manifest.grid");

@@ -11,11 +11,13 @@ import settle.reports.text.Names;
  * @param manifest the manifest
  * @param planText {@code plan.yaml} as written (the resolved plan), for the provenance section
  * @param reference θ* and its curvature, or null for a model with no reference minimiser
+ * @param encoding how the data's columns became the inputs, and the test labels; null for a study written before
+ *     settle recorded it
  * @param replicates {@code replicates.get(a).get(k)} is replicate k + 1 of arm a + 1, or null when its file
  *     is missing
  * @param nudgeLog the rows of {@code nudges.csv} in the order applied (empty when the study has none)
  */
-public record Study(Path directory, Manifest manifest, String planText, Reference reference,
+public record Study(Path directory, Manifest manifest, String planText, Reference reference, EncodingRecord encoding,
         List<List<Replicate>> replicates, List<NudgeRecord> nudgeLog) {
 
     public Study {
@@ -74,6 +76,14 @@ public record Study(Path directory, Manifest manifest, String planText, Referenc
             }
         }
         return n;
+    }
+
+    /**
+     * @return the name of input j (0-based) as the report shows it ({@link Names#shown}): the manifest's feature
+     *     name, which is the encoding's output name (a one-hot level {@code colour=red}, {@code glucose (was missing)})
+     */
+    public String featureName(int j) {
+        return Names.shown(manifest.featureNames().get(j));
     }
 
     /** @return true for a convex model (a reference minimiser exists) */

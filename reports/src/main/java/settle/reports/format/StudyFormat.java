@@ -9,7 +9,7 @@ import settle.input.BadInputException;
 /**
  * The study directory's names and version: the contract between the runner ({@code experiments}) and the report
  * (README, "Study directory"). The files' contents are spelled by one codec each in this package
- * ({@link ManifestJson}, {@link ReferenceJson}, {@link ReplicateJson}, {@link NudgesCsv}, {@link EpochsCsv},
+ * ({@link ManifestJson}, {@link ReferenceJson}, {@link EncodingJson}, {@link ReplicateJson}, {@link NudgesCsv}, {@link EpochsCsv},
  * {@link SummaryCsv}); nothing outside it names a key of them.
  */
 public final class StudyFormat {
@@ -23,6 +23,8 @@ public final class StudyFormat {
     public static final String MANIFEST = "manifest.json";
     /** θ* and its curvature (convex models). */
     public static final String REFERENCE = "reference.json";
+    /** How the data's columns became the model's inputs, and the test split's labels. */
+    public static final String ENCODING = "encoding.json";
     /** The directory of the replicate files, one subdirectory per arm index. */
     public static final String ARMS = "arms";
     /** Every replicate's per-epoch records. */

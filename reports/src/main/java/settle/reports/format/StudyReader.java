@@ -15,7 +15,7 @@ import settle.input.BadInputException;
 
 /**
  * Reads a study directory through its format ({@link StudyFormat}): {@code manifest.json}, {@code plan.yaml},
- * {@code reference.json}, {@code arms/<arm>/<replicate>.json} and {@code nudges.csv}, each checked field by field by
+ * {@code reference.json}, {@code encoding.json} (absent in a study written before settle recorded it), {@code arms/<arm>/<replicate>.json} and {@code nudges.csv}, each checked field by field by
  * its codec. A missing or invalid directory or file gives a {@link BadInputException} with a one-line message naming
  * the file and the key and what would be accepted; a missing replicate file is not an error (the study is partial and
  * its slot is null). A directory in format 1 is refused: its tail metrics and reshuffling prediction mean something
@@ -63,6 +63,11 @@ public final class StudyReader {
             reference = ReferenceJson.read(Files.readAllBytes(referenceFile), referenceFile.toString(),
                     manifest.parameters(), manifest.arms());
         }
+        Path encodingFile = directory.resolve(StudyFormat.ENCODING);
+        EncodingRecord encoding = null;
+        if (Files.isRegularFile(encodingFile)) {
+            encoding = EncodingJson.read(Files.readAllBytes(encodingFile), encodingFile.toString(), manifest);
+        }
         int arms = manifest.arms().size();
         int count = manifest.replicates();
         Replicate[] files = new Replicate[arms * count];
@@ -107,6 +112,6 @@ public final class StudyReader {
         for (int a = 0; a < arms; a++) {
             replicates.add(Arrays.asList(Arrays.copyOfRange(files, a * count, (a + 1) * count)));
         }
-        return new Study(directory, manifest, planText, reference, replicates, NudgesCsv.read(directory));
+        return new Study(directory, manifest, planText, reference, encoding, replicates, NudgesCsv.read(directory));
     }
 }

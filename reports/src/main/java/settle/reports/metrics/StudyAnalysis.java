@@ -47,6 +47,8 @@ public final class StudyAnalysis {
     private final ArmLevel[] predictionSpread;
     private final ArmLevel[] disagreement;
     private VerdictSummary verdict;
+    private ClassBalance classBalance;
+    private boolean classBalanceDone;
 
     private StudyAnalysis(Study study, VerdictOptions options) {
         this.study = study;
@@ -123,6 +125,18 @@ public final class StudyAnalysis {
             verdict = VerdictSummary.of(this);
         }
         return verdict;
+    }
+
+    /**
+     * @return balanced accuracy and per-class recall per arm with their comparisons (computed once, on first use), or
+     *     null when the study records no test labels
+     */
+    public ClassBalance classBalance() {
+        if (!classBalanceDone) {
+            classBalance = ClassBalance.of(study, paired, options);
+            classBalanceDone = true;
+        }
+        return classBalance;
     }
 
     /** @return the study analysed */

@@ -34,9 +34,10 @@ import settle.reports.text.Names;
  * @param baselineNote the baseline's noise-ball diagnosis when it has not reached its ball, or ""
  * @param pairs replicate pairs behind the comparisons
  * @param pairsNeeded the pairs a verdict needs at this number of arms
+ * @param classCaution the warning that per-class figures rest on few test rows ({@link ClassBalance#caution}), or ""
  */
 public record VerdictSummary(Metric primary, int baseline, String baselineName, List<ArmVerdict> arms, ArmPick pick,
-        String pickSentence, String baselineNote, int pairs, int pairsNeeded) {
+        String pickSentence, String baselineNote, int pairs, int pairsNeeded, String classCaution) {
 
     /**
      * One arm's verdict.
@@ -103,8 +104,7 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
         int needed = analysis.replicatesNeeded();
         String sentence = pickSentence(analysis, primary, base, pick, arms, pairs, needed, !baselineNote.isEmpty());
         return new VerdictSummary(primary, base, study.manifest().arms().get(base), List.copyOf(arms), pick, sentence,
-                baselineNote,
-                pairs, needed);
+                baselineNote, pairs, needed, analysis.classBalance() == null ? "" : analysis.classBalance().caution());
     }
 
     /**
@@ -239,6 +239,9 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
         if (!baselineNote.isEmpty()) {
             out.add(baselineNote);
         }
+        if (!classCaution.isEmpty()) {
+            out.add("warning: " + classCaution);
+        }
         return out;
     }
 
@@ -259,6 +262,7 @@ public record VerdictSummary(Metric primary, int baseline, String baselineName, 
             g.writeNullField("pick");
         }
         g.writeStringField("pick_sentence", pickSentence);
+        settle.reports.format.JsonOut.text(g, "class_caution", classCaution.isEmpty() ? null : classCaution);
         g.writeArrayFieldStart("arms");
         for (ArmVerdict a : arms) {
             if (a.arm() == baseline) {

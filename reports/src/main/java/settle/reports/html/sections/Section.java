@@ -5,9 +5,9 @@ package settle.reports.html.sections;
  * from the analysed study. The page ({@link settle.reports.html.ReportPage}) writes the element and its heading,
  * calls {@link #draw}, and replaces the section by a notice when it throws.
  */
-public sealed interface Section permits VerdictSection, RatesSection, ObjectiveSection, DistanceSection,
-        WanderSection, AprioriSection, TailCloudSection, GridSection, ReplicatesSection, ProvenanceSection,
-        LimitsSection {
+public sealed interface Section permits VerdictSection, ClassBalanceSection, RatesSection, ObjectiveSection,
+        DistanceSection, WanderSection, AprioriSection, TailCloudSection, GridSection, CoefficientsSection,
+        ReplicatesSection, ProvenanceSection, LimitsSection {
 
     /** @return the section element's id, also the navigation's anchor; stable across versions */
     String id();

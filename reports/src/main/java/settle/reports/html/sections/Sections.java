@@ -5,9 +5,9 @@ import java.util.List;
 /** The report's sections in page order. */
 public final class Sections {
 
-    private static final List<Section> IN_ORDER = List.of(new VerdictSection(), new RatesSection(),
+    private static final List<Section> IN_ORDER = List.of(new VerdictSection(), new ClassBalanceSection(), new RatesSection(),
             new ObjectiveSection(), new DistanceSection(), new WanderSection(), new AprioriSection(),
-            new TailCloudSection(), new GridSection(), new ReplicatesSection(), new ProvenanceSection(),
+            new TailCloudSection(), new GridSection(), new CoefficientsSection(), new ReplicatesSection(), new ProvenanceSection(),
             new LimitsSection());
 
     private Sections() {
