@@ -18,8 +18,11 @@ import settle.engine.train.TrainingSettings;
  * (α_t = from · (to/from)^((t−1)/(updates−1))), recording the full-batch training objective F(θ_t) after
  * every update.
  *
- * <p>A sweep stops once F(θ_t) is not finite or is above F(θ₀): the sweep has then undone all the progress it
- * made, and larger rates will not make any. It also stops before the first rate at or above a given ceiling (the
+ * <p>A sweep stops once F(θ_t) is not finite, or is above F(θ₀) after the sweep had made a real fall: the sweep has
+ * then undone all the progress it made, and larger rates will not make any. A real fall is at least
+ * {@link #REAL_FALL} of the fall possible, F(θ₀) − F_floor, with F_floor = F(θ*) where the minimum is known and 0
+ * otherwise (every objective settle fits, a cross-entropy plus an L2 penalty, is non-negative). Before that the
+ * rates are tiny and a few mini-batch steps can raise the objective by chance (seen with batches of one row). It also stops before the first rate at or above a given ceiling (the
  * stability bound 2(1 + β)/λmax(H) of a convex model): no rate from there on may be suggested, so none is tried.
  * An L2-logistic loss has a bounded gradient and may never climb back to F(θ₀); its sweep then runs to the ceiling
  * or the top. What the sweep suggests is {@link RangeRule}'s.
@@ -31,11 +34,14 @@ import settle.engine.train.TrainingSettings;
  */
 public final class RangeTest {
 
+    /** The fraction of the possible fall F(θ₀) − F_floor after which a rise above F(θ₀) ends the sweep. */
+    public static final double REAL_FALL = 0.1;
+
     /** Why a sweep ended. */
     public enum End {
         /** it ran every update up to {@code to} */
         TOP,
-        /** F(θ_t) rose above F(θ₀) */
+        /** F(θ_t) rose above F(θ₀) after a real fall */
         ABOVE_START,
         /** F(θ_t) was not finite */
         NOT_FINITE,
@@ -97,17 +103,16 @@ public final class RangeTest {
         return from * Math.pow(to / from, (t - 1) / (double) (updates - 1));
     }
 
-    /** Runs one sweep from replicate {@code seeds}' initial weights and mini-batch order, up to {@code to}. */
-    public Sweep run(ReplicateSeeds seeds) {
-        return run(seeds, Double.POSITIVE_INFINITY);
-    }
-
     /**
      * Runs one sweep from replicate {@code seeds}' initial weights and mini-batch order.
      *
      * @param ceiling no update is run at a rate at or above it (NaN or ∞: no ceiling)
+     * @param floor F_floor: F(θ*) when known, else 0
      */
-    public Sweep run(ReplicateSeeds seeds, double ceiling) {
+    public Sweep run(ReplicateSeeds seeds, double ceiling, double floor) {
+        if (!Double.isFinite(floor)) {
+            throw new IllegalArgumentException("the floor of the objective must be finite, got " + floor);
+        }
         int p = model.parameterCount();
         int n = train.rows();
         int batch = settings.batch();
@@ -122,7 +127,9 @@ public final class RangeTest {
         double[] objectives = new double[updates];
         model.initialise(theta, initialisation, seeds.initialisationStream());
         double f0 = full.objective(theta);
+        double real = REAL_FALL * (f0 - floor);
         End end = End.TOP;
+        boolean fell = false;
         int run = 0;
         for (int t = 1; t <= updates; t++) {
             int u = (t - 1) % perEpoch;
@@ -146,10 +153,11 @@ public final class RangeTest {
                 end = End.NOT_FINITE;
                 break;
             }
-            if (f > f0) {
+            if (f > f0 && fell) {
                 end = End.ABOVE_START;
                 break;
             }
+            fell |= f0 - f >= real;
         }
         return new Sweep(Arrays.copyOf(rates, run), Arrays.copyOf(objectives, run), f0, end);
     }

@@ -136,13 +136,15 @@ public final class Probe {
             // a sweep from θ* measures nothing about the start of training: sweep from zeros instead
             init = Initialisation.ZEROS;
         }
+        // F(θ*) where the minimiser found it, else 0 (every objective settle fits is non-negative)
+        double floor = minimum != null ? minimum.objective() : 0.0;
         RangeTest test = new RangeTest(model, data.train(), plan.training().settings(false), init, from, to, updates);
         List<RangeTest.Sweep> sweeps = new ArrayList<>();
         List<RangeRule.Range> ranges = new ArrayList<>();
         double[] lowers = new double[seeds];
         double[] uppers = new double[seeds];
         for (int k = 1; k <= seeds; k++) {
-            RangeTest.Sweep s = test.run(ReplicateSeeds.derive(plan.seed(), k), bound);
+            RangeTest.Sweep s = test.run(ReplicateSeeds.derive(plan.seed(), k), bound, floor);
             RangeRule.Range range = s.range();
             sweeps.add(s);
             ranges.add(range);

@@ -126,7 +126,7 @@ public final class ProbePage {
     private static List<String> rule(Probe.Result r) {
         List<String> p = new ArrayList<>();
         p.add("Each sweep starts where the study's replicate of that seed starts and follows its mini-batch order. It"
-                + " ends when the objective rises above its starting value F(θ₀), since the sweep has then undone all its"
+                + " ends when the objective rises above its starting value F(θ₀) after a real fall (a tenth of F(θ₀) − F(θ*), or of F(θ₀) for a non-convex model), since the sweep has then undone all its"
                 + " progress, when the objective is not finite, or, for a convex model, before the first rate at or above"
                 + " the stability bound of the mean iterate at θ*, " + Curvature.boundFormula(r.momentum())
                 + ", at or above which a constant rate does not settle along H's top direction.");
