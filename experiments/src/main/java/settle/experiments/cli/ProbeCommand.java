@@ -26,10 +26,10 @@ import settle.input.BadInputException;
 import settle.reports.format.AtomicFile;
 
 /**
- * {@code settle probe PLAN}: a learning-rate range test on the plan's data and model (Smith, WACV 2017, with
- * a geometric ramp), printed as a table with the largest stable rate of each seed, the stability bound
- * 2/λmax(H) for convex models and the suggested initial-rate range (capped below that bound, with a line saying
- * so), and drawn in a small HTML page.
+ * {@code settle probe PLAN}: a learning-rate range test on the plan's data and model ({@link Probe}), printed as a
+ * table of the objective along each sweep, each sweep's reading, the stability bound 2(1 + β)/λmax(H) for convex
+ * models and the suggested initial-rate range with the reasons for its ends, and drawn in an HTML page
+ * ({@link ProbePage}).
  */
 @Command(name = "probe", mixinStandardHelpOptions = true,
         description = "Learning-rate range test on a plan's data and model: a suggested initial-rate range.")
@@ -72,33 +72,28 @@ public final class ProbeCommand implements Callable<Integer> {
         Probe.Result r = Probe.run(parsed, s, from, to, updates);
         String study = parsed.plan().study();
         out.printf(Locale.ROOT, "rate range test of plan %s: %d sweeps (replicates 1..%d), %d updates each, rate"
-                + " grown geometrically from %s to %s; a sweep stops once the training objective exceeds %s× its"
-                + " lowest value so far or is not finite%n", planFile, r.sweeps().size(), r.sweeps().size(), r.updates(),
-                num(r.from()), num(r.to()), num(RangeTest.BLOW_UP));
-        out.println("(the range test: Smith, \"Cyclical Learning Rates for Training Neural Networks\", WACV 2017,"
-                + " which ramps linearly; the geometric ramp is common practice)");
+                + " grown geometrically from %s to %s%n", planFile, r.sweeps().size(), r.sweeps().size(), r.updates(),
+                num(r.from()), num(r.to()));
         out.println();
         printTable(out, r);
         out.println();
-        StringBuilder stable = new StringBuilder("largest stable rate per seed:");
-        for (int k = 0; k < r.largestStable().length; k++) {
-            stable.append(String.format(Locale.ROOT, " %d: %s%s", k + 1, num(r.largestStable()[k]),
-                    r.sweeps().get(k).stopped() ? "" : " (top of the sweep)"));
+        for (String line : ProbePage.sweepLines(r)) {
+            out.println(line);
         }
-        out.println(stable);
-        out.println("largest stable rate (median over the seeds): " + num(r.medianStable()));
         if (Double.isFinite(r.stabilityBound())) {
             out.println("stability bound of the mean at θ*, " + Curvature.boundFormula(r.momentum()) + ": "
                     + num(r.stabilityBound()));
         } else {
             out.println("stability bound: not computed (" + r.boundNote() + ")");
         }
-        if (r.capped()) {
-            out.println(r.capLine());
+        String cap = r.capLine();
+        if (!cap.isEmpty()) {
+            out.println(cap);
         }
-        out.println("suggested initial-rate range: " + num(r.lower()) + " to " + num(r.upper()) + " (upper end: "
-                + (r.capped() ? "the sweep's largest rate below the stability bound"
-                        : "the median over the seeds of the largest stable rate") + "; lower end: a tenth of it)");
+        out.println("suggested initial-rate range: " + num(r.lower()) + " to " + num(r.upper()));
+        for (String line : ProbePage.why(r)) {
+            out.println("  " + line);
+        }
         List<String> arms = armLines(parsed, r);
         for (String line : arms) {
             out.println("  " + line);
@@ -135,7 +130,7 @@ public final class ProbeCommand implements Callable<Integer> {
                     rate = s.rates()[i];
                     row.append(String.format(Locale.ROOT, " %11s", num(s.objectives()[i])));
                 } else {
-                    row.append(String.format(Locale.ROOT, " %11s", "stopped"));
+                    row.append(String.format(Locale.ROOT, " %11s", "ended"));
                 }
             }
             out.println(String.format(Locale.ROOT, "  %6d %11s", i + 1, num(rate)) + row);

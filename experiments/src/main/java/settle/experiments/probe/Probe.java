@@ -10,6 +10,7 @@ import settle.engine.minimum.Minimum;
 import settle.engine.minimum.NoMinimiserException;
 import settle.engine.model.Initialisation;
 import settle.engine.model.Model;
+import settle.engine.probe.RangeRule;
 import settle.engine.probe.RangeTest;
 import settle.engine.train.ReplicateSeeds;
 import settle.experiments.plan.ParsedPlan;
@@ -22,54 +23,64 @@ import settle.input.BadInputException;
  * split and model, one sweep per seed (replicates 1..S of the plan's root seed, so the sweeps start where the
  * study's replicates start), and the suggested initial-rate range read from it.
  *
- * <p>Definitions. The largest stable rate of a sweep is the last rate before its objective blew up (or the
- * top of the sweep when it never did). The <b>upper end</b> of the suggested range is the median over the
- * seeds of their largest stable rates; the <b>lower end</b> is a tenth of it (a decade below: common
- * practice). For convex models the mean-stability bound 2/λmax(H) at θ* (2(1 + β)/λmax(H) with heavy-ball
- * momentum β) caps the range: when the median is at or above the bound, the upper end is instead the largest
- * rate of the sweep's own geometric grid strictly below the bound, since a constant rate at or above it leaves
- * the mean iterate oscillating or growing along H's top eigen-direction (the range test can survive such rates:
- * its sweep spends only a few updates at each). Non-convex models have no bound and no cap.
+ * <p>For convex models the stability bound of the mean iterate at θ*, 2/λmax(H) (2(1 + β)/λmax(H) with heavy-ball
+ * momentum β), is computed first and is each sweep's ceiling: at or above it a constant rate leaves the mean iterate
+ * oscillating or growing along H's top eigen-direction, so no such rate is tried or suggested. Each sweep is read by
+ * {@link RangeRule}; the suggested range is the median over the seeds of the sweeps' lower ends to the median of their
+ * upper ends (a sweep without a range, one that never went below its start, counts in neither), the upper end held
+ * strictly below the bound (the sweep's largest grid rate under it). Non-convex models have no bound.
  */
 public final class Probe {
-
-    /** The lower end of the suggested range is the upper end divided by this. */
-    public static final double DECADE = 10.0;
 
     /**
      * What a probe found.
      *
      * @param sweeps one per seed, seed k = replicate k
-     * @param largestStable the largest stable rate of each sweep
-     * @param medianStable the median of {@code largestStable}
-     * @param upper the upper end of the suggested range: {@code medianStable}, or when {@code capped} the largest
-     *     rate of the sweep's grid strictly below {@code stabilityBound} (NaN when the sweep starts at or above it)
-     * @param lower {@code upper / 10}
-     * @param capped whether {@code medianStable} was at or above {@code stabilityBound}, so the bound set the upper
-     *     end
+     * @param ranges each sweep's reading ({@link RangeRule})
+     * @param lower the lower end of the suggested range: the median of the sweeps' lower ends (NaN when no sweep has a
+     *     range)
+     * @param upper the upper end: the median of the sweeps' upper ends, held strictly below {@code stabilityBound}
+     * @param capped whether the bound set the upper end: it is the sweep grid's largest rate below the bound (the
+     *     sweeps were still at their best when they reached the bound)
      * @param stabilityBound 2(1 + β)/λmax(H) at θ* for convex models, NaN otherwise
      * @param boundNote why the bound is missing, or ""
      * @param momentum the plan's heavy-ball β (the bound's formula depends on it)
      */
-    public record Result(List<RangeTest.Sweep> sweeps, double[] largestStable, double medianStable, double upper,
-            double lower, boolean capped, double stabilityBound, String boundNote, double from, double to, int updates,
+    public record Result(List<RangeTest.Sweep> sweeps, List<RangeRule.Range> ranges, double lower, double upper,
+            boolean capped, double stabilityBound, String boundNote, double from, double to, int updates,
             double momentum) {
+
+        public Result {
+            sweeps = List.copyOf(sweeps);
+            ranges = List.copyOf(ranges);
+        }
+
+        /** @return how many sweeps have a range */
+        public int withRange() {
+            return (int) ranges.stream().filter(RangeRule.Range::exists).count();
+        }
+
+        /** @return whether the sweeps' first rate is already at or above the bound, so nothing could be tried */
+        public boolean startsAboveBound() {
+            return from >= stabilityBound;
+        }
 
         /**
          * @return one plain line (lower case first) saying that the stability bound set the upper end, and why; ""
          *     when it did not
          */
         public String capLine() {
+            if (startsAboveBound()) {
+                return "no rate tried: the sweep's first rate " + ProbePage.num(from) + " is at or above the stability"
+                        + " bound " + Curvature.boundFormula(momentum) + " = " + ProbePage.num(stabilityBound)
+                        + "; start the sweep lower (--from)";
+            }
             if (!capped) {
                 return "";
             }
-            String head = "suggested upper end capped at the stability bound " + Curvature.boundFormula(momentum) + " = "
-                    + ProbePage.num(stabilityBound) + ": at or above it the mean iterate does not settle along H's top"
-                    + " direction; the median largest stable rate, " + ProbePage.num(medianStable) + ", is at or above"
-                    + " it, ";
-            return Double.isFinite(upper)
-                    ? head + "so the upper end is " + ProbePage.num(upper) + ", the sweep's largest rate below it"
-                    : head + "and every rate of the sweep is too: start the sweep lower (--from)";
+            return "upper end held below the stability bound " + Curvature.boundFormula(momentum) + " = "
+                    + ProbePage.num(stabilityBound) + ": the sweeps were still at their lowest objective when they"
+                    + " reached it, and at or above it the mean iterate does not settle along H's top direction";
         }
     }
 
@@ -125,18 +136,30 @@ public final class Probe {
             // a sweep from θ* measures nothing about the start of training: sweep from zeros instead
             init = Initialisation.ZEROS;
         }
+        // F(θ*) where the minimiser found it, else 0 (every objective settle fits is non-negative)
+        double floor = minimum != null ? minimum.objective() : 0.0;
         RangeTest test = new RangeTest(model, data.train(), plan.training().settings(false), init, from, to, updates);
         List<RangeTest.Sweep> sweeps = new ArrayList<>();
-        double[] stable = new double[seeds];
+        List<RangeRule.Range> ranges = new ArrayList<>();
+        double[] lowers = new double[seeds];
+        double[] uppers = new double[seeds];
         for (int k = 1; k <= seeds; k++) {
-            RangeTest.Sweep s = test.run(ReplicateSeeds.derive(plan.seed(), k));
+            RangeTest.Sweep s = test.run(ReplicateSeeds.derive(plan.seed(), k), bound, floor);
+            RangeRule.Range range = s.range();
             sweeps.add(s);
-            stable[k - 1] = s.largestStableRate();
+            ranges.add(range);
+            lowers[k - 1] = range.lower();
+            uppers[k - 1] = range.upper();
         }
-        double median = median(stable);
-        boolean capped = median >= bound;
-        double upper = capped ? largestRateBelow(test, updates, bound) : median;
-        return new Result(sweeps, stable, median, upper, upper / DECADE, capped, bound, boundNote, from, to, updates,
+        double lower = median(lowers);
+        double upper = median(uppers);
+        boolean capped = false;
+        if (Double.isFinite(bound)) {
+            double below = largestRateBelow(test, updates, bound);
+            capped = upper >= below;
+            upper = Math.min(upper, below);
+        }
+        return new Result(sweeps, ranges, lower, upper, capped, bound, boundNote, from, to, updates,
                 plan.training().momentum());
     }
 

@@ -1,157 +1,246 @@
 package settle.experiments.probe;
 
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import settle.engine.minimum.Curvature;
+import settle.engine.probe.RangeRule;
 import settle.engine.probe.RangeTest;
+import settle.reports.html.Axis;
+import settle.reports.html.HtmlWriter;
+import settle.reports.html.Palette;
+import settle.reports.html.ReportPage;
+import settle.reports.html.SvgChart;
 
 /**
- * The probe's small self-contained HTML page: the objective against the rate (log scale) for every sweep as
- * inline SVG, the suggested range and the stability bound marked (with a line when the bound capped the range),
- * and the definitions. No script, no network: a Content-Security-Policy meta tag forbids both; every string from
- * the plan is escaped.
+ * The probe's page, drawn with the report's own pieces (its page skeleton and style sheet, {@link SvgChart},
+ * {@link Axis}, the colour-blind-safe {@link Palette}, the escaping {@link HtmlWriter}): the training objective
+ * against the rate on a log axis, one line per probe seed with its lowest point marked, the suggested range shaded,
+ * the stability bound marked where known; a table of each sweep's reading; and a paragraph saying what the rule did
+ * and where it falls short. The words shared with the terminal ({@link #sweepLines}, {@link #why}) are made here.
  */
 public final class ProbePage {
 
-    private static final int WIDTH = 760;
-    private static final int HEIGHT = 420;
-    private static final int LEFT = 70;
-    private static final int RIGHT = 20;
-    private static final int TOP = 20;
-    private static final int BOTTOM = 50;
-    private static final String[] COLOURS = {"#1f77b4", "#ff7f0e", "#2ca02c", "#d62728", "#9467bd", "#8c564b",
-        "#e377c2", "#7f7f7f", "#bcbd22", "#17becf"};
+    private static final double WIDTH = 880;
+    private static final double HEIGHT = 420;
+    private static final double LEFT = 64;
 
     private ProbePage() {
     }
 
-    /** @return {@code s} escaped for HTML text and attribute values */
-    public static String escape(String s) {
-        StringBuilder b = new StringBuilder(s.length() + 16);
-        for (int i = 0; i < s.length(); i++) {
-            char c = s.charAt(i);
-            switch (c) {
-                case '&' -> b.append("&amp;");
-                case '<' -> b.append("&lt;");
-                case '>' -> b.append("&gt;");
-                case '"' -> b.append("&quot;");
-                case '\'' -> b.append("&#39;");
-                default -> b.append(c);
-            }
-        }
-        return b.toString();
-    }
-
-    /** @return the page for {@code result} of the plan named {@code title} */
+    /** @return the page for {@code r}, the probe of the plan named {@code title}, with one line per arm */
     public static String html(String title, Probe.Result r, List<String> armLines) {
-        StringBuilder b = new StringBuilder();
-        b.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
-        b.append("<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; style-src 'unsafe-inline';"
-                + " img-src data:\">\n");
-        b.append("<title>settle probe: ").append(escape(title)).append("</title>\n");
-        b.append("<style>body{font-family:sans-serif;max-width:820px;margin:1em auto;color:#222}"
-                + "td,th{padding:2px 8px;text-align:right}svg text{font-size:12px}</style>\n</head>\n<body>\n");
-        b.append("<h1>Rate range test: ").append(escape(title)).append("</h1>\n");
-        b.append(String.format(Locale.ROOT, "<p>%d sweeps (replicates 1..%d of the plan's seed), each %d updates with"
-                + " the rate grown geometrically from %s to %s; a sweep stops once the training objective exceeds %s×"
-                + " its lowest value so far or is not finite.</p>%n", r.sweeps().size(), r.sweeps().size(), r.updates(),
-                num(r.from()), num(r.to()), num(RangeTest.BLOW_UP)));
-        b.append(chart(r));
-        b.append("<table>\n<tr><th>seed</th><th>largest stable rate</th><th>stopped early</th></tr>\n");
-        for (int k = 0; k < r.sweeps().size(); k++) {
-            b.append(String.format(Locale.ROOT, "<tr><td>%d</td><td>%s</td><td>%s</td></tr>%n", k + 1,
-                    num(r.largestStable()[k]), r.sweeps().get(k).stopped() ? "yes" : "no (top of the sweep)"));
+        HtmlWriter w = new HtmlWriter(1 << 16);
+        ReportPage.openPage(w, "settle probe: " + title);
+        w.open("header");
+        w.element("h1", "Rate probe: " + title);
+        w.element("p", String.format(Locale.ROOT, "%d sweeps (replicates 1..%d of the plan's seed), each up to %d"
+                + " updates with the rate grown geometrically from %s to %s, the training objective measured on the whole"
+                + " training split after every update.", r.sweeps().size(), r.sweeps().size(), r.updates(),
+                num(r.from()), num(r.to())), "class", "lede");
+        w.close("header").newline();
+        w.open("main").newline();
+        w.open("section", "id", "range");
+        w.element("h2", "Suggested initial-rate range: " + num(r.lower()) + " to " + num(r.upper()));
+        w.open("ul", "class", "sentences");
+        for (String line : why(r)) {
+            w.element("li", line);
         }
-        b.append("</table>\n");
-        b.append("<p><b>Suggested initial-rate range: ").append(num(r.lower())).append(" to ").append(num(r.upper()))
-                .append("</b>. Upper end: ").append(r.capped() ? "the sweep's largest rate below the stability bound"
-                        : "the median over the seeds of the largest stable rate").append("; lower end: a tenth"
-                        + " of it.</p>\n");
-        if (r.capped()) {
-            String line = r.capLine();
-            b.append("<p>").append(escape(Character.toUpperCase(line.charAt(0)) + line.substring(1))).append(".</p>\n");
+        String cap = r.capLine();
+        if (!cap.isEmpty()) {
+            w.element("li", Character.toUpperCase(cap.charAt(0)) + cap.substring(1) + ".");
         }
-        if (Double.isFinite(r.stabilityBound())) {
-            b.append("<p>Stability bound of the mean iterate at θ*, ").append(Curvature.boundFormula(r.momentum()))
-                    .append(": ").append(num(r.stabilityBound()))
-                    .append(" (dashed).</p>\n");
-        } else {
-            b.append("<p>No stability bound: ").append(escape(r.boundNote())).append(".</p>\n");
-        }
+        w.close("ul");
+        chart(w, r);
+        legend(w, r);
+        table(w, r);
+        w.close("section").newline();
         if (!armLines.isEmpty()) {
-            b.append("<ul>\n");
+            w.open("section", "id", "arms");
+            w.element("h2", "The plan's arms");
+            w.open("ul");
             for (String line : armLines) {
-                b.append("<li>").append(escape(line)).append("</li>\n");
+                w.element("li", line);
             }
-            b.append("</ul>\n");
+            w.close("ul");
+            w.close("section").newline();
         }
-        b.append("<p>The range test is L. N. Smith's, \"Cyclical Learning Rates for Training Neural Networks\","
-                + " WACV 2017, which grows the rate linearly; the geometric ramp and the stop at a multiple of the best"
-                + " loss are common practice.</p>\n</body>\n</html>\n");
-        return b.toString();
+        w.open("section", "id", "rule");
+        w.element("h2", "The rule and its limits");
+        for (String p : rule(r)) {
+            w.element("p", p);
+        }
+        w.close("section").newline();
+        w.close("main").newline();
+        w.open("footer");
+        w.text("Written by settle probe; no script, nothing fetched.");
+        w.close("footer").newline();
+        ReportPage.closePage(w);
+        return w.toString();
     }
 
-    private static String chart(Probe.Result r) {
-        double xmin = Math.log10(r.from());
-        double xmax = Math.log10(r.to());
-        double ymax = 0;
-        for (RangeTest.Sweep s : r.sweeps()) {
-            ymax = Math.max(ymax, s.initialObjective());
+    /** @return why the range has the ends it has, in plain sentences (also printed by the command) */
+    public static List<String> why(Probe.Result r) {
+        List<String> lines = new ArrayList<>();
+        int with = r.withRange();
+        if (with == 0) {
+            lines.add(r.startsAboveBound() ? "No range: no rate of the sweep lies below the stability bound."
+                    : "No range: no sweep went below its starting objective F(θ₀). Start the sweep higher (--from) or"
+                            + " sweep further (--to).");
+            return lines;
         }
-        ymax = ymax > 0 ? ymax * 1.15 : 1;
-        int w = WIDTH - LEFT - RIGHT;
-        int h = HEIGHT - TOP - BOTTOM;
-        StringBuilder b = new StringBuilder();
-        b.append(String.format(Locale.ROOT, "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"%d\" height=\"%d\""
-                + " role=\"img\" aria-label=\"training objective against the rate\">%n", WIDTH, HEIGHT));
-        b.append(String.format(Locale.ROOT, "<rect x=\"%d\" y=\"%d\" width=\"%d\" height=\"%d\" fill=\"none\""
-                + " stroke=\"#999\"/>%n", LEFT, TOP, w, h));
-        for (int e = (int) Math.ceil(xmin); e <= (int) Math.floor(xmax); e++) {
-            double x = LEFT + (e - xmin) / (xmax - xmin) * w;
-            b.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"%d\" x2=\"%.1f\" y2=\"%d\" stroke=\"#eee\"/>"
-                    + "<text x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">1e%d</text>%n", x, TOP, x, TOP + h, x,
-                    TOP + h + 16, e));
-        }
-        for (int i = 0; i <= 4; i++) {
-            double v = ymax * i / 4;
-            double y = TOP + h - v / ymax * h;
-            b.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%.1f\" text-anchor=\"end\">%s</text>%n", LEFT - 6,
-                    y + 4, num(v)));
-        }
-        b.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" text-anchor=\"middle\">rate (log scale)</text>%n",
-                LEFT + w / 2, HEIGHT - 8));
-        b.append(String.format(Locale.ROOT, "<text x=\"14\" y=\"%d\" transform=\"rotate(-90 14 %d)\""
-                + " text-anchor=\"middle\">training objective</text>%n", TOP + h / 2, TOP + h / 2));
-        double lo = LEFT + (Math.log10(r.lower()) - xmin) / (xmax - xmin) * w;
-        double hi = LEFT + (Math.log10(r.upper()) - xmin) / (xmax - xmin) * w;
-        if (Double.isFinite(lo) && Double.isFinite(hi)) {
-            b.append(String.format(Locale.ROOT, "<rect x=\"%.1f\" y=\"%d\" width=\"%.1f\" height=\"%d\" fill=\"#2ca02c\""
-                    + " fill-opacity=\"0.12\"><title>suggested range</title></rect>%n", lo, TOP, Math.max(1, hi - lo), h));
-        }
-        if (Double.isFinite(r.stabilityBound()) && r.stabilityBound() > r.from() && r.stabilityBound() < r.to()) {
-            double x = LEFT + (Math.log10(r.stabilityBound()) - xmin) / (xmax - xmin) * w;
-            b.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"%d\" x2=\"%.1f\" y2=\"%d\" stroke=\"#333\""
-                    + " stroke-dasharray=\"5,4\"><title>%s</title></line>%n", x, TOP, x, TOP + h,
-                    Curvature.boundFormula(r.momentum())));
-        }
+        String of = with == r.sweeps().size() ? "the " + with + " sweeps" : with + " of the " + r.sweeps().size()
+                + " sweeps (the others never went below F(θ₀))";
+        lines.add("Upper end " + num(r.upper()) + ": " + (r.capped() ? "the sweep's largest rate below the stability"
+                + " bound, where the sweeps were still at their lowest objective" : "the median over " + of + " of the"
+                + " rate whose update reached the sweep's lowest objective") + ".");
+        lines.add("Lower end " + num(r.lower()) + ": the median over " + of + " of the smallest rate by which the sweep"
+                + " had made half of its whole fall F(θ₀) − min F.");
+        return lines;
+    }
+
+    /** @return one line per sweep: how it ended and what it read */
+    public static List<String> sweepLines(Probe.Result r) {
+        List<String> lines = new ArrayList<>();
         for (int k = 0; k < r.sweeps().size(); k++) {
             RangeTest.Sweep s = r.sweeps().get(k);
-            StringBuilder pts = new StringBuilder();
-            for (int i = 0; i < s.rates().length; i++) {
-                double f = s.objectives()[i];
-                double v = Double.isFinite(f) ? Math.min(f, ymax) : ymax;
-                double x = LEFT + (Math.log10(s.rates()[i]) - xmin) / (xmax - xmin) * w;
-                double y = TOP + h - v / ymax * h;
-                pts.append(String.format(Locale.ROOT, "%.1f,%.1f ", x, y));
-            }
-            b.append(String.format(Locale.ROOT, "<polyline fill=\"none\" stroke=\"%s\" stroke-width=\"1.5\""
-                    + " points=\"%s\"><title>seed %d</title></polyline>%n", COLOURS[k % COLOURS.length],
-                    pts.toString().trim(), k + 1));
+            RangeRule.Range g = r.ranges().get(k);
+            String reading = g.exists() ? "lowest F " + num(g.lowest()) + " at rate " + num(g.upper()) + ", half the"
+                    + " fall by rate " + num(g.lower()) : "never below F(θ₀) " + num(s.initialObjective());
+            lines.add("seed " + (k + 1) + ": F(θ₀) " + num(s.initialObjective()) + ", " + reading + "; " + ended(s));
         }
-        b.append("</svg>\n");
-        return b.toString();
+        return lines;
     }
 
+    /** @return how a sweep ended, in words */
+    static String ended(RangeTest.Sweep s) {
+        int n = s.rates().length;
+        return switch (s.end()) {
+            case TOP -> "ran to the top of the sweep";
+            case ABOVE_START -> "ended at rate " + num(s.rates()[n - 1]) + ", objective above F(θ₀)";
+            case NOT_FINITE -> "ended at rate " + num(s.rates()[n - 1]) + ", objective not finite";
+            case CEILING -> "ended at the stability bound";
+        };
+    }
+
+    private static List<String> rule(Probe.Result r) {
+        List<String> p = new ArrayList<>();
+        p.add("Each sweep starts where the study's replicate of that seed starts and follows its mini-batch order. It"
+                + " ends when the objective rises above its starting value F(θ₀) after a real fall (a tenth of F(θ₀) − F(θ*), or of F(θ₀) for a non-convex model), since the sweep has then undone all its"
+                + " progress, when the objective is not finite, or, for a convex model, before the first rate at or above"
+                + " the stability bound of the mean iterate at θ*, " + Curvature.boundFormula(r.momentum())
+                + ", at or above which a constant rate does not settle along H's top direction.");
+        p.add("The upper end is the rate whose update brought the sweep to its lowest objective. The lower end is the"
+                + " smallest rate by which the sweep had made half of its whole fall: by rate α a geometric sweep has"
+                + " taken steps summing to about as much as a short run of a score of updates at α, so below the lower"
+                + " end a rate makes comparatively little progress. Both are medians over the seeds.");
+        p.add("Limits. A sweep spends one update at each rate, so the ends are about the start of training, not its"
+                + " end. A model that gets flatter as it trains can survive rates in the sweep that it cannot start"
+                + " with, and one that gets steeper the other way round; non-convex models have no bound to hold the"
+                + " upper end. With very small batches the first updates can raise the objective by chance and end a"
+                + " sweep early. The lower end moves with the sweep's density (updates per decade). Confirm the upper"
+                + " end with a short run at that rate.");
+        p.add("The idea of sweeping the rate upward over one short run is L. N. Smith's learning-rate range test"
+                + " (\"Cyclical Learning Rates for Training Neural Networks\", WACV 2017); the stops and the reading of"
+                + " the sweep are settle's own.");
+        return p;
+    }
+
+    private static void chart(HtmlWriter w, Probe.Result r) {
+        double top = Double.NEGATIVE_INFINITY;
+        double low = Double.POSITIVE_INFINITY;
+        for (RangeTest.Sweep s : r.sweeps()) {
+            top = Math.max(top, s.initialObjective());
+            low = Math.min(low, s.initialObjective());
+            for (double f : s.objectives()) {
+                if (f <= s.initialObjective()) {
+                    low = Math.min(low, f);
+                }
+            }
+        }
+        double xHigh = Double.isFinite(r.stabilityBound()) ? Math.max(r.to(), r.stabilityBound()) : r.to();
+        Axis x = Axis.log(r.from(), Math.min(xHigh, r.from() * 1e11), "rate");
+        Axis y = Axis.linear(Math.min(0, low), top, "training objective F");
+        SvgChart c = new SvgChart(w, "probe-chart", "chart", WIDTH, HEIGHT, LEFT, x, y,
+                "The training objective against the rate for each probe sweep, with the suggested range shaded");
+        if (r.withRange() > 0 && Double.isFinite(r.upper())) {
+            c.span(r.lower(), r.upper(), "span", "suggested range " + num(r.lower()) + " to " + num(r.upper()));
+        }
+        if (Double.isFinite(r.stabilityBound())) {
+            c.vertical(r.stabilityBound(), new Palette.Style(Palette.REFERENCE, null, Palette.Shape.CIRCLE), "reference",
+                    Curvature.boundFormula(r.momentum()) + " = " + num(r.stabilityBound()), "stability bound of the mean"
+                    + " iterate at θ*, " + Curvature.boundFormula(r.momentum()) + " = " + num(r.stabilityBound()), 0);
+        }
+        int off = 0;
+        for (int k = 0; k < r.sweeps().size(); k++) {
+            RangeTest.Sweep s = r.sweeps().get(k);
+            Palette.Style style = Palette.style(k);
+            off += c.line(s.rates(), s.objectives(), style, "series");
+            RangeRule.Range g = r.ranges().get(k);
+            if (g.exists()) {
+                c.mark(g.upper(), g.lowest(), style, true, "best", "seed " + (k + 1) + ": lowest objective "
+                        + num(g.lowest()) + " at rate " + num(g.upper()));
+            }
+        }
+        c.end();
+        w.newline();
+        if (off > 0) {
+            w.element("p", off + " point" + (off == 1 ? " lies" : "s lie") + " above the drawn range (the updates that"
+                    + " ended sweeps above F(θ₀)) and " + (off == 1 ? "is" : "are") + " not drawn.", "class",
+                    "note chart-note");
+        }
+    }
+
+    private static void legend(HtmlWriter w, Probe.Result r) {
+        w.open("ul", "class", "legend");
+        for (int k = 0; k < r.sweeps().size(); k++) {
+            Palette.Style s = Palette.style(k);
+            w.open("li");
+            w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
+            w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", s.colour(), "stroke-width", "2",
+                    "stroke-dasharray", s.dash());
+            SvgChart.marker(w, 17, 7, 4, s.shape(), s.colour(), true, "swatch-mark", null);
+            w.close("svg");
+            w.text("seed " + (k + 1));
+            w.close("li");
+        }
+        w.open("li");
+        w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
+        w.empty("rect", "x", "1", "y", "1", "width", "32", "height", "12", "fill", "#5a5a60", "opacity", "0.13");
+        w.close("svg");
+        w.text("suggested range");
+        w.close("li");
+        w.close("ul").newline();
+    }
+
+    private static void table(HtmlWriter w, Probe.Result r) {
+        w.open("table");
+        w.element("caption", "Each sweep's reading (marker: its lowest objective)");
+        w.open("thead").open("tr");
+        for (String h : new String[] {"seed", "F(θ₀)", "lowest F", "at rate (upper)", "half the fall by (lower)",
+            "updates", "how it ended"}) {
+            w.element("th", h, "scope", "col");
+        }
+        w.close("tr").close("thead");
+        w.open("tbody");
+        for (int k = 0; k < r.sweeps().size(); k++) {
+            RangeTest.Sweep s = r.sweeps().get(k);
+            RangeRule.Range g = r.ranges().get(k);
+            w.open("tr");
+            w.element("td", Integer.toString(k + 1), "class", "num");
+            w.element("td", num(s.initialObjective()), "class", "num");
+            w.element("td", num(g.lowest()), "class", "num");
+            w.element("td", num(g.upper()), "class", "num");
+            w.element("td", num(g.lower()), "class", "num");
+            w.element("td", Integer.toString(s.rates().length), "class", "num");
+            w.element("td", ended(s));
+            w.close("tr");
+        }
+        w.close("tbody");
+        w.close("table").newline();
+    }
+
+    /** @return v with four significant digits, or "—" when not finite */
     static String num(double v) {
         return Double.isFinite(v) ? String.format(Locale.ROOT, "%.4g", v) : "—";
     }

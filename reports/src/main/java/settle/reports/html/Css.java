@@ -62,6 +62,7 @@ final class Css {
             .chart .mark-label { font-size: 10px; }
             .chart .median { stroke-width: 2.4; }
             .chart .reference { stroke: #333333; stroke-dasharray: 4 3; }
+            .chart .span { fill: #5a5a60; opacity: 0.13; }
             .chart .snapshot { opacity: 0.55; }
             .chart .cell.empty { fill: #f2f2f2; }
             .chart .cell-text { fill: #111111; font-size: 11px; }

@@ -12,6 +12,9 @@ public final class Palette {
         "#000000"};
     private static final String[] DASHES = {null, "6 3", "2 2", "8 3 2 3"};
 
+    /** Colour of a reference mark that belongs to no arm (a bound, a threshold). */
+    public static final String REFERENCE = "#333333";
+
     /** Colour of a diverged replicate's mark. */
     public static final String DIVERGED = "#B00000";
 

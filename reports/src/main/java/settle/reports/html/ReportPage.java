@@ -84,15 +84,7 @@ public final class ReportPage {
      */
     private void page() {
         String name = manifest.study();
-        w.doctype().open("html", "lang", "en").newline();
-        w.open("head").newline();
-        w.empty("meta", "charset", "utf-8").newline();
-        w.empty("meta", "http-equiv", "Content-Security-Policy", "content", CSP).newline();
-        w.empty("meta", "name", "viewport", "content", "width=device-width, initial-scale=1").newline();
-        w.element("title", "settle report: " + name).newline();
-        w.styleSheet(Css.SHEET).newline();
-        w.close("head").newline();
-        w.open("body").newline();
+        openPage(w, "settle report: " + name);
         w.open("header");
         w.element("h1", "Study " + name + ": does decay shrink the noise ball?");
         w.open("p", "class", "lede");
@@ -134,6 +126,30 @@ public final class ReportPage {
         w.text("Written by settle " + manifest.toolVersion() + " from the study directory; rebuild with "
                 + "settle report " + study.directory() + ".");
         w.close("footer").newline();
+        closePage(w);
+    }
+
+    /**
+     * Starts a page of settle's: the doctype, the head (charset, {@link #CSP}, viewport, the title, the report's
+     * style sheet) and the opening of the body. Every page settle writes (the report, the probe's page) starts so.
+     *
+     * @param w an empty writer
+     * @param title the page's title
+     */
+    public static void openPage(HtmlWriter w, String title) {
+        w.doctype().open("html", "lang", "en").newline();
+        w.open("head").newline();
+        w.empty("meta", "charset", "utf-8").newline();
+        w.empty("meta", "http-equiv", "Content-Security-Policy", "content", CSP).newline();
+        w.empty("meta", "name", "viewport", "content", "width=device-width, initial-scale=1").newline();
+        w.element("title", title).newline();
+        w.styleSheet(Css.SHEET).newline();
+        w.close("head").newline();
+        w.open("body").newline();
+    }
+
+    /** Ends a page begun by {@link #openPage}: closes the body and the html element. */
+    public static void closePage(HtmlWriter w) {
         w.close("body").newline();
         w.close("html").newline();
     }

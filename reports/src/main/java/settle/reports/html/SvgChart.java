@@ -202,6 +202,29 @@ public final class SvgChart {
     }
 
     /**
+     * A shaded span across the plot's height from data value {@code from} to {@code to} (a range of x), cut to the
+     * axis, of class {@code cssClass} (its fill is the style sheet's), with a {@code <title>}. Nothing when it does
+     * not meet the axis or an end is not finite.
+     */
+    public void span(double from, double to, String cssClass, String tooltip) {
+        double a = px(from);
+        double b = px(to);
+        if (!Double.isFinite(a) || !Double.isFinite(b) || b < a) {
+            return;
+        }
+        a = Math.max(left, a);
+        b = Math.min(width - right, b);
+        if (b < a) {
+            return;
+        }
+        double shown = Math.max(1.5, b - a);
+        w.open("rect", "class", cssClass, "x", n(Math.min(a, width - right - shown)), "y", n(top), "width", n(shown),
+                "height", n(height - top - bottom));
+        w.element("title", tooltip);
+        w.close("rect");
+    }
+
+    /**
      * A short vertical tick of class {@code cssClass} centred on data point (vx, vy), held inside the plot, with
      * a {@code <title>}. Nothing when vx is off the axis; a vy that cannot be drawn puts it on the bottom edge.
      */
