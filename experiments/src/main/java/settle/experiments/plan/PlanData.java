@@ -101,14 +101,14 @@ public final class PlanData {
                 prepared.train());
         Dataset holdout = prepared.holdout().length == 0 ? null
                 : all.subset(trainName + " (held-out part)", prepared.holdout());
-        Dataset test = all.subset(name + " (held-out part)", prepared.test());
+        Dataset test = prepared.test().length == 0 ? null : all.subset(name + " (held-out part)", prepared.test());
         Standardiser standardiser = null;
         List<String> warnings = new ArrayList<>(prepared.warnings());
         if (plan.data().standardize()) {
             standardiser = Standardiser.fit(train);
             warnings.addAll(standardiser.warnings());
             train = standardiser.apply(train);
-            test = standardiser.apply(test);
+            test = test == null ? null : standardiser.apply(test);
             holdout = holdout == null ? null : standardiser.apply(holdout);
         }
         return new PlanData(all, train, holdout, test, standardiser, warnings, prepared);
@@ -129,7 +129,7 @@ public final class PlanData {
         return holdout;
     }
 
-    /** @return the test split */
+    /** @return the test split; null only for the plan trace builds with no test split (a plan file always has one) */
     public Dataset test() {
         return test;
     }
