@@ -27,5 +27,5 @@ if [ ! -f "$jar" ] || [ -n "$(find "$root" -path '*/src/main/*' -newer "$jar" -p
   mvn -B -q -DskipTests -pl benchmarks -am package
 fi
 export OMP_NUM_THREADS=1 OPENBLAS_NUM_THREADS=1 MKL_NUM_THREADS=1
-exec java --add-modules jdk.incubator.vector -cp "$jar" settle.benchmarks.Comparison \
+exec java --add-modules jdk.incubator.vector -cp "$jar" settle.benchmarks.PeerSpeed \
   --peer "$root/benchmarks/src/main/python/peer.py" --python /usr/bin/python3 "$@" 2> >(grep -v 'Using incubator modules' >&2)

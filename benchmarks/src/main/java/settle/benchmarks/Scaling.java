@@ -110,10 +110,10 @@ public final class Scaling {
                     + "wall-clock speedup %.2f×, CPU per replicate 1-thread/2-thread %.2f; final θ bit-identical%n",
                     round + 1, t1, c1, t2, c2, speedups[round], cpuRatios[round]);
         }
-        System.out.printf(Locale.ROOT, "wall-clock speedup on 2 threads: median %s%n", Comparison.spread(speedups));
+        System.out.printf(Locale.ROOT, "wall-clock speedup on 2 threads: median %s%n", PeerSpeed.spread(speedups));
         System.out.printf(Locale.ROOT, "work per replicate (CPU time, 1 thread / 2 threads): median %s "
                 + "(1.00 = the threads do not slow each other; speedup = 2 × this when both cores are free)%n",
-                Comparison.spread(cpuRatios));
+                PeerSpeed.spread(cpuRatios));
     }
 
     /**
@@ -189,7 +189,7 @@ public final class Scaling {
         }
         double[] medians = new double[sizes.length];
         for (int s = 0; s < sizes.length; s++) {
-            medians[s] = Comparison.median(perRow[s]);
+            medians[s] = PeerSpeed.median(perRow[s]);
             System.out.printf(Locale.ROOT, "  %6d rows: %.3f µs per row × epoch (rounds of %d replicates: %s)%n",
                     sizes[s], medians[s] * 1e6, count[s],
                     Arrays.toString(Arrays.stream(perRow[s]).map(v -> Math.round(v * 1e9) / 1e3).toArray()));

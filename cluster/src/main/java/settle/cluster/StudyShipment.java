@@ -60,11 +60,6 @@ final class StudyShipment implements Serializable {
         return PlanParser.read(planYaml, planFile, Path.of("")).plan().study();
     }
 
-    /** @return the number of bytes of data this shipment carries (features, labels and the split rows) */
-    long dataBytes() {
-        return 8L * features.length + 4L * (labels.length + trainRows.length + holdoutRows.length + testRows.length);
-    }
-
     /**
      * @return the context rebuilt from the shipped plan and rows, built once per JVM that holds this value
      * @throws IllegalStateException when the plan does not read back to the driver's (a defect, never input)

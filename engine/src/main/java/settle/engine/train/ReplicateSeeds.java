@@ -1,7 +1,7 @@
 package settle.engine.train;
 
 import java.util.random.RandomGenerator;
-import java.util.random.RandomGeneratorFactory;
+import settle.datasets.Randomness;
 
 /**
  * The random streams of one replicate, derived from (root seed, replicate index) only, so that replicate k of
@@ -14,10 +14,9 @@ import java.util.random.RandomGeneratorFactory;
  *       numbers earlier epochs consumed.</li>
  * </ul>
  *
- * <p>"mix" folds each value of the tuple into a 64-bit state with the SplitMix64 finaliser (Steele, Lea &amp;
- * Flood, "Fast splittable pseudorandom number generators", OOPSLA 2014). Every stream is a
- * {@value #ALGORITHM} generator from {@link RandomGeneratorFactory}, whose output for a given {@code long}
- * seed is fixed by the JDK's specification of the LXM family.
+ * <p>"mix" folds each value of the tuple into a 64-bit state with {@link Randomness#fold} (the SplitMix64
+ * finaliser). Every stream is a {@value #ALGORITHM} generator from {@link Randomness#create}, whose output for a
+ * given {@code long} seed is fixed by the JDK's specification of the LXM family.
  *
  * @param algorithm the generator algorithm's name ({@value #ALGORITHM}); goes into manifests
  * @param rootSeed the study's root seed
@@ -28,12 +27,7 @@ import java.util.random.RandomGeneratorFactory;
 public record ReplicateSeeds(String algorithm, long rootSeed, int replicate, long initialisationSeed, long samplingSeed) {
 
     /** The generator algorithm of every stream. */
-    public static final String ALGORITHM = "L64X128MixRandom";
-
-    /** The factory of {@value #ALGORITHM} generators (immutable; looked up once). */
-    private static final RandomGeneratorFactory<RandomGenerator> FACTORY = RandomGeneratorFactory.of(ALGORITHM);
-
-    private static final long GOLDEN_GAMMA = 0x9E3779B97F4A7C15L;
+    public static final String ALGORITHM = Randomness.ALGORITHM;
     private static final long INIT_TAG = 0x696E6974L;         // "init"
     private static final long SAMPLING_TAG = 0x73616D706CL;   // "sampl"
 
@@ -70,22 +64,14 @@ public record ReplicateSeeds(String algorithm, long rootSeed, int replicate, lon
     }
 
     private static RandomGenerator generator(long seed) {
-        return FACTORY.create(seed);
+        return Randomness.create(seed);
     }
 
     private static long mix(long root, int replicate, long tag) {
         return step(step(step(0L, root), replicate), tag);
     }
 
-    /** Folds {@code value} into {@code state}: SplitMix64's finaliser of state + gamma·(value + 1). */
     private static long step(long state, long value) {
-        return finalise(state ^ finalise(value * GOLDEN_GAMMA + GOLDEN_GAMMA));
-    }
-
-    /** The SplitMix64 output function (Stafford's "Mix13" variant of MurmurHash3's finaliser). */
-    static long finalise(long z) {
-        z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
-        z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
-        return z ^ (z >>> 31);
+        return Randomness.fold(state, value);
     }
 }

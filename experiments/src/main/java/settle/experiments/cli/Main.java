@@ -46,6 +46,7 @@ public final class Main implements Callable<Integer> {
     public static CommandLine commandLine() {
         CommandLine cl = new CommandLine(new Main());
         applyExitCodes(cl);
+        Choices.register(cl);
         cl.setParameterExceptionHandler(Main::oneLineUsageError);
         cl.setExitCodeExceptionMapper(Failures::exitCode);
         cl.setExecutionExceptionHandler(Failures::handle);
@@ -64,6 +65,11 @@ public final class Main implements Callable<Integer> {
         String message = e.getMessage();
         if (e instanceof CommandLine.UnmatchedArgumentException u && !u.getUnmatched().isEmpty()) {
             message = unmatched(cl, u.getUnmatched().get(0));
+        } else if (cl.getCommand() instanceof TraceCommand) {
+            message = TraceCommand.explain(message, java.util.List.of(args));
+        }
+        if (message != null && message.startsWith("Error: ")) {
+            message = message.substring("Error: ".length());
         }
         err.println(command + ": " + message + " (see '" + command + " --help')");
         err.flush();

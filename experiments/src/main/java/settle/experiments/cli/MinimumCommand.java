@@ -8,6 +8,7 @@ import java.util.Locale;
 import java.util.Optional;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -34,6 +35,7 @@ import settle.reports.format.NumberText;
         name = "minimum",
         mixinStandardHelpOptions = true,
         versionProvider = Main.Version.class,
+        defaultValueProvider = OptionDefaults.class,
         description = {
             "The exact minimiser θ* of F(θ) = (1/N) Σ loss_i + (λ/2)‖weights‖² on the whole dataset (logistic"
                     + " models), F(θ*), the gradient norm reached and H's extreme eigenvalues on the gauge-free"
@@ -45,24 +47,12 @@ public final class MinimumCommand implements Callable<Integer> {
     @Spec
     private CommandSpec spec;
 
-    @Option(names = "--data", required = true, paramLabel = "SOURCE",
-            description = "csv:PATH, libsvm:PATH, bundled:NAME or synthetic:GENERATOR")
-    private String data;
+    @Mixin
+    private DataOptions data;
 
-    @Option(names = "--label", paramLabel = "COL", description = "label column of a CSV file (default: the last)")
-    private String label;
-
-    @Option(names = "--model", paramLabel = "KIND", defaultValue = "logistic",
+    @Option(names = "--model", paramLabel = "KIND",
             description = "logistic (the only kind with an exact minimiser; default ${DEFAULT-VALUE})")
-    private String model;
-
-    @Option(names = "--l2", paramLabel = "L", defaultValue = "0",
-            description = "λ, the penalty on the weights, not the biases (default ${DEFAULT-VALUE})")
-    private double l2;
-
-    @Option(names = "--standardize",
-            description = "z-score every feature (population standard deviation) fitted on all rows")
-    private boolean standardize;
+    private ModelSpec.Kind model;
 
     @Option(names = "--out", paramLabel = "FILE",
             description = "write θ* to FILE, one value per line, instead of printing it")
@@ -72,19 +62,19 @@ public final class MinimumCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
-        if (!"logistic".equalsIgnoreCase(model.strip())) {
-            throw BadInputException.of("--model", "--model " + BadInputException.shown(model) + " has no exact"
-                    + " minimiser; accepted: logistic");
+        if (model != ModelSpec.Kind.LOGISTIC) {
+            throw BadInputException.of("--model", "--model " + model.key() + " has no exact minimiser; accepted: "
+                    + ModelSpec.Kind.LOGISTIC.key());
         }
-        if (!(l2 >= 0) || Double.isInfinite(l2)) {
-            throw BadInputException.of("--l2", "--l2 must be a finite number >= 0, got " + l2);
-        }
+        data.check();
+        double l2 = data.l2;
+        boolean standardize = data.standardize;
         if (out != null && Files.isDirectory(out)) {
             throw BadInputException.of("--out", "--out " + out + " is a directory; expected the file to write θ* to");
         }
         ModelSpec modelSpec = ModelSpec.logistic(l2);
         // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused)
-        PreparedData prepared = DataSources.prepare(data, label, TableOptions.DEFAULTS, null, SplitRule.NONE);
+        PreparedData prepared = DataSources.prepare(data.source, data.label, TableOptions.DEFAULTS, null, SplitRule.NONE);
         for (String warning : prepared.warnings()) {
             stderr.println("warning: " + warning);
         }

@@ -1,6 +1,7 @@
 package settle.experiments.cli;
 
 import java.io.IOException;
+import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
 import java.io.Writer;
 import java.nio.charset.StandardCharsets;
@@ -11,141 +12,158 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import picocli.CommandLine.ArgGroup;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
-import settle.datasets.DataSources;
-import settle.datasets.Dataset;
-import settle.datasets.PreparedData;
-import settle.datasets.SplitRule;
-import settle.datasets.table.TableOptions;
-import settle.datasets.Standardiser;
-import settle.engine.minimum.Minimiser;
-import settle.engine.minimum.Minimum;
-import settle.engine.minimum.NoMinimiserException;
 import settle.engine.model.Activation;
 import settle.engine.model.Model;
 import settle.engine.model.ModelSpec;
 import settle.engine.schedule.Schedule;
 import settle.engine.schedule.Schedules;
+import settle.engine.text.NearMiss;
 import settle.engine.train.EpochRecord;
-import settle.engine.train.ReferencePoint;
 import settle.engine.train.ReplicateResult;
 import settle.engine.train.ReplicateSeeds;
-import settle.engine.train.Sampling;
 import settle.engine.train.SampleOrders;
+import settle.engine.train.Sampling;
 import settle.engine.train.Trainer;
 import settle.engine.train.TrainingSettings;
 import settle.engine.train.Wander;
-import settle.engine.text.NearMiss;
+import settle.experiments.plan.ArmPlan;
+import settle.experiments.plan.DataPlan;
+import settle.experiments.plan.Defaults;
 import settle.experiments.plan.ParsedPlan;
-import settle.experiments.plan.PlanData;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanParser;
+import settle.experiments.plan.ScheduleSpec;
+import settle.experiments.plan.TrainingPlan;
 import settle.experiments.run.ReplicateKey;
-import settle.input.BadInputException;
-import settle.reports.format.AtomicFile;
 import settle.experiments.study.ReplicateFile;
 import settle.experiments.study.StudyContext;
+import settle.input.BadInputException;
+import settle.reports.format.AtomicFile;
+import settle.reports.format.Csv;
 import settle.reports.format.NumberText;
 import settle.reports.format.ReplicateJson;
 import settle.reports.format.StudyFormat;
 
 /**
- * {@code settle trace}: trains one replicate (replicate 1 of the root seed) and prints it epoch by epoch; with
- * {@code --init} and {@code --order} it replays a run made elsewhere. Bad input prints one line to stderr and
- * exits 2; a diverged replicate exits 3; an I/O failure writing {@code --dump} exits 1.
+ * {@code settle trace}: trains one replicate through the study pipeline ({@link StudyContext}: load, split,
+ * standardise, model, minimiser) and prints it epoch by epoch. {@code --plan} reruns replicate K of one arm of a
+ * plan; {@code --data} builds a one-arm plan in memory from the options, with the plan's defaults
+ * ({@link settle.experiments.plan.Defaults}), and is replicate 1 of {@code --seed}; with {@code --init} and
+ * {@code --order} it replays a run made elsewhere. Bad input prints one line to stderr and exits 2; a diverged
+ * replicate exits 3; an I/O failure writing {@code --dump} exits 1.
  */
 @Command(
         name = "trace",
         mixinStandardHelpOptions = true,
+        defaultValueProvider = OptionDefaults.class,
         description = {
-            "Train one replicate and print it epoch by epoch (replicate 1 of --seed).",
-            "The whole dataset trains unless --test-fraction is given; no standardisation unless --standardize.",
+            "Train one replicate through the study pipeline and print it epoch by epoch.",
+            "--data trains replicate 1 of --seed with the plan's defaults (a stratified test split of --test-fraction,"
+                    + " standardised features; --test-fraction 0 --no-standardize trains on every row as read).",
             "--init: parameters, one per line (binary logistic: the d weights, then the bias; multinomial: class 0's "
                     + "d weights, class 1's, ..., then the K biases; mlp: layer by layer, weights (out x in, "
                     + "row-major) then biases).",
             "--order: one line per epoch, the 0-based indices into the training rows of that epoch's order, "
                     + "comma-separated (N per line for shuffle, ceil(N/B)*B for replacement).",
-            "--dump DIR writes updates.csv (epoch,update,rate), epochs.csv (epoch,objective,test_loss,"
-                    + "test_accuracy,distance) and final.csv (the final parameters, one per line)."
+            "--dump DIR writes updates.csv (epoch,update,rate), " + TraceCommand.EPOCHS_FILE + " (epoch,objective,"
+                    + "test_loss,test_accuracy,distance) and final.csv (the final parameters, one per line); with"
+                    + " --plan also replicate.json, the study's replicate file."
         })
 public final class TraceCommand implements Callable<Integer> {
+
+    /** The per-epoch file of {@code --dump}; not the study's {@code epochs.csv}, whose columns differ. */
+    static final String EPOCHS_FILE = "trace-epochs.csv";
 
     @Spec
     private CommandSpec spec;
 
-    @Option(names = "--plan", paramLabel = "PLAN", description = "rerun one replicate of a plan's study (with --arm and --replicate)")
-    private Path plan;
+    @ArgGroup(exclusive = true, multiplicity = "1")
+    private Form form;
 
-    @Option(names = "--arm", paramLabel = "NAME", description = "with --plan: the arm's name")
-    private String arm;
-
-    @Option(names = "--replicate", paramLabel = "K", description = "with --plan: the replicate, numbered from 1")
-    private Integer replicate;
-
-    @Option(names = "--data", paramLabel = "SOURCE",
-            description = "csv:PATH, libsvm:PATH, bundled:NAME or synthetic:GENERATOR[?key=value&...]")
-    private String data;
-
-    @Option(names = "--label", paramLabel = "COL", description = "the label column (csv; default the last column)")
-    private String label;
-
-    @Option(names = "--model", paramLabel = "logistic|mlp", defaultValue = "logistic",
-            description = "logistic (sigmoid for two classes, softmax for more) or mlp (default: ${DEFAULT-VALUE})")
-    private String modelKind;
-
-    @Option(names = "--hidden", paramLabel = "32,16", defaultValue = "32",
-            description = "mlp hidden layer sizes, comma-separated (default: ${DEFAULT-VALUE})")
-    private String hidden;
-
-    @Option(names = "--activation", paramLabel = "relu|tanh", defaultValue = "relu",
-            description = "mlp hidden activation (default: ${DEFAULT-VALUE})")
-    private String activation;
-
-    @Option(names = "--l2", paramLabel = "L", defaultValue = "1.0e-3",
-            description = "λ, the penalty (λ/2)‖weights‖² on weights, not biases (default: ${DEFAULT-VALUE})")
-    private double l2;
-
-    @Option(names = "--schedule", paramLabel = "SCHEDULE",
-            description = "the schedule as a YAML map, e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'")
-    private String schedule;
-
-    @Option(names = "--epochs", paramLabel = "E", description = "passes over the training rows (≥ 1)")
-    private Integer epochs;
-
-    @Option(names = "--batch", paramLabel = "B", description = "rows per mini-batch (≥ 1)")
-    private Integer batch;
-
-    @Option(names = "--sampling", paramLabel = "shuffle|replacement", defaultValue = "shuffle",
-            description = "shuffle (a fresh permutation per epoch) or replacement (default: ${DEFAULT-VALUE})")
-    private String sampling;
-
-    @Option(names = "--momentum", paramLabel = "M", defaultValue = "0",
-            description = "heavy-ball β in [0, 1): v ← βv + g, θ ← θ − αv (default: ${DEFAULT-VALUE})")
-    private double momentum;
-
-    @Option(names = "--seed", paramLabel = "S", defaultValue = "1",
-            description = "root seed: the start (unless --init), the order (unless --order) and the test split "
-                    + "(default: ${DEFAULT-VALUE})")
-    private long seed;
-
-    @Option(names = "--test-fraction", paramLabel = "F",
-            description = "hold out this stratified fraction (0 < F < 1) as the test split")
-    private Double testFraction;
-
-    @Option(names = "--standardize", description = "z-score the features, fitted on the training rows only")
-    private boolean standardize;
-
-    @Option(names = "--init", paramLabel = "FILE", description = "starting parameters, one per line")
-    private Path init;
-
-    @Option(names = "--order", paramLabel = "FILE", description = "the sample order, one line per epoch")
-    private Path order;
-
-    @Option(names = "--dump", paramLabel = "DIR", description = "write updates.csv, epochs.csv and final.csv here")
+    @Option(names = "--dump", paramLabel = "DIR",
+            description = "write updates.csv, " + EPOCHS_FILE + " and final.csv here (made if missing)")
     private Path dump;
+
+    /** Either form, never both (picocli refuses a mix with one line). */
+    static final class Form {
+        @ArgGroup(exclusive = false, multiplicity = "1", heading = "Rerun one replicate of a plan's study:%n")
+        PlanForm plan;
+
+        @ArgGroup(exclusive = false, multiplicity = "1", heading = "Or train one replicate from data:%n")
+        DataForm data;
+    }
+
+    /** {@code --plan PLAN --arm NAME --replicate K}. */
+    static final class PlanForm {
+        @Option(names = "--plan", required = true, paramLabel = "PLAN", description = "the plan of the study")
+        Path plan;
+
+        @Option(names = "--arm", required = true, paramLabel = "NAME", description = "the arm's name")
+        String arm;
+
+        @Option(names = "--replicate", required = true, paramLabel = "K", description = "the replicate, numbered from 1")
+        int replicate;
+    }
+
+    /** {@code --data SOURCE --schedule SCHEDULE} and the plan keys they may set. */
+    static final class DataForm extends DataOptions {
+
+        @Option(names = "--schedule", required = true, paramLabel = "SCHEDULE",
+                description = "the schedule as a YAML map, e.g. '{kind: reciprocal, rate: 0.2, decay: 1}'")
+        String schedule;
+
+        @Option(names = "--model", paramLabel = "logistic|mlp",
+                description = "logistic (sigmoid for two classes, softmax for more) or mlp (default: ${DEFAULT-VALUE})")
+        ModelSpec.Kind model;
+
+        @Option(names = "--hidden", paramLabel = "32,16",
+                description = "mlp hidden layer sizes, comma-separated (default: ${DEFAULT-VALUE})")
+        String hidden;
+
+        @Option(names = "--activation", paramLabel = "relu|tanh", description = "mlp hidden activation (default: ${DEFAULT-VALUE})")
+        Activation activation;
+
+        @Option(names = "--epochs", paramLabel = "E", description = "passes over the training rows (default: ${DEFAULT-VALUE})")
+        int epochs;
+
+        @Option(names = "--batch", paramLabel = "B", description = "rows per mini-batch (default: ${DEFAULT-VALUE})")
+        int batch;
+
+        @Option(names = "--sampling", paramLabel = "shuffle|replacement",
+                description = "shuffle (a fresh permutation per epoch) or replacement (default: ${DEFAULT-VALUE})")
+        Sampling sampling;
+
+        @Option(names = "--momentum", paramLabel = "M",
+                description = "heavy-ball β in [0, 1): v ← βv + g, θ ← θ − αv (default: ${DEFAULT-VALUE})")
+        double momentum;
+
+        @Option(names = "--seed", paramLabel = "S",
+                description = "root seed: the start (unless --init), the order (unless --order) and the test split "
+                        + "(default: ${DEFAULT-VALUE})")
+        long seed;
+
+        @Option(names = "--test-fraction", paramLabel = "F",
+                description = "the stratified fraction held out as the test split, in [0, 1); 0: every row trains "
+                        + "(default: ${DEFAULT-VALUE})")
+        double testFraction;
+
+        @Option(names = "--init", paramLabel = "FILE", description = "starting parameters, one per line")
+        Path init;
+
+        @Option(names = "--order", paramLabel = "FILE", description = "the sample order, one line per epoch")
+        Path order;
+    }
+
+    /** Which option sets each key of the plan {@code --data} builds, for a problem found while building the study. */
+    private static final Map<String, String> OPTION_OF_KEY = Map.of(
+            "data", "--data", "data.label", "--label", "data.test-fraction", "--test-fraction",
+            "model", "--model", "model.l2", "--l2", "arms[0]", "--schedule", "training.batch", "--batch",
+            "training.epochs", "--epochs");
 
     @Override
     public Integer call() throws IOException {
@@ -155,126 +173,179 @@ public final class TraceCommand implements Callable<Integer> {
             throw BadInputException.of("--dump", "--dump " + dump + " is a file; expected a directory to write the"
                     + " dump into (it is made if missing)");
         }
-        if (plan != null) {
-            return tracePlan(out, err);
+        ReplicateKey key;
+        StudyContext context;
+        Trainer trainer;
+        String origin;
+        if (form.plan != null) {
+            PlanForm f = form.plan;
+            ParsedPlan parsed = PlanParser.read(f.plan);
+            key = key(parsed.plan(), f);
+            context = StudyContext.build(parsed);
+            trainer = context.trainer(key.arm());
+            origin = f.plan + ": arm " + key.arm() + " '" + f.arm + "', replicate " + key.replicate() + " of "
+                    + context.plan().replicates() + "; ";
+        } else {
+            DataForm f = form.data;
+            ParsedPlan parsed = ParsedPlan.fromOptions(plan(f), OPTION_OF_KEY);
+            key = new ReplicateKey(1, 1);
+            context = StudyContext.build(parsed);
+            trainer = f.init == null && f.order == null ? context.trainer(1)
+                    : context.replayTrainer(1, f.init == null ? null : readInit(f.init, context.model()),
+                            f.order == null ? null : readOrder(f.order, context.plan().training().settings(false),
+                                    context.data().train().rows()));
+            origin = "";
         }
-        if (arm != null || replicate != null) {
-            throw BadInputException.of("--arm", "--arm and --replicate go with --plan");
+        for (String warning : context.data().warnings()) {
+            err.println("settle trace: warning: " + warning);
         }
-        List<String> missing = new ArrayList<>();
-        if (data == null) {
-            missing.add("--data=SOURCE");
-        }
-        if (schedule == null) {
-            missing.add("--schedule=SCHEDULE");
-        }
-        if (epochs == null) {
-            missing.add("--epochs=E");
-        }
-        if (batch == null) {
-            missing.add("--batch=B");
-        }
-        if (!missing.isEmpty()) {
-            throw BadInputException.of("", "missing " + String.join(", ", missing)
-                    + " (or give --plan PLAN --arm NAME --replicate K to rerun one replicate of a study)");
-        }
-        Prepared prepared = prepare(err);
-        Trainer trainer = prepared.trainer;
-        out.println(prepared.model.describe() + "; " + prepared.train.rows() + " training rows"
-                + (prepared.test == null ? "" : ", " + prepared.test.rows() + " test rows") + "; "
-                + trainer.shape().epochs() + " epochs × " + trainer.shape().updatesPerEpoch() + " updates of batch "
-                + batch + " (" + sampling + ")" + (momentum == 0 ? "" : ", momentum " + number(momentum)));
-        out.println("schedule " + prepared.schedule.describe());
-        ReplicateSeeds seeds = ReplicateSeeds.derive(seed, 1);
-        out.println("seed " + seed + ", replicate 1: " + seeds.algorithm() + " initialisation seed "
-                + seeds.initialisationSeed() + ", sampling seed " + seeds.samplingSeed()
-                + (init != null ? "; start from " + init : "") + (order != null ? "; order from " + order : ""));
-        if (prepared.referenceNote != null) {
-            out.println(prepared.referenceNote);
+        err.flush();
+        Plan plan = context.plan();
+        ReplicateSeeds seeds = context.seeds(key.replicate());
+        out.println(origin + context.model().describe() + "; " + context.data().train().rows() + " training rows"
+                + (context.data().test() == null ? "" : ", " + context.data().test().rows() + " test rows")
+                + (plan.data().standardize() ? " (standardised)" : "") + "; " + trainer.shape().epochs()
+                + " epochs × " + trainer.shape().updatesPerEpoch() + " updates of batch " + plan.training().batch()
+                + " (" + plan.training().sampling() + ")"
+                + (plan.training().momentum() == 0 ? "" : ", momentum " + number(plan.training().momentum())));
+        out.println("schedule " + plan.arms().get(key.arm() - 1).schedule().schedule().describe());
+        DataForm f = form.data;
+        out.println("seed " + seeds.rootSeed() + ", replicate " + seeds.replicate() + ": " + seeds.algorithm()
+                + " initialisation seed " + seeds.initialisationSeed() + ", sampling seed " + seeds.samplingSeed()
+                + (f != null && f.init != null ? "; start from " + f.init : "")
+                + (f != null && f.order != null ? "; order from " + f.order : ""));
+        if (context.minimum() != null) {
+            out.println("reference minimiser: F(θ*) = " + fmt(context.minimum().objective()) + ", ‖∇F‖∞ = "
+                    + fmt(context.minimum().gradientNorm())
+                    + (context.minimum().converged() ? "" : " (not converged: best point found)"));
         }
         ReplicateResult result = printRun(out, trainer, seeds);
         if (dump != null) {
+            String also = "";
             try {
                 writeDump(dump, result, trainer.shape().updatesPerEpoch());
+                if (form.plan != null) {
+                    AtomicFile.write(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(context, key,
+                            result)));
+                    also = " and " + dump.resolve("replicate.json") + " (the study's "
+                            + StudyFormat.replicatePath(key.arm(), key.replicate()) + ")";
+                }
             } catch (IOException e) {
                 throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);
             }
-            out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
-                    + dump.resolve("final.csv"));
+            out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve(EPOCHS_FILE) + ", "
+                    + dump.resolve("final.csv") + also);
             out.flush();
         }
         return result.diverged() ? Main.INCOMPLETE : Main.OK;
     }
 
     /**
-     * The {@code --plan} form: reruns replicate K of one arm exactly as {@code settle run} trains it (same data,
-     * split, model, reference and seeds), prints it epoch by epoch, and with {@code --dump} also writes the
-     * replicate file, byte for byte the one in the study directory.
+     * A usage error of trace said in the command's terms: options of the data form given with {@code --plan} are
+     * named as such (picocli would report the data form's missing options instead).
+     *
+     * @param message picocli's message
+     * @param args the command line's arguments
+     * @return the line to print after {@code settle trace: }
      */
-    private int tracePlan(PrintWriter out, PrintWriter err) throws IOException {
+    static String explain(String message, List<String> args) {
+        boolean withPlan = args.stream().anyMatch(a -> a.equals("--plan") || a.startsWith("--plan="));
+        if (!withPlan) {
+            boolean planOptions = args.stream().anyMatch(a -> a.equals("--arm") || a.startsWith("--arm=")
+                    || a.equals("--replicate") || a.startsWith("--replicate="));
+            return planOptions ? "--arm and --replicate go with --plan PLAN (to rerun one replicate of a study)"
+                    : message;
+        }
         List<String> stray = new ArrayList<>();
-        for (String option : List.of("--data", "--label", "--model", "--hidden", "--activation", "--l2", "--schedule",
-                "--epochs", "--batch", "--sampling", "--momentum", "--seed", "--test-fraction", "--standardize",
-                "--init", "--order")) {
-            if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+        for (String option : DATA_FORM_OPTIONS) {
+            if (args.stream().anyMatch(a -> a.equals(option) || a.startsWith(option + "="))) {
                 stray.add(option);
             }
         }
-        if (!stray.isEmpty()) {
-            throw BadInputException.of("", String.join(", ", stray) + (stray.size() == 1 ? " does" : " do")
-                    + " not go with --plan: the plan fixes the data, model and training");
-        }
-        if (arm == null || replicate == null) {
-            throw BadInputException.of("--plan", "--plan needs --arm NAME and --replicate K");
-        }
-        StudyContext context;
-        ReplicateKey key;
-        {
-            ParsedPlan parsed = PlanParser.read(plan);
-            Plan p = parsed.plan();
-            int index = -1;
-            List<String> names = new ArrayList<>();
-            for (int i = 0; i < p.arms().size(); i++) {
-                names.add(p.arms().get(i).name());
-                if (p.arms().get(i).name().equals(arm)) {
-                    index = i + 1;
-                }
+        return stray.isEmpty() ? message : String.join(", ", stray) + (stray.size() == 1 ? " does" : " do")
+                + " not go with --plan: the plan fixes the data, model and training";
+    }
+
+    /** The options of the data form, in the order of --help. */
+    private static final List<String> DATA_FORM_OPTIONS = List.of("--data", "--label", "--l2", "--standardize",
+            "--no-standardize", "--schedule", "--model", "--hidden", "--activation", "--epochs", "--batch",
+            "--sampling", "--momentum", "--seed", "--test-fraction", "--init", "--order");
+
+    /** @return the key of {@code --arm} and {@code --replicate} in the plan */
+    private static ReplicateKey key(Plan p, PlanForm f) {
+        int index = -1;
+        List<String> names = new ArrayList<>();
+        for (int i = 0; i < p.arms().size(); i++) {
+            names.add(p.arms().get(i).name());
+            if (p.arms().get(i).name().equals(f.arm)) {
+                index = i + 1;
             }
-            if (index < 0) {
-                throw BadInputException.of("--arm", "--arm: no arm named " + BadInputException.shown(arm) + " in " + plan
-                        + NearMiss.suggestion(arm, names) + " (the arms: " + String.join(", ", names) + ")");
-            }
-            if (replicate < 1 || replicate > p.replicates()) {
-                throw BadInputException.of("--replicate", "--replicate = " + replicate + " is not accepted; the plan has"
-                        + " replicates 1.." + p.replicates());
-            }
-            key = new ReplicateKey(index, replicate);
-            context = StudyContext.build(parsed);
         }
-        Trainer trainer = context.trainer(key.arm());
-        ReplicateSeeds seeds = context.seeds(key.replicate());
-        out.println(plan + ": arm " + key.arm() + " '" + arm + "', replicate " + key.replicate() + " of "
-                + context.plan().replicates() + "; " + context.model().describe() + "; " + context.data().train().rows()
-                + " training rows, " + context.data().test().rows() + " test rows; " + trainer.shape().epochs()
-                + " epochs × " + trainer.shape().updatesPerEpoch() + " updates");
-        out.println("schedule " + context.plan().arms().get(key.arm() - 1).schedule().schedule().describe());
-        out.println("seed " + seeds.rootSeed() + ", replicate " + seeds.replicate() + ": " + seeds.algorithm()
-                + " initialisation seed " + seeds.initialisationSeed() + ", sampling seed " + seeds.samplingSeed());
-        ReplicateResult result = printRun(out, trainer, seeds);
-        if (dump != null) {
+        if (index < 0) {
+            throw BadInputException.of("--arm", "--arm: no arm named " + BadInputException.shown(f.arm) + " in "
+                    + f.plan + NearMiss.suggestion(f.arm, names) + " (the arms: " + String.join(", ", names) + ")");
+        }
+        if (f.replicate < 1 || f.replicate > p.replicates()) {
+            throw BadInputException.of("--replicate", "--replicate = " + f.replicate + " is not accepted; the plan has"
+                    + " replicates 1.." + p.replicates());
+        }
+        return new ReplicateKey(index, f.replicate);
+    }
+
+    /** @return the one-arm plan of the {@code --data} form, its values checked where picocli's types leave them open */
+    private static Plan plan(DataForm f) {
+        f.check();
+        if (f.epochs < 1 || f.epochs > TrainingPlan.MAX_EPOCHS) {
+            throw BadInputException.of("--epochs", "--epochs = " + f.epochs + " is not accepted; expected an integer in"
+                    + " 1.." + TrainingPlan.MAX_EPOCHS);
+        }
+        if (f.batch < 1) {
+            throw BadInputException.of("--batch", "--batch = " + f.batch + " is not accepted; expected an integer ≥ 1");
+        }
+        if (!(f.momentum >= 0 && f.momentum < 1)) {
+            throw BadInputException.of("--momentum", "--momentum = " + f.momentum
+                    + " is not accepted; expected a number in [0, 1)");
+        }
+        if (!(f.testFraction >= 0 && f.testFraction < 1)) {
+            throw BadInputException.of("--test-fraction", "--test-fraction = " + f.testFraction
+                    + " is not accepted; expected a number in [0, 1) (0: every row trains)");
+        }
+        ModelSpec model = f.model == ModelSpec.Kind.LOGISTIC ? ModelSpec.logistic(f.l2)
+                : ModelSpec.mlp(hidden(f.hidden), f.activation, f.l2);
+        Map<String, Object> map;
+        try {
+            map = RatesCommand.readMap(f.schedule);
+        } catch (BadInputException e) {
+            throw BadInputException.of("--schedule", "--" + e.getMessage());
+        }
+        Schedule schedule;
+        try {
+            schedule = Schedules.parse(map);
+        } catch (BadInputException e) {
+            throw BadInputException.of("--schedule", "--schedule: " + e.getMessage());
+        }
+        ArmPlan arm = new ArmPlan("trace", new ScheduleSpec(map, schedule), ArmPlan.Averaging.NONE, false);
+        return new Plan("trace", f.seed, 1, new DataPlan(f.source, f.label, f.testFraction,
+                Defaults.HOLDOUT_FRACTION, f.standardize), model, new TrainingPlan(f.epochs, f.batch, f.sampling,
+                f.momentum, Defaults.TAIL, Defaults.SNAPSHOTS), arm.name(), List.of(arm));
+    }
+
+    private static List<Integer> hidden(String hidden) {
+        List<Integer> sizes = new ArrayList<>();
+        for (String part : hidden.split(",", -1)) {
             try {
-                writeDump(dump, result, trainer.shape().updatesPerEpoch());
-                AtomicFile.write(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(context, key,
-                        result)));
-            } catch (IOException e) {
-                throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);
+                int size = Integer.parseInt(part.strip());
+                if (size < 1 || size > PlanParser.MAX_WIDTH) {
+                    throw new NumberFormatException();
+                }
+                sizes.add(size);
+            } catch (NumberFormatException e) {
+                throw BadInputException.of("--hidden", "--hidden " + BadInputException.shown(hidden)
+                        + " is not accepted; expected comma-separated layer sizes 1.." + PlanParser.MAX_WIDTH
+                        + ", e.g. 32,16");
             }
-            out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
-                    + dump.resolve("final.csv") + " and " + dump.resolve("replicate.json")
-                    + " (the study's " + StudyFormat.replicatePath(key.arm(), key.replicate()) + ")");
-            out.flush();
         }
-        return result.diverged() ? Main.INCOMPLETE : Main.OK;
+        return sizes;
     }
 
     /** Trains one replicate, printing each epoch as it ends and the wander at the end. */
@@ -292,9 +363,12 @@ public final class TraceCommand implements Callable<Integer> {
                     + " (a loss was not finite or above 1e6 × F(θ₀) = " + fmt(1e6 * result.initialObjective()) + ")");
         } else {
             Wander w = result.wander();
-            out.println("tail: last " + w.tail().length() + " updates, " + w.tail().snapshots() + " snapshots; "
-                    + "tail radius " + fmt(w.tailRadius()) + ", tail loss spread " + fmt(w.tailLossSpread())
-                    + (Double.isNaN(w.tailDistance()) ? "" : ", tail distance " + fmt(w.tailDistance())));
+            out.println("tail: last " + w.tail().length() + " updates, " + w.tail().snapshots() + " snapshots, "
+                    + w.tailEpochEnds() + " epoch ends; tail loss spread " + fmt(w.tailLossSpread()));
+            out.println("tail radius " + fmt(w.tailRadius()) + " over every update, " + fmt(w.tailRadiusEpochEnds())
+                    + " over the epoch ends" + (Double.isNaN(w.tailDistance()) ? "" : "; tail distance "
+                    + fmt(w.tailDistance()) + " over every update, " + fmt(w.tailDistanceEpochEnds())
+                    + " over the epoch ends"));
             if (!Double.isNaN(w.finalGap())) {
                 out.println("final gap " + fmt(w.finalGap()) + ", final distance " + fmt(w.finalDistance())
                         + ", averaged gap " + fmt(w.averagedGap()));
@@ -302,129 +376,6 @@ public final class TraceCommand implements Callable<Integer> {
         }
         out.flush();
         return result;
-    }
-
-    /** Everything the run needs, validated. */
-    private record Prepared(Model model, Dataset train, Dataset test, Schedule schedule, Trainer trainer,
-            String referenceNote) {
-    }
-
-    private Prepared prepare(PrintWriter err) {
-        if (epochs < 1) {
-            throw BadInputException.of("--epochs", "--epochs = " + epochs + " is not accepted; expected an integer ≥ 1");
-        }
-        if (batch < 1) {
-            throw BadInputException.of("--batch", "--batch = " + batch + " is not accepted; expected an integer ≥ 1");
-        }
-        if (!(momentum >= 0 && momentum < 1)) {
-            throw BadInputException.of("--momentum", "--momentum = " + momentum + " is not accepted; expected a number in [0, 1)");
-        }
-        if (testFraction != null && !(testFraction > 0 && testFraction < 1)) {
-            throw BadInputException.of("--test-fraction", "--test-fraction = " + testFraction
-                    + " is not accepted; expected a number strictly between 0 and 1");
-        }
-        Sampling mode;
-        try {
-            mode = Sampling.parse(sampling);
-        } catch (BadInputException e) {
-            throw BadInputException.of("--sampling", "--sampling must be shuffle or replacement: '" + sampling + "'");
-        }
-        ModelSpec modelSpec = modelSpec();
-        Map<String, Object> map;
-        try {
-            map = RatesCommand.readMap(schedule);
-        } catch (BadInputException e) {
-            throw BadInputException.of("--schedule", "--" + e.getMessage());
-        }
-        Schedule parsed;
-        try {
-            parsed = Schedules.parse(map);
-        } catch (BadInputException e) {
-            throw BadInputException.of("--schedule", "--schedule: " + e.getMessage());
-        }
-
-        // a CSV table takes the default table keys here (text columns one-hot, gaps refused); levels are fitted on
-        // the training rows alone, as in a study
-        PreparedData prepared = DataSources.prepare(data, label, TableOptions.DEFAULTS, null, testFraction == null
-                ? SplitRule.NONE : new SplitRule(testFraction, PlanData.testSplitSeed(seed), 0, 0));
-        for (String warning : prepared.warnings()) {
-            err.println("settle trace: warning: " + warning);
-        }
-        Dataset all = prepared.all();
-        Dataset train = all;
-        Dataset test = null;
-        if (testFraction != null) {
-            train = all.subset(all.name() + " (training part)", prepared.train());
-            test = all.subset(all.name() + " (held-out part)", prepared.test());
-        }
-        if (standardize) {
-            Standardiser standardiser = Standardiser.fit(train);
-            for (String warning : standardiser.warnings()) {
-                err.println("settle trace: warning: " + warning);
-            }
-            train = standardiser.apply(train);
-            test = test == null ? null : standardiser.apply(test);
-        }
-        Model model = modelSpec.build(train.features(), train.classes());
-        TrainingSettings settings = TrainingSettings.of(epochs, batch).withSampling(mode).withMomentum(momentum);
-
-        ReferencePoint reference = null;
-        String note = null;
-        if (modelSpec.convex()) {
-            try {
-                Minimum minimum = new Minimiser().minimise(model, train);
-                reference = new ReferencePoint(minimum.theta(), minimum.objective());
-                note = "reference minimiser: F(θ*) = " + fmt(minimum.objective()) + ", ‖∇F‖∞ = "
-                        + fmt(minimum.gradientNorm()) + (minimum.converged() ? "" : " (not converged: best point found)");
-            } catch (NoMinimiserException e) {
-                note = "no reference minimiser (" + e.getMessage() + "): no distances or gaps";
-            }
-        }
-
-        Trainer.Builder builder = Trainer.builder(model, train, parsed, settings).test(test).reference(reference)
-                .initialisation(modelSpec.init());
-        if (init != null) {
-            builder.start(readInit(init, model));
-        }
-        if (order != null) {
-            builder.orders(readOrder(order, settings, train.rows()));
-        }
-        return new Prepared(model, train, test, parsed, builder.build(), note);
-    }
-
-    private ModelSpec modelSpec() {
-        ModelSpec.Kind kind;
-        try {
-            kind = ModelSpec.Kind.parse(modelKind);
-        } catch (BadInputException e) {
-            throw BadInputException.of("--model", "--model must be logistic or mlp: '" + modelKind + "'");
-        }
-        if (!(l2 >= 0) || Double.isInfinite(l2)) {
-            throw BadInputException.of("--l2", "--l2 = " + l2 + " is not accepted; expected a finite number ≥ 0");
-        }
-        if (kind == ModelSpec.Kind.LOGISTIC) {
-            return ModelSpec.logistic(l2);
-        }
-        List<Integer> sizes = new ArrayList<>();
-        for (String part : hidden.split(",", -1)) {
-            try {
-                int size = Integer.parseInt(part.strip());
-                if (size < 1) {
-                    throw new NumberFormatException();
-                }
-                sizes.add(size);
-            } catch (NumberFormatException e) {
-                throw BadInputException.of("--hidden", "--hidden '" + hidden
-                        + "' is not accepted; expected comma-separated layer sizes ≥ 1, e.g. 32,16");
-            }
-        }
-        Activation act;
-        try {
-            act = Activation.parse(activation);
-        } catch (BadInputException e) {
-            throw BadInputException.of("--activation", "--activation must be relu or tanh: '" + activation + "'");
-        }
-        return ModelSpec.mlp(sizes, act, l2);
     }
 
     /** Reads one parameter per line (blank lines at the end ignored). */
@@ -506,36 +457,37 @@ public final class TraceCommand implements Callable<Integer> {
     }
 
     /**
-     * Writes updates.csv (every update applied), epochs.csv (every completed epoch) and final.csv (θ_T) into
-     * {@code dir}, creating it. Numbers are written as the shortest decimal that reads back as the same double.
+     * Writes updates.csv (every update applied), {@value #EPOCHS_FILE} (every completed epoch) and final.csv (θ_T)
+     * into {@code dir}, creating it; each file atomically, in the study files' CSV form (shortest round-trip numbers,
+     * an empty cell where a value does not apply).
      */
     static void writeDump(Path dir, ReplicateResult result, int updatesPerEpoch) throws IOException {
-        Files.createDirectories(dir);
-        try (Writer w = Files.newBufferedWriter(dir.resolve("updates.csv"), StandardCharsets.UTF_8)) {
-            w.write("epoch,update,rate\n");
+        AtomicFile.write(dir.resolve("updates.csv"), stream -> {
+            Writer w = new OutputStreamWriter(stream, StandardCharsets.UTF_8);
+            w.write(Csv.line("epoch", "update", "rate"));
             double[] rates = result.rates();
             for (int t = 1; t <= rates.length; t++) {
-                int epoch = (t - 1) / updatesPerEpoch + 1;
-                w.write(epoch + "," + t + "," + NumberText.shortest(rates[t - 1]) + "\n");
+                w.write(Csv.line(Integer.toString((t - 1) / updatesPerEpoch + 1), Integer.toString(t),
+                        Csv.number(rates[t - 1])));
             }
-        }
-        try (Writer w = Files.newBufferedWriter(dir.resolve("epochs.csv"), StandardCharsets.UTF_8)) {
-            w.write("epoch,objective,test_loss,test_accuracy,distance\n");
+            w.flush();
+        });
+        AtomicFile.write(dir.resolve(EPOCHS_FILE), stream -> {
+            Writer w = new OutputStreamWriter(stream, StandardCharsets.UTF_8);
+            w.write(Csv.line("epoch", "objective", "test_loss", "test_accuracy", "distance"));
             for (EpochRecord e : result.epochs()) {
-                w.write(e.epoch() + "," + cell(e.objective()) + "," + cell(e.testLoss()) + "," + cell(e.testAccuracy())
-                        + "," + cell(e.distance()) + "\n");
+                w.write(Csv.line(Integer.toString(e.epoch()), Csv.number(e.objective()), Csv.number(e.testLoss()),
+                        Csv.number(e.testAccuracy()), Csv.number(e.distance())));
             }
-        }
-        try (Writer w = Files.newBufferedWriter(dir.resolve("final.csv"), StandardCharsets.UTF_8)) {
+            w.flush();
+        });
+        AtomicFile.write(dir.resolve("final.csv"), stream -> {
+            Writer w = new OutputStreamWriter(stream, StandardCharsets.UTF_8);
             for (double v : result.finalParameters()) {
-                w.write(NumberText.shortest(v) + "\n");
+                w.write(Csv.line(NumberText.shortest(v)));
             }
-        }
-    }
-
-    /** @return the shortest decimal that reads back as the same double; empty for NaN (not applicable) */
-    private static String cell(double v) {
-        return Double.isNaN(v) ? "" : NumberText.shortest(v);
+            w.flush();
+        });
     }
 
     private static String fmt(double v) {

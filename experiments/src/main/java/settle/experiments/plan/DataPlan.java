@@ -9,7 +9,8 @@ import settle.datasets.table.TableOptions;
  * @param source {@code bundled:NAME}, {@code synthetic:GENERATOR}, or {@code csv:PATH} / {@code libsvm:PATH}
  *        with PATH absolute (the parser resolves it against the plan file's folder)
  * @param label the label column of a CSV file, or null for the reader's default (bundled data know theirs)
- * @param testFraction fraction of the rows held out as the test split, stratified, in (0, 1)
+ * @param testFraction fraction of the rows held out as the test split, stratified, in (0, 1) in a plan file; 0 (no
+ *        test split) only in the plan {@code settle trace} builds from its options to replay a run made elsewhere
  * @param holdoutFraction fraction of the training split carved out as the holdout split (what plateau arms
  *        may judge), in [0, 1)
  * @param standardize true to z-score every feature with the training split's mean and population s.d.
@@ -27,8 +28,8 @@ public record DataPlan(String source, String label, double testFraction, double 
     public DataPlan {
         Objects.requireNonNull(source, "source");
         Objects.requireNonNull(table, "table");
-        if (!(testFraction > 0 && testFraction < 1)) {
-            throw new IllegalArgumentException("test-fraction must be in (0, 1): " + testFraction);
+        if (!(testFraction >= 0 && testFraction < 1)) {
+            throw new IllegalArgumentException("test-fraction must be in [0, 1): " + testFraction);
         }
         if (!(holdoutFraction >= 0 && holdoutFraction < 1)) {
             throw new IllegalArgumentException("holdout-fraction must be in [0, 1): " + holdoutFraction);

@@ -19,15 +19,37 @@ public final class ParsedPlan {
 
     private final List<String> armPaths;
     private final List<Grid> grids;
+    private final Map<String, String> options;
 
     ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings, List<String> armPaths,
             List<Grid> grids) {
+        this(plan, file, positions, warnings, armPaths, grids, Map.of());
+    }
+
+    private ParsedPlan(Plan plan, String file, Map<String, int[]> positions, List<String> warnings,
+            List<String> armPaths, List<Grid> grids, Map<String, String> options) {
+        this.options = Map.copyOf(options);
         this.armPaths = List.copyOf(armPaths);
         this.grids = List.copyOf(grids);
         this.warnings = List.copyOf(warnings);
         this.plan = Objects.requireNonNull(plan, "plan");
         this.file = Objects.requireNonNull(file, "file");
         this.positions = Map.copyOf(positions);
+    }
+
+    /**
+     * A plan a command built from its options rather than read from a file ({@code settle trace --data}): a
+     * problem found later is reported at the option that set the key.
+     *
+     * @param plan the plan, one arm, no grid
+     * @param options the option that sets each key path (or its closest ancestor), e.g. {@code model.l2 → --l2}
+     */
+    public static ParsedPlan fromOptions(Plan plan, Map<String, String> options) {
+        List<String> arms = new java.util.ArrayList<>();
+        for (int i = 0; i < plan.arms().size(); i++) {
+            arms.add("arms[" + i + "]");
+        }
+        return new ParsedPlan(plan, "", Map.of(), List.of(), arms, List.of(), options);
     }
 
     /** @return the resolved plan */
@@ -87,6 +109,18 @@ public final class ParsedPlan {
      * @return an exception positioned at that key, to throw
      */
     public BadInputException error(String keyPath, String detail) {
+        if (!options.isEmpty()) {
+            String p = keyPath;
+            while (!options.containsKey(p)) {
+                int cut = Math.max(p.lastIndexOf('.'), p.lastIndexOf('['));
+                if (cut <= 0) {
+                    return BadInputException.of("", detail);
+                }
+                p = p.substring(0, cut);
+            }
+            String option = options.get(p);
+            return BadInputException.of(option, option + ": " + detail);
+        }
         int[] pos = position(keyPath);
         return BadInputException.at(file, pos[0], pos[1], keyPath, detail);
     }

@@ -2,10 +2,10 @@ package settle.experiments.plan;
 
 import java.util.ArrayList;
 import java.util.List;
-import settle.input.BadInputException;
 import settle.datasets.DataSources;
 import settle.datasets.Dataset;
 import settle.datasets.PreparedData;
+import settle.datasets.Randomness;
 import settle.datasets.SplitRule;
 import settle.datasets.Standardiser;
 import settle.datasets.table.TableReport;
@@ -41,25 +41,20 @@ public final class PlanData {
     }
 
     /**
-     * The seed of the test split: SplitMix64's finaliser applied to the root seed plus 1 · the golden-ratio
-     * increment (Steele, Lea &amp; Flood, "Fast splittable pseudorandom number generators", OOPSLA 2014), so
+     * The seed of the test split: the first output of {@link Randomness.SplitMix64} seeded with the root seed, so
      * that it depends on the root seed only.
      *
      * @return the seed of the stratified test split
      */
     public static long testSplitSeed(long rootSeed) {
-        return mix(rootSeed + 0x9E3779B97F4A7C15L);
+        return new Randomness.SplitMix64(rootSeed).nextLong();
     }
 
-    /** @return the seed of the stratified holdout split: as {@link #testSplitSeed} with 2 increments */
+    /** @return the seed of the stratified holdout split: the second output of the generator of {@link #testSplitSeed} */
     public static long holdoutSplitSeed(long rootSeed) {
-        return mix(rootSeed + 2 * 0x9E3779B97F4A7C15L);
-    }
-
-    private static long mix(long z) {
-        z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
-        z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
-        return z ^ (z >>> 31);
+        Randomness.SplitMix64 random = new Randomness.SplitMix64(rootSeed);
+        random.nextLong();
+        return random.nextLong();
     }
 
     /**
@@ -106,14 +101,14 @@ public final class PlanData {
                 prepared.train());
         Dataset holdout = prepared.holdout().length == 0 ? null
                 : all.subset(trainName + " (held-out part)", prepared.holdout());
-        Dataset test = all.subset(name + " (held-out part)", prepared.test());
+        Dataset test = prepared.test().length == 0 ? null : all.subset(name + " (held-out part)", prepared.test());
         Standardiser standardiser = null;
         List<String> warnings = new ArrayList<>(prepared.warnings());
         if (plan.data().standardize()) {
             standardiser = Standardiser.fit(train);
             warnings.addAll(standardiser.warnings());
             train = standardiser.apply(train);
-            test = standardiser.apply(test);
+            test = test == null ? null : standardiser.apply(test);
             holdout = holdout == null ? null : standardiser.apply(holdout);
         }
         return new PlanData(all, train, holdout, test, standardiser, warnings, prepared);
@@ -134,7 +129,7 @@ public final class PlanData {
         return holdout;
     }
 
-    /** @return the test split */
+    /** @return the test split; null only for the plan trace builds with no test split (a plan file always has one) */
     public Dataset test() {
         return test;
     }

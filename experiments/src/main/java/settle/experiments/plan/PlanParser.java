@@ -31,7 +31,7 @@ import settle.reports.format.Grid;
 
 /**
  * Reads a plan file into a resolved {@link Plan}. This class is the one place where defaults are filled in
- * (see {@link #DEFAULTS_TABLE}). Unknown keys are errors with a near-miss suggestion; every error is a
+ * (the table {@link Defaults}). Unknown keys are errors with a near-miss suggestion; every error is a
  * {@link BadInputException} naming the file, line, column and key path and what is accepted.
  *
  * <p>Paths in a plan ({@code csv:PATH}, {@code libsvm:PATH}) are relative to the folder of the plan file and
@@ -40,65 +40,8 @@ import settle.reports.format.Grid;
  */
 public final class PlanParser {
 
-    /** Default number of replicates: enough for an exact signed-rank p below 0.05 against a few arms. */
-    public static final int DEFAULT_REPLICATES = 10;
-    /** Default root seed. */
-    public static final long DEFAULT_SEED = 1L;
-    /** Default test fraction. */
-    public static final double DEFAULT_TEST_FRACTION = 0.2;
-    /** Default holdout fraction (no holdout split). */
-    public static final double DEFAULT_HOLDOUT_FRACTION = 0.0;
-    /** Default L2 penalty λ. */
-    public static final double DEFAULT_L2 = 1.0e-3;
-    /** Default width of the single hidden layer of an mlp. */
-    public static final int DEFAULT_HIDDEN = 32;
     /** Widest hidden layer a plan may ask for. */
     public static final int MAX_WIDTH = 100_000;
-    /** Default number of epochs. */
-    public static final int DEFAULT_EPOCHS = 50;
-    /** Default batch size. */
-    public static final int DEFAULT_BATCH = 32;
-    /** Default tail fraction τ. */
-    public static final double DEFAULT_TAIL = 0.1;
-    /** Default number of tail snapshots K. */
-    public static final int DEFAULT_SNAPSHOTS = 50;
-
-    /** The plan keys, their defaults and units, as a markdown table (the README prints it). */
-    public static final String DEFAULTS_TABLE = String.join("\n",
-            "| key | default | unit / accepted |",
-            "| --- | --- | --- |",
-            "| `study` | the plan file's name without extension | 1–100 of `A-Z a-z 0-9 . _ -`, not starting with `.` |",
-            "| `seed` | 1 | any 64-bit integer |",
-            "| `replicates` | 10 | integer 1–100000, per arm |",
-            "| `data.source` | required | `bundled:NAME`, `csv:PATH`, `libsvm:PATH`, `synthetic:GENERATOR`; PATH relative to the plan file |",
-            "| `data.label` | none (the reader's default) | a CSV column name |",
-            "| `data.test-fraction` | 0.2 | fraction of rows, in (0, 1), stratified |",
-            "| `data.holdout-fraction` | 0.0 | fraction of the training split, in [0, 1); > 0 needed by `judge: holdout` |",
-            "| `data.standardize` | true | true / false |",
-            "| `data.features` | every column but the label (csv) | list of CSV column names, in the order wanted |",
-            "| `data.drop` | none (csv) | list of CSV column names taken out of the features |",
-            "| `data.categorical` | none: text columns only (csv) | list of numeric-coded CSV columns to one-hot encode |",
-            "| `data.max-levels` | 50 (csv) | integer ≥ 2: the most levels a categorical column may have in the training split |",
-            "| `data.missing` | refuse (csv) | `refuse` / `drop-rows` / `impute` |",
-            "| `model.kind` | logistic | `logistic` / `mlp` |",
-            "| `model.hidden` | [32] (mlp only; ignored with a warning for logistic) | list of layer widths, each 1–100000 |",
-            "| `model.activation` | relu (mlp only; ignored with a warning for logistic) | `relu` / `tanh` |",
-            "| `model.l2` | 1.0e-3 | λ ≥ 0, penalty (λ/2)‖weights‖², biases not penalised |",
-            "| `model.init` | zeros (logistic), he (mlp) | `zeros` / `reference` (logistic only) / `glorot` / `he` |",
-            "| `training.epochs` | 50 | passes over the training split, 1–1000000 |",
-            "| `training.batch` | 32 | examples per update, ≥ 1 |",
-            "| `training.sampling` | shuffle | `shuffle` / `replacement` |",
-            "| `training.momentum` | 0.0 | heavy-ball β in [0, 1) |",
-            "| `training.tail` | 0.1 | fraction of the updates, in (0, 1] |",
-            "| `training.snapshots` | 50 | evenly spaced tail snapshots, ≥ 2 |",
-            "| `baseline` | the first arm | an arm name (after grid expansion) |",
-            "| `arms[].name` | the schedule kind | any text, unique |",
-            "| `arms[].schedule` | required | a schedule map (`kind` and its keys) |",
-            "| `arms[].average` | none | `none` / `tail` |",
-            "| `arms[].manual` | false | true / false: the arm's replicates run in step and take nudges while the study runs (not with plateau) |",
-            "| `arms[].nudges` | none | list of `{from: EPOCH, factor: F, note: TEXT}`: rates × F from that epoch on (replay.yaml writes them) |",
-            "| `grid[].arm` | required | the name of an arm in `arms` |",
-            "| `grid[].KEY` | — | a non-empty list of values for schedule key KEY |");
 
     private static final List<String> TOP_KEYS = List.of(
             "study", "seed", "replicates", "data", "model", "training", "baseline", "arms", "grid");
@@ -213,10 +156,10 @@ public final class PlanParser {
         }
         long seed = present(top, "seed")
                 ? integer(top, "", "seed", Long.MIN_VALUE, Long.MAX_VALUE, "an integer (any 64-bit value)")
-                : DEFAULT_SEED;
+                : Defaults.SEED;
         int replicates = present(top, "replicates")
                 ? (int) integer(top, "", "replicates", 1, Plan.MAX_REPLICATES, null)
-                : DEFAULT_REPLICATES;
+                : Defaults.REPLICATES;
         DataPlan data = data(requiredMap(top, "", "data", "source (" + SOURCE_FORMS + ")"));
         ModelSpec model = model(optionalMap(top, "", "model"));
         TrainingPlan training = training(optionalMap(top, "", "training"));
@@ -266,10 +209,10 @@ public final class PlanParser {
         }
         String label = present(m, "label") ? string(m, "data", "label") : null;
         double test = present(m, "test-fraction")
-                ? number(m, "data", "test-fraction", Range.OPEN_UNIT) : DEFAULT_TEST_FRACTION;
+                ? number(m, "data", "test-fraction", Range.OPEN_UNIT) : Defaults.TEST_FRACTION;
         double holdout = present(m, "holdout-fraction")
-                ? number(m, "data", "holdout-fraction", Range.HALF_OPEN_UNIT) : DEFAULT_HOLDOUT_FRACTION;
-        boolean standardize = !present(m, "standardize") || bool(m, "data", "standardize");
+                ? number(m, "data", "holdout-fraction", Range.HALF_OPEN_UNIT) : Defaults.HOLDOUT_FRACTION;
+        boolean standardize = present(m, "standardize") ? bool(m, "data", "standardize") : Defaults.STANDARDIZE;
         if (!kind.equals("csv") && !DataSources.isBundledTable(source)) {
             for (String key : TABLE_KEYS) {
                 if (present(m, key)) {
@@ -320,17 +263,17 @@ public final class PlanParser {
 
     private ModelSpec model(YamlNode.MapNode m) {
         if (m == null) {
-            return new ModelSpec(ModelSpec.Kind.LOGISTIC, List.of(), null, DEFAULT_L2, Initialisation.ZEROS);
+            return new ModelSpec(Defaults.MODEL, List.of(), null, Defaults.L2, Initialisation.ZEROS);
         }
         checkKeys(m, "model", "model", MODEL_KEYS);
         ModelSpec.Kind kind = present(m, "kind")
-                ? choice(m, "model", "kind", ModelSpec.Kind.class) : ModelSpec.Kind.LOGISTIC;
+                ? choice(m, "model", "kind", ModelSpec.Kind.class) : Defaults.MODEL;
         List<Integer> hidden = List.of();
         Activation activation = null;
         // validated whatever the kind, so that a misspelt value is caught; a logistic model ignores them
-        List<Integer> widths = present(m, "hidden") ? widths(m) : List.of(DEFAULT_HIDDEN);
+        List<Integer> widths = present(m, "hidden") ? widths(m) : List.of(Defaults.HIDDEN);
         Activation act = present(m, "activation")
-                ? choice(m, "model", "activation", Activation.class) : Activation.RELU;
+                ? choice(m, "model", "activation", Activation.class) : Defaults.ACTIVATION;
         if (kind == ModelSpec.Kind.LOGISTIC) {
             for (String k : List.of("hidden", "activation")) {
                 if (present(m, k)) {
@@ -343,7 +286,7 @@ public final class PlanParser {
             hidden = widths;
             activation = act;
         }
-        double l2 = present(m, "l2") ? number(m, "model", "l2", Range.NON_NEGATIVE) : DEFAULT_L2;
+        double l2 = present(m, "l2") ? number(m, "model", "l2", Range.NON_NEGATIVE) : Defaults.L2;
         Initialisation init;
         if (present(m, "init")) {
             init = choice(m, "model", "init", Initialisation.class);
@@ -372,21 +315,21 @@ public final class PlanParser {
 
     private TrainingPlan training(YamlNode.MapNode m) {
         if (m == null) {
-            return new TrainingPlan(DEFAULT_EPOCHS, DEFAULT_BATCH, Sampling.SHUFFLE, 0.0,
-                    DEFAULT_TAIL, DEFAULT_SNAPSHOTS);
+            return new TrainingPlan(Defaults.EPOCHS, Defaults.BATCH, Defaults.SAMPLING, Defaults.MOMENTUM,
+                    Defaults.TAIL, Defaults.SNAPSHOTS);
         }
         checkKeys(m, "training", "training", TRAINING_KEYS);
         int epochs = present(m, "epochs")
-                ? (int) integer(m, "training", "epochs", 1, TrainingPlan.MAX_EPOCHS, null) : DEFAULT_EPOCHS;
+                ? (int) integer(m, "training", "epochs", 1, TrainingPlan.MAX_EPOCHS, null) : Defaults.EPOCHS;
         int batch = present(m, "batch")
-                ? (int) integer(m, "training", "batch", 1, Integer.MAX_VALUE, null) : DEFAULT_BATCH;
+                ? (int) integer(m, "training", "batch", 1, Integer.MAX_VALUE, null) : Defaults.BATCH;
         Sampling sampling = present(m, "sampling")
-                ? choice(m, "training", "sampling", Sampling.class) : Sampling.SHUFFLE;
+                ? choice(m, "training", "sampling", Sampling.class) : Defaults.SAMPLING;
         double momentum = present(m, "momentum")
-                ? number(m, "training", "momentum", Range.HALF_OPEN_UNIT) : 0.0;
-        double tail = present(m, "tail") ? number(m, "training", "tail", Range.LEFT_OPEN_UNIT) : DEFAULT_TAIL;
+                ? number(m, "training", "momentum", Range.HALF_OPEN_UNIT) : Defaults.MOMENTUM;
+        double tail = present(m, "tail") ? number(m, "training", "tail", Range.LEFT_OPEN_UNIT) : Defaults.TAIL;
         int snapshots = present(m, "snapshots")
-                ? (int) integer(m, "training", "snapshots", 2, Integer.MAX_VALUE, null) : DEFAULT_SNAPSHOTS;
+                ? (int) integer(m, "training", "snapshots", 2, Integer.MAX_VALUE, null) : Defaults.SNAPSHOTS;
         return new TrainingPlan(epochs, batch, sampling, momentum, tail, snapshots);
     }
 

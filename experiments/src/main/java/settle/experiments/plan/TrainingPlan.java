@@ -1,11 +1,11 @@
 package settle.experiments.plan;
 
-import java.util.Objects;
 import settle.engine.train.Sampling;
 import settle.engine.train.TrainingSettings;
 
 /**
- * The training budget every arm of a plan shares.
+ * The training budget every arm of a plan shares: the trainer's {@link TrainingSettings} without the arm's
+ * averaging choice, from which each arm's settings are derived ({@link #settings}).
  *
  * @param epochs passes over the training split, ≥ 1
  * @param batch examples per update B, ≥ 1
@@ -19,23 +19,18 @@ public record TrainingPlan(int epochs, int batch, Sampling sampling, double mome
     /** Largest number of epochs a plan may ask for. */
     public static final int MAX_EPOCHS = 1_000_000;
 
+    /**
+     * Checks what a plan adds to the trainer's bounds (at most {@link #MAX_EPOCHS} epochs, K ≥ 2); every other
+     * bound is {@link TrainingSettings}' own, checked there, once, by building the settings.
+     */
     public TrainingPlan {
-        Objects.requireNonNull(sampling, "sampling");
-        if (epochs < 1 || epochs > MAX_EPOCHS) {
-            throw new IllegalArgumentException("epochs must be in 1.." + MAX_EPOCHS + ": " + epochs);
-        }
-        if (batch < 1) {
-            throw new IllegalArgumentException("batch must be ≥ 1: " + batch);
-        }
-        if (!(momentum >= 0 && momentum < 1)) {
-            throw new IllegalArgumentException("momentum must be in [0, 1): " + momentum);
-        }
-        if (!(tail > 0 && tail <= 1)) {
-            throw new IllegalArgumentException("tail must be in (0, 1]: " + tail);
+        if (epochs > MAX_EPOCHS) {
+            throw new IllegalArgumentException("training.epochs must be in 1.." + MAX_EPOCHS + ": " + epochs);
         }
         if (snapshots < 2) {
-            throw new IllegalArgumentException("snapshots must be ≥ 2: " + snapshots);
+            throw new IllegalArgumentException("training.snapshots must be ≥ 2: " + snapshots);
         }
+        new TrainingSettings(epochs, batch, sampling, momentum, tail, snapshots, false);
     }
 
     /**

@@ -131,17 +131,8 @@ public final class StudyContext {
                 schedule = new NudgedSchedule(schedule, log);
             }
             logs.add(log);
-            Trainer.Builder b = Trainer.builder(model, data.train(), schedule, settings)
-                    .test(data.test())
-                    .initialisation(plan.model().init());
-            if (data.holdout() != null) {
-                b.holdout(data.holdout());
-            }
-            if (reference != null) {
-                b.reference(reference);
-            }
             try {
-                trainers.add(b.build());
+                trainers.add(builder(plan, data, model, reference, schedule, settings).build());
             } catch (BadInputException e) {
                 throw parsed.error("arms[" + i + "]", e.getMessage());
             }
@@ -158,6 +149,46 @@ public final class StudyContext {
         }
         return new StudyContext(parsed, data, model, minimum, curvature, theory, theorySkipped, trainers,
                 java.util.Collections.unmodifiableList(logs), List.copyOf(rates));
+    }
+
+    /** @return the trainer of one arm before its optional inputs: the same for every arm but its schedule and settings */
+    private static Trainer.Builder builder(Plan plan, PlanData data, Model model, ReferencePoint reference,
+            Schedule schedule, TrainingSettings settings) {
+        Trainer.Builder b = Trainer.builder(model, data.train(), schedule, settings)
+                .test(data.test())
+                .initialisation(plan.model().init());
+        if (data.holdout() != null) {
+            b.holdout(data.holdout());
+        }
+        if (reference != null) {
+            b.reference(reference);
+        }
+        return b;
+    }
+
+    /**
+     * The trainer of an arm that is not nudged, replaying a run made elsewhere: from a given start and/or with given
+     * sample orders ({@code settle trace --init/--order}); everything else as {@link #trainer(int)}.
+     *
+     * @param arm the 1-based arm index
+     * @param start θ₀, or null for the plan's initialisation
+     * @param orders one order per epoch, or null for the seed's
+     */
+    public Trainer replayTrainer(int arm, double[] start, int[][] orders) {
+        ArmPlan a = plan().arms().get(arm - 1);
+        if (a.nudged()) {
+            throw new IllegalArgumentException("a nudged arm's run cannot be replayed from a start or order");
+        }
+        ReferencePoint reference = minimum == null ? null : new ReferencePoint(minimum.theta(), minimum.objective());
+        Trainer.Builder b = builder(plan(), data, model, reference, a.schedule().schedule(),
+                plan().training().settings(a.average() == ArmPlan.Averaging.TAIL));
+        if (start != null) {
+            b.start(start);
+        }
+        if (orders != null) {
+            b.orders(orders);
+        }
+        return b.build();
     }
 
     /**

@@ -73,7 +73,7 @@ class TraceCommandTest {
     void replaysARunMadeWithTorch(String data, String fixture, String schedule, String momentum, @TempDir Path dir)
             throws IOException {
         Result r = run("trace", "--data", "csv:" + resource(data + ".csv"), "--label", "y", "--model", "logistic",
-                "--l2", "0.01", "--schedule", schedule, "--epochs", "6", "--batch", "8", "--momentum", momentum,
+                "--test-fraction", "0", "--no-standardize", "--l2", "0.01", "--schedule", schedule, "--epochs", "6", "--batch", "8", "--momentum", momentum,
                 "--init", resource(data + "-start.txt").toString(), "--order", resource(data + "-order.txt").toString(),
                 "--dump", dir.toString());
         assertEquals(0, r.code(), r.err());
@@ -84,7 +84,7 @@ class TraceCommandTest {
             String[] f = line.split(" ");
             (f[0].equals("epoch") ? objectives : f[0].equals("final") ? finals : rates).add(Double.parseDouble(f[2]));
         }
-        List<String> epochs = lines(dir.resolve("epochs.csv"));
+        List<String> epochs = lines(dir.resolve(TraceCommand.EPOCHS_FILE));
         assertEquals("epoch,objective,test_loss,test_accuracy,distance", epochs.get(0));
         assertEquals(7, epochs.size());
         for (int e = 1; e <= 6; e++) {
@@ -123,7 +123,7 @@ class TraceCommandTest {
         Path csv = resource("binary.csv");
         Result r = run("trace", "--data", "csv:" + csv, "--label", "y", "--l2", "0.01", "--schedule",
                 "{kind: constant, rate: 0.3}", "--epochs", "4", "--batch", "7", "--sampling", "replacement",
-                "--seed", "77", "--dump", dir.toString());
+                "--seed", "77", "--test-fraction", "0", "--no-standardize", "--dump", dir.toString());
         assertEquals(0, r.code(), r.err());
         Dataset data = DataSources.load("csv:" + csv, "y", null);
         TrainingSettings settings = TrainingSettings.of(4, 7).withSampling(Sampling.REPLACEMENT);
@@ -153,7 +153,7 @@ class TraceCommandTest {
         Path replay = dir.resolve("replay");
         Result again = run("trace", "--data", "csv:" + csv, "--label", "y", "--l2", "0.01", "--schedule",
                 "{kind: constant, rate: 0.3}", "--epochs", "4", "--batch", "7", "--sampling", "replacement",
-                "--seed", "5", "--order", orderFile.toString(), "--dump", replay.toString());
+                "--seed", "5", "--test-fraction", "0", "--no-standardize", "--order", orderFile.toString(), "--dump", replay.toString());
         assertEquals(0, again.code(), again.err());
         assertEquals(Files.readString(dir.resolve("final.csv")), Files.readString(replay.resolve("final.csv")));
     }
@@ -165,7 +165,7 @@ class TraceCommandTest {
         assertEquals(0, r.code(), r.err());
         String[] lines = r.out().replace("\r\n", "\n").split("\n");
         assertTrue(lines[0].startsWith("multinomial logistic regression, 13 features, 3 classes; 142 training rows, "
-                + "36 test rows; 3 epochs × 9 updates of batch 16 (shuffle)"), lines[0]);
+                + "36 test rows (standardised); 3 epochs × 9 updates of batch 16 (shuffle)"), lines[0]);
         int header = 0;
         while (!lines[header].startsWith("epoch")) {
             header++;
@@ -191,13 +191,13 @@ class TraceCommandTest {
 
     @ParameterizedTest(name = "{1}")
     @CsvSource(delimiter = '|', value = {
-        "--epochs 0|--epochs = 0 is not accepted; expected an integer ≥ 1",
+        "--epochs 0|--epochs = 0 is not accepted; expected an integer in 1..1000000",
         "--epochs 2 --batch 0|--batch = 0 is not accepted",
         "--epochs 2 --momentum 1|--momentum = 1.0 is not accepted; expected a number in [0, 1)",
-        "--epochs 2 --sampling bootstrap|--sampling must be shuffle or replacement: 'bootstrap'",
-        "--epochs 2 --model tree|--model must be logistic or mlp: 'tree'",
+        "--epochs 2 --sampling bootstrap|--sampling': 'bootstrap' is not accepted; expected shuffle or replacement",
+        "--epochs 2 --model tree|--model': 'tree' is not accepted; expected logistic or mlp",
         "--epochs 2 --model mlp --hidden 8,x|--hidden '8,x' is not accepted",
-        "--epochs 2 --model mlp --activation sigmoid|--activation must be relu or tanh: 'sigmoid'",
+        "--epochs 2 --model mlp --activation sigmoid|--activation': 'sigmoid' is not accepted; expected relu or tanh",
         "--epochs 2 --test-fraction 1.5|--test-fraction = 1.5 is not accepted",
         "--epochs 2 --l2 -1|--l2 = -1.0 is not accepted",
         "--epochs 2 --order ORDER|binary-order.txt: 6 lines, expected one per epoch (2)",
@@ -217,7 +217,7 @@ class TraceCommandTest {
         String err = r.err().strip();
         assertEquals(1, err.lines().count(), err);
         // a problem in a file is said file first (FILE:LINE:COLUMN, as compilers do); one in an option after the command
-        assertTrue(err.startsWith(expected.startsWith("--") ? "settle trace: " : "/"), err);
+        assertTrue(err.startsWith(expected.startsWith("binary-") ? "/" : "settle trace: "), err);
         assertTrue(err.contains(expected), err);
     }
 
@@ -231,12 +231,12 @@ class TraceCommandTest {
         }
         Files.writeString(order, "0" + ",1".repeat(39) + "\n" + text + "\n");
         Result r = run("trace", "--data", "csv:" + csv, "--label", "y", "--schedule", "{kind: constant, rate: 0.1}",
-                "--epochs", "2", "--batch", "8", "--order", order.toString());
+                "--epochs", "2", "--batch", "8", "--test-fraction", "0", "--order", order.toString());
         assertEquals(Main.BAD_INPUT, r.code());
         assertTrue(r.err().contains("order.txt:2:8: item 8: index 40 is outside the training rows 0..39"), r.err());
         Files.writeString(order, "0,1,2\n0,1,2\n");
         r = run("trace", "--data", "csv:" + csv, "--label", "y", "--schedule", "{kind: constant, rate: 0.1}",
-                "--epochs", "2", "--batch", "8", "--order", order.toString());
+                "--epochs", "2", "--batch", "8", "--test-fraction", "0", "--order", order.toString());
         assertTrue(r.err().contains("order.txt:1: 3 indices, expected 40 (one per training row)"), r.err());
         Path init = dir.resolve("init.txt");
         Files.writeString(init, "0\n0.5\nabc\n1\n");

@@ -52,7 +52,7 @@ class TracePlanTest {
                 "--dump", dump.toString()), err.toString());
         assertArrayEquals(Files.readAllBytes(study.resolve("arms/2/2.json")), Files.readAllBytes(dump.resolve("replicate.json")));
         assertTrue(out.toString().contains("arm 2 'plateau', replicate 2 of 3"), out.toString());
-        assertEquals(7, Files.readAllLines(dump.resolve("epochs.csv")).size(), "header and 6 epochs");
+        assertEquals(7, Files.readAllLines(dump.resolve(TraceCommand.EPOCHS_FILE)).size(), "header and 6 epochs");
     }
 
     @Test
@@ -71,10 +71,47 @@ class TracePlanTest {
         err = new StringWriter();
         assertEquals(2, settle(new StringWriter(), err, "trace", "--plan", plan.toString(), "--arm", "plateau",
                 "--replicate", "1", "--epochs", "3"));
-        assertEquals("settle trace: --epochs does not go with --plan: the plan fixes the data, model and training",
-                err.toString().trim());
+        assertEquals("settle trace: --epochs does not go with --plan: the plan fixes the data, model and training"
+                + " (see 'settle trace --help')", err.toString().trim());
         err = new StringWriter();
         assertEquals(2, settle(new StringWriter(), err, "trace", "--plan", plan.toString()));
-        assertEquals("settle trace: --plan needs --arm NAME and --replicate K", err.toString().trim());
+        assertEquals("settle trace: Missing required argument(s): --arm=NAME, --replicate=K (see 'settle trace --help')",
+                err.toString().trim());
+        err = new StringWriter();
+        assertEquals(2, settle(new StringWriter(), err, "trace", "--arm", "plateau", "--data", "bundled:wine",
+                "--schedule", "{kind: constant, rate: 0.1}"));
+        assertEquals(1, err.toString().trim().lines().count(), err.toString());
+        assertTrue(err.toString().contains("--arm"), err.toString());
+    }
+
+    @Test
+    void theDataFormIsTheStudyPipelineWithThePlansDefaults() throws Exception {
+        // a plan that sets only what trace's --data form is given: every other key takes the plan's default, which
+        // is also the option's default, so both forms train the same replicate bit for bit
+        Path plan = dir.resolve("plain.yaml");
+        Files.writeString(plan, String.join("\n",
+                "seed: 7",
+                "data: {source: 'synthetic:gaussian?rows=150&features=4&classes=2&separation=1.5&seed=3'}",
+                "training: {epochs: 3, batch: 12}",
+                "arms:",
+                "  - name: decay",
+                "    schedule: {kind: reciprocal, rate: 0.3, decay: 0.5}",
+                ""));
+        StringWriter err = new StringWriter();
+        Path fromPlan = dir.resolve("from-plan");
+        assertEquals(0, settle(new StringWriter(), err, "trace", "--plan", plan.toString(), "--arm", "decay",
+                "--replicate", "1", "--dump", fromPlan.toString()), err.toString());
+        Path fromData = dir.resolve("from-data");
+        StringWriter out = new StringWriter();
+        assertEquals(0, settle(out, err, "trace", "--data", "synthetic:gaussian?rows=150&features=4&classes=2&separation=1.5&seed=3",
+                "--schedule", "{kind: reciprocal, rate: 0.3, decay: 0.5}", "--epochs", "3", "--batch", "12",
+                "--seed", "7", "--dump", fromData.toString()), err.toString());
+        for (String file : new String[] {"final.csv", "updates.csv", TraceCommand.EPOCHS_FILE}) {
+            assertArrayEquals(Files.readAllBytes(fromPlan.resolve(file)), Files.readAllBytes(fromData.resolve(file)), file);
+        }
+        assertTrue(out.toString().contains("120 training rows, 30 test rows (standardised)"), out.toString());
+        // the tail in both forms: over every update and over the epoch ends
+        assertTrue(out.toString().contains(" over every update, "), out.toString());
+        assertTrue(out.toString().contains(" over the epoch ends"), out.toString());
     }
 }

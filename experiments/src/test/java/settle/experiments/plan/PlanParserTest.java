@@ -85,7 +85,7 @@ class PlanParserTest {
     void minimalPlanGetsEveryDefault() {
         Plan plan = PlanParser.parse(resource("minimal.yaml"));
         assertEquals("minimal", plan.study(), "the study is named after the file");
-        assertEquals(PlanParser.DEFAULT_SEED, plan.seed());
+        assertEquals(Defaults.SEED, plan.seed());
         assertEquals(10, plan.replicates());
         assertEquals(new DataPlan("synthetic:gaussian?rows=200&seed=3", null, 0.2, 0.0, true), plan.data());
         assertEquals(new ModelSpec(ModelSpec.Kind.LOGISTIC, List.of(), null, 1.0e-3, Initialisation.ZEROS),

@@ -1,13 +1,14 @@
 package settle.reports.stats;
 
 import java.util.Arrays;
+import settle.datasets.Randomness;
 
 /**
  * Percentile bootstrap intervals (B. Efron, "Bootstrap methods: another look at the jackknife",
  * Ann. Statist. 7(1), 1979): resample the replicates with replacement, recompute the statistic, and
  * take the type-7 quantiles (1 − level)/2 and (1 + level)/2 of the resampled values.
  *
- * <p>Resampling is driven by SplitMix64 from a given seed, so the same seed and inputs give
+ * <p>Resampling is driven by {@link Randomness.SplitMix64} from a given seed, so the same seed and inputs give
  * bit-identical intervals on any JVM: for resample b, n indices in order, each uniform on [0, n).
  */
 public final class Bootstrap {
@@ -46,7 +47,7 @@ public final class Bootstrap {
         int[] first = new int[pairs];
         int[] second = new int[pairs];
         sortPairsByValue(x, value, first, second);
-        SplitMix64 random = new SplitMix64(seed);
+        Randomness.SplitMix64 random = new Randomness.SplitMix64(seed);
         int[] counts = new int[n];
         double[] out = new double[resamples];
         long half = pairs / 2;

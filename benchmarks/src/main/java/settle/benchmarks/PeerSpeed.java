@@ -29,12 +29,12 @@ import settle.engine.train.Trainer;
  * lasting at least {@link #TIMING_SECONDS} s. Prints per workload the examples/s of each side, the settle/peer
  * ratios (median and min–max over rounds) and settle's GFLOP/s of needed work against the measured peak.
  *
- * <p>Usage: {@code java --add-modules jdk.incubator.vector -cp benchmarks.jar settle.benchmarks.Comparison
+ * <p>Usage: {@code java --add-modules jdk.incubator.vector -cp benchmarks.jar settle.benchmarks.PeerSpeed
  * [--rounds R] [--peer PATH/peer.py] [--python /usr/bin/python3] [--only KEY,KEY]}.
  */
-public final class Comparison {
+public final class PeerSpeed {
 
-    private Comparison() {
+    private PeerSpeed() {
     }
 
     /** Runs the comparison; see the class comment for the options. */
