@@ -31,26 +31,26 @@ import settle.experiments.study.StudyRunner;
 import settle.input.BadInputException;
 
 /**
- * Runs a study's replicates as Apache Spark tasks: one job whose partitions are the replicates, one replicate
- * per partition and so per task. The resolved plan and the data's rows go to each executor once, as a
- * broadcast ({@link StudyShipment}); each executor builds its study context from it once and trains the
- * replicates it is given with {@link StudyRunner#outcome}, the very function a local run uses, so the files
- * are the same bytes. Each task returns the replicate file's bytes; Spark hands every finished task's result
- * to the driver as it arrives, and the driver passes it to the sink (which writes it atomically) at once, so a
- * driver that dies loses only the tasks in flight. A failed task is retried by Spark, up to
- * {@code spark.task.maxFailures} attempts ({@code local[N,F]} in local mode); only the driver writes, once per
- * replicate, whatever the number of attempts.
+ * Runs a study's units of work as Apache Spark tasks: one job whose partitions are the units (replicate k of the
+ * arms that train together, or of one arm), one unit per partition and so per task. The resolved plan and the
+ * data's rows go to each executor once, as a broadcast ({@link StudyShipment}); each executor builds its study
+ * context from it once and trains the units it is given with {@link StudyRunner#outcomes}, the very function a
+ * local run uses, so the files are the same bytes. Each task returns its replicate files' bytes; Spark hands every
+ * finished task's result to the driver as it arrives, and the driver passes each replicate to the sink (which
+ * writes it atomically) at once, so a driver that dies loses only the units in flight. A failed task is retried by
+ * Spark, up to {@code spark.task.maxFailures} attempts ({@code local[N,F]} in local mode); only the driver writes,
+ * once per replicate, whatever the number of attempts.
  *
  * <p>The {@link ReplicateWork} that {@link #runAll} receives is the driver's local form of that same function
- * (it holds the driver's context, which is not shipped); this executor runs {@link StudyRunner#outcome} on the
+ * (it holds the driver's context, which is not shipped); this executor runs {@link StudyRunner#outcomes} on the
  * executors' own contexts instead.
  */
 public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
 
-    /** What a task does with its replicate on an executor; the default is {@link StudyRunner#outcome}. */
+    /** What a task does with its unit of work on an executor; the default is {@link StudyRunner#outcomes}. */
     @FunctionalInterface
     interface TaskBody extends Serializable {
-        ReplicateOutcome train(StudyContext context, ReplicateKey key);
+        ArrayList<ReplicateOutcome> train(StudyContext context, List<ReplicateKey> unit);
     }
 
     private static final long POLL_MILLIS = 100;
@@ -152,30 +152,36 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
     }
 
     @Override
-    public void runAll(List<ReplicateKey> keys, ReplicateWork work, Sink sink) throws Exception {
-        if (keys.isEmpty()) {
+    public void runAll(List<List<ReplicateKey>> units, ReplicateWork work, Sink sink) throws Exception {
+        int total = 0;
+        List<ArrayList<ReplicateKey>> shipped = new ArrayList<>(units.size());
+        for (List<ReplicateKey> unit : units) {
+            total += unit.size();
+            shipped.add(new ArrayList<>(unit));
+        }
+        if (total == 0) {
             return;
         }
         JavaSparkContext sc = started();
         Broadcast<StudyShipment> broadcast = sc.broadcast(shipment);
-        // parallelize over n slices puts exactly one key in each partition: one replicate, one task
-        JavaRDD<ReplicateKey> replicates = sc.parallelize(new ArrayList<>(keys), keys.size());
-        List<Object> partitions = new ArrayList<>(keys.size());
-        for (int i = 0; i < keys.size(); i++) {
+        // parallelize over n slices puts exactly one unit in each partition: one unit of work, one task
+        JavaRDD<ArrayList<ReplicateKey>> replicates = sc.parallelize(shipped, shipped.size());
+        List<Object> partitions = new ArrayList<>(shipped.size());
+        for (int i = 0; i < shipped.size(); i++) {
             partitions.add(i);
         }
         BlockingQueue<ReplicateOutcome> arrived = new LinkedBlockingQueue<>();
-        sc.setJobDescription("settle: " + keys.size() + " replicates");
+        sc.setJobDescription("settle: " + total + " replicates in " + shipped.size() + " units");
         SimpleFutureAction<BoxedUnit> job = sc.sc().submitJob(replicates.rdd(), new TrainPartition(broadcast, body),
                 CollectionConverters.asScala(partitions).toSeq(), new Arrival(arrived), new NoResult());
         Set<ReplicateKey> written = new HashSet<>();
         try {
-            while (written.size() < keys.size()) {
+            while (written.size() < total) {
                 ReplicateOutcome outcome = arrived.poll(POLL_MILLIS, TimeUnit.MILLISECONDS);
                 if (outcome == null) {
                     // the result handler runs before the job completes, so a completed job has queued everything
                     if (job.isCompleted() && arrived.isEmpty()) {
-                        failure(job, written.size(), keys.size());
+                        failure(job, written.size(), total);
                     }
                     continue;
                 }
@@ -229,13 +235,16 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
         private static final long serialVersionUID = 1L;
 
         @Override
-        public ReplicateOutcome train(StudyContext context, ReplicateKey key) {
-            return StudyRunner.outcome(context, key);
+        public ArrayList<ReplicateOutcome> train(StudyContext context, List<ReplicateKey> unit) {
+            ArrayList<ReplicateOutcome> outcomes = new ArrayList<>(unit.size());
+            StudyRunner.outcomes(context, unit, outcomes::add);
+            return outcomes;
         }
     }
 
-    /** Runs on an executor: trains the one replicate of its partition. */
-    private static final class TrainPartition extends AbstractFunction1<Iterator<ReplicateKey>, ReplicateOutcome>
+    /** Runs on an executor: trains the one unit of work of its partition. */
+    private static final class TrainPartition
+            extends AbstractFunction1<Iterator<ArrayList<ReplicateKey>>, ArrayList<ReplicateOutcome>>
             implements Serializable {
         private static final long serialVersionUID = 1L;
         private final Broadcast<StudyShipment> shipment;
@@ -247,17 +256,17 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
         }
 
         @Override
-        public ReplicateOutcome apply(Iterator<ReplicateKey> keys) {
-            ReplicateKey key = keys.next();
-            if (keys.hasNext()) {
-                throw new IllegalStateException("a partition holds more than one replicate: " + key + ", " + keys.next());
+        public ArrayList<ReplicateOutcome> apply(Iterator<ArrayList<ReplicateKey>> units) {
+            ArrayList<ReplicateKey> unit = units.next();
+            if (units.hasNext()) {
+                throw new IllegalStateException("a partition holds more than one unit: " + unit + ", " + units.next());
             }
-            return body.train(shipment.value().context(), key);
+            return body.train(shipment.value().context(), unit);
         }
     }
 
-    /** Runs on the driver as each task's result arrives: queues it for the driver's thread. */
-    private static final class Arrival extends AbstractFunction2<Object, ReplicateOutcome, BoxedUnit> {
+    /** Runs on the driver as each task's result arrives: queues its replicates for the driver's thread. */
+    private static final class Arrival extends AbstractFunction2<Object, ArrayList<ReplicateOutcome>, BoxedUnit> {
         private final BlockingQueue<ReplicateOutcome> arrived;
 
         Arrival(BlockingQueue<ReplicateOutcome> arrived) {
@@ -265,8 +274,8 @@ public final class SparkExecutor implements ReplicateExecutor, AutoCloseable {
         }
 
         @Override
-        public BoxedUnit apply(Object partition, ReplicateOutcome outcome) {
-            arrived.add(outcome);
+        public BoxedUnit apply(Object partition, ArrayList<ReplicateOutcome> outcomes) {
+            arrived.addAll(outcomes);
             return BoxedUnit.UNIT;
         }
     }

@@ -36,15 +36,19 @@ class SparkExecutorTest {
         private static final long serialVersionUID = 1L;
 
         @Override
-        public ReplicateOutcome train(StudyContext context, ReplicateKey key) {
+        public ArrayList<ReplicateOutcome> train(StudyContext context, List<ReplicateKey> unit) {
             int attempt = TaskContext.get().attemptNumber();
-            if (key.equals(FLAKY) && attempt == 0) {
-                throw new IllegalStateException("injected failure of the first attempt of " + key);
+            ArrayList<ReplicateOutcome> outcomes = new ArrayList<>();
+            for (ReplicateKey key : unit) {
+                if (key.equals(FLAKY) && attempt == 0) {
+                    throw new IllegalStateException("injected failure of the first attempt of " + key);
+                }
+                if (key.equals(BROKEN)) {
+                    throw new IllegalStateException("injected failure of attempt " + attempt + " of " + key);
+                }
             }
-            if (key.equals(BROKEN)) {
-                throw new IllegalStateException("injected failure of attempt " + attempt + " of " + key);
-            }
-            return StudyRunner.outcome(context, key);
+            StudyRunner.outcomes(context, unit, outcomes::add);
+            return outcomes;
         }
     }
 
@@ -61,7 +65,10 @@ class SparkExecutorTest {
         // local[2,2]: two threads, two attempts per task (local[2] alone allows one)
         try (SparkExecutor spark = new SparkExecutor("local[2,2]", context, new FaultyBody())) {
             // the first attempt of FLAKY always fails, so the run only completes if Spark retried it
-            spark.runAll(keys, key -> StudyRunner.outcome(context, key), received::add);
+            // units of work as a run makes them: replicate k of the arms that share their mini-batches together
+            List<List<ReplicateKey>> units = StudyRunner.units(context, keys, true);
+            assertTrue(units.size() < keys.size(), "some arms train together");
+            spark.runAll(units, (unit, each) -> StudyRunner.outcomes(context, unit, each), received::add);
             assertEquals(keys.size(), received.size());
             assertEquals(keys.size(), received.stream().map(ReplicateOutcome::key).distinct().count(),
                     "a replicate reached the sink twice");
@@ -71,7 +78,8 @@ class SparkExecutorTest {
 
             received.clear();
             WorkFailedException failed = assertThrows(WorkFailedException.class,
-                    () -> spark.runAll(List.of(BROKEN), key -> StudyRunner.outcome(context, key), received::add));
+                    () -> spark.runAll(List.of(List.of(BROKEN)), (unit, each) -> StudyRunner.outcomes(context, unit, each),
+                            received::add));
             assertTrue(received.isEmpty());
             String message = failed.getMessage();
             assertFalse(message.contains("\n"), message);

@@ -79,8 +79,49 @@ public final class BinaryLogistic implements Model {
         return new Scratch(maxBatch);
     }
 
-    /** The binary model needs no scratch beyond locals; the workspace only records the capacity. */
-    private record Scratch(int capacity) implements Workspace {
+    @Override
+    public Workspace workspace(int maxBatch, int arms) {
+        if (maxBatch < 1 || arms < 1) {
+            throw new IllegalArgumentException("workspace capacity and arms must be at least 1: " + maxBatch + ", " + arms);
+        }
+        return new Scratch(maxBatch, arms, inputs);
+    }
+
+    /**
+     * The capacity, and for arms computed together ({@link #batchObjectives}) their weights side by side (weight j
+     * of arm a at j·A + a), their gradient sums the same way, and per arm the bias, score, δ and sums.
+     */
+    private static final class Scratch implements Workspace {
+        private final int capacity;
+        private final int arms;
+        private final double[] weights;
+        private final double[] gradients;
+        private final double[] bias;
+        private final double[] score;
+        private final double[] delta;
+        private final double[] biasSums;
+        private final double[] lossSums;
+
+        Scratch(int capacity) {
+            this(capacity, 0, 0);
+        }
+
+        Scratch(int capacity, int arms, int inputs) {
+            this.capacity = capacity;
+            this.arms = arms;
+            this.weights = new double[arms * inputs];
+            this.gradients = new double[arms * inputs];
+            this.bias = new double[arms];
+            this.score = new double[arms];
+            this.delta = new double[arms];
+            this.biasSums = new double[arms];
+            this.lossSums = new double[arms];
+        }
+
+        @Override
+        public int capacity() {
+            return capacity;
+        }
     }
 
     private int check(double[] theta, int n, Workspace workspace) {
@@ -148,6 +189,74 @@ public final class BinaryLogistic implements Model {
         }
         gradientSum[inputs] += biasSum;
         return sum;
+    }
+
+    /**
+     * The arms' batch objectives and gradients in one pass over the batch, their weights side by side so that
+     * each row is read once for every arm and the arms' scores are independent chains. Each arm's score, loss sum,
+     * gradient sum and bias sum are the same operations in the same order as {@link #addGradientSum} takes them
+     * for that arm alone (z = b, then z += w_j·x_j for j ascending; sums over rows ascending from 0), so every
+     * value is the same bits as {@link #batchObjective} gives it.
+     */
+    @Override
+    public void batchObjectives(double[][] thetas, int count, double[] x, int[] y, int n, double[][] gradients,
+            double[] objectives, Workspace workspace) {
+        Scratch s = (Scratch) workspace;
+        if (count > s.arms) {
+            Model.super.batchObjectives(thetas, count, x, y, n, gradients, objectives, workspace);
+            return;
+        }
+        Starts.checkRows(n, s.capacity);
+        int d = inputs;
+        double[] w = s.weights;
+        double[] g = s.gradients;
+        for (int a = 0; a < count; a++) {
+            double[] theta = thetas[a];
+            Starts.checkLength("θ", theta, d + 1);
+            Starts.checkLength("gradient", gradients[a], d + 1);
+            for (int j = 0; j < d; j++) {
+                w[j * count + a] = theta[j];
+            }
+            s.bias[a] = theta[d];
+            s.biasSums[a] = 0.0;
+            s.lossSums[a] = 0.0;
+        }
+        java.util.Arrays.fill(g, 0, d * count, 0.0);
+        double[] z = s.score;
+        double[] delta = s.delta;
+        for (int r = 0; r < n; r++) {
+            int base = r * d;
+            System.arraycopy(s.bias, 0, z, 0, count);
+            for (int j = 0; j < d; j++) {
+                double xj = x[base + j];
+                int wj = j * count;
+                for (int a = 0; a < count; a++) {
+                    z[a] += w[wj + a] * xj;
+                }
+            }
+            int label = y[r];
+            for (int a = 0; a < count; a++) {
+                s.lossSums[a] += crossEntropy(z[a], label);
+                double da = sigmoid(z[a]) - label;
+                delta[a] = da;
+                s.biasSums[a] += da;
+            }
+            for (int j = 0; j < d; j++) {
+                double xj = x[base + j];
+                int gj = j * count;
+                for (int a = 0; a < count; a++) {
+                    g[gj + a] += delta[a] * xj;
+                }
+            }
+        }
+        for (int a = 0; a < count; a++) {
+            double[] gradient = gradients[a];
+            for (int j = 0; j < d; j++) {
+                gradient[j] = g[j * count + a];
+            }
+            gradient[d] = 0.0 + s.biasSums[a];
+            objectives[a] = batchMean(thetas[a], s.lossSums[a], n, gradient);
+        }
     }
 
     /** Writes (1 − p, p) per row: class 0 first, then the positive class 1. */

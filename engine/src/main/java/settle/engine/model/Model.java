@@ -90,6 +90,17 @@ public interface Model {
     default double batchObjective(double[] theta, double[] x, int[] y, int n, double[] gradient, Workspace workspace) {
         java.util.Arrays.fill(gradient, 0.0);
         double lossSum = addGradientSum(theta, x, y, n, gradient, workspace);
+        return batchMean(theta, lossSum, n, gradient);
+    }
+
+    /**
+     * The last step of {@link #batchObjective}: from the batch's sums to its means plus the penalty.
+     *
+     * @param lossSum the sum of the batch's per-example cross-entropies
+     * @param gradient the sum of their gradients on entry, the batch gradient on return; modified
+     * @return the batch objective
+     */
+    default double batchMean(double[] theta, double lossSum, int n, double[] gradient) {
         double inverse = 1.0 / n;
         double lambda = l2();
         for (int i = 0; i < gradient.length; i++) {
@@ -99,6 +110,29 @@ public interface Model {
             }
         }
         return lossSum * inverse + penalty(theta);
+    }
+
+    /**
+     * {@link #batchObjective} of several parameter vectors on one batch (the arms of one replicate, which share
+     * their mini-batches). Each arm's objective and gradient are the same bits as {@link #batchObjective} gives it
+     * alone: a model that computes the arms together keeps every output element's chain of operations, so the
+     * result does not depend on how many arms share the batch.
+     *
+     * @param thetas the arms' parameters, {@code count} of them from index 0; not modified
+     * @param gradients receive each arm's gradient (overwritten); modified
+     * @param objectives receives each arm's batch objective from index 0; modified
+     * @param workspace from {@link #workspace(int, int)} with room for {@code count} arms; modified
+     */
+    default void batchObjectives(double[][] thetas, int count, double[] x, int[] y, int n, double[][] gradients,
+            double[] objectives, Workspace workspace) {
+        for (int a = 0; a < count; a++) {
+            objectives[a] = batchObjective(thetas[a], x, y, n, gradients[a], workspace);
+        }
+    }
+
+    /** @return scratch buffers for batches of up to {@code maxBatch} rows and up to {@code arms} arms at once */
+    default Workspace workspace(int maxBatch, int arms) {
+        return workspace(maxBatch);
     }
 
     /**

@@ -51,6 +51,17 @@ public final class MiniBatchStep {
 
     /** Applies the update with the gradient of the last {@link #load} at rate α. @param theta modified */
     public void apply(double[] theta, double rate) {
+        update(theta, gradient, velocity, beta, rate);
+    }
+
+    /**
+     * The update itself: θ ← θ − α g, or with momentum β (velocity not null): v ← βv + g, θ ← θ − α v.
+     *
+     * @param theta modified
+     * @param gradient g; not modified
+     * @param velocity v, or null for plain SGD; modified
+     */
+    static void update(double[] theta, double[] gradient, double[] velocity, double beta, double rate) {
         int p = gradient.length;
         if (velocity == null) {
             for (int i = 0; i < p; i++) {

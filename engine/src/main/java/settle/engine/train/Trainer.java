@@ -142,30 +142,53 @@ public final class Trainer {
     }
 
     /**
-     * Trains one replicate.
+     * Trains one replicate: a group of this one arm ({@link ArmGroup}), so an arm trained alone and an arm trained
+     * beside others run the same code.
      *
      * @param listener called after each epoch with its record (on the calling thread)
      */
     public ReplicateResult run(ReplicateSeeds seeds, Consumer<EpochRecord> listener) {
         Objects.requireNonNull(seeds, "seeds");
         Objects.requireNonNull(listener, "listener");
-        return new Run(seeds, listener).execute();
+        return ArmGroup.of(List.of(this)).run(seeds, List.of(listener), (arm, result) -> { }).get(0);
     }
 
-    /** The state of one replicate: every buffer, created once. */
-    private final class Run {
+    Model model() {
+        return model;
+    }
+
+    Dataset train() {
+        return train;
+    }
+
+    TrainingSettings settings() {
+        return settings;
+    }
+
+    int updatesPerEpoch() {
+        return updatesPerEpoch;
+    }
+
+    /** @return the explicit epoch orders (replay), or null when they are sampled from the seeds */
+    int[][] orders() {
+        return orders;
+    }
+
+    /**
+     * The state of one arm's replicate: every buffer, created once. {@link ArmGroup} drives it through the run,
+     * sharing the mini-batch and the full-batch passes with the other arms of the group; every step this object
+     * takes on its own (rate, update, tail, epoch record, divergence) is the same whatever the group's size.
+     */
+    final class ArmRun {
         private final ReplicateSeeds seeds;
         private final Consumer<EpochRecord> listener;
         private final int p = model.parameterCount();
-        private final int n = train.rows();
-        private final int batch = settings.batch();
-        private final int batchCapacity = settings.sampling() == Sampling.SHUFFLE ? Math.min(batch, n) : batch;
-        private final MiniBatchStep step = new MiniBatchStep(model, train, batchCapacity, settings.momentum());
-        private final FullBatch onTrain = new FullBatch(model, train);
+        private final FullBatch onTrain;
         private final FullBatch onTest = test == null ? null : new FullBatch(model, test);
         private final FullBatch onHoldout = holdout == null ? null : new FullBatch(model, holdout);
-        private final double[] theta = new double[p];
-        private final int[] order = new int[orderLength()];
+        final double[] theta = new double[p];
+        final double[] gradient = new double[p];
+        private final double[] velocity = settings.momentum() != 0 ? new double[p] : null;
         private final double[] scratch = new double[p];
         private final TailRecorder tail = new TailRecorder(tailPlan, p, reference == null ? null : reference.theta(),
                 model.hasGauge() ? model::removeGauge : null, SNAPSHOT_LIMIT);
@@ -183,86 +206,122 @@ public final class Trainer {
         private final List<EpochRecord> epochs = new ArrayList<>(settings.epochs());
         private long evaluatedAt = -1;
         private double evaluatedObjective;
+        private double[] initial;
+        private double f0;
+        private double limit;
+        private RateDriver driver;
+        private long t;
+        private long divergedAt;
+        private double rate = Double.NaN;
 
-        Run(ReplicateSeeds seeds, Consumer<EpochRecord> listener) {
+        /** @param onTrain the full-batch evaluator of the training split (the group's, on the calling thread) */
+        ArmRun(ReplicateSeeds seeds, Consumer<EpochRecord> listener, FullBatch onTrain) {
             this.seeds = seeds;
             this.listener = listener;
+            this.onTrain = onTrain;
         }
 
-        ReplicateResult execute() {
+        /** Sets θ₀ from the explicit start or the replicate's initialisation stream. */
+        void initialise() {
             if (start != null) {
                 System.arraycopy(start, 0, theta, 0, p);
             } else {
                 model.initialise(theta, initialisation, seeds.initialisationStream());
             }
-            double[] initial = theta.clone();
-            double f0 = objectiveAt(0);
+            initial = theta.clone();
+        }
+
+        /** Takes F(θ₀) (evaluated by the group) and starts the schedule. */
+        void started(double objective) {
+            evaluatedAt = 0;
+            evaluatedObjective = objective;
+            f0 = objective;
             if (!Double.isFinite(f0)) {
                 throw new IllegalArgumentException("the objective at the starting parameters is not finite: " + f0);
             }
-            double limit = f0 > 0 ? DIVERGENCE_FACTOR * f0 : Double.MAX_VALUE;
-            RateDriver driver = schedule.start(shape());
-            long t = 0;
-            long divergedAt = 0;
+            limit = f0 > 0 ? DIVERGENCE_FACTOR * f0 : Double.MAX_VALUE;
+            driver = schedule.start(shape());
+        }
 
-            training:
-            for (int epoch = 1; epoch <= settings.epochs(); epoch++) {
-                if (orders != null) {
-                    System.arraycopy(orders[epoch - 1], 0, order, 0, order.length);
-                } else {
-                    SampleOrders.fill(seeds, settings.sampling(), n, epoch, order);
-                }
-                double rate = Double.NaN;
-                for (int u = 0; u < updatesPerEpoch; u++) {
-                    long update = t + 1;
-                    int from = u * batch;
-                    int rows = Math.min(batch, order.length - from);
-                    rate = driver.rate(epoch, update);
-                    if (!(rate >= 0) || rate == Double.POSITIVE_INFINITY) {
-                        throw new IllegalStateException("schedule " + schedule.kind() + " gave rate " + rate
-                                + " for update " + update);
-                    }
-                    double loss = step.load(theta, order, from, rows);
-                    if (!(loss <= limit)) {
-                        divergedAt = update;
-                        break training;
-                    }
-                    step.apply(theta, rate);
-                    t = update;
-                    rates[(int) (t - 1)] = rate;
-                    if (tail.inTail(t)) {
-                        tail.addIterate(t, theta);
-                        if (tail.snapshotDue(t)) {
-                            double objective = Double.NaN;
-                            if (pending == null) {
-                                objective = objectiveAt(t);
-                            } else {
-                                System.arraycopy(theta, 0, pending[pendingCount], 0, p);
-                                pendingUpdate[pendingCount++] = t;
-                            }
-                            tail.addSnapshot(theta, objective);
-                        }
-                    }
-                }
-                double objective = objectiveAt(t);
-                double holdoutLoss = onHoldout == null ? Double.NaN : onHoldout.meanLoss(theta);
-                double testLoss = Double.NaN;
-                double testAccuracy = Double.NaN;
-                if (onTest != null) {
-                    testLoss = onTest.meanLoss(theta);
-                    testAccuracy = onTest.accuracy(theta);
-                }
-                double distance = reference == null ? Double.NaN : distanceToReference(theta);
-                EpochRecord record = new EpochRecord(epoch, t, rate, objective, holdoutLoss, testLoss, testAccuracy, distance);
-                epochs.add(record);
-                listener.accept(record);
-                if (!(objective <= limit)) {
-                    divergedAt = t;
-                    break;
-                }
-                driver.epochEnded(epoch, objective, holdoutLoss);
+        /** Takes the rate of update {@code update} in epoch {@code epoch} from the schedule. */
+        void takeRate(int epoch, long update) {
+            rate = driver.rate(epoch, update);
+            if (!(rate >= 0) || rate == Double.POSITIVE_INFINITY) {
+                throw new IllegalStateException("schedule " + schedule.kind() + " gave rate " + rate
+                        + " for update " + update);
             }
+        }
 
+        /**
+         * Applies update {@code update} with {@link #gradient} (the batch's, filled by the group) unless the batch
+         * objective says the arm diverged.
+         *
+         * @param loss the batch objective at θ before the update
+         * @return false when the arm diverged at this update (the update is not applied)
+         */
+        boolean update(long update, double loss) {
+            if (!(loss <= limit)) {
+                divergedAt = update;
+                return false;
+            }
+            MiniBatchStep.update(theta, gradient, velocity, settings.momentum(), rate);
+            t = update;
+            rates[(int) (t - 1)] = rate;
+            if (tail.inTail(t)) {
+                tail.addIterate(t, theta);
+                if (tail.snapshotDue(t)) {
+                    double objective = Double.NaN;
+                    if (pending == null) {
+                        objective = objectiveAt(t);
+                    } else {
+                        System.arraycopy(theta, 0, pending[pendingCount], 0, p);
+                        pendingUpdate[pendingCount++] = t;
+                    }
+                    tail.addSnapshot(theta, objective);
+                }
+            }
+            return true;
+        }
+
+        /** @return true when F at the current iterate still has to be evaluated (not known for this update) */
+        boolean needsObjective() {
+            return evaluatedAt != t;
+        }
+
+        /**
+         * Ends epoch {@code epoch}: records it with F at the current iterate (evaluated by the group when
+         * {@link #needsObjective}, otherwise the known value is used), tells the listener and the schedule.
+         *
+         * @param objective F(θ) when {@link #needsObjective} was true; ignored otherwise
+         * @return false when the arm diverged at this epoch end
+         */
+        boolean endEpoch(int epoch, double objective) {
+            if (evaluatedAt != t) {
+                evaluatedObjective = objective;
+                evaluatedAt = t;
+            }
+            double value = evaluatedObjective;
+            double holdoutLoss = onHoldout == null ? Double.NaN : onHoldout.meanLoss(theta);
+            double testLoss = Double.NaN;
+            double testAccuracy = Double.NaN;
+            if (onTest != null) {
+                testLoss = onTest.meanLoss(theta);
+                testAccuracy = onTest.accuracy(theta);
+            }
+            double distance = reference == null ? Double.NaN : distanceToReference(theta);
+            EpochRecord record = new EpochRecord(epoch, t, rate, value, holdoutLoss, testLoss, testAccuracy, distance);
+            epochs.add(record);
+            listener.accept(record);
+            if (!(value <= limit)) {
+                divergedAt = t;
+                return false;
+            }
+            driver.epochEnded(epoch, value, holdoutLoss);
+            return true;
+        }
+
+        /** @return the replicate's result, after training stopped (diverged) or ran every epoch */
+        ReplicateResult result() {
             double[] appliedRates = t == rates.length ? rates : Arrays.copyOf(rates, (int) t);
             if (divergedAt != 0) {
                 return new ReplicateResult(seeds, ReplicateResult.Status.DIVERGED, divergedAt, total,

@@ -31,6 +31,10 @@ public final class DemoCommand implements Callable<Integer> {
     @Option(names = "--threads", paramLabel = "N", description = "replicates trained at once (default: the core count, ${DEFAULT-VALUE})")
     int threads = Runtime.getRuntime().availableProcessors();
 
+    @Option(names = "--arms-apart", description = "train each arm's replicates on their own instead of together with"
+            + " the arms that share their mini-batches (the same files, byte for byte; for comparing speed)")
+    boolean armsApart;
+
     @Option(names = "--quiet", description = "no progress display")
     boolean quiet;
 
@@ -55,7 +59,7 @@ public final class DemoCommand implements Callable<Integer> {
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());
         int code = RunCommand.execute(spec, () -> PlanParser.read(planText(), "demo.yaml", Path.of("")), out, threads,
-                null, true, quiet, false, command, 0);
+                null, true, quiet, false, command, 0, armsApart);
         if (code == Main.OK || code == Main.INCOMPLETE) {
             Path where = out != null ? out : Path.of("studies", "frost-demo");
             spec.commandLine().getOut().println("demo study written to " + where.toAbsolutePath().normalize());

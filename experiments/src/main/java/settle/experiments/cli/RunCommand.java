@@ -45,7 +45,7 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--out", paramLabel = "DIR", description = "the study directory (default: studies/<study>)")
     Path out;
 
-    @Option(names = "--threads", paramLabel = "N", description = "replicates trained at once (default: the core count, ${DEFAULT-VALUE})")
+    @Option(names = "--threads", paramLabel = "N", description = "replicates trained at once, a replicate of the arms that train together counting as one (default: the core count, ${DEFAULT-VALUE})")
     int threads = Runtime.getRuntime().availableProcessors();
 
     @Option(names = "--cluster", paramLabel = "MASTER",
@@ -55,6 +55,10 @@ public final class RunCommand implements Callable<Integer> {
 
     @Option(names = "--fresh", description = "discard the results of an existing study in the directory first")
     boolean fresh;
+
+    @Option(names = "--arms-apart", description = "train each arm's replicates on their own instead of together with"
+            + " the arms that share their mini-batches (the same files, byte for byte; for comparing speed)")
+    boolean armsApart;
 
     @Option(names = "--quiet", description = "no progress display")
     boolean quiet;
@@ -79,7 +83,7 @@ public final class RunCommand implements Callable<Integer> {
             spec.commandLine().getErr().println("warning: --threads is ignored with --cluster: the cluster's cores"
                     + " decide how many replicates run at once");
         }
-        return execute(spec, () -> PlanParser.read(planFile), out, threads, cluster, fresh, quiet, json, command, pace);
+        return execute(spec, () -> PlanParser.read(planFile), out, threads, cluster, fresh, quiet, json, command, pace, armsApart);
     }
 
     /** Supplies the parsed plan (from a file, or the bundled demo). */
@@ -93,9 +97,10 @@ public final class RunCommand implements Callable<Integer> {
      *
      * @param cluster the cluster's master for {@code --cluster}, or null to train on local threads
      * @param pace at least this many milliseconds between two epoch ends of a manual arm (0: no pause)
+     * @param armsApart train each arm's replicates on their own rather than with the arms sharing their batches
      */
     static int execute(CommandSpec spec, PlanSource source, Path out, int threads, String cluster, boolean fresh,
-            boolean quiet, boolean json, List<String> command, long pace) throws Exception {
+            boolean quiet, boolean json, List<String> command, long pace, boolean armsApart) throws Exception {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
         if (threads < 1) {
@@ -123,7 +128,7 @@ public final class RunCommand implements Callable<Integer> {
         ReplicateExecutor executor = factory == null ? new LocalExecutor(threads) : factory.create(cluster, context);
         try {
             StudyRunner runner = new StudyRunner(context, directory, executor, command, progressStream, stderr,
-                    Progress.choose(quiet), pace);
+                    Progress.choose(quiet), pace).armsTogether(!armsApart);
             outcome = runner.run(fresh);
         } finally {
             if (executor instanceof AutoCloseable closeable) {

@@ -1,19 +1,19 @@
 package settle.experiments.run;
 
 import java.util.List;
-import java.util.concurrent.CompletionService;
+import java.util.concurrent.BlockingQueue;
 import java.util.concurrent.ExecutionException;
-import java.util.concurrent.ExecutorCompletionService;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
+import java.util.concurrent.LinkedBlockingQueue;
 import java.util.concurrent.ThreadFactory;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
 
 /**
- * Runs replicates on a fixed pool of threads in this JVM. Every replicate is independent and computed by
- * one thread from its key alone, so the outcomes do not depend on the pool size.
+ * Runs units of work on a fixed pool of threads in this JVM. Every unit is independent and computed by one
+ * thread from its keys alone, so the outcomes do not depend on the pool size. Each replicate reaches the sink as
+ * soon as its thread hands it over (an arm that diverges before the others of its unit does not wait for them).
  */
 public final class LocalExecutor implements ReplicateExecutor {
 
@@ -37,9 +37,17 @@ public final class LocalExecutor implements ReplicateExecutor {
         return threads;
     }
 
+    /** A unit's failure, queued for the driver in place of its outcomes. */
+    private record Failure(Throwable cause) {
+    }
+
     @Override
-    public void runAll(List<ReplicateKey> keys, ReplicateWork work, Sink sink) throws Exception {
-        if (keys.isEmpty()) {
+    public void runAll(List<List<ReplicateKey>> units, ReplicateWork work, Sink sink) throws Exception {
+        int total = 0;
+        for (List<ReplicateKey> unit : units) {
+            total += unit.size();
+        }
+        if (total == 0) {
             return;
         }
         AtomicInteger counter = new AtomicInteger();
@@ -48,25 +56,27 @@ public final class LocalExecutor implements ReplicateExecutor {
             t.setDaemon(true);
             return t;
         };
-        ExecutorService pool = Executors.newFixedThreadPool(Math.min(threads, keys.size()), factory);
-        CompletionService<ReplicateOutcome> done = new ExecutorCompletionService<>(pool);
+        ExecutorService pool = Executors.newFixedThreadPool(Math.min(threads, units.size()), factory);
+        BlockingQueue<Object> arrived = new LinkedBlockingQueue<>();
         try {
-            for (ReplicateKey key : keys) {
-                done.submit(() -> work.run(key));
+            for (List<ReplicateKey> unit : units) {
+                pool.execute(() -> {
+                    try {
+                        work.run(unit, arrived::add);
+                    } catch (Throwable e) {
+                        arrived.add(new Failure(e));
+                    }
+                });
             }
-            for (int i = 0; i < keys.size(); i++) {
-                Future<ReplicateOutcome> f = done.take();
-                ReplicateOutcome outcome;
-                try {
-                    outcome = f.get();
-                } catch (ExecutionException e) {
-                    Throwable cause = e.getCause();
-                    if (cause instanceof Exception ex) {
+            for (int i = 0; i < total; i++) {
+                Object next = arrived.take();
+                if (next instanceof Failure failure) {
+                    if (failure.cause() instanceof Exception ex) {
                         throw ex;
                     }
-                    throw e;
+                    throw new ExecutionException(failure.cause());
                 }
-                sink.accept(outcome);
+                sink.accept((ReplicateOutcome) next);
             }
         } finally {
             pool.shutdownNow();

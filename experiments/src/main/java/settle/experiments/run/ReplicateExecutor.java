@@ -18,14 +18,15 @@ public interface ReplicateExecutor {
     /** @return a short description for the manifest, e.g. "local thread pool, 2 threads" */
     String describe();
 
-    /** @return how many replicates run at once */
+    /** @return how many units run at once */
     int parallelism();
 
     /**
-     * Runs every key and passes each outcome to {@code sink} as it finishes. Returns when all are done, or
-     * throws the first failure (of a task or of the sink) after stopping the rest.
+     * Runs every unit (replicate k of one or more arms, see {@link ReplicateWork}) and passes each replicate's
+     * outcome to {@code sink} as soon as it arrives. Returns when all are done, or throws the first failure (of a
+     * task or of the sink) after stopping the rest.
      *
-     * @throws InterruptedException when the driver is interrupted; replicates in flight are abandoned
+     * @throws InterruptedException when the driver is interrupted; units in flight are abandoned
      */
-    void runAll(List<ReplicateKey> keys, ReplicateWork work, Sink sink) throws Exception;
+    void runAll(List<List<ReplicateKey>> units, ReplicateWork work, Sink sink) throws Exception;
 }

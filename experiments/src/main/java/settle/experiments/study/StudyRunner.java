@@ -34,6 +34,8 @@ import settle.experiments.run.ReplicateExecutor;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.run.ReplicateWork;
+import settle.engine.train.ArmGroup;
+import settle.engine.train.Trainer;
 import settle.input.BadInputException;
 import settle.reports.Report;
 import settle.reports.format.AtomicFile;
@@ -96,6 +98,8 @@ public final class StudyRunner {
     private final long paceMillis;
     /** The grid structure the manifest records: the plan's, or the one an earlier run of this study recorded. */
     private List<Grid> grids = List.of();
+    /** Whether arms that share their mini-batches train together ({@link #armsTogether}). */
+    private boolean armsTogether = true;
     /** Each replicate's status while the run goes on (null: no file yet), in {@link StudyContext#keys()} order. */
     private final String[] status;
     /** Each replicate's rows of epochs.csv (null: no file yet), in the same order. */
@@ -129,6 +133,16 @@ public final class StudyRunner {
         int count = context.keys().size();
         this.status = new String[count];
         this.epochRows = new String[count];
+    }
+
+    /**
+     * @param value true (the default) to train the arms of a replicate that share their mini-batches together, false
+     *     to train every arm's replicate on its own; the files are the same bytes either way
+     * @return this runner
+     */
+    public StudyRunner armsTogether(boolean value) {
+        this.armsTogether = value;
+        return this;
     }
 
     /**
@@ -234,7 +248,7 @@ public final class StudyRunner {
             try {
                 new LockstepRunner(context, directory, board, executor.parallelism(), paceMillis, logged, resume)
                         .run(manualMissing, sink::accept);
-                executor.runAll(missing, work, sink);
+                executor.runAll(units(context, missing, armsTogether), work, sink);
                 refuseLeftoverNudges();
             } finally {
                 try {
@@ -401,7 +415,7 @@ public final class StudyRunner {
         return b.append(" --fresh").toString();
     }
 
-    /** Trains replicates in this JVM from a shared context. */
+    /** Trains units of work in this JVM from a shared context. */
     private static final class LocalWork implements ReplicateWork {
         private final transient StudyContext context;
 
@@ -410,8 +424,8 @@ public final class StudyRunner {
         }
 
         @Override
-        public ReplicateOutcome run(ReplicateKey key) {
-            return outcome(context, key);
+        public void run(List<ReplicateKey> unit, java.util.function.Consumer<ReplicateOutcome> each) {
+            outcomes(context, unit, each);
         }
     }
 
@@ -426,6 +440,67 @@ public final class StudyRunner {
             encoding = EncodingFile.of(context.plan().data().source(), context.data());
         }
         return encoding;
+    }
+
+    /**
+     * Trains one unit: replicate k of its arms, together when there are several ({@link ArmGroup}; every file is
+     * the same bytes as the arm's replicate trained alone).
+     *
+     * @param unit keys of one replicate whose arms share their mini-batches ({@link #units})
+     * @param each receives each replicate's outcome as soon as that arm is done
+     */
+    public static void outcomes(StudyContext context, List<ReplicateKey> unit,
+            java.util.function.Consumer<ReplicateOutcome> each) {
+        if (unit.size() == 1) {
+            each.accept(outcome(context, unit.get(0)));
+            return;
+        }
+        int replicate = unit.get(0).replicate();
+        List<Trainer> trainers = new ArrayList<>();
+        List<java.util.function.Consumer<settle.engine.train.EpochRecord>> listeners = new ArrayList<>();
+        for (ReplicateKey key : unit) {
+            if (key.replicate() != replicate) {
+                throw new IllegalArgumentException("a unit of work is one replicate: " + unit);
+            }
+            trainers.add(context.trainer(key.arm()));
+            listeners.add(record -> { });
+        }
+        ArmGroup.of(trainers).run(context.seeds(replicate), listeners,
+                (i, result) -> each.accept(ReplicateFile.outcome(context, unit.get(i), result)));
+    }
+
+    /**
+     * Cuts the keys to train into units of work: with {@code together}, the keys of one replicate whose arms share
+     * their mini-batches ({@link ArmGroup#shareBatches}) form one unit; otherwise every key is a unit of its own.
+     * Units come replicate by replicate, each in arm order.
+     */
+    public static List<List<ReplicateKey>> units(StudyContext context, List<ReplicateKey> keys, boolean together) {
+        java.util.TreeMap<Integer, List<List<ReplicateKey>>> byReplicate = new java.util.TreeMap<>();
+        List<ReplicateKey> sorted = new ArrayList<>(keys);
+        sorted.sort(null);
+        for (ReplicateKey key : sorted) {
+            List<List<ReplicateKey>> units = byReplicate.computeIfAbsent(key.replicate(), r -> new ArrayList<>());
+            List<ReplicateKey> home = null;
+            if (together) {
+                Trainer mine = context.trainer(key.arm());
+                for (List<ReplicateKey> unit : units) {
+                    if (ArmGroup.shareBatches(context.trainer(unit.get(0).arm()), mine)) {
+                        home = unit;
+                        break;
+                    }
+                }
+            }
+            if (home == null) {
+                home = new ArrayList<>();
+                units.add(home);
+            }
+            home.add(key);
+        }
+        List<List<ReplicateKey>> all = new ArrayList<>();
+        for (List<List<ReplicateKey>> units : byReplicate.values()) {
+            all.addAll(units);
+        }
+        return all;
     }
 
     private void refuseChanged(ManifestJson.Earlier old, String planHash, String dataHash, String splitHash) {

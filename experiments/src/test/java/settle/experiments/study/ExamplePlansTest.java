@@ -1,5 +1,6 @@
 package settle.experiments.study;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
 import java.io.PrintWriter;
@@ -11,7 +12,10 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import settle.experiments.cli.Main;
 
-/** Every example plan under experiments/plans runs at a reduced budget into a study directory of format 2. */
+/**
+ * Every example plan under experiments/plans runs at a reduced budget into a study directory of format 2, and gives
+ * the same files byte for byte whether the arms that share their mini-batches train together or apart.
+ */
 class ExamplePlansTest {
 
     @TempDir
@@ -31,5 +35,35 @@ class ExamplePlansTest {
                 study.toString(), "--quiet");
         assertEquals(0, code, err.toString());
         StudySchema.validate(study);
+
+        Path apart = dir.resolve("apart");
+        StringWriter errApart = new StringWriter();
+        assertEquals(0, Main.run(new PrintWriter(new StringWriter()), new PrintWriter(errApart), "run", plan.toString(),
+                "--out", apart.toString(), "--quiet", "--arms-apart"), errApart.toString());
+        StudyFiles.assertSameReplicateFiles(study, apart);
+        for (String file : new String[] {"epochs.csv", "summary.csv"}) {
+            assertArrayEquals(Files.readAllBytes(study.resolve(file)), Files.readAllBytes(apart.resolve(file)), file);
+        }
+        if (Files.exists(study.resolve("reference.json"))) {
+            assertArrayEquals(Files.readAllBytes(study.resolve("reference.json")),
+                    Files.readAllBytes(apart.resolve("reference.json")), "reference.json");
+        }
+    }
+
+    @org.junit.jupiter.api.Test
+    void theDemosArmsTrainTogetherOneUnitPerReplicateAndApartOneUnitPerArmAndReplicate() throws Exception {
+        StudyContext context = StudyContext.build(settle.experiments.plan.PlanParser.read(Path.of("plans", "demo.yaml")));
+        var keys = context.keys();
+        int arms = context.plan().arms().size();
+        int replicates = context.plan().replicates();
+        var together = StudyRunner.units(context, keys, true);
+        assertEquals(replicates, together.size());
+        for (int k = 0; k < replicates; k++) {
+            assertEquals(arms, together.get(k).size());
+            for (var key : together.get(k)) {
+                assertEquals(k + 1, key.replicate());
+            }
+        }
+        assertEquals(keys.size(), StudyRunner.units(context, keys, false).size());
     }
 }
