@@ -264,14 +264,14 @@ public final class TraceCommand implements Callable<Integer> {
         if (dump != null) {
             try {
                 writeDump(dump, result, trainer.shape().updatesPerEpoch());
-                AtomicFile.write(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(context, key,
-                        result)));
+                ReplicateJson.writeFiles(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(context,
+                        key, result)));
             } catch (IOException e) {
                 throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);
             }
             out.println("wrote " + dump.resolve("updates.csv") + ", " + dump.resolve("epochs.csv") + ", "
-                    + dump.resolve("final.csv") + " and " + dump.resolve("replicate.json")
-                    + " (the study's " + StudyFormat.replicatePath(key.arm(), key.replicate()) + ")");
+                    + dump.resolve("final.csv") + ", " + dump.resolve("replicate.json") + " and replicate.bin (the study's "
+                    + StudyFormat.replicatePath(key.arm(), key.replicate()) + " and its binary file)");
             out.flush();
         }
         return result.diverged() ? Main.INCOMPLETE : Main.OK;
