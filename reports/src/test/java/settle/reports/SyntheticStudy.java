@@ -12,7 +12,7 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Writes a study directory in the documented format 2 (the JSON of the README's study-directory schema) with
+ * Writes a study directory in the documented format 3 (the README's study-directory schema) with
  * values chosen by a test: the reports module reads it exactly as it reads a real study. Binary logistic
  * regression with {@code features} weights and a bias; every replicate gets the same per-epoch series and the
  * same prediction unless set. {@link #format} writes an older directory for the tests that refuse one.
@@ -81,7 +81,7 @@ final class SyntheticStudy {
     /** When set, reference.json's bound block says it was skipped, for this reason. */
     String boundSkipped;
     /** The format every file records. */
-    int format = 2;
+    int format = 3;
     /** The plan's momentum β, as the predictions record it. */
     double momentum;
     /** The plan's sampling, as the predictions record it. */
@@ -280,10 +280,65 @@ final class SyntheticStudy {
                 if (skipped.contains((a + 1) + "/" + (k + 1))) {
                     continue;
                 }
-                MAPPER.writeValue(armDir.resolve((k + 1) + ".json").toFile(), replicate(a, k, p, testRows));
+                ObjectNode r = replicate(a, k, p, testRows);
+                if (format >= 3) {
+                    Files.write(armDir.resolve((k + 1) + ".bin"), split(r));
+                }
+                MAPPER.writeValue(armDir.resolve((k + 1) + ".json").toFile(), r);
             }
         }
         return dir;
+    }
+
+    /** The arrays format 3 keeps in a replicate's binary file, in the order the README gives. */
+    private static final List<String> BLOCKS = List.of("rates", "start", "last", "tail_mean", "snapshots.values",
+            "test_probabilities.values");
+
+    /**
+     * Moves the large arrays of a format-3 replicate out of its JSON into the bytes of its binary file, written here
+     * from the README's layout (not settle's writer), and records the file's length and CRC-32C in the JSON.
+     */
+    static byte[] split(ObjectNode r) {
+        List<String> names = new ArrayList<>();
+        List<double[]> arrays = new ArrayList<>();
+        List<int[]> shapes = new ArrayList<>();
+        for (String name : BLOCKS) {
+            int dot = name.indexOf('.');
+            com.fasterxml.jackson.databind.JsonNode parent = dot < 0 ? r : r.get(name.substring(0, dot));
+            String key = dot < 0 ? name : name.substring(dot + 1);
+            if (parent == null || !parent.isObject() || !parent.path(key).isArray()) {
+                continue;
+            }
+            ArrayNode values = (ArrayNode) ((ObjectNode) parent).remove(key);
+            double[] v = new double[values.size()];
+            for (int i = 0; i < v.length; i++) {
+                v[i] = values.get(i).isNull() ? Double.NaN : values.get(i).asDouble();
+            }
+            names.add(name);
+            arrays.add(v);
+            shapes.add(dot < 0 ? new int[] {1, v.length} : new int[] {parent.path("rows").asInt(),
+                    parent.path("columns").asInt()});
+        }
+        int size = 16 + 40 * names.size() + 4;
+        for (double[] v : arrays) {
+            size += 8 * v.length;
+        }
+        java.nio.ByteBuffer b = java.nio.ByteBuffer.allocate(size).order(java.nio.ByteOrder.LITTLE_ENDIAN);
+        b.put("SETTLEBN".getBytes(java.nio.charset.StandardCharsets.US_ASCII)).putInt(3).putInt(names.size());
+        for (int i = 0; i < names.size(); i++) {
+            b.put(java.util.Arrays.copyOf(names.get(i).getBytes(java.nio.charset.StandardCharsets.US_ASCII), 32));
+            b.putInt(shapes.get(i)[0]).putInt(shapes.get(i)[1]);
+        }
+        for (double[] v : arrays) {
+            for (double x : v) {
+                b.putDouble(x);
+            }
+        }
+        java.util.zip.CRC32C crc = new java.util.zip.CRC32C();
+        crc.update(b.array(), 0, size - 4);
+        b.putInt((int) crc.getValue());
+        r.putObject("binary").put("bytes", size).put("crc32c", String.format("%08x", crc.getValue()));
+        return b.array();
     }
 
     /** @return the test rows: those of the probabilities a test set, else 20 */

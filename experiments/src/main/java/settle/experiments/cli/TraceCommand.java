@@ -225,10 +225,10 @@ public final class TraceCommand implements Callable<Integer> {
             try {
                 writeDump(dump, result, trainer.shape().updatesPerEpoch());
                 if (form.plan != null) {
-                    AtomicFile.write(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(context, key,
-                            result)));
-                    also = " and " + dump.resolve("replicate.json") + " (the study's "
-                            + StudyFormat.replicatePath(key.arm(), key.replicate()) + ")";
+                    ReplicateJson.writeFiles(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(
+                            context, key, result)));
+                    also = " and " + dump.resolve("replicate.json") + " with replicate.bin (the study's "
+                            + StudyFormat.replicatePath(key.arm(), key.replicate()) + " and its binary file)";
                 }
             } catch (IOException e) {
                 throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);

@@ -7,11 +7,12 @@ import java.io.Serializable;
  * of it in memory (its status, its rows of {@code epochs.csv}) so that it never reads the file back.
  *
  * @param key which replicate
- * @param file the replicate JSON exactly as it is written to {@code arms/<arm>/<replicate>.json}
+ * @param file the replicate's two files exactly as they are written to {@code arms/<arm>/<replicate>.json} and
+ *     {@code .bin}
  * @param diverged whether the replicate diverged
  * @param updates the updates it ran
  * @param epochRows its rows of {@code epochs.csv}
  */
-public record ReplicateOutcome(ReplicateKey key, byte[] file, boolean diverged, long updates, String epochRows)
+public record ReplicateOutcome(ReplicateKey key, settle.reports.format.ReplicateJson.Written file, boolean diverged, long updates, String epochRows)
         implements Serializable {
 }

@@ -234,7 +234,8 @@ public final class StudyRunner {
             Runtime.getRuntime().addShutdownHook(onInterrupt);
             ReplicateExecutor.Sink sink = outcome -> {
                 ReplicateKey key = outcome.key();
-                AtomicFile.write(StudyFormat.replicateFile(directory, key.arm(), key.replicate()), outcome.file());
+                ReplicateJson.writeFiles(StudyFormat.replicateFile(directory, key.arm(), key.replicate()),
+                        outcome.file());
                 int i = index(key);
                 synchronized (status) {
                     status[i] = outcome.diverged() ? Replicate.DIVERGED : Replicate.FINISHED;
@@ -351,7 +352,7 @@ public final class StudyRunner {
                 context.model().classes(), context.data().test().rows(), context.shape().updatesPerEpoch(),
                 context.shape().totalUpdates(), context.minimum() != null);
         try {
-            Replicate r = ReplicateJson.read(Files.readAllBytes(file), file.toString(), expected);
+            Replicate r = ReplicateJson.readFiles(file, expected);
             int i = index(key);
             status[i] = r.status();
             epochRows[i] = EpochsCsv.rows(r.arm(), r.armName(), r.replicate(), r.epochs());
@@ -366,7 +367,13 @@ public final class StudyRunner {
     /** Moves the invalid replicate file of {@code key} aside (never deleting it) and says so on stderr. */
     private void setAside(ReplicateKey key, String why) throws IOException {
         Path aside = StudyFormat.quarantine(StudyFormat.replicateFile(directory, key.arm(), key.replicate()));
-        notes.println("settle run: " + why + "; moved aside to " + aside.getFileName() + " and trained again");
+        Path binary = StudyFormat.binaryFile(directory, key.arm(), key.replicate());
+        String alsoBinary = "";
+        if (Files.exists(binary)) {
+            alsoBinary = " (with " + StudyFormat.quarantine(binary).getFileName() + ")";
+        }
+        notes.println("settle run: " + why + "; moved aside to " + aside.getFileName() + alsoBinary
+                + " and trained again");
         notes.flush();
     }
 

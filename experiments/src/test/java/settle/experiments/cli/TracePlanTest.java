@@ -51,6 +51,7 @@ class TracePlanTest {
         assertEquals(0, settle(out, err, "trace", "--plan", plan.toString(), "--arm", "plateau", "--replicate", "2",
                 "--dump", dump.toString()), err.toString());
         assertArrayEquals(Files.readAllBytes(study.resolve("arms/2/2.json")), Files.readAllBytes(dump.resolve("replicate.json")));
+        assertArrayEquals(Files.readAllBytes(study.resolve("arms/2/2.bin")), Files.readAllBytes(dump.resolve("replicate.bin")));
         assertTrue(out.toString().contains("arm 2 'plateau', replicate 2 of 3"), out.toString());
         assertEquals(7, Files.readAllLines(dump.resolve(TraceCommand.EPOCHS_FILE)).size(), "header and 6 epochs");
     }

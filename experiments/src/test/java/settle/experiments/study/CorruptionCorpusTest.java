@@ -6,6 +6,8 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.StringWriter;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -13,14 +15,15 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.function.UnaryOperator;
+import java.util.zip.CRC32C;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.DynamicTest;
 import org.junit.jupiter.api.TestFactory;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
- * The corruption corpus: one replicate file of a finished study damaged in each way a disk, a copy or a hand can
- * damage it. {@code settle report} refuses each with exit 2 and one line naming the file and the field (and what to
+ * The corruption corpus: one replicate of a finished study (its JSON file or its binary file) damaged in each way a
+ * disk, a copy or a hand can damage it. {@code settle report} refuses each with exit 2 and one line naming the file and the field (and what to
  * do); {@code settle run} on the same plan sets the file aside under a quarantine name (its bytes kept), names it on
  * stderr, trains the replicate again, and ends with exactly the file an uninterrupted run wrote. No damaged file
  * reaches the verdict.
@@ -46,21 +49,53 @@ class CorruptionCorpusTest {
     }
 
     /**
-     * One way to damage a file.
+     * One way to damage a replicate.
      *
      * @param name what the damage is
-     * @param damage the damaged bytes from the whole file's
+     * @param file the file damaged: "2.json", or "2.bin" (the replicate's binary file)
+     * @param damage the damaged bytes from the whole file's (null: the file is deleted)
+     * @param consistent for the binary file: its checksum, and the length and checksum the JSON records, are made to
+     *     match the damaged bytes, so that the check of the values themselves must catch it
+     * @param named the file the refusal names: "2.json" or "2.bin"
      * @param problem what the refusal says after the file's name (and before what to do)
      */
-    private record Damage(String name, UnaryOperator<byte[]> damage, String problem) {
+    private record Damage(String name, String file, UnaryOperator<byte[]> damage, boolean consistent, String named,
+            String problem) {
+        Damage(String name, UnaryOperator<byte[]> damage, String problem) {
+            this(name, "2.json", damage, false, "2.json", problem);
+        }
     }
 
     private static UnaryOperator<byte[]> text(UnaryOperator<String> edit) {
         return b -> edit.apply(new String(b, StandardCharsets.UTF_8)).getBytes(StandardCharsets.UTF_8);
     }
 
+    /** @return the byte offset of the values of block {@code name} in a binary file (layout as in the README) */
+    private static int blockOffset(byte[] bin, String name) {
+        ByteBuffer in = ByteBuffer.wrap(bin).order(ByteOrder.LITTLE_ENDIAN);
+        int count = in.getInt(12);
+        int offset = 16 + 40 * count;
+        for (int i = 0; i < count; i++) {
+            String n = new String(bin, 16 + 40 * i, 32, StandardCharsets.US_ASCII).replace("\0", "");
+            if (n.equals(name)) {
+                return offset;
+            }
+            offset += 8 * in.getInt(16 + 40 * i + 32) * in.getInt(16 + 40 * i + 36);
+        }
+        throw new AssertionError("no block " + name);
+    }
+
+    /** @return the binary file with its trailing CRC-32C made to match its other bytes */
+    private static byte[] sealed(byte[] bin) {
+        CRC32C crc = new CRC32C();
+        crc.update(bin, 0, bin.length - 4);
+        ByteBuffer.wrap(bin).order(ByteOrder.LITTLE_ENDIAN).putInt(bin.length - 4, (int) crc.getValue());
+        return bin;
+    }
+
     private static List<Damage> corpus() throws Exception {
         byte[] other = Files.readAllBytes(original.resolve("arms/3/1.json"));
+        byte[] otherBinary = Files.readAllBytes(original.resolve("arms/3/1.bin"));
         return List.of(
                 new Damage("truncated", b -> Arrays.copyOf(b, b.length / 2), ":NUMBERS: not valid JSON: the file ends in"
                         + " the middle of a value (it was cut short)"),
@@ -80,37 +115,96 @@ class CorruptionCorpusTest {
                         ": metrics.final_gap: must be a number, not the text 'small'"),
                 new Damage("an out-of-range value", text(s -> s.replaceFirst("\"tail_radius\" : [^,]*,",
                         "\"tail_radius\" : -5.0,")), ": metrics.tail_radius: must be a number ≥ 0 or null, not -5.0"),
-                new Damage("a probability row that does not sum to 1", text(s -> s.replaceFirst(
-                        "(\"test_probabilities\" : \\{[^\\[]*\\[ )[^,]*,", "$10.75,")),
-                        ": test_probabilities.values: row 1 sums to NUMBER; each row of class probabilities sums to 1"),
-                new Damage("a vector of the wrong length", text(s -> s.replaceFirst("(\"last\" : \\[ )[^,]*, ", "$1")),
-                        ": last: holds 3 values; expected 4"),
                 new Damage("a wrong replicate index", text(s -> s.replaceFirst("\"replicate\" : 2,", "\"replicate\" : 9,")),
                         ": replicate: the file holds arm 3 replicate 9; its path says arm 3 replicate 2"),
-                new Damage("a wrong format version", text(s -> s.replaceFirst("\"format\" : 2,", "\"format\" : 1,")),
-                        ": format: this file is in format 1; this settle reads format 2"));
+                new Damage("a wrong format version", text(s -> s.replaceFirst("\"format\" : 3,", "\"format\" : 1,")),
+                        ": format: this file is in format 1; this settle reads format 3"),
+                new Damage("the binary file missing", "2.bin", null, false, "2.bin", ": missing; the replicate's JSON"
+                        + " records a binary file of NUMBER bytes beside it"),
+                new Damage("the binary file truncated", "2.bin", b -> Arrays.copyOf(b, b.length / 2), false, "2.bin",
+                        ": holds NUMBER bytes with CRC-32C HEX; the replicate's JSON records NUMBER bytes with HEX (the"
+                        + " two files are not one replicate's)"),
+                new Damage("one bit of the binary file flipped", "2.bin", b -> {
+                    byte[] c = b.clone();
+                    c[c.length / 2] ^= 4;
+                    return c;
+                }, false, "2.bin", ": holds NUMBER bytes with CRC-32C HEX; the replicate's JSON records NUMBER bytes"
+                        + " with HEX (the two files are not one replicate's)"),
+                new Damage("another replicate's binary file", "2.bin", b -> otherBinary.clone(), false, "2.bin",
+                        ": holds NUMBER bytes with CRC-32C HEX; the replicate's JSON records NUMBER bytes with HEX (the"
+                        + " two files are not one replicate's)"),
+                new Damage("a binary file whose stored checksum is wrong", "2.bin", b -> {
+                    byte[] c = b.clone();
+                    c[c.length / 2] ^= 4;
+                    return c;
+                }, true, "2.bin", ": its CRC-32C is HEX but it records HEX: the file is damaged"),
+                new Damage("a binary file in another format", "2.bin", b -> {
+                    byte[] c = b.clone();
+                    ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(8, 2);
+                    return sealed(c);
+                }, true, "2.bin", ": format: this file is in format 2; this settle reads format 3"),
+                new Damage("a probability row that does not sum to 1", "2.bin", b -> {
+                    byte[] c = b.clone();
+                    ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putDouble(blockOffset(c,
+                            "test_probabilities.values"), 0.75);
+                    return sealed(c);
+                }, true, "2.json", ": test_probabilities.values: row 1 sums to NUMBER; each row of class probabilities"
+                        + " sums to 1"),
+                new Damage("a vector of the wrong length", "2.bin", b -> {
+                    // θ_T's block loses its first value: its column count says 3 and the rest moves up 8 bytes
+                    ByteBuffer in = ByteBuffer.wrap(b).order(ByteOrder.LITTLE_ENDIAN);
+                    int at = blockOffset(b, "last");
+                    byte[] c = new byte[b.length - 8];
+                    System.arraycopy(b, 0, c, 0, at);
+                    System.arraycopy(b, at + 8, c, at, b.length - at - 8);
+                    for (int i = 0; i < in.getInt(12); i++) {
+                        if (new String(b, 16 + 40 * i, 32, StandardCharsets.US_ASCII).startsWith("last\0")) {
+                            ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 40 * i + 36, 3);
+                        }
+                    }
+                    return sealed(c);
+                }, true, "2.json", ": last: holds 3 values; expected 4"));
     }
 
     /** @return the problem as a pattern's text: NUMBERS stands for a line and column, NUMBER for a number */
     private static boolean matches(String expected, String actual) {
         String regex = java.util.regex.Pattern.quote(expected).replace("NUMBERS", "\\E[0-9]+:[0-9]+\\Q")
-                .replace("NUMBER", "\\E[0-9.E-]+\\Q");
+                .replace("NUMBER", "\\E[0-9.E-]+\\Q")
+                .replace("HEX", "\\E[0-9a-f']{8,10}\\Q");
         return actual.matches(regex);
     }
 
     @TestFactory
     List<DynamicTest> reportRefusesByNameAndRunTrainsAgain() throws Exception {
-        byte[] whole = Files.readAllBytes(original.resolve(DAMAGED));
+        Path wholeJson = original.resolve(DAMAGED);
+        byte[] whole = Files.readAllBytes(wholeJson);
+        byte[] wholeBinary = Files.readAllBytes(StudyFiles.binary(wholeJson));
         List<DynamicTest> tests = new ArrayList<>();
         int i = 0;
         for (Damage d : corpus()) {
             Path study = dir.resolve("case-" + i++);
             tests.add(DynamicTest.dynamicTest(d.name(), () -> {
                 copy(original, study);
-                Path file = study.resolve(DAMAGED);
-                byte[] damaged = d.damage().apply(whole);
-                assertFalse(Arrays.equals(whole, damaged), "the damage changes the file");
-                Files.write(file, damaged);
+                Path json = study.resolve(DAMAGED);
+                Path binary = StudyFiles.binary(json);
+                Path file = json.resolveSibling(d.file());
+                byte[] before = Files.readAllBytes(file);
+                byte[] damaged = d.damage() == null ? null : d.damage().apply(before);
+                if (damaged == null) {
+                    Files.delete(file);
+                } else {
+                    assertFalse(Arrays.equals(before, damaged), "the damage changes the file");
+                    Files.write(file, damaged);
+                }
+                if (d.consistent()) {
+                    CRC32C crc = new CRC32C();
+                    crc.update(damaged, 0, damaged.length - 4);
+                    Files.writeString(json, Files.readString(json).replaceFirst("\"bytes\" : [0-9]+", "\"bytes\" : "
+                            + damaged.length).replaceFirst("\"crc32c\" : \"[0-9a-f]+\"", "\"crc32c\" : \""
+                            + String.format("%08x", crc.getValue()) + "\""));
+                }
+                byte[] damagedJson = Files.readAllBytes(json);
+                Path named = json.resolveSibling(d.named());
 
                 StringWriter err = new StringWriter();
                 assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()), d.name());
@@ -118,18 +212,25 @@ class CorruptionCorpusTest {
                 assertEquals(-1, line.indexOf('\n'), "one line: " + line);
                 String remedy = "; settle run " + study.resolve("plan.yaml") + " --out " + study + " sets invalid"
                         + " replicate files aside and trains them again";
-                assertTrue(line.startsWith(file.toString()) && line.endsWith(remedy), line);
-                String problem = line.substring(file.toString().length(), line.length() - remedy.length());
+                assertTrue(line.startsWith(named.toString()) && line.endsWith(remedy), line);
+                String problem = line.substring(named.toString().length(), line.length() - remedy.length());
                 assertTrue(matches(d.problem(), problem), "expected " + d.problem() + ", said " + problem);
 
+                boolean binaryLeft = Files.exists(binary);
                 err = new StringWriter();
                 assertEquals(0, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                         study.toString(), "--quiet"), err.toString());
                 assertEquals("settle run: " + line.substring(0, line.length() - remedy.length()) + "; moved aside to"
-                        + " 2.json.quarantined-1 and trained again", err.toString().strip());
-                assertArrayEquals(whole, Files.readAllBytes(file), "trained again, byte for byte");
-                assertArrayEquals(damaged, Files.readAllBytes(file.resolveSibling("2.json.quarantined-1")),
+                        + " 2.json.quarantined-1" + (binaryLeft ? " (with 2.bin.quarantined-1)" : "")
+                        + " and trained again", err.toString().strip());
+                assertArrayEquals(whole, Files.readAllBytes(json), "trained again, byte for byte");
+                assertArrayEquals(wholeBinary, Files.readAllBytes(binary), "its binary file too");
+                assertArrayEquals(damagedJson, Files.readAllBytes(json.resolveSibling("2.json.quarantined-1")),
                         "the damaged file is kept aside, never deleted");
+                if (binaryLeft) {
+                    assertArrayEquals(d.file().equals("2.bin") ? damaged : wholeBinary,
+                            Files.readAllBytes(json.resolveSibling("2.bin.quarantined-1")), "its binary file beside it");
+                }
                 assertEquals(0, StudyRunnerTest.settle(new StringWriter(), new StringWriter(), "report",
                         study.toString()), "the report reads the study again");
             }));

@@ -3,10 +3,17 @@ package settle.experiments.study;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.zip.CRC32C;
 
 /** Test helpers over the replicate files of a study directory. */
 public final class StudyFiles {
@@ -39,7 +46,59 @@ public final class StudyFiles {
         return files;
     }
 
-    /** Asserts that two study directories hold the same replicate files, byte for byte. */
+    private static final ObjectMapper MAPPER = new ObjectMapper();
+
+    /**
+     * Reads a replicate's JSON and, independently of settle's reader, its binary file {@code <k>.bin} as the README
+     * spells it (magic "SETTLEBN", format, block table, little-endian float64, CRC-32C of the rest), checks that the
+     * JSON records the binary file's length and checksum, and puts each array back where format 2 wrote it in the
+     * JSON (NaN as null), so that tests read a replicate as one tree.
+     */
+    public static ObjectNode replicate(Path json) throws Exception {
+        ObjectNode r = (ObjectNode) MAPPER.readTree(json.toFile());
+        byte[] bin = Files.readAllBytes(binary(json));
+        assertEquals(bin.length, r.path("binary").path("bytes").asLong(), "binary.bytes of " + json);
+        CRC32C crc = new CRC32C();
+        crc.update(bin, 0, bin.length - 4);
+        assertEquals(String.format("%08x", crc.getValue()), r.path("binary").path("crc32c").asText(),
+                "the JSON records the CRC-32C of the binary file's bytes before its own checksum");
+        ByteBuffer in = ByteBuffer.wrap(bin).order(ByteOrder.LITTLE_ENDIAN);
+        byte[] magic = new byte[8];
+        in.get(magic);
+        assertEquals("SETTLEBN", new String(magic, StandardCharsets.US_ASCII));
+        assertEquals(r.path("format").asInt(), in.getInt(), "the binary file's format is the JSON's");
+        int count = in.getInt();
+        String[] names = new String[count];
+        int[] sizes = new int[count];
+        for (int i = 0; i < count; i++) {
+            byte[] raw = new byte[32];
+            in.get(raw);
+            names[i] = new String(raw, StandardCharsets.US_ASCII).replace("\0", "");
+            sizes[i] = in.getInt() * in.getInt();
+        }
+        for (int i = 0; i < count; i++) {
+            ArrayNode values = MAPPER.createArrayNode();
+            for (int j = 0; j < sizes[i]; j++) {
+                double v = in.getDouble();
+                if (Double.isNaN(v)) {
+                    values.addNull();
+                } else {
+                    values.add(v);
+                }
+            }
+            int dot = names[i].indexOf('.');
+            ObjectNode into = dot < 0 ? r : (ObjectNode) r.get(names[i].substring(0, dot));
+            into.set(dot < 0 ? names[i] : names[i].substring(dot + 1), values);
+        }
+        assertEquals(bin.length - 4, in.position(), "the checksum follows the last block");
+        int stored = in.getInt();
+        CRC32C rest = new CRC32C();
+        rest.update(bin, 0, bin.length - 4);
+        assertEquals((int) rest.getValue(), stored, "the stored CRC-32C");
+        return r;
+    }
+
+    /** Asserts that two study directories hold the same replicate files (JSON and binary), byte for byte. */
     public static void assertSameReplicateFiles(Path a, Path b) throws Exception {
         List<Path> left = replicateFiles(a);
         List<Path> right = replicateFiles(b);
@@ -48,6 +107,15 @@ public final class StudyFiles {
             assertEquals(a.relativize(left.get(i)), b.relativize(right.get(i)));
             assertArrayEquals(Files.readAllBytes(left.get(i)), Files.readAllBytes(right.get(i)),
                     "replicate file " + a.relativize(left.get(i)) + " differs");
+            Path leftBin = binary(left.get(i));
+            assertArrayEquals(Files.readAllBytes(leftBin), Files.readAllBytes(binary(right.get(i))),
+                    "binary file " + a.relativize(leftBin) + " differs");
         }
+    }
+
+    /** @return the binary file beside a replicate's JSON */
+    public static Path binary(Path json) {
+        String name = json.getFileName().toString();
+        return json.resolveSibling(name.substring(0, name.length() - ".json".length()) + ".bin");
     }
 }

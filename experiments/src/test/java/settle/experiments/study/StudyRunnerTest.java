@@ -84,15 +84,15 @@ class StudyRunnerTest {
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", study.toString(),
                 "--quiet"));
         for (int k = 1; k <= 4; k++) {
-            JsonNode first = MAPPER.readTree(study.resolve("arms/1/" + k + ".json").toFile());
+            JsonNode first = StudyFiles.replicate(study.resolve("arms/1/" + k + ".json"));
             for (int arm = 2; arm <= 3; arm++) {
-                JsonNode other = MAPPER.readTree(study.resolve("arms/" + arm + "/" + k + ".json").toFile());
+                JsonNode other = StudyFiles.replicate(study.resolve("arms/" + arm + "/" + k + ".json"));
                 assertEquals(first.path("seeds"), other.path("seeds"));
                 assertEquals(first.path("start"), other.path("start"));
             }
         }
-        JsonNode r1 = MAPPER.readTree(study.resolve("arms/1/1.json").toFile());
-        JsonNode r2 = MAPPER.readTree(study.resolve("arms/1/2.json").toFile());
+        JsonNode r1 = StudyFiles.replicate(study.resolve("arms/1/1.json"));
+        JsonNode r2 = StudyFiles.replicate(study.resolve("arms/1/2.json"));
         assertFalse(r1.path("seeds").equals(r2.path("seeds")));
     }
 
@@ -143,11 +143,11 @@ class StudyRunnerTest {
         assertEquals(2, settle(new StringWriter(), err, "run", planFile.toString(), "--out", study.toString(), "--quiet"));
         assertEquals(study + ": the plan changed since this study was run; use --fresh to discard its results, "
                 + "or --out DIR for a new study", err.toString().trim());
-        assertEquals(2, MAPPER.readTree(study.resolve("arms/1/1.json").toFile()).path("epochs").path("epoch").size(),
+        assertEquals(2, StudyFiles.replicate(study.resolve("arms/1/1.json")).path("epochs").path("epoch").size(),
                 "the refused run must not touch the results");
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", study.toString(),
                 "--quiet", "--fresh"));
-        assertEquals(3, MAPPER.readTree(study.resolve("arms/1/1.json").toFile()).path("epochs").path("epoch").size());
+        assertEquals(3, StudyFiles.replicate(study.resolve("arms/1/1.json")).path("epochs").path("epoch").size());
     }
 
     @Test
@@ -179,7 +179,7 @@ class StudyRunnerTest {
         assertEquals(4, summary.path("diverged").asInt());
         assertEquals(12, summary.path("finished").asInt());
         for (int k = 1; k <= 4; k++) {
-            JsonNode r = MAPPER.readTree(study.resolve("arms/4/" + k + ".json").toFile());
+            JsonNode r = StudyFiles.replicate(study.resolve("arms/4/" + k + ".json"));
             assertEquals("diverged", r.path("status").asText());
             long at = r.path("diverged_at_update").asLong();
             assertTrue(at >= 1 && at < r.path("total_updates").asLong(), "diverged at " + at);

@@ -35,7 +35,7 @@ final class StudySchema {
             assertTrue(Files.isRegularFile(dir.resolve(file)), dir + " lacks " + file);
         }
         JsonNode m = MAPPER.readTree(dir.resolve("manifest.json").toFile());
-        assertEquals(2, m.path("format").asInt(), "manifest format");
+        assertEquals(3, m.path("format").asInt(), "manifest format");
         for (String key : List.of("plan_sha256", "data_sha256", "split_sha256")) {
             assertTrue(m.path(key).asText().matches("[0-9a-f]{64}"), key);
         }
@@ -130,7 +130,7 @@ final class StudySchema {
                     if (!Files.isRegularFile(first)) {
                         continue;
                     }
-                    JsonNode r = MAPPER.readTree(first.toFile());
+                    JsonNode r = StudyFiles.replicate(first);
                     if (r.path("status").asText().equals("finished") && r.path("nudges").isEmpty()
                             && r.path("plateau_cuts").isEmpty()) {
                         double[] rates = new double[r.path("rates").size()];
@@ -151,8 +151,14 @@ final class StudySchema {
                 continue;
             }
             Path file = dir.resolve("arms/" + rep.path("arm").asInt() + "/" + rep.path("replicate").asInt() + ".json");
-            JsonNode r = MAPPER.readTree(file.toFile());
-            assertEquals(2, r.path("format").asInt());
+            JsonNode r = StudyFiles.replicate(file);
+            assertEquals(3, r.path("format").asInt());
+            JsonNode own = MAPPER.readTree(file.toFile());
+            for (String big : List.of("rates", "start", "last")) {
+                assertTrue(!own.has(big), big + " lives in the binary file, not in the JSON");
+            }
+            assertTrue(!own.path("test_probabilities").has("values") && !own.path("snapshots").has("values"),
+                    "matrices' values live in the binary file");
             assertEquals(rep.path("arm").asInt(), r.path("arm").asInt());
             assertEquals(m.path("arms").get(r.path("arm").asInt() - 1).path("name").asText(), r.path("arm_name").asText());
             assertEquals(status, r.path("status").asText());

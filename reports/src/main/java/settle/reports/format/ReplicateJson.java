@@ -50,12 +50,65 @@ public final class ReplicateJson {
 
     // ------------------------------------------------------------------------------------------------ writing
 
-    /** @return the file's bytes */
-    public static byte[] write(Replicate r) {
-        return JsonOut.document(g -> write(g, r));
+    /** The JSON paths of the arrays the binary file holds, in the order written. */
+    static final List<String> BLOCKS = List.of("rates", "start", "last", "tail_mean", "snapshots.values",
+            "test_probabilities.values");
+
+    /**
+     * A replicate's two files.
+     *
+     * @param json {@code <replicate>.json}: every field but the large arrays, and the binary file's length and checksum
+     * @param binary {@code <replicate>.bin}: the large arrays ({@link ReplicateBlocks})
+     */
+    public record Written(byte[] json, byte[] binary) implements java.io.Serializable {
     }
 
-    private static void write(JsonGenerator g, Replicate r) throws IOException {
+    /** @return the replicate's two files' bytes; the binary file is written first, the JSON (which names it) last */
+    public static Written write(Replicate r) {
+        List<ReplicateBlocks.Block> blocks = new ArrayList<>();
+        blocks.add(new ReplicateBlocks.Block("rates", 1, r.rates().length, r.rates()));
+        blocks.add(new ReplicateBlocks.Block("start", 1, r.start().length, r.start()));
+        blocks.add(new ReplicateBlocks.Block("last", 1, r.last().length, r.last()));
+        if (r.tailMean() != null) {
+            blocks.add(new ReplicateBlocks.Block("tail_mean", 1, r.tailMean().length, r.tailMean()));
+        }
+        if (r.tail() != null && r.snapshots() != null) {
+            blocks.add(new ReplicateBlocks.Block("snapshots.values", r.snapshotRows(), r.last().length,
+                    r.snapshots()));
+        }
+        if (r.tail() != null && r.testProbabilities() != null) {
+            blocks.add(new ReplicateBlocks.Block("test_probabilities.values", r.testRows(), r.testClasses(),
+                    r.testProbabilities()));
+        }
+        byte[] binary = ReplicateBlocks.write(blocks);
+        return new Written(JsonOut.document(g -> write(g, r, binary)), binary);
+    }
+
+    /**
+     * Writes a replicate's two files, each atomically: the binary file first, then the JSON that records its length
+     * and checksum, so that a JSON file on disk always names the binary file beside it.
+     *
+     * @param json where the JSON goes ({@code <replicate>.json}); the binary file goes beside it
+     */
+    public static void writeFiles(java.nio.file.Path json, Written files) throws IOException {
+        AtomicFile.write(StudyFormat.binaryFileOf(json), files.binary());
+        AtomicFile.write(json, files.json());
+    }
+
+    /**
+     * Reads and checks a replicate's two files from disk ({@link #read(byte[], byte[], String, String, Expected)}).
+     *
+     * @param json the replicate's JSON file; its binary file is beside it
+     */
+    public static Replicate readFiles(java.nio.file.Path json, Expected expected) throws IOException {
+        java.nio.file.Path binary = StudyFormat.binaryFileOf(json);
+        byte[] jsonBytes = java.nio.file.Files.readAllBytes(json);
+        byte[] binaryBytes = java.nio.file.Files.isRegularFile(binary) ? java.nio.file.Files.readAllBytes(binary)
+                : null;
+        return read(jsonBytes, binaryBytes, json.toString(), binary.toString(), expected);
+    }
+
+    private static void write(JsonGenerator g, Replicate r, byte[] binary) throws IOException {
         g.writeStartObject();
         g.writeNumberField("format", StudyFormat.VERSION);
         g.writeNumberField("arm", r.arm());
@@ -128,19 +181,35 @@ public final class ReplicateJson {
         }
         g.writeEndArray();
 
-        JsonOut.array(g, "rates", r.rates());
-        JsonOut.array(g, "start", r.start());
-        JsonOut.array(g, "last", r.last());
-        JsonOut.array(g, "tail_mean", r.tailMean());
+        g.writeObjectFieldStart("binary");
+        g.writeNumberField("bytes", binary.length);
+        g.writeStringField("crc32c", ReplicateBlocks.checksum(binary));
+        g.writeEndObject();
+        if (r.tailMean() == null) {
+            g.writeNullField("tail_mean");
+        }
         int p = r.last().length;
         if (r.tail() == null) {
             g.writeNullField("snapshots");
             g.writeNullField("test_probabilities");
         } else {
-            JsonOut.matrix(g, "snapshots", r.snapshotRows(), p, r.snapshots());
-            JsonOut.matrix(g, "test_probabilities", r.testRows(), r.testClasses(), r.testProbabilities());
+            shape(g, "snapshots", r.snapshotRows(), p, r.snapshots());
+            shape(g, "test_probabilities", r.testRows(), r.testClasses(), r.testProbabilities());
         }
         writePrediction(g, r.prediction());
+        g.writeEndObject();
+    }
+
+    /** A matrix whose values are in the binary file: {@code "key": {rows, columns}}, or null for null values. */
+    private static void shape(JsonGenerator g, String key, int rows, int columns, double[] values) throws IOException {
+        g.writeFieldName(key);
+        if (values == null) {
+            g.writeNull();
+            return;
+        }
+        g.writeStartObject();
+        g.writeNumberField("rows", rows);
+        g.writeNumberField("columns", columns);
         g.writeEndObject();
     }
 
@@ -203,16 +272,18 @@ public final class ReplicateJson {
     // ------------------------------------------------------------------------------------------------ reading
 
     /**
-     * Reads and checks a replicate file.
+     * Reads and checks a replicate's two files.
      *
-     * @param bytes the file's content
-     * @param file the file as messages name it
+     * @param bytes the JSON file's content
+     * @param binary the binary file's content, or null when there is none
+     * @param file the JSON file as messages name it
+     * @param binaryFile the binary file as messages name it
      * @param expected what the study says it must hold
      * @return the replicate
      * @throws BadInputException naming the file and the field, for a file that is not this replicate's, not JSON, in
      *     another format, or with a field missing, of another type or out of its range
      */
-    public static Replicate read(byte[] bytes, String file, Expected expected) {
+    public static Replicate read(byte[] bytes, byte[] binary, String file, String binaryFile, Expected expected) {
         Obj r = JsonIn.read(bytes, file);
         int format = r.integer("format", Integer.MIN_VALUE, Integer.MAX_VALUE);
         if (format != StudyFormat.VERSION) {
@@ -230,6 +301,7 @@ public final class ReplicateJson {
             throw r.problem("arm_name", "the file names arm " + BadInputException.shown(armName) + "; arm "
                     + expected.arm() + " of this study is " + BadInputException.shown(expected.armName()));
         }
+        placeBlocks(r, binary, binaryFile);
         Replicate.Seeds seeds = seeds(r.object("seeds"), expected);
         String status = r.choice("status", Replicate.FINISHED, Replicate.DIVERGED);
         boolean diverged = status.equals(Replicate.DIVERGED);
@@ -318,6 +390,54 @@ public final class ReplicateJson {
         return new Replicate(arm, armName, replicate, seeds, status, divergedAt, total, updatesRun, averageTail,
                 initialObjective, metrics, averagedObjective, tail, epochs, nudges, cuts, rates, start, last, tailMean,
                 snapshotRows, snapshots, classes, probabilities, prediction);
+    }
+
+    /**
+     * Checks the binary file against the length and checksum the JSON records, reads it, and puts each of its arrays
+     * where the JSON would hold it, so that every array is then checked like the JSON's own.
+     */
+    private static void placeBlocks(Obj r, byte[] binary, String binaryFile) {
+        Obj b = r.object("binary");
+        long length = b.whole("bytes", 1, Integer.MAX_VALUE);
+        String crc = b.text("crc32c");
+        if (binary == null) {
+            throw BadInputException.inFile(binaryFile, "", "missing; the replicate's JSON records a binary file of "
+                    + length + " bytes beside it");
+        }
+        if (binary.length != length || !ReplicateBlocks.checksum(binary).equals(crc)) {
+            throw BadInputException.inFile(binaryFile, "", "holds " + binary.length + " bytes with CRC-32C "
+                    + ReplicateBlocks.checksum(binary) + "; the replicate's JSON records " + length + " bytes with "
+                    + BadInputException.shown(crc) + " (the two files are not one replicate's)");
+        }
+        for (ReplicateBlocks.Block block : ReplicateBlocks.read(binary, binaryFile).values()) {
+            if (!BLOCKS.contains(block.name())) {
+                throw BadInputException.inFile(binaryFile, block.name(), "is not an array of a replicate; expected "
+                        + String.join(", ", BLOCKS));
+            }
+            int dot = block.name().indexOf('.');
+            Obj into = r;
+            String key = block.name();
+            if (dot > 0) {
+                into = r.object(block.name().substring(0, dot));
+                key = block.name().substring(dot + 1);
+                if (into.integer("rows", 0, Integer.MAX_VALUE) != block.rows()
+                        || into.integer("columns", 0, Integer.MAX_VALUE) != block.columns()) {
+                    throw BadInputException.inFile(binaryFile, block.name(), "is " + block.rows() + " × "
+                            + block.columns() + "; the JSON's " + into.path + " is " + into.map.get("rows") + " × "
+                            + into.map.get("columns"));
+                }
+            }
+            if (into.map.containsKey(key)) {
+                throw BadInputException.inFile(r.file, block.name(), "is in the binary file as well as here; it is"
+                        + " written in one place");
+            }
+            int firstNull = -1;
+            double[] v = block.values();
+            for (int i = 0; i < v.length && firstNull < 0; i++) {
+                firstNull = Double.isNaN(v[i]) ? i : -1;
+            }
+            into.map.put(key, new JsonIn.Numbers(v, firstNull));
+        }
     }
 
     /** @return null: the key must hold JSON null (a diverged replicate has no tail, snapshots or probabilities) */

@@ -15,7 +15,7 @@ import settle.input.BadInputException;
 public final class StudyFormat {
 
     /** The study directory format this settle writes and reads. */
-    public static final int VERSION = 2;
+    public static final int VERSION = 3;
 
     /** The resolved plan. */
     public static final String PLAN = "plan.yaml";
@@ -60,6 +60,21 @@ public final class StudyFormat {
         return armDirectory(directory, arm).resolve(k + ".json");
     }
 
+    /** @return the binary file of replicate {@code k} (its large arrays) beside {@link #replicateFile} */
+    public static Path binaryFile(Path directory, int arm, int k) {
+        return binaryFileOf(replicateFile(directory, arm, k));
+    }
+
+    /** @return the binary file beside a replicate's JSON file {@code <k>.json}: {@code <k>.bin} */
+    public static Path binaryFileOf(Path replicateJson) {
+        String name = replicateJson.getFileName().toString();
+        return replicateJson.resolveSibling((name.endsWith(".json") ? name.substring(0, name.length() - 5) : name)
+                + BINARY_SUFFIX);
+    }
+
+    /** The suffix of a replicate's binary file. */
+    public static final String BINARY_SUFFIX = ".bin";
+
     /** @return the directory of arm {@code arm}'s replicate files */
     public static Path armDirectory(Path directory, int arm) {
         return directory.resolve(ARMS).resolve(Integer.toString(arm));
@@ -81,8 +96,9 @@ public final class StudyFormat {
     }
 
     /**
-     * The one-line refusal of a file written in an older format: its tail radius and distance came from the
-     * snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside format 2's.
+     * The one-line refusal of a file written in an older format: format 1's tail radius and distance came from the
+     * snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside today's; format
+     * 2 wrote every array of a replicate as JSON text.
      *
      * @param file the manifest (or the file) in the older format
      * @param format the format it records
@@ -92,9 +108,11 @@ public final class StudyFormat {
     public static BadInputException olderFormat(Path file, int format, String rerun) {
         String what = file.getFileName() != null && file.getFileName().toString().equals(MANIFEST)
                 ? "this study directory" : "this file";
+        String why = format == 2 ? " whose replicate files hold every array as JSON text (format 3 keeps the"
+                + " large arrays in a binary file beside each, a third of the bytes)"
+                : " whose tail metrics came from snapshots and whose reshuffling prediction was approximate";
         return BadInputException.inFile(file.toString(), "", what + " is in format " + format + ", written by an"
-                + " earlier settle whose tail metrics came from snapshots and whose reshuffling prediction was"
-                + " approximate; rerun it with `" + rerun + "` to rewrite it in format " + VERSION);
+                + " earlier settle" + why + "; rerun it with `" + rerun + "` to rewrite it in format " + VERSION);
     }
 
     /** @return the command that rewrites a study directory from its own plan */

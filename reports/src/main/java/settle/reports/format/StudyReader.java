@@ -89,7 +89,7 @@ public final class StudyReader {
                     ReplicateJson.Expected expected = new ReplicateJson.Expected(a, manifest.arms().get(a - 1), k,
                             manifest.rootSeed(), null, manifest.parameters(), manifest.classes(), manifest.testRows(),
                             manifest.updatesPerEpoch(), -1, convex);
-                    files[i] = ReplicateJson.read(Files.readAllBytes(file), file.toString(), expected);
+                    files[i] = ReplicateJson.readFiles(file, expected);
                 } catch (BadInputException e) {
                     failures[i] = BadInputException.at(e.file(), e.line(), e.column(), e.key(), e.detail() + "; "
                             + remedy);
