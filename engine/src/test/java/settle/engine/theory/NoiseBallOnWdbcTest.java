@@ -57,7 +57,8 @@ import settle.engine.train.Wander;
  * +1 %. Under reshuffling at α = 0.4 (α·λmax = 0.084) it is about +14 % over every update and +16 % at epoch ends: the
  * spread of the examples' curvatures (H_i − H) couples with the noise drawn earlier in the same epoch, a second-order
  * effect that the per-example-linearised simulation reproduces (+11 %, +13 %) and the recursion leaves out; the
- * non-quadratic loss adds the rest. That row is held to {@link #WITHIN_SECOND_ORDER}, stated in the README beside
+ * non-quadratic loss adds the rest (docs/theory-second-order.md derives and measures the terms beyond first order:
+ * the derived mean offsets close about 40 % of the gap, not enough for ±5 %). That row is held to {@link #WITHIN_SECOND_ORDER}, stated in the README beside
  * its measured value; the recursion's algebra is checked exactly by ReshufflingRecursionTest and
  * NoiseBallMonteCarloTest.
  */
