@@ -21,6 +21,7 @@ import settle.experiments.run.ReplicateKey;
 import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.study.StudyContext;
 import settle.experiments.study.StudyRunner;
+import settle.reports.format.ReplicateJson;
 
 /** Retries, failures and refusals of {@link SparkExecutor}. */
 class SparkExecutorTest {
@@ -73,7 +74,9 @@ class SparkExecutorTest {
             assertEquals(keys.size(), received.stream().map(ReplicateOutcome::key).distinct().count(),
                     "a replicate reached the sink twice");
             for (ReplicateOutcome o : received) {
-                assertArrayEquals(StudyRunner.outcome(context, o.key()).file(), o.file(), o.key().toString());
+                ReplicateJson.Written local = StudyRunner.outcome(context, o.key()).file();
+                assertArrayEquals(local.json(), o.file().json(), o.key().toString());
+                assertArrayEquals(local.binary(), o.file().binary(), o.key() + " binary file");
             }
 
             received.clear();
