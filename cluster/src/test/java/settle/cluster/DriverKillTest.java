@@ -95,7 +95,8 @@ class DriverKillTest {
             assertEquals(e.getValue(), Written.of(e.getKey()), "the resumed run rewrote " + e.getKey());
         }
         assertEquals(TOTAL, replicateFiles(killed).size());
-        assertEquals(TOTAL, Studies.armFiles(killed).size(), "files other than replicate files left under arms/: "
+        // each replicate is a JSON file and its binary file
+        assertEquals(2 * TOTAL, Studies.armFiles(killed).size(), "files other than replicate files left under arms/: "
                 + Studies.armFiles(killed));
         assertSameReplicateFiles(whole, killed);
         assertEquals(Files.readString(whole.resolve("epochs.csv")), Files.readString(killed.resolve("epochs.csv")));

@@ -34,7 +34,7 @@ class SparkEqualityTest {
         assertEquals(0, settle(out, err, "run", plan.toString(), "--out", spark.toString(), "--cluster", "local[2]",
                 "--quiet", "--json"), err.toString());
 
-        assertEquals(12, Studies.armFiles(spark).size());
+        assertEquals(2 * 12, Studies.armFiles(spark).size(), "12 replicates, each a JSON file and its binary file");
         assertSameReplicateFiles(local, spark);
         for (String name : new String[] {"epochs.csv", "reference.json", "plan.yaml"}) {
             assertArrayEquals(Files.readAllBytes(local.resolve(name)), Files.readAllBytes(spark.resolve(name)), name);

@@ -66,7 +66,7 @@ final class StudySchema {
             assertTrue(arm.path("name").isTextual());
         }
         JsonNode enc = MAPPER.readTree(dir.resolve("encoding.json").toFile());
-        assertEquals(2, enc.path("format").asInt(), "encoding format");
+        assertEquals(settle.reports.format.StudyFormat.VERSION, enc.path("format").asInt(), "encoding format");
         assertTrue(List.of("table", "plain").contains(enc.path("kind").asText()), "encoding.kind");
         List<String> outputs = new ArrayList<>();
         for (JsonNode f : enc.path("features")) {
