@@ -7,8 +7,8 @@ import java.nio.file.Path;
 import java.util.Locale;
 import java.util.Optional;
 import java.util.concurrent.Callable;
+import picocli.CommandLine.ArgGroup;
 import picocli.CommandLine.Command;
-import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -23,13 +23,17 @@ import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
 import settle.engine.model.Model;
 import settle.engine.model.ModelSpec;
+import settle.experiments.plan.ParsedPlan;
+import settle.experiments.plan.PlanData;
+import settle.experiments.plan.PlanParser;
 import settle.input.BadInputException;
 import settle.reports.format.AtomicFile;
 import settle.reports.format.NumberText;
 
 /**
- * {@code settle minimum}: the exact minimiser θ* of the full-batch objective on the whole dataset, F(θ*), the
- * gradient norm reached, the iterations, and H's extreme eigenvalues on the gauge-free subspace.
+ * {@code settle minimum}: the exact minimiser θ* of the full-batch objective on the whole dataset ({@code --data}) or
+ * on a plan's training split as its study prepares it ({@code --plan}), F(θ*), the gradient norm reached, the
+ * iterations, H's extreme eigenvalues on the gauge-free subspace, and θ* by input name.
  */
 @Command(
         name = "minimum",
@@ -37,9 +41,10 @@ import settle.reports.format.NumberText;
         versionProvider = Main.Version.class,
         defaultValueProvider = OptionDefaults.class,
         description = {
-            "The exact minimiser θ* of F(θ) = (1/N) Σ loss_i + (λ/2)‖weights‖² on the whole dataset (logistic"
-                    + " models), F(θ*), the gradient norm reached and H's extreme eigenvalues on the gauge-free"
-                    + " subspace.",
+            "The exact minimiser θ* of F(θ) = (1/N) Σ loss_i + (λ/2)‖weights‖² (logistic models) on the whole"
+                    + " of a dataset (--data), or on a plan's training split as its study prepares it (--plan): F(θ*),"
+                    + " the gradient norm reached, H's extreme eigenvalues on the gauge-free subspace, and θ* by"
+                    + " input name.",
             "Exit codes: 0 done; 1 no minimiser exists (λ = 0 on separable data) or the output could not be"
                     + " written; 2 bad input."})
 public final class MinimumCommand implements Callable<Integer> {
@@ -47,12 +52,27 @@ public final class MinimumCommand implements Callable<Integer> {
     @Spec
     private CommandSpec spec;
 
-    @Mixin
-    private DataOptions data;
+    @ArgGroup(exclusive = true, multiplicity = "1")
+    private Form form;
 
-    @Option(names = "--model", paramLabel = "KIND",
-            description = "logistic (the only kind with an exact minimiser; default ${DEFAULT-VALUE})")
-    private ModelSpec.Kind model;
+    /** Either a plan or data options, never both (picocli refuses a mix with one line). */
+    static final class Form {
+        @Option(names = "--plan", required = true, paramLabel = "PLAN",
+                description = "the θ* of this plan's study: its model on its training split, the data prepared as a"
+                        + " run prepares it (data keys, table encoding, standardisation on the training split);"
+                        + " the θ* the study's reference.json records")
+        Path plan;
+
+        @ArgGroup(exclusive = false, multiplicity = "1", heading = "Or the whole of a dataset:%n")
+        DataForm data;
+    }
+
+    /** {@code --data SOURCE} and the options it may take. */
+    static final class DataForm extends DataOptions {
+        @Option(names = "--model", paramLabel = "KIND",
+                description = "logistic (the only kind with an exact minimiser; default ${DEFAULT-VALUE})")
+        ModelSpec.Kind model;
+    }
 
     @Option(names = "--out", paramLabel = "FILE",
             description = "write θ* to FILE, one value per line, instead of printing it")
@@ -62,34 +82,59 @@ public final class MinimumCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         PrintWriter stdout = spec.commandLine().getOut();
         PrintWriter stderr = spec.commandLine().getErr();
-        if (model != ModelSpec.Kind.LOGISTIC) {
-            throw BadInputException.of("--model", "--model " + model.key() + " has no exact minimiser; accepted: "
-                    + ModelSpec.Kind.LOGISTIC.key());
-        }
-        data.check();
-        double l2 = data.l2;
-        boolean standardize = data.standardize;
         if (out != null && Files.isDirectory(out)) {
             throw BadInputException.of("--out", "--out " + out + " is a directory; expected the file to write θ* to");
         }
-        ModelSpec modelSpec = ModelSpec.logistic(l2);
-        // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused)
-        PreparedData prepared = DataSources.prepare(data.source, data.label, TableOptions.DEFAULTS, null, SplitRule.NONE);
-        for (String warning : prepared.warnings()) {
-            stderr.println("warning: " + warning);
-        }
-        Dataset dataset = prepared.all();
-        if (standardize) {
-            Standardiser standardiser = Standardiser.fit(dataset);
-            for (String warning : standardiser.warnings()) {
+        Dataset dataset;
+        ModelSpec modelSpec;
+        String described;
+        if (form.plan != null) {
+            ParsedPlan parsed = PlanParser.read(form.plan);
+            modelSpec = parsed.plan().model();
+            if (modelSpec.kind() != ModelSpec.Kind.LOGISTIC) {
+                throw parsed.error("model.kind", "model.kind: " + modelSpec.kind().key() + " has no exact minimiser;"
+                        + " settle minimum accepts " + ModelSpec.Kind.LOGISTIC.key());
+            }
+            PlanData data = PlanData.load(parsed);
+            for (String warning : parsed.warnings()) {
                 stderr.println("warning: " + warning);
             }
-            dataset = standardiser.apply(dataset);
+            for (String warning : data.warnings()) {
+                stderr.println("warning: " + warning);
+            }
+            dataset = data.train();
+            described = dataset + " from " + form.plan + (parsed.plan().data().standardize()
+                    ? ", standardised on the training split" : "");
+        } else {
+            DataForm data = form.data;
+            if (data.model != ModelSpec.Kind.LOGISTIC) {
+                throw BadInputException.of("--model", "--model " + data.model.key() + " has no exact minimiser;"
+                        + " accepted: " + ModelSpec.Kind.LOGISTIC.key());
+            }
+            data.check();
+            modelSpec = ModelSpec.logistic(data.l2);
+            // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused): a
+            // table with gaps or keys of its own goes through --plan
+            PreparedData prepared = DataSources.prepare(data.source, data.label, TableOptions.DEFAULTS, null,
+                    SplitRule.NONE);
+            for (String warning : prepared.warnings()) {
+                stderr.println("warning: " + warning);
+            }
+            dataset = prepared.all();
+            if (data.standardize) {
+                Standardiser standardiser = Standardiser.fit(dataset);
+                for (String warning : standardiser.warnings()) {
+                    stderr.println("warning: " + warning);
+                }
+                dataset = standardiser.apply(dataset);
+            }
+            described = dataset + (data.standardize ? ", standardised on all rows" : "");
         }
+        double l2 = modelSpec.l2();
         Model built = modelSpec.build(dataset.features(), dataset.classes());
         Minimum minimum = new Minimiser().minimise(built, dataset);
 
-        stdout.println("data: " + dataset + (standardize ? ", standardised on all rows" : ""));
+        stdout.println("data: " + described);
         stdout.println("model: " + built.describe() + ", l2 " + l2);
         stdout.println("method: " + minimum.method().name().toLowerCase(Locale.ROOT) + ", " + minimum.iterations()
                 + " iterations, " + (minimum.converged() ? "converged" : "stopped before the tolerance"));

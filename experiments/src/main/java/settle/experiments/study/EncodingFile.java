@@ -99,84 +99,109 @@ public final class EncodingFile {
      *     data.missing, data.source) when they differ
      */
     public static void refuseChanged(Path directory, EncodingRecord recorded, EncodingRecord now) {
+        refuseChanged(directory, recorded, now, false);
+    }
+
+    /**
+     * As {@link #refuseChanged(Path, EncodingRecord, EncodingRecord)}; when the plan, the data and the split are
+     * those the study was run with, the encoding they give cannot have changed, so a difference means the file was
+     * edited or damaged: the refusal then names the file and the field, and says how to have it written again
+     * without losing results.
+     *
+     * @param unchanged true when the plan's, the data's and the split's hashes are those the manifest records
+     */
+    public static void refuseChanged(Path directory, EncodingRecord recorded, EncodingRecord now, boolean unchanged) {
         if (recorded == null) {
             return;
         }
         String[] change = change(recorded, now);
-        if (change != null) {
-            throw BadInputException.inFile(directory.toString(), change[0], change[1] + "; this study was run with"
-                    + " the encoding it records in " + StudyFormat.ENCODING + ": use --fresh to discard its results, or"
-                    + " --out DIR for a new study");
+        if (change == null) {
+            return;
         }
+        if (unchanged) {
+            throw BadInputException.inFile(directory.resolve(StudyFormat.ENCODING).toString(), change[2],
+                    "does not match the encoding of the plan and the data, which are unchanged since the study"
+                    + " was run (" + change[1] + "): the file was edited or damaged; "
+                    + StudyFormat.encodingRemedy(directory));
+        }
+        throw BadInputException.inFile(directory.toString(), change[0], change[1] + "; this study was run with"
+                + " the encoding it records in " + StudyFormat.ENCODING + ": use --fresh to discard its results, or"
+                + " --out DIR for a new study");
     }
 
     /**
      * @return null when the two encodings give the same inputs from the same columns in the same way; else the plan
-     *     key behind the first difference and the difference in words
+     *     key behind the first difference, the difference in words, and the field of encoding.json that holds it
      */
     static String[] change(EncodingRecord was, EncodingRecord now) {
         if (was.table() != now.table()) {
             return new String[] {"data.source", "the data is now " + (now.table() ? "a csv: table" : "not a csv: table")
-                    + " (was " + (was.table() ? "a csv: table" : "not a csv: table") + ")"};
+                    + " (was " + (was.table() ? "a csv: table" : "not a csv: table") + ")", "kind"};
         }
         if (!was.missing().equals(now.missing())) {
-            return new String[] {"data.missing", "now " + now.missing() + " (was " + was.missing() + ")"};
+            return new String[] {"data.missing", "now " + now.missing() + " (was " + was.missing() + ")",
+                "missing"};
         }
-        for (EncodingRecord.Input old : was.inputs()) {
+        for (int i = 0; i < was.inputs().size(); i++) {
+            EncodingRecord.Input old = was.inputs().get(i);
             EncodingRecord.Input cur = input(now, old.name());
+            String at = "inputs[" + i + "].";
             if (cur == null) {
-                return new String[] {"data.source", "column " + shown(old.name()) + " is no longer in the table"};
+                return new String[] {"data.source", "column " + shown(old.name()) + " is no longer in the table",
+                        at + "name"};
             }
             if (!cur.role().equals(old.role())) {
                 return new String[] {roleKey(old.role(), cur.role()), "column " + shown(old.name()) + " is now "
-                        + role(cur.role()) + " (was " + role(old.role()) + ")"};
+                        + role(cur.role()) + " (was " + role(old.role()) + ")", at + "role"};
             }
             if (!cur.type().equals(old.type())) {
                 return new String[] {"data.source", "column " + shown(old.name()) + " now reads as " + cur.type()
-                        + " (was " + old.type() + ")"};
+                        + " (was " + old.type() + ")", at + "type"};
             }
         }
         for (EncodingRecord.Input cur : now.inputs()) {
             if (input(was, cur.name()) == null) {
                 return new String[] {"data.source", "column " + shown(cur.name()) + " is new in the table ("
-                        + role(cur.role()) + ")"};
+                        + role(cur.role()) + ")", "inputs"};
             }
         }
         int n = Math.max(was.features().size(), now.features().size());
         for (int j = 0; j < n; j++) {
             if (j >= was.features().size() || j >= now.features().size()) {
                 return new String[] {"data.features", "the table gives " + now.features().size() + " feature columns"
-                        + " (was " + was.features().size() + ")"};
+                        + " (was " + was.features().size() + ")", "features"};
             }
             EncodingRecord.Feature old = was.features().get(j);
             EncodingRecord.Feature cur = now.features().get(j);
             String name = shown(cur.name());
+            String at = "features[" + j + "].";
             if (!old.name().equals(cur.name())) {
                 return new String[] {"data.features", "feature " + (j + 1) + " is now column " + name + " (was "
-                        + shown(old.name()) + ")"};
+                        + shown(old.name()) + ")", at + "name"};
             }
             if (!old.encoding().equals(cur.encoding())) {
                 return new String[] {"data.categorical", "column " + name + " is now " + (cur.encoding().equals(
                         EncodingRecord.CATEGORY) ? "categorical" : "a number") + " (was " + (old.encoding().equals(
-                        EncodingRecord.CATEGORY) ? "categorical" : "a number") + ")"};
+                        EncodingRecord.CATEGORY) ? "categorical" : "a number") + ")", at + "encoding"};
             }
             if (!old.levels().equals(cur.levels())) {
                 return new String[] {"data.categorical", "column " + name + " now has levels " + levels(cur.levels())
-                        + " (was " + levels(old.levels()) + ")"};
+                        + " (was " + levels(old.levels()) + ")", at + "levels"};
             }
             if (old.missingLevel() != cur.missingLevel() || old.indicator() != cur.indicator()) {
                 return new String[] {"data.missing", "column " + name + (cur.missingLevel() || cur.indicator()
                         ? " now has gaps in training, encoded as " : " no longer has gaps in training, which were"
                         + " encoded as ") + (cur.encoding().equals(EncodingRecord.CATEGORY) ? "a level of their own"
-                        : "a 'was missing' input")};
+                        : "a 'was missing' input"), at + (cur.encoding().equals(EncodingRecord.CATEGORY)
+                        ? "missing_level" : "indicator")};
             }
             if (Double.doubleToLongBits(old.median()) != Double.doubleToLongBits(cur.median())) {
                 return new String[] {"data.missing", "column " + name + " now fills its gaps with the training median "
-                        + cur.median() + " (was " + old.median() + ")"};
+                        + cur.median() + " (was " + old.median() + ")", at + "median"};
             }
             if (!old.outputs().equals(cur.outputs())) {
                 return new String[] {"data.features", "column " + name + " now gives the inputs "
-                        + levels(cur.outputs()) + " (was " + levels(old.outputs()) + ")"};
+                        + levels(cur.outputs()) + " (was " + levels(old.outputs()) + ")", at + "outputs"};
             }
         }
         return null;

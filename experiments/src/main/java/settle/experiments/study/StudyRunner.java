@@ -288,8 +288,15 @@ public final class StudyRunner {
                     manifestFile.toString(), rerun());
             Path encodingFile = directory.resolve(StudyFormat.ENCODING);
             if (Files.isRegularFile(encodingFile)) {
-                EncodingFile.refuseChanged(directory, EncodingJson.read(Files.readAllBytes(encodingFile),
-                        encodingFile.toString()), encoding());
+                EncodingRecord recorded;
+                try {
+                    recorded = EncodingJson.read(Files.readAllBytes(encodingFile), encodingFile.toString());
+                } catch (BadInputException e) {
+                    throw StudyFormat.damagedEncoding(directory, e);
+                }
+                boolean unchanged = planHash.equals(earlier.planSha256()) && dataHash.equals(earlier.dataSha256())
+                        && splitHash.equals(earlier.splitSha256());
+                EncodingFile.refuseChanged(directory, recorded, encoding(), unchanged);
             }
             refuseChanged(earlier, planHash, dataHash, splitHash);
             if (grids.isEmpty() && fitsThisPlan(earlier.grids())) {

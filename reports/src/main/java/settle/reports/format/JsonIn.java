@@ -471,8 +471,10 @@ final class JsonIn {
             for (int i = 0; i < values.length; i++) {
                 double x = values[i];
                 if (x != Math.rint(x) || x < min || x > max || Math.abs(x) > 0x1p53) {
+                    // a whole number out of range is shown as the file writes it (5, not 5.0)
+                    Object found = x == Math.rint(x) && Math.abs(x) <= 0x1p53 ? (Object) (long) x : (Object) x;
                     throw BadInputException.inFile(file, at(key) + "[" + i + "]", "must be " + wholeWords(min, max)
-                            + ", not " + show(x));
+                            + ", not " + show(found));
                 }
                 out[i] = (long) x;
             }

@@ -119,4 +119,26 @@ public final class StudyFormat {
     public static String rerun(Path directory) {
         return "settle run " + directory.resolve(PLAN) + " --out " + directory + " --fresh";
     }
+
+    /**
+     * What to do about a damaged {@code encoding.json}: the file is made from the plan and the data alone, so deleting
+     * it loses nothing, and the next run writes it again.
+     *
+     * @param directory the study directory
+     * @return the remedy, to follow the problem after "; "
+     */
+    public static String encodingRemedy(Path directory) {
+        return "it is made from the plan and the data: delete it, and settle run " + directory.resolve(PLAN)
+                + " --out " + directory + " writes it again, keeping the finished replicates";
+    }
+
+    /**
+     * @param directory the study directory
+     * @param problem the refusal of its {@code encoding.json}
+     * @return the same refusal with {@link #encodingRemedy} after it
+     */
+    public static BadInputException damagedEncoding(Path directory, BadInputException problem) {
+        return BadInputException.at(problem.file(), problem.line(), problem.column(), problem.key(), problem.detail()
+                + "; " + encodingRemedy(directory));
+    }
 }

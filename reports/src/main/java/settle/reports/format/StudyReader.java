@@ -66,7 +66,11 @@ public final class StudyReader {
         Path encodingFile = directory.resolve(StudyFormat.ENCODING);
         EncodingRecord encoding = null;
         if (Files.isRegularFile(encodingFile)) {
-            encoding = EncodingJson.read(Files.readAllBytes(encodingFile), encodingFile.toString(), manifest);
+            try {
+                encoding = EncodingJson.read(Files.readAllBytes(encodingFile), encodingFile.toString(), manifest);
+            } catch (BadInputException e) {
+                throw StudyFormat.damagedEncoding(directory, e);
+            }
         }
         int arms = manifest.arms().size();
         int count = manifest.replicates();
