@@ -92,7 +92,7 @@ public final class MinimumCommand implements Callable<Integer> {
             ParsedPlan parsed = PlanParser.read(form.plan);
             modelSpec = parsed.plan().model();
             if (modelSpec.kind() != ModelSpec.Kind.LOGISTIC) {
-                throw parsed.error("model.kind", "model.kind: " + modelSpec.kind().key() + " has no exact minimiser;"
+                throw parsed.error("model.kind", modelSpec.kind().key() + " has no exact minimiser;"
                         + " settle minimum accepts " + ModelSpec.Kind.LOGISTIC.key());
             }
             PlanData data = PlanData.load(parsed);
@@ -115,8 +115,16 @@ public final class MinimumCommand implements Callable<Integer> {
             modelSpec = ModelSpec.logistic(data.l2);
             // a CSV table takes the default table keys (text columns one-hot over every row, gaps refused): a
             // table with gaps or keys of its own goes through --plan
-            PreparedData prepared = DataSources.prepare(data.source, data.label, TableOptions.DEFAULTS, null,
-                    SplitRule.NONE);
+            PreparedData prepared;
+            try {
+                prepared = DataSources.prepare(data.source, data.label, TableOptions.DEFAULTS, null, SplitRule.NONE);
+            } catch (BadInputException e) {
+                if (!e.key().startsWith("data.")) {
+                    throw e;
+                }
+                throw BadInputException.at(e.file(), e.line(), e.column(), e.key(), e.detail() + "; --data takes"
+                        + " every data key's default: set " + e.key() + " in a plan and give it as --plan PLAN");
+            }
             for (String warning : prepared.warnings()) {
                 stderr.println("warning: " + warning);
             }

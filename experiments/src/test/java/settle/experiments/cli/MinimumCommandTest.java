@@ -95,4 +95,31 @@ class MinimumCommandTest {
         assertEquals(2, run("minimum", "--data", "bundled:wine", "--l2", "abc").code());
         assertEquals(2, run("minimum").code());
     }
+
+    @Test
+    void aPlanGivesItsStudysDataAndModelAndOnlyOneFormIsTaken(@TempDir Path dir) throws IOException {
+        Path mlp = dir.resolve("mlp.yaml");
+        Files.writeString(mlp, String.join("\n", "study: m", "data:", "  source: bundled:wine",
+                "model: {kind: mlp, hidden: [4]}", "arms:", "  - name: a", "    schedule: {kind: constant, rate: 0.1}",
+                ""));
+        Result r = run("minimum", "--plan", mlp.toString());
+        assertEquals(2, r.code(), r.out() + r.err());
+        assertEquals(mlp + ":4:15: model.kind: mlp has no exact minimiser; settle minimum accepts logistic",
+                r.err().strip());
+
+        Result both = run("minimum", "--plan", mlp.toString(), "--data", "bundled:wine");
+        assertEquals(2, both.code());
+        assertTrue(both.err().contains("mutually exclusive"), both.err());
+    }
+
+    @Test
+    void aTableWithGapsUnderDataSaysThatItsKeysGoInAPlan() {
+        // the bundled votes have gaps, which --data (every data key at its default) refuses
+        Result r = run("minimum", "--data", "bundled:housevotes84");
+        assertEquals(2, r.code(), r.out() + r.err());
+        assertEquals(1, r.err().strip().lines().count(), r.err());
+        assertTrue(r.err().startsWith("settle minimum: bundled:housevotes84: missing cells"), r.err());
+        assertTrue(r.err().strip().endsWith("; --data takes every data key's default: set data.missing in a plan and"
+                + " give it as --plan PLAN"), r.err());
+    }
 }
