@@ -61,8 +61,8 @@ class EncodingChangeTest {
     void aDifferenceUnderAnUnchangedPlanAndDataIsAnEditedFileThatCanBeWrittenAgain() {
         BadInputException e = assertThrows(BadInputException.class, () -> EncodingFile.refuseChanged(Path.of("st"),
                 table("refuse", List.of("red"), "feature"), table("refuse", List.of("blue", "red"), "feature"), true));
-        assertEquals(Path.of("st", "encoding.json") + ": features[0].levels: does not match the encoding of the plan and"
-                + " the data, which are unchanged since the study was run (column 'colour' now has levels 'blue', 'red'"
+        assertEquals(Path.of("st", "encoding.json") + ": features[0].levels: does not match the encoding of the plan"
+                + " and the data, which are unchanged since the study was run (column 'colour' now has levels 'blue', 'red'"
                 + " (was 'red')): the file was edited or damaged; it is made from the plan and the data: delete it, and"
                 + " settle run " + Path.of("st", "plan.yaml") + " --out st writes it again, keeping the finished"
                 + " replicates", e.getMessage());
