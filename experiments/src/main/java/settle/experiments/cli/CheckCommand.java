@@ -33,7 +33,9 @@ import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.plan.PlanWriter;
 import settle.experiments.study.AprioriBound;
+import settle.reports.metrics.ClassBalance;
 import settle.reports.stats.Multiplicity;
+import settle.reports.text.Names;
 import settle.reports.stats.VerdictOptions;
 
 /**
@@ -110,6 +112,7 @@ public final class CheckCommand implements Callable<Integer> {
             warnings.add(parsed.error("training.batch", batch + " is more than the " + data.train().rows()
                     + " training rows; every update uses the whole training split").getMessage());
         }
+        fewTestRows(data).ifPresent(detail -> warnings.add(parsed.error("data.test-fraction", detail).getMessage()));
         verdictReach(plan, VerdictOptions.defaults().significance()).ifPresent(
                 detail -> warnings.add(parsed.error("replicates", detail).getMessage()));
         out.println();
@@ -137,6 +140,32 @@ public final class CheckCommand implements Callable<Integer> {
             err.println("warning: " + w);
         }
         return code;
+    }
+
+    /**
+     * @return the forecast that the report's per-class figures will rest on fewer than
+     *     {@value ClassBalance#FEW_TEST_ROWS} test rows of the smallest class (or that a class has none), or empty
+     */
+    static Optional<String> fewTestRows(PlanData data) {
+        if (data.test() == null) {
+            return Optional.empty();
+        }
+        int[] counts = data.test().classCounts();
+        int s = 0;
+        for (int c = 1; c < counts.length; c++) {
+            if (counts[c] < counts[s]) {
+                s = c;
+            }
+        }
+        if (counts[s] >= ClassBalance.FEW_TEST_ROWS) {
+            return Optional.empty();
+        }
+        String name = data.test().classNames().get(s);
+        return Optional.of(counts[s] == 0
+                ? "class '" + Names.shown(name) + "' gets no test rows: the report cannot measure its recall; a"
+                        + " larger data.test-fraction gives it some"
+                : "the report's per-class figures will rest on " + ClassBalance.fewRows(name, counts[s])
+                        + "; a larger data.test-fraction gives it more");
     }
 
     /**

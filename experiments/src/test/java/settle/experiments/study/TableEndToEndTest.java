@@ -321,6 +321,18 @@ class TableEndToEndTest {
     }
 
     @Test
+    void checkForetellsTheFewTestRowsBeforeAnythingIsTrained() {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        assertEquals(0, StudyRunnerTest.settle(out, err, "check", plan.toString()), err.toString());
+        assertTrue(out.toString().contains("  classes: democrat 267 (training 214, test 53); republican 36 (training"
+                + " 29, test 7)\n"), out.toString());
+        assertTrue(err.toString().contains("warning: " + plan + ":6:18: data.test-fraction: the report's per-class"
+                + " figures will rest on 7 test rows of class 'republican' (fewer than 10; its recall moves in steps of"
+                + " 14.3 pp); a larger data.test-fraction gives it more\n"), err.toString());
+    }
+
+    @Test
     void minimumOnThePlanPrintsTheStudysThetaByInputName() throws Exception {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();

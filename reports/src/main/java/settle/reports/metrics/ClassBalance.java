@@ -252,8 +252,19 @@ public final class ClassBalance {
             return "class " + name + " has no test rows: its recall is not measured, and the balanced accuracy"
                     + " leaves it out";
         }
-        return "per-class figures rest on " + testCounts[s] + " test row" + (testCounts[s] == 1 ? "" : "s")
-                + " of class " + name + " (fewer than " + FEW_TEST_ROWS + "; its recall moves in steps of "
-                + Math.round(1000.0 / testCounts[s]) / 10.0 + " pp)";
+        return "per-class figures rest on " + fewRows(classNames.get(s), testCounts[s]);
+    }
+
+    /**
+     * The words for a class with few test rows, shared by the report's caution and {@code settle check}'s forecast.
+     *
+     * @param className the class's name
+     * @param rows its test rows, 1 to {@value #FEW_TEST_ROWS} − 1
+     * @return e.g. "7 test rows of class 'b' (fewer than 10; its recall moves in steps of 14.3 pp)"
+     */
+    public static String fewRows(String className, int rows) {
+        return rows + " test row" + (rows == 1 ? "" : "s") + " of class '" + settle.reports.text.Names.shown(className)
+                + "' (fewer than " + FEW_TEST_ROWS + "; its recall moves in steps of "
+                + Math.round(1000.0 / rows) / 10.0 + " pp)";
     }
 }
