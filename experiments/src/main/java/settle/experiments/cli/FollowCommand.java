@@ -26,8 +26,9 @@ import settle.input.BadInputException;
 /**
  * {@code settle follow STUDY}: shows a run's {@code progress.json} live: each arm's state, and for manual
  * arms the epoch, its rate, the next epoch's rate and the median [first quartile, third quartile] over the
- * replicates of the training objective, the test loss and (convex models) the distance to θ*. In a terminal
- * the view is redrawn in place whenever the file changes; otherwise one plain line is printed per change.
+ * replicates of the training objective, the test loss and (convex models) the distance to θ*. When stdout is a
+ * terminal ({@link Terminal}, the rule of {@code run}'s progress bar) the view is redrawn in place whenever the file
+ * changes; otherwise one plain line is printed per change.
  * It ends when the run ends (exit 0), or when no live run is left to update it (exit 1).
  */
 @Command(name = "follow", mixinStandardHelpOptions = true,
@@ -57,7 +58,7 @@ public final class FollowCommand implements Callable<Integer> {
         if (interval < 10 || interval > 60_000) {
             throw BadInputException.of("--interval", "--interval must be between 10 and 60000 ms, got " + interval);
         }
-        boolean terminal = !plain && System.console() != null;
+        boolean terminal = !plain && Terminal.STDOUT.isTerminal();
         Path file = study.resolve(ProgressBoard.FILE);
         Map<Integer, String> shown = new HashMap<>();
         String last = null;

@@ -128,7 +128,8 @@ public final class RunCommand implements Callable<Integer> {
         ReplicateExecutor executor = factory == null ? new LocalExecutor(threads) : factory.create(cluster, context);
         try {
             StudyRunner runner = new StudyRunner(context, directory, executor, command, progressStream, stderr,
-                    Progress.choose(quiet), pace).armsTogether(!armsApart);
+                    quiet ? Progress.Mode.QUIET : Terminal.STDERR.isTerminal() ? Progress.Mode.BAR
+                    : Progress.Mode.LINES, pace).armsTogether(!armsApart);
             outcome = runner.run(fresh);
         } finally {
             if (executor instanceof AutoCloseable closeable) {

@@ -5,7 +5,8 @@ import java.util.Locale;
 
 /**
  * Shows how a run is going on stderr: a bar redrawn in place when stderr is a terminal, a plain line every
- * few seconds otherwise (logs and CI), nothing when quiet. Shows replicates done, updates per second and
+ * few seconds otherwise (logs and CI), nothing when quiet; the command chooses the {@link Mode} by the one rule for
+ * terminals ({@code settle.experiments.cli.Terminal}). Shows replicates done, updates per second and
  * the time left, estimated from the replicates finished so far.
  */
 public final class Progress {
@@ -39,30 +40,6 @@ public final class Progress {
         this.done = alreadyDone;
         this.start = System.nanoTime();
         this.lastShown = start - LINE_INTERVAL_NANOS;
-    }
-
-    /**
-     * @return BAR when stderr is an interactive terminal, LINES otherwise, QUIET when asked. The launcher says
-     *     which stderr is ({@code -Dsettle.stderr=terminal|file}: `2>log` on a terminal gets lines, not a log full of
-     *     carriage-return redraws); without it (java -jar by hand) the JVM's console check, which looks at stdin
-     *     and stdout, decides
-     */
-    public static Mode choose(boolean quiet) {
-        return choose(quiet, System.getProperty("settle.stderr"), System.console() != null);
-    }
-
-    /** {@link #choose(boolean)} from what is known of stderr: the launcher's word, else the console check. */
-    static Mode choose(boolean quiet, String stderrKind, boolean console) {
-        if (quiet) {
-            return Mode.QUIET;
-        }
-        if ("terminal".equals(stderrKind)) {
-            return Mode.BAR;
-        }
-        if ("file".equals(stderrKind)) {
-            return Mode.LINES;
-        }
-        return console ? Mode.BAR : Mode.LINES;
     }
 
     /** Records a finished replicate and redraws when due. */
