@@ -12,6 +12,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
+import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.PlanParser;
 
 /**
@@ -58,10 +59,10 @@ public final class DemoCommand implements Callable<Integer> {
         List<String> command = new ArrayList<>();
         command.add("settle");
         command.addAll(spec.commandLine().getParseResult().originalArgs());
-        int code = RunCommand.execute(spec, () -> PlanParser.read(planText(), "demo.yaml", Path.of("")), out, threads,
-                null, true, quiet, false, command, 0, armsApart);
+        ParsedPlan plan = PlanParser.read(planText(), "demo.yaml", Path.of(""));
+        int code = RunCommand.execute(spec, () -> plan, out, threads, null, true, quiet, false, command, 0, armsApart);
         if (code == Main.OK || code == Main.INCOMPLETE) {
-            Path where = out != null ? out : Path.of("studies", "frost-demo");
+            Path where = out != null ? out : Places.study(plan.plan().study());
             spec.commandLine().getOut().println("demo study written to " + where.toAbsolutePath().normalize());
         }
         return code;

@@ -122,7 +122,7 @@ public final class RunCommand implements Callable<Integer> {
         for (String w : context.data().warnings()) {
             stderr.println("warning: " + w);
         }
-        Path directory = out != null ? out : Path.of("studies", parsed.plan().study());
+        Path directory = out != null ? out : Places.study(parsed.plan().study());
         stderr.flush();
         PrintStream progressStream = System.err;
         ReplicateExecutor executor = factory == null ? new LocalExecutor(threads) : factory.create(cluster, context);

@@ -1,0 +1,45 @@
+package settle.experiments.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+
+/**
+ * What settle writes without being told where lands under {@code studies/} in the current directory, and a checkout
+ * of settle ignores {@code studies/} at any depth: {@code ./settle demo}, {@code run} or {@code probe} started
+ * anywhere in the checkout leave its tracked and untracked source as they were.
+ */
+class PlacesTest {
+
+    @Test
+    void everyDefaultOutputIsUnderStudies() {
+        assertEquals(Path.of("studies", "frost-demo"), Places.study("frost-demo"));
+        assertEquals(Path.of("studies", "satellite-mlp-probe.html"), Places.probePage("satellite-mlp"));
+        assertTrue(Places.probePage("x").startsWith(Places.STUDIES));
+    }
+
+    @Test
+    void theCheckoutIgnoresStudiesAtAnyDepth() throws Exception {
+        // tests run in the module's folder; the checkout's .gitignore is one up. A pattern with a slash only at its
+        // end matches a folder of that name at any depth (gitignore(5)), so experiments/studies/ is ignored too.
+        List<String> lines = Files.readAllLines(Path.of("..", ".gitignore"), StandardCharsets.UTF_8);
+        assertTrue(lines.contains(Places.STUDIES + "/"), lines.toString());
+    }
+
+    @Test
+    void theHelpSaysWhereEachDefaultIs() {
+        StringWriter out = new StringWriter();
+        Main.run(new PrintWriter(out), new PrintWriter(new StringWriter()), "probe", "--help");
+        assertTrue(out.toString().contains("(default: studies/<study>-probe.html)"), out.toString());
+        out = new StringWriter();
+        Main.run(new PrintWriter(out), new PrintWriter(new StringWriter()), "run", "--help");
+        assertTrue(out.toString().contains("(default: studies/<study>)"), out.toString());
+    }
+}
