@@ -54,7 +54,7 @@ public final class ProbeCommand implements Callable<Integer> {
     @Option(names = "--to", paramLabel = "RATE", description = "top of the sweep (default ${DEFAULT-VALUE})")
     double to = 100;
 
-    @Option(names = "--html", paramLabel = "FILE", description = "the page (default: <study>-probe.html)")
+    @Option(names = "--html", paramLabel = "FILE", description = "the page (default: studies/<study>-probe.html)")
     Path html;
 
     @Spec
@@ -94,17 +94,17 @@ public final class ProbeCommand implements Callable<Integer> {
         for (String line : ProbePage.why(r)) {
             out.println("  " + line);
         }
-        List<String> arms = armLines(parsed, r);
+        List<String> arms = armLines(parsed, planFile, r);
         for (String line : arms) {
             out.println("  " + line);
         }
-        Path page = html != null ? html : Path.of(study + "-probe.html");
+        Path page = html != null ? html : Places.probePage(study);
         try {
             AtomicFile.write(page, ProbePage.html(study, r, arms));
         } catch (IOException e) {
             throw new IOException("cannot write " + page + ": " + e.getMessage(), e);
         }
-        out.println("wrote " + page);
+        out.println("page: " + page.toAbsolutePath().normalize());
         return Main.OK;
     }
 
@@ -137,7 +137,11 @@ public final class ProbeCommand implements Callable<Integer> {
         }
     }
 
-    private static List<String> armLines(ParsedPlan parsed, Probe.Result r) {
+    /**
+     * @return one line per arm: its largest planned rate, where that lies against the suggested range and, outside
+     *     it, what that means and how to check the arm
+     */
+    static List<String> armLines(ParsedPlan parsed, Path planFile, Probe.Result r) {
         List<String> lines = new ArrayList<>();
         RunShape shape = PlanData.load(parsed).shape(parsed.plan());
         for (int i = 0; i < parsed.plan().arms().size(); i++) {
@@ -146,15 +150,31 @@ public final class ProbeCommand implements Callable<Integer> {
             for (double v : a.schedule().schedule().plannedRates(shape)) {
                 max = Math.max(max, v);
             }
-            String where = !Double.isFinite(r.upper()) ? "no suggested range to compare with"
-                    : max > r.upper() ? "above the suggested range" : max < r.lower() ? "below the suggested range"
-                    : "inside the suggested range";
+            String where;
+            if (!Double.isFinite(r.upper())) {
+                where = "no suggested range to compare with";
+            } else if (max > r.upper()) {
+                where = "above the suggested range (" + num(max / r.upper()) + " × its upper end): at this rate the"
+                        + " sweeps had passed their lowest objective, so check that its first epochs still fall"
+                        + " (settle trace --plan " + word(planFile.toString()) + " --arm " + word(a.name())
+                        + " --replicate 1)";
+            } else if (max < r.lower()) {
+                where = "below the suggested range (" + num(r.lower() / max) + " × below its lower end): the"
+                        + " sweeps had made less than half their fall by this rate, so expect a slow start";
+            } else {
+                where = "inside the suggested range";
+            }
             lines.add("arm #" + (i + 1) + " '" + a.name() + "': largest planned rate " + num(max) + ", " + where);
         }
         return lines;
     }
 
     private static String num(double v) {
-        return Double.isFinite(v) ? String.format(Locale.ROOT, "%.4g", v) : "—";
+        return ProbePage.num(v);
+    }
+
+    /** @return {@code text} as one shell word: as it is when plain, else in single quotes */
+    static String word(String text) {
+        return text.matches("[A-Za-z0-9._/=:+-]+") ? text : "'" + text.replace("'", "'\\''") + "'";
     }
 }

@@ -1,5 +1,7 @@
 package settle.experiments.probe;
 
+import java.math.BigDecimal;
+import java.math.MathContext;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -194,13 +196,8 @@ public final class ProbePage {
     private static void legend(HtmlWriter w, Probe.Result r) {
         w.open("ul", "class", "legend");
         for (int k = 0; k < r.sweeps().size(); k++) {
-            Palette.Style s = Palette.style(k);
             w.open("li");
-            w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
-            w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", s.colour(), "stroke-width", "2",
-                    "stroke-dasharray", s.dash());
-            SvgChart.marker(w, 17, 7, 4, s.shape(), s.colour(), true, "swatch-mark", null);
-            w.close("svg");
+            SvgChart.legendSwatch(w, Palette.style(k), true);
             w.text("seed " + (k + 1));
             w.close("li");
         }
@@ -217,8 +214,8 @@ public final class ProbePage {
         w.open("table");
         w.element("caption", "Each sweep's reading (marker: its lowest objective)");
         w.open("thead").open("tr");
-        for (String h : new String[] {"seed", "F(θ₀)", "lowest F", "at rate (upper)", "half the fall by (lower)",
-            "updates", "how it ended"}) {
+        for (String h : new String[] {"seed", "F(θ₀)", "lowest F", "at rate (upper end)",
+            "half the fall by rate (lower end)", "updates", "how it ended"}) {
             w.element("th", h, "scope", "col");
         }
         w.close("tr").close("thead");
@@ -240,8 +237,23 @@ public final class ProbePage {
         w.close("table").newline();
     }
 
-    /** @return v with four significant digits, or "—" when not finite */
-    static String num(double v) {
-        return Double.isFinite(v) ? String.format(Locale.ROOT, "%.4g", v) : "—";
+    /**
+     * @return v to four significant digits without trailing zeros, in plain notation from 0.001 to 1e5 and as
+     *     1.33e-4 outside it; "—" when not finite (the page's and the terminal's one number format)
+     */
+    public static String num(double v) {
+        if (!Double.isFinite(v)) {
+            return "—";
+        }
+        if (v == 0) {
+            return "0";
+        }
+        double a = Math.abs(v);
+        if (a >= 1e-3 && a < 1e5) {
+            return new BigDecimal(v).round(new MathContext(4)).stripTrailingZeros().toPlainString();
+        }
+        String[] parts = String.format(Locale.ROOT, "%.3e", v).split("e");
+        String mantissa = new BigDecimal(parts[0]).stripTrailingZeros().toPlainString();
+        return mantissa + "e" + Integer.parseInt(parts[1]);
     }
 }

@@ -38,6 +38,9 @@ class ProbeTest {
     @TempDir
     Path dir;
 
+    /** What {@code settle probe} printed in the last {@link #check}. */
+    private String printed;
+
     static String plan(String source, String training) {
         return "study: probed\nseed: 2026\nreplicates: 5\ndata:\n  source: " + source + "\nmodel:\n  kind: logistic\n"
                 + "training:\n" + training + "arms:\n  - name: \"<b>small & slow\"\n"
@@ -88,6 +91,8 @@ class ProbeTest {
         assertEquals(0, Main.run(new PrintWriter(out), new PrintWriter(err), "probe", planFile.toString(), "--html",
                 page.toString()), err.toString());
         String text = out.toString();
+        printed = text;
+        assertTrue(text.contains("page: " + page.toAbsolutePath().normalize()), text);
         assertTrue(text.contains("suggested initial-rate range: " + ProbePage.num(r.lower()) + " to "
                 + ProbePage.num(r.upper())), text);
         assertTrue(text.contains("Lower end " + ProbePage.num(r.lower()) + ": the median"), text);
@@ -104,7 +109,28 @@ class ProbeTest {
 
     @Test
     void wdbc() throws Exception {
-        check("bundled:wdbc", "  epochs: 20\n  batch: 32\n");
+        Probe.Result r = check("bundled:wdbc", "  epochs: 20\n  batch: 32\n");
+        // the plan's arms at 0.01 and 5 lie either side of the range (0.01895 to 4.886 when measured)
+        assertTrue(0.01 < r.lower() && r.upper() < 5, r.lower() + " to " + r.upper());
+        assertTrue(printed.contains("arm #1 '<b>small & slow': largest planned rate 0.01, below the suggested range ("
+                + ProbePage.num(r.lower() / 0.01) + " × below its lower end)"), printed);
+        assertTrue(printed.contains("arm #2 'big': largest planned rate 5, above the suggested range ("
+                + ProbePage.num(5 / r.upper()) + " × its upper end)"), printed);
+        assertTrue(printed.contains("(settle trace --plan " + dir.resolve("probed.yaml") + " --arm big --replicate 1)"),
+                printed);
+    }
+
+    @Test
+    void numbersAreShortWithoutTrailingZeros() {
+        assertEquals("1e-5", ProbePage.num(1e-5));
+        assertEquals("1.33e-4", ProbePage.num(1.330e-4));
+        assertEquals("-2.5e6", ProbePage.num(-2.5e6));
+        assertEquals("100", ProbePage.num(100));
+        assertEquals("0.4559", ProbePage.num(0.45594));
+        assertEquals("0.01371", ProbePage.num(0.013712));
+        assertEquals("0.001", ProbePage.num(0.001));
+        assertEquals("0", ProbePage.num(0));
+        assertEquals("—", ProbePage.num(Double.NaN));
     }
 
     @Test

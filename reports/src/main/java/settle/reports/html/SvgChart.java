@@ -242,6 +242,20 @@ public final class SvgChart {
     }
 
     /**
+     * Writes the swatch of a legend entry for a series drawn in {@code style}: its marker, on a line of its colour
+     * and dash when {@code line}; hidden from screen readers (the entry's text names the series).
+     */
+    public static void legendSwatch(HtmlWriter w, Palette.Style style, boolean line) {
+        w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
+        if (line) {
+            w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", style.colour(), "stroke-width", "2",
+                    "stroke-dasharray", style.dash());
+        }
+        marker(w, 17, 7, 4, style.shape(), style.colour(), true, "swatch-mark", null);
+        w.close("svg");
+    }
+
+    /**
      * A marker at pixel (cx, cy).
      *
      * @param tooltip text of its {@code <title>} (or null)

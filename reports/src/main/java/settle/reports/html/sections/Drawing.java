@@ -94,15 +94,8 @@ public final class Drawing {
         Study study = study();
         w.open("ul", "class", "legend");
         for (int a = 0; a < study.armCount(); a++) {
-            Palette.Style s = Palette.style(a);
             w.open("li");
-            w.open("svg", "width", "34", "height", "14", "class", "swatch", "aria-hidden", "true");
-            if (lines) {
-                w.empty("line", "x1", "1", "x2", "33", "y1", "7", "y2", "7", "stroke", s.colour(), "stroke-width", "2",
-                        "stroke-dasharray", s.dash());
-            }
-            SvgChart.marker(w, 17, 7, 4, s.shape(), s.colour(), true, "swatch-mark", null);
-            w.close("svg");
+            SvgChart.legendSwatch(w, Palette.style(a), lines);
             w.text(study.armName(a));
             w.close("li");
         }
