@@ -3,16 +3,17 @@ package settle.engine.train;
 import java.util.Objects;
 
 /**
- * The training budget shared by every arm of a plan, plus the arm's averaging choice. Key names in messages are
- * the plan's ({@code training.epochs}, …).
+ * The training budget shared by every arm of a plan, plus the arm's averaging choice: the one record of the plan's
+ * {@code training} keys and their bounds (a plan holds it with {@code averageTail} false; each arm's trainer gets
+ * {@link #withAverageTail}). Key names in messages are the plan's ({@code training.epochs}, …).
  *
- * @param epochs passes over the training split, ≥ 1
+ * @param epochs passes over the training split, 1..{@value #MAX_EPOCHS}
  * @param batch rows per mini-batch B, ≥ 1
  * @param sampling shuffle or replacement
  * @param momentum heavy-ball β in [0, 1); 0 is plain SGD
  * @param tail τ in (0, 1]: the tail is the last ⌈τT⌉ updates
  * @param snapshots K ≥ 1 tail snapshots, placed by {@link TailPlan} (reduced to the tail length when the tail is
- *     shorter)
+ *     shorter); a plan asks for at least 2 ({@code training.snapshots}, checked where the plan is read)
  * @param averageTail true for an arm with {@code average: tail}: its "final" iterate is the tail mean θ̄
  */
 public record TrainingSettings(int epochs, int batch, Sampling sampling, double momentum, double tail, int snapshots,
@@ -23,11 +24,14 @@ public record TrainingSettings(int epochs, int batch, Sampling sampling, double 
     /** Default number of tail snapshots. */
     public static final int DEFAULT_SNAPSHOTS = 50;
 
+    /** Largest number of epochs a run may ask for. */
+    public static final int MAX_EPOCHS = 1_000_000;
+
     /** Validates every field, naming its plan key and the accepted range. */
     public TrainingSettings {
         Objects.requireNonNull(sampling, "training.sampling");
-        if (epochs < 1) {
-            throw new IllegalArgumentException("training.epochs must be an integer ≥ 1: " + epochs);
+        if (epochs < 1 || epochs > MAX_EPOCHS) {
+            throw new IllegalArgumentException("training.epochs must be an integer in 1.." + MAX_EPOCHS + ": " + epochs);
         }
         if (batch < 1) {
             throw new IllegalArgumentException("training.batch must be an integer ≥ 1: " + batch);

@@ -76,6 +76,8 @@ class SeedsAndSettingsTest {
     @Test
     void settingsNameTheKeyAndRange() {
         assertMessage("training.epochs", () -> new TrainingSettings(0, 8, Sampling.SHUFFLE, 0, 0.1, 5, false));
+        assertMessage("training.epochs must be an integer in 1..1000000", () -> new TrainingSettings(
+                TrainingSettings.MAX_EPOCHS + 1, 8, Sampling.SHUFFLE, 0, 0.1, 5, false));
         assertMessage("training.batch", () -> new TrainingSettings(1, 0, Sampling.SHUFFLE, 0, 0.1, 5, false));
         assertMessage("training.momentum must be in [0, 1)", () -> TrainingSettings.of(1, 1).withMomentum(1.0));
         assertMessage("training.momentum", () -> TrainingSettings.of(1, 1).withMomentum(Double.NaN));

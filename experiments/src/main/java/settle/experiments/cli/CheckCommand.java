@@ -101,7 +101,7 @@ public final class CheckCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, "updates: ⌈%d / %d⌉ = %d per epoch, %d epochs, %d updates in all (%s sampling)%n",
                 data.train().rows(), batch, shape.updatesPerEpoch(), shape.epochs(), shape.totalUpdates(),
                 plan.training().sampling().key());
-        long tailLength = plan.training().settings(false).tailLength(shape.totalUpdates());
+        long tailLength = plan.training().tailLength(shape.totalUpdates());
         out.printf(Locale.ROOT, "tail: the last %d updates; %d snapshots%n", tailLength,
                 Math.min(plan.training().snapshots(), tailLength));
         if (plan.training().snapshots() > tailLength) {

@@ -38,7 +38,6 @@ import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanParser;
 import settle.experiments.plan.ScheduleSpec;
-import settle.experiments.plan.TrainingPlan;
 import settle.experiments.run.ReplicateKey;
 import settle.experiments.study.ReplicateFile;
 import settle.experiments.study.StudyContext;
@@ -121,9 +120,9 @@ public final class TraceCommand implements Callable<Integer> {
                 description = "logistic (sigmoid for two classes, softmax for more) or mlp (default: ${DEFAULT-VALUE})")
         ModelSpec.Kind model;
 
-        @Option(names = "--hidden", paramLabel = "32,16",
+        @Option(names = "--hidden", split = ",", paramLabel = "32,16",
                 description = "mlp hidden layer sizes, comma-separated (default: ${DEFAULT-VALUE})")
-        String hidden;
+        List<Integer> hidden;
 
         @Option(names = "--activation", paramLabel = "relu|tanh", description = "mlp hidden activation (default: ${DEFAULT-VALUE})")
         Activation activation;
@@ -192,7 +191,7 @@ public final class TraceCommand implements Callable<Integer> {
             context = StudyContext.build(parsed);
             trainer = f.init == null && f.order == null ? context.trainer(1)
                     : context.replayTrainer(1, f.init == null ? null : readInit(f.init, context.model()),
-                            f.order == null ? null : readOrder(f.order, context.plan().training().settings(false),
+                            f.order == null ? null : readOrder(f.order, context.plan().training(),
                                     context.data().train().rows()));
             origin = "";
         }
@@ -295,9 +294,9 @@ public final class TraceCommand implements Callable<Integer> {
     /** @return the one-arm plan of the {@code --data} form, its values checked where picocli's types leave them open */
     private static Plan plan(DataForm f) {
         f.check();
-        if (f.epochs < 1 || f.epochs > TrainingPlan.MAX_EPOCHS) {
+        if (f.epochs < 1 || f.epochs > TrainingSettings.MAX_EPOCHS) {
             throw BadInputException.of("--epochs", "--epochs = " + f.epochs + " is not accepted; expected an integer in"
-                    + " 1.." + TrainingPlan.MAX_EPOCHS);
+                    + " 1.." + TrainingSettings.MAX_EPOCHS);
         }
         if (f.batch < 1) {
             throw BadInputException.of("--batch", "--batch = " + f.batch + " is not accepted; expected an integer ≥ 1");
@@ -326,26 +325,19 @@ public final class TraceCommand implements Callable<Integer> {
         }
         ArmPlan arm = new ArmPlan("trace", new ScheduleSpec(map, schedule), ArmPlan.Averaging.NONE, false);
         return new Plan("trace", f.seed, 1, new DataPlan(f.source, f.label, f.testFraction,
-                Defaults.HOLDOUT_FRACTION, f.standardize), model, new TrainingPlan(f.epochs, f.batch, f.sampling,
-                f.momentum, Defaults.TAIL, Defaults.SNAPSHOTS), arm.name(), List.of(arm));
+                Defaults.HOLDOUT_FRACTION, f.standardize), model, new TrainingSettings(f.epochs, f.batch, f.sampling,
+                f.momentum, Defaults.TAIL, Defaults.SNAPSHOTS, false), arm.name(), List.of(arm));
     }
 
-    private static List<Integer> hidden(String hidden) {
-        List<Integer> sizes = new ArrayList<>();
-        for (String part : hidden.split(",", -1)) {
-            try {
-                int size = Integer.parseInt(part.strip());
-                if (size < 1 || size > PlanParser.MAX_WIDTH) {
-                    throw new NumberFormatException();
-                }
-                sizes.add(size);
-            } catch (NumberFormatException e) {
-                throw BadInputException.of("--hidden", "--hidden " + BadInputException.shown(hidden)
-                        + " is not accepted; expected comma-separated layer sizes 1.." + PlanParser.MAX_WIDTH
-                        + ", e.g. 32,16");
+    /** @return the layer widths of {@code --hidden} (picocli has read the integers), each checked 1..MAX_WIDTH */
+    private static List<Integer> hidden(List<Integer> widths) {
+        for (int width : widths) {
+            if (width < 1 || width > PlanParser.MAX_WIDTH) {
+                throw BadInputException.of("--hidden", "--hidden: a layer of " + width + " is not accepted; expected"
+                        + " comma-separated layer sizes 1.." + PlanParser.MAX_WIDTH + ", e.g. 32,16");
             }
         }
-        return sizes;
+        return List.copyOf(widths);
     }
 
     /** Trains one replicate, printing each epoch as it ends and the wander at the end. */

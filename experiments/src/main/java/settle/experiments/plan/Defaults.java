@@ -68,7 +68,7 @@ public final class Defaults {
             "| `model.activation` | " + ACTIVATION.key() + " (mlp only; ignored with a warning for logistic) | `relu` / `tanh` |",
             "| `model.l2` | " + text(L2) + " | λ ≥ 0, penalty (λ/2)‖weights‖², biases not penalised |",
             "| `model.init` | zeros (logistic), he (mlp) | `zeros` / `reference` (logistic only) / `glorot` / `he` |",
-            "| `training.epochs` | " + EPOCHS + " | passes over the training split, 1–" + TrainingPlan.MAX_EPOCHS + " |",
+            "| `training.epochs` | " + EPOCHS + " | passes over the training split, 1–" + TrainingSettings.MAX_EPOCHS + " |",
             "| `training.batch` | " + BATCH + " | examples per update, ≥ 1 |",
             "| `training.sampling` | " + SAMPLING + " | `shuffle` / `replacement` |",
             "| `training.momentum` | " + MOMENTUM + " | heavy-ball β in [0, 1) |",

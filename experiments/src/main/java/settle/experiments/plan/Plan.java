@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Objects;
 import java.util.Set;
 import settle.engine.model.ModelSpec;
+import settle.engine.train.TrainingSettings;
 
 /**
  * A resolved plan: every default filled in (by {@link PlanParser}, in one place), the grid expanded, and
@@ -16,12 +17,13 @@ import settle.engine.model.ModelSpec;
  * @param replicates replicates per arm, ≥ 1
  * @param data where the data come from and how they are split
  * @param model the model every arm trains
- * @param training the training budget every arm shares
+ * @param training the training budget every arm shares (its {@code averageTail} false: each arm's own choice is
+ *     {@link ArmPlan#average()})
  * @param baseline the name of the arm every other arm is compared against; one of {@code arms}
  * @param arms the arms in plan order (grid-expanded arms in place of their template); names unique
  */
 public record Plan(String study, long seed, int replicates, DataPlan data, ModelSpec model,
-        TrainingPlan training, String baseline, List<ArmPlan> arms) {
+        TrainingSettings training, String baseline, List<ArmPlan> arms) {
 
     /** Largest number of replicates a plan may ask for. */
     public static final int MAX_REPLICATES = 100_000;

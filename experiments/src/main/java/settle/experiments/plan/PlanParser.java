@@ -25,6 +25,7 @@ import settle.engine.schedule.Schedule;
 import settle.input.BadInputException;
 import settle.engine.schedule.Schedules;
 import settle.engine.train.Sampling;
+import settle.engine.train.TrainingSettings;
 import settle.datasets.DataSources;
 import settle.datasets.table.TableOptions;
 import settle.reports.format.Grid;
@@ -162,7 +163,7 @@ public final class PlanParser {
                 : Defaults.REPLICATES;
         DataPlan data = data(requiredMap(top, "", "data", "source (" + SOURCE_FORMS + ")"));
         ModelSpec model = model(optionalMap(top, "", "model"));
-        TrainingPlan training = training(optionalMap(top, "", "training"));
+        TrainingSettings training = training(optionalMap(top, "", "training"));
 
         List<Template> templates = arms(top);
         List<ArmPlan> arms = expand(top, templates, data);
@@ -313,14 +314,14 @@ public final class PlanParser {
         return out;
     }
 
-    private TrainingPlan training(YamlNode.MapNode m) {
+    private TrainingSettings training(YamlNode.MapNode m) {
         if (m == null) {
-            return new TrainingPlan(Defaults.EPOCHS, Defaults.BATCH, Defaults.SAMPLING, Defaults.MOMENTUM,
-                    Defaults.TAIL, Defaults.SNAPSHOTS);
+            return new TrainingSettings(Defaults.EPOCHS, Defaults.BATCH, Defaults.SAMPLING, Defaults.MOMENTUM,
+                    Defaults.TAIL, Defaults.SNAPSHOTS, false);
         }
         checkKeys(m, "training", "training", TRAINING_KEYS);
         int epochs = present(m, "epochs")
-                ? (int) integer(m, "training", "epochs", 1, TrainingPlan.MAX_EPOCHS, null) : Defaults.EPOCHS;
+                ? (int) integer(m, "training", "epochs", 1, TrainingSettings.MAX_EPOCHS, null) : Defaults.EPOCHS;
         int batch = present(m, "batch")
                 ? (int) integer(m, "training", "batch", 1, Integer.MAX_VALUE, null) : Defaults.BATCH;
         Sampling sampling = present(m, "sampling")
@@ -330,7 +331,7 @@ public final class PlanParser {
         double tail = present(m, "tail") ? number(m, "training", "tail", Range.LEFT_OPEN_UNIT) : Defaults.TAIL;
         int snapshots = present(m, "snapshots")
                 ? (int) integer(m, "training", "snapshots", 2, Integer.MAX_VALUE, null) : Defaults.SNAPSHOTS;
-        return new TrainingPlan(epochs, batch, sampling, momentum, tail, snapshots);
+        return new TrainingSettings(epochs, batch, sampling, momentum, tail, snapshots, false);
     }
 
     // ---------------------------------------------------------------- arms and grid

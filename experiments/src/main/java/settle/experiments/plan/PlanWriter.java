@@ -12,6 +12,7 @@ import java.util.regex.Pattern;
 import settle.datasets.table.TableOptions;
 import settle.engine.model.ModelSpec;
 import settle.engine.schedule.NudgeLog;
+import settle.engine.train.TrainingSettings;
 import settle.reports.format.AtomicFile;
 
 /**
@@ -76,7 +77,7 @@ public final class PlanWriter {
         }
         b.append("  l2: ").append(number(m.l2())).append('\n');
         b.append("  init: ").append(m.init().name().toLowerCase(java.util.Locale.ROOT)).append('\n');
-        TrainingPlan t = plan.training();
+        TrainingSettings t = plan.training();
         b.append("training:\n");
         b.append("  epochs: ").append(t.epochs()).append('\n');
         b.append("  batch: ").append(t.batch()).append('\n');

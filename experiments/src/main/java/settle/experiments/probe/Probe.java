@@ -138,7 +138,7 @@ public final class Probe {
         }
         // F(θ*) where the minimiser found it, else 0 (every objective settle fits is non-negative)
         double floor = minimum != null ? minimum.objective() : 0.0;
-        RangeTest test = new RangeTest(model, data.train(), plan.training().settings(false), init, from, to, updates);
+        RangeTest test = new RangeTest(model, data.train(), plan.training(), init, from, to, updates);
         List<RangeTest.Sweep> sweeps = new ArrayList<>();
         List<RangeRule.Range> ranges = new ArrayList<>();
         double[] lowers = new double[seeds];

@@ -27,7 +27,6 @@ import settle.experiments.plan.ArmPlan;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
-import settle.experiments.plan.TrainingPlan;
 import settle.experiments.run.ReplicateKey;
 import settle.input.BadInputException;
 
@@ -115,12 +114,12 @@ public final class StudyContext {
         }
         List<Trainer> trainers = new ArrayList<>();
         List<NudgeLog> logs = new ArrayList<>();
-        TrainingPlan t = plan.training();
+        TrainingSettings t = plan.training();
         for (int i = 0; i < plan.arms().size(); i++) {
             ArmPlan arm = plan.arms().get(i);
             TrainingSettings settings;
             try {
-                settings = t.settings(arm.average() == ArmPlan.Averaging.TAIL);
+                settings = t.withAverageTail(arm.average() == ArmPlan.Averaging.TAIL);
             } catch (BadInputException e) {
                 throw parsed.error("training", e.getMessage());
             }
@@ -181,7 +180,7 @@ public final class StudyContext {
         }
         ReferencePoint reference = minimum == null ? null : new ReferencePoint(minimum.theta(), minimum.objective());
         Trainer.Builder b = builder(plan(), data, model, reference, a.schedule().schedule(),
-                plan().training().settings(a.average() == ArmPlan.Averaging.TAIL));
+                plan().training().withAverageTail(a.average() == ArmPlan.Averaging.TAIL));
         if (start != null) {
             b.start(start);
         }
@@ -242,7 +241,7 @@ public final class StudyContext {
         if (result.diverged()) {
             return NoiseBallPrediction.skipped("no prediction: the replicate diverged at update " + result.divergedAt());
         }
-        TrainingPlan t = plan().training();
+        TrainingSettings t = plan().training();
         int n = data.train().rows();
         BatchSampling sampling = t.sampling() == Sampling.SHUFFLE ? BatchSampling.SHUFFLE : BatchSampling.REPLACEMENT;
         UpdateSequence updates = UpdateSequence.of(result.rates(), n, Math.min(t.batch(), n), sampling, t.momentum());

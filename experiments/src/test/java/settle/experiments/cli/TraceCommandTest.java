@@ -27,6 +27,7 @@ import settle.engine.train.SampleOrders;
 import settle.engine.train.Sampling;
 import settle.engine.train.Trainer;
 import settle.engine.train.TrainingSettings;
+import settle.experiments.plan.Defaults;
 
 class TraceCommandTest {
 
@@ -182,6 +183,20 @@ class TraceCommandTest {
     }
 
     @Test
+    void hiddenTakesCommaSeparatedWidthsAndDefaultsToThePlans() {
+        Result r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
+                "--hidden", "5,3", "--activation", "tanh", "--schedule", "{kind: constant, rate: 0.1}", "--epochs", "1",
+                "--batch", "8");
+        assertEquals(Main.OK, r.code(), r.out() + r.err());
+        assertTrue(r.out().contains("MLP 3-5-3-2 (tanh hidden layers"), r.out());
+        r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
+                "--schedule", "{kind: constant, rate: 0.1}", "--epochs", "1", "--batch", "8");
+        assertEquals(Main.OK, r.code(), r.out() + r.err());
+        assertTrue(r.out().contains("MLP 3-" + Defaults.HIDDEN + "-2 (" + Defaults.ACTIVATION.key() + " hidden layers"),
+                r.out());
+    }
+
+    @Test
     void divergedReplicateExitsThree() {
         Result r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
                 "--l2", "0", "--schedule", "{kind: constant, rate: 50}", "--epochs", "20", "--batch", "8");
@@ -196,7 +211,8 @@ class TraceCommandTest {
         "--epochs 2 --momentum 1|--momentum = 1.0 is not accepted; expected a number in [0, 1)",
         "--epochs 2 --sampling bootstrap|--sampling': 'bootstrap' is not accepted; expected shuffle or replacement",
         "--epochs 2 --model tree|--model': 'tree' is not accepted; expected logistic or mlp",
-        "--epochs 2 --model mlp --hidden 8,x|--hidden '8,x' is not accepted",
+        "--epochs 2 --model mlp --hidden 8,x|--hidden' (32,16): 'x' is not an int",
+        "--epochs 2 --model mlp --hidden 8,0|--hidden: a layer of 0 is not accepted; expected comma-separated layer sizes 1..",
         "--epochs 2 --model mlp --activation sigmoid|--activation': 'sigmoid' is not accepted; expected relu or tanh",
         "--epochs 2 --test-fraction 1.5|--test-fraction = 1.5 is not accepted",
         "--epochs 2 --l2 -1|--l2 = -1.0 is not accepted",

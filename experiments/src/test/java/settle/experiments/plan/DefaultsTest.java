@@ -9,6 +9,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
+import settle.engine.train.TrainingSettings;
 
 /** The one table of defaults: what the parser fills in, what the options default to and what the docs print. */
 class DefaultsTest {
@@ -32,8 +33,8 @@ class DefaultsTest {
         assertEquals(Defaults.STANDARDIZE, plan.data().standardize());
         assertEquals(Defaults.MODEL, plan.model().kind());
         assertEquals(Defaults.L2, plan.model().l2());
-        assertEquals(new TrainingPlan(Defaults.EPOCHS, Defaults.BATCH, Defaults.SAMPLING, Defaults.MOMENTUM,
-                Defaults.TAIL, Defaults.SNAPSHOTS), plan.training());
+        assertEquals(new TrainingSettings(Defaults.EPOCHS, Defaults.BATCH, Defaults.SAMPLING, Defaults.MOMENTUM,
+                Defaults.TAIL, Defaults.SNAPSHOTS, false), plan.training());
     }
 
     @Test

@@ -19,6 +19,7 @@ import settle.engine.model.Activation;
 import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
 import settle.engine.train.Sampling;
+import settle.engine.train.TrainingSettings;
 import settle.datasets.table.TableOptions;
 import settle.input.BadInputException;
 import settle.reports.format.Grid;
@@ -50,7 +51,7 @@ class PlanParserTest {
         assertEquals(null, plan.model().activation());
         assertEquals(Initialisation.ZEROS, plan.model().init());
         assertEquals(1.0e-3, plan.model().l2());
-        assertEquals(new TrainingPlan(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
+        assertEquals(new TrainingSettings(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50, false), plan.training());
         assertEquals("constant", plan.baseline());
         List<String> names = new ArrayList<>();
         for (ArmPlan a : plan.arms()) {
@@ -90,7 +91,7 @@ class PlanParserTest {
         assertEquals(new DataPlan("synthetic:gaussian?rows=200&seed=3", null, 0.2, 0.0, true), plan.data());
         assertEquals(new ModelSpec(ModelSpec.Kind.LOGISTIC, List.of(), null, 1.0e-3, Initialisation.ZEROS),
                 plan.model());
-        assertEquals(new TrainingPlan(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50), plan.training());
+        assertEquals(new TrainingSettings(50, 32, Sampling.SHUFFLE, 0.0, 0.1, 50, false), plan.training());
         assertEquals(1, plan.arms().size());
         ArmPlan arm = plan.arms().get(0);
         assertEquals("constant", arm.name(), "an unnamed arm is named after its schedule kind");
