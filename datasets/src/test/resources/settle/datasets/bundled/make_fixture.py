@@ -40,7 +40,7 @@ lines = ["name,rows,features,class_counts,column_sums,column_sums_of_squares"]
 for name, load in [("wdbc", datasets.load_breast_cancer), ("wine", datasets.load_wine)]:
     b = load()
     names = [str(n) for n in b.target_names]
-    order = sorted(range(len(names)), key=lambda k: names[k])  # wine: class_0 < class_1 < class_2, cultivars 1-3
+    order = sorted(range(len(names)), key=lambda k: names[k])  # wine: the three target names sort in cultivar order 1-3
     lines.append(line(name, b.data.astype(np.float64), [int((b.target == k).sum()) for k in order]))
 
 rows = list(csv.reader(io.StringIO(r('data(Satellite); write.csv(Satellite, stdout(), row.names = FALSE)'))))[1:]

@@ -244,8 +244,8 @@ public final class LockstepRunner {
             handleRequests(run, epoch);
             next = epoch < shape.epochs() ? baseRate(run.arm, epoch + 1) * log.multiplier(epoch + 1) : Double.NaN;
         }
-        board.epoch(run.arm, epoch, rate, next, log.size(), ProgressBoard.Spread.of(objective, count),
-                ProgressBoard.Spread.of(testLoss, count), ProgressBoard.Spread.of(distance, count));
+        board.epoch(run.arm, epoch, rate, next, log.size(), ProgressBoard.Quartiles.of(objective, count),
+                ProgressBoard.Quartiles.of(testLoss, count), ProgressBoard.Quartiles.of(distance, count));
         board.write();
     }
 

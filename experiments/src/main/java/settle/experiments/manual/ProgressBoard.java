@@ -39,10 +39,10 @@ public final class ProgressBoard {
     }
 
     /** Median and quartiles (type 7) of one quantity over the replicates that reached an epoch. */
-    public record Spread(double median, double q1, double q3) {
+    public record Quartiles(double median, double q1, double q3) {
 
         /** @return the spread of the finite values among the first {@code count} of {@code values} (not modified), or null when none */
-        public static Spread of(double[] values, int count) {
+        public static Quartiles of(double[] values, int count) {
             double[] finite = new double[count];
             int n = 0;
             for (int i = 0; i < count; i++) {
@@ -54,7 +54,7 @@ public final class ProgressBoard {
                 return null;
             }
             double[] sorted = Quantiles.sortedCopy(java.util.Arrays.copyOf(finite, n));
-            return new Spread(Quantiles.type7(sorted, 0.5), Quantiles.type7(sorted, 0.25), Quantiles.type7(sorted, 0.75));
+            return new Quartiles(Quantiles.type7(sorted, 0.5), Quantiles.type7(sorted, 0.25), Quantiles.type7(sorted, 0.75));
         }
     }
 
@@ -71,9 +71,9 @@ public final class ProgressBoard {
         double rate = Double.NaN;
         double nextRate = Double.NaN;
         int nudges;
-        Spread objective;
-        Spread testLoss;
-        Spread distance;
+        Quartiles objective;
+        Quartiles testLoss;
+        Quartiles distance;
 
         Arm(int index, String name, boolean manual, int replicates) {
             this.index = index;
@@ -126,8 +126,8 @@ public final class ProgressBoard {
     }
 
     /** Records a manual arm's epoch end: the epoch, its rate, the next epoch's first rate and the spreads. */
-    public synchronized void epoch(int arm, int epoch, double rate, double nextRate, int nudges, Spread objective,
-            Spread testLoss, Spread distance) {
+    public synchronized void epoch(int arm, int epoch, double rate, double nextRate, int nudges, Quartiles objective,
+            Quartiles testLoss, Quartiles distance) {
         Arm a = arms.get(arm - 1);
         if (a.state == State.PENDING) {
             a.state = State.RUNNING;
@@ -184,7 +184,7 @@ public final class ProgressBoard {
         AtomicFile.write(directory.resolve(FILE), bytes);
     }
 
-    private static void spread(JsonGenerator g, String key, Spread s) throws IOException {
+    private static void spread(JsonGenerator g, String key, Quartiles s) throws IOException {
         g.writeFieldName(key);
         if (s == null) {
             g.writeNull();

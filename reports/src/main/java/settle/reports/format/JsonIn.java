@@ -19,7 +19,7 @@ import settle.input.BadInputException;
 /**
  * Reads the study directory's JSON files into a small tree and checks every field on the way out.
  *
- * <p>The tree is made for study files: an array of numbers (and nulls) becomes one {@link Numbers} (a
+ * <p>The tree is made for study files: an array of numbers (and nulls) becomes one {@link NumberArray} (a
  * {@code double[]}) instead of a node per element. Objects are {@code Map<String, Object>} in file order; other
  * arrays {@code List<Object>}; whole numbers {@link Long} (beyond the long range {@link Double}), other numbers
  * {@link Double}; strings, booleans; JSON null is {@link #NULL}. Duplicate keys are refused.
@@ -44,7 +44,7 @@ final class JsonIn {
      * @param values the numbers, NaN where the array holds null
      * @param firstNull the index of the first null, or −1
      */
-    record Numbers(double[] values, int firstNull) {
+    record NumberArray(double[] values, int firstNull) {
         @Override
         public String toString() {
             return "an array of " + values.length + " numbers";
@@ -193,7 +193,7 @@ final class JsonIn {
             }
             buffer[n++] = v;
         }
-        return new Numbers(Arrays.copyOf(buffer, n), firstNull);
+        return new NumberArray(Arrays.copyOf(buffer, n), firstNull);
     }
 
     @SuppressWarnings("unchecked")
@@ -212,7 +212,7 @@ final class JsonIn {
         if (v instanceof Map) {
             return "an object";
         }
-        if (v instanceof List || v instanceof Numbers) {
+        if (v instanceof List || v instanceof NumberArray) {
             return "an array";
         }
         if (v instanceof Double d) {
@@ -396,7 +396,7 @@ final class JsonIn {
         List<Obj> objects(String key) {
             Object v = raw(key);
             List<Obj> out = new ArrayList<>();
-            if (v instanceof Numbers n && n.values().length == 0) {
+            if (v instanceof NumberArray n && n.values().length == 0) {
                 return out;
             }
             if (!(v instanceof List<?> list)) {
@@ -416,7 +416,7 @@ final class JsonIn {
         List<String> texts(String key) {
             Object v = raw(key);
             List<String> out = new ArrayList<>();
-            if (v instanceof Numbers n && n.values().length == 0) {
+            if (v instanceof NumberArray n && n.values().length == 0) {
                 return out;
             }
             if (!(v instanceof List<?> list)) {
@@ -440,7 +440,7 @@ final class JsonIn {
         double[] numbers(String key, int length, Range range, boolean nullable) {
             Object v = raw(key);
             double[] values;
-            if (v instanceof Numbers n) {
+            if (v instanceof NumberArray n) {
                 values = n.values();
             } else {
                 throw bad(key, "an array of numbers", v);

@@ -436,7 +436,7 @@ public final class ReplicateJson {
             for (int i = 0; i < v.length && firstNull < 0; i++) {
                 firstNull = Double.isNaN(v[i]) ? i : -1;
             }
-            into.map.put(key, new JsonIn.Numbers(v, firstNull));
+            into.map.put(key, new JsonIn.NumberArray(v, firstNull));
         }
     }
 
