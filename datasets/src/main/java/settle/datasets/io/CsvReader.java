@@ -123,16 +123,7 @@ public final class CsvReader {
                 }
             }
         }
-        if (labels.rows() == 0) {
-            throw BadInputException.of("", src + ": no data rows after the header (line " + headerLine
-                    + "); expected at least one row");
-        }
-        labels.finish();
-        if (labels.classNames().size() < 2) {
-            throw BadInputException.of("", src + ": label column " + BadInputException.shown(labelName)
-                    + " holds one class only (" + BadInputException.shown(labels.classNames().get(0))
-                    + "); expected at least two classes");
-        }
+        labels.finish(src, headerLine, labelName);
         return new Dataset(src, values.toArray(), labels.labels(), featureNames, labels.classNames());
     }
 }

@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import settle.input.BadInputException;
 
 /**
  * Collects the label of each row while a file streams by, then numbers the classes as DESIGN.md says: the
@@ -39,6 +40,29 @@ public final class LabelIndex {
     /** @return the number of rows recorded */
     public int rows() {
         return rows;
+    }
+
+    /**
+     * Numbers the classes as {@link #finish()} does, refusing first a file without data rows and then one whose
+     * label column holds a single class: the checks of both readers of delimited text ({@link CsvReader} and the
+     * table reader), said in the same words.
+     *
+     * @param src the file as messages name it
+     * @param headerLine the header's line number
+     * @param labelName the label column's name
+     * @throws BadInputException when there is no row or only one class
+     */
+    public void finish(String src, long headerLine, String labelName) {
+        if (rows == 0) {
+            throw BadInputException.of("", src + ": no data rows after the header (line " + headerLine
+                    + "); expected at least one row");
+        }
+        finish();
+        if (classNames.size() < 2) {
+            throw BadInputException.of("", src + ": label column " + BadInputException.shown(labelName)
+                    + " holds one class only (" + BadInputException.shown(classNames.get(0))
+                    + "); expected at least two classes");
+        }
     }
 
     /** Numbers the classes; call once, after the last {@link #add}. */

@@ -185,16 +185,7 @@ public final class TableReader {
                 }
             }
         }
-        if (labels.rows() == 0) {
-            throw BadInputException.of("", src + ": no data rows after the header (line " + headerLine
-                    + "); expected at least one row");
-        }
-        labels.finish();
-        if (labels.classNames().size() < 2) {
-            throw BadInputException.of("", src + ": label column " + BadInputException.shown(labelName)
-                    + " holds one class only (" + BadInputException.shown(labels.classNames().get(0))
-                    + "); expected at least two classes");
-        }
+        labels.finish(src, headerLine, labelName);
         String regression = labels.regressionProblem();
         if (regression != null) {
             throw BadInputException.of("data.label", src + ": label column " + BadInputException.shown(labelName)

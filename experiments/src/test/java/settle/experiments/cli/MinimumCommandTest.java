@@ -2,10 +2,9 @@ package settle.experiments.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static settle.experiments.cli.Cli.run;
 
 import java.io.IOException;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -23,16 +22,6 @@ class MinimumCommandTest {
     private static final double WDBC_OBJECTIVE = 0.09959137548470548;
     private static final double OBJECTIVE_TOLERANCE = 1e-8;
 
-    private record Result(int code, String out, String err) {
-    }
-
-    private static Result run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int code = Main.run(new PrintWriter(out), new PrintWriter(err), args);
-        return new Result(code, out.toString(), err.toString());
-    }
-
     private static double valueAfter(String text, String prefix) {
         for (String line : text.lines().toList()) {
             if (line.startsWith(prefix)) {
@@ -44,7 +33,7 @@ class MinimumCommandTest {
 
     @Test
     void printsTheMinimiserOfStandardisedWdbc() {
-        Result r = run("minimum", "--data", "bundled:wdbc", "--standardize", "--model", "logistic", "--l2", "0.01");
+        Cli.Result r = run("minimum", "--data", "bundled:wdbc", "--standardize", "--model", "logistic", "--l2", "0.01");
         assertEquals(0, r.code(), r.err());
         assertEquals(WDBC_OBJECTIVE, valueAfter(r.out(), "F(θ*):"), OBJECTIVE_TOLERANCE * WDBC_OBJECTIVE);
         assertTrue(r.out().contains("method: newton"), r.out());
@@ -55,7 +44,7 @@ class MinimumCommandTest {
     @Test
     void writesThetaOnePerLine(@TempDir Path dir) throws IOException {
         Path file = dir.resolve("theta.csv");
-        Result r = run("minimum", "--data", "bundled:wine", "--standardize", "--l2", "0.01", "--out", file.toString());
+        Cli.Result r = run("minimum", "--data", "bundled:wine", "--standardize", "--l2", "0.01", "--out", file.toString());
         assertEquals(0, r.code(), r.err());
         List<String> lines = Files.readAllLines(file, StandardCharsets.UTF_8);
         assertEquals(42, lines.size()); // 3 cultivars × 13 weights, then 3 biases
@@ -71,7 +60,7 @@ class MinimumCommandTest {
     void separableDataWithoutPenaltyFailWithExitOne(@TempDir Path dir) throws IOException {
         Path csv = dir.resolve("apart.csv");
         Files.writeString(csv, "a,b,y\n0,1,no\n0.5,2,no\n1,0.3,no\n3,1,yes\n3.5,0,yes\n4,2,yes\n");
-        Result r = run("minimum", "--data", "csv:" + csv, "--label", "y", "--l2", "0");
+        Cli.Result r = run("minimum", "--data", "csv:" + csv, "--label", "y", "--l2", "0");
         assertEquals(1, r.code(), r.out() + r.err());
         assertEquals("settle minimum: no minimiser exists: the training data are linearly separable and l2 = 0;"
                 + " set model.l2 > 0", r.err().strip());
@@ -79,16 +68,16 @@ class MinimumCommandTest {
 
     @Test
     void badInputExitsWithTwo() {
-        Result unknown = run("minimum", "--data", "bundled:nosuch");
+        Cli.Result unknown = run("minimum", "--data", "bundled:nosuch");
         assertEquals(2, unknown.code());
         assertEquals(1, unknown.err().strip().lines().count(), unknown.err());
         assertTrue(unknown.err().startsWith("bundled:nosuch: no such bundled dataset"), unknown.err());
 
-        Result mlp = run("minimum", "--data", "bundled:wine", "--model", "mlp");
+        Cli.Result mlp = run("minimum", "--data", "bundled:wine", "--model", "mlp");
         assertEquals(2, mlp.code());
         assertEquals("settle minimum: --model mlp has no exact minimiser; accepted: logistic", mlp.err().strip());
 
-        Result negative = run("minimum", "--data", "bundled:wine", "--l2", "-1");
+        Cli.Result negative = run("minimum", "--data", "bundled:wine", "--l2", "-1");
         assertEquals(2, negative.code());
         assertEquals("settle minimum: --l2 = -1.0 is not accepted; expected a finite number ≥ 0", negative.err().strip());
 

@@ -3,8 +3,6 @@ package settle.experiments.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -35,11 +33,9 @@ class PlacesTest {
 
     @Test
     void theHelpSaysWhereEachDefaultIs() {
-        StringWriter out = new StringWriter();
-        Main.run(new PrintWriter(out), new PrintWriter(new StringWriter()), "probe", "--help");
-        assertTrue(out.toString().contains("(default: studies/<study>-probe.html)"), out.toString());
-        out = new StringWriter();
-        Main.run(new PrintWriter(out), new PrintWriter(new StringWriter()), "run", "--help");
-        assertTrue(out.toString().contains("(default: studies/<study>)"), out.toString());
+        String probe = Cli.run("probe", "--help").out();
+        assertTrue(probe.contains("(default: studies/<study>-probe.html)"), probe);
+        String run = Cli.run("run", "--help").out();
+        assertTrue(run.contains("(default: studies/<study>)"), run);
     }
 }

@@ -3,31 +3,20 @@ package settle.experiments.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static settle.experiments.cli.Cli.run;
 
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import org.junit.jupiter.api.Test;
 
 class RatesCommandTest {
 
     /** Output and error text of one run, with its exit code. */
-    private record Result(int code, String out, String err) {
-    }
-
-    private static Result run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int code = Main.run(new PrintWriter(out), new PrintWriter(err), args);
-        return new Result(code, out.toString(), err.toString());
-    }
-
     /**
      * The issue's example; the trade's standard 1/t example (common practice): 0.2/(1+1) = 0.1 in epoch 1,
      * 0.2/3 in epoch 2, 0.2/4 = 0.05, 0.2/5 = 0.04; three updates per epoch share the epoch's rate.
      */
     @Test
     void csvListsEveryUpdate() {
-        Result r = run("rates", "{kind: reciprocal, rate: 0.2, decay: 1}", "--epochs", "4", "--updates-per-epoch", "3",
+        Cli.Result r = run("rates", "{kind: reciprocal, rate: 0.2, decay: 1}", "--epochs", "4", "--updates-per-epoch", "3",
                 "--format", "csv");
         assertEquals(0, r.code(), r.err());
         String expected = String.join("\n",
@@ -42,7 +31,7 @@ class RatesCommandTest {
 
     @Test
     void tableStatesTheCounterConventionAndTheSums() {
-        Result r = run("rates", "{kind: constant, rate: 0.1}", "--epochs", "2", "--updates-per-epoch", "2");
+        Cli.Result r = run("rates", "{kind: constant, rate: 0.1}", "--epochs", "2", "--updates-per-epoch", "2");
         assertEquals(0, r.code(), r.err());
         String[] lines = r.out().replace("\r\n", "\n").split("\n");
         assertEquals("constant: α = 0.1", lines[0]);
@@ -58,7 +47,7 @@ class RatesCommandTest {
 
     @Test
     void unknownKindExitsTwoWithOneLine() {
-        Result r = run("rates", "{kind: exponental, rate: 0.2, base: 0.9}", "--epochs", "4", "--updates-per-epoch", "3");
+        Cli.Result r = run("rates", "{kind: exponental, rate: 0.2, base: 0.9}", "--epochs", "4", "--updates-per-epoch", "3");
         assertEquals(2, r.code());
         assertEquals("settle rates: schedule: unknown schedule kind 'exponental'; did you mean 'exponential'?\n",
                 r.err().replace("\r\n", "\n"));
@@ -67,7 +56,7 @@ class RatesCommandTest {
 
     @Test
     void negativeRateExitsTwoNamingTheKey() {
-        Result r = run("rates", "{kind: constant, rate: -0.1}", "--epochs", "4", "--updates-per-epoch", "3");
+        Cli.Result r = run("rates", "{kind: constant, rate: -0.1}", "--epochs", "4", "--updates-per-epoch", "3");
         assertEquals(2, r.code());
         assertEquals("settle rates: schedule: constant: rate = -0.1 is not accepted; expected a finite number > 0\n",
                 r.err().replace("\r\n", "\n"));
@@ -75,7 +64,7 @@ class RatesCommandTest {
 
     @Test
     void warmupLongerThanTheRunExitsTwo() {
-        Result r = run("rates", "{kind: constant, rate: 0.1, warmup: {updates: 13}}", "--epochs", "4",
+        Cli.Result r = run("rates", "{kind: constant, rate: 0.1, warmup: {updates: 13}}", "--epochs", "4",
                 "--updates-per-epoch", "3");
         assertEquals(2, r.code());
         assertEquals("settle rates: schedule: constant: warmup.updates = 13 is not accepted; expected at most the "
@@ -84,7 +73,7 @@ class RatesCommandTest {
 
     @Test
     void malformedYamlExitsTwoWithoutAStackTrace() {
-        Result r = run("rates", "{kind: [", "--epochs", "2", "--updates-per-epoch", "1");
+        Cli.Result r = run("rates", "{kind: [", "--epochs", "2", "--updates-per-epoch", "1");
         assertEquals(2, r.code());
         assertEquals(1, r.err().strip().split("\n").length, r.err());
         assertEquals("settle rates: schedule: '{kind: [' is not a YAML map (a syntax error at character 9); expected"
@@ -94,7 +83,7 @@ class RatesCommandTest {
 
     @Test
     void aScalarIsNotAMap() {
-        Result r = run("rates", "hello", "--epochs", "2", "--updates-per-epoch", "1");
+        Cli.Result r = run("rates", "hello", "--epochs", "2", "--updates-per-epoch", "1");
         assertEquals(2, r.code());
         assertEquals("settle rates: schedule: 'hello' is not a YAML map; expected e.g. "
                 + "'{kind: reciprocal, rate: 0.2, decay: 1}'\n", r.err().replace("\r\n", "\n"));
@@ -102,7 +91,7 @@ class RatesCommandTest {
 
     @Test
     void zeroEpochsExitsTwo() {
-        Result r = run("rates", "{kind: constant, rate: 0.1}", "--epochs", "0", "--updates-per-epoch", "1");
+        Cli.Result r = run("rates", "{kind: constant, rate: 0.1}", "--epochs", "0", "--updates-per-epoch", "1");
         assertEquals(2, r.code());
         assertEquals("settle rates: --epochs = 0 is not accepted; expected an integer ≥ 1\n",
                 r.err().replace("\r\n", "\n"));

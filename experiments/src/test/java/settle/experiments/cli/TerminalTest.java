@@ -4,8 +4,6 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -61,11 +59,9 @@ class TerminalTest {
         String before = System.getProperty(Terminal.STDOUT.property());
         System.setProperty(Terminal.STDOUT.property(), kind);
         try {
-            StringWriter out = new StringWriter();
-            StringWriter err = new StringWriter();
-            int code = Main.run(new PrintWriter(out), new PrintWriter(err), "follow", study.toString());
-            assertEquals(Main.OK, code, err.toString());
-            return out.toString();
+            Cli.Result r = Cli.run("follow", study.toString());
+            assertEquals(Main.OK, r.code(), r.err());
+            return r.out();
         } finally {
             if (before == null) {
                 System.clearProperty(Terminal.STDOUT.property());

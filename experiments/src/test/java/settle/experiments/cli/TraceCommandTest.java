@@ -3,10 +3,9 @@ package settle.experiments.cli;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static settle.experiments.cli.Cli.run;
 
 import java.io.IOException;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.net.URISyntaxException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -33,16 +32,6 @@ class TraceCommandTest {
 
     /** Relative agreement with the torch replay fixture (see the engine's ReplayAgainstTorchTest). */
     private static final double REPLAY_TOLERANCE = 1e-10;
-
-    private record Result(int code, String out, String err) {
-    }
-
-    private static Result run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int code = Main.run(new PrintWriter(out), new PrintWriter(err), args);
-        return new Result(code, out.toString(), err.toString());
-    }
 
     private static Path resource(String name) {
         try {
@@ -73,7 +62,7 @@ class TraceCommandTest {
         "multinomial|multinomial-update-decay-momentum0.txt|{kind: reciprocal, rate: 0.2, decay: 0.05, per: update}|0"})
     void replaysARunMadeWithTorch(String data, String fixture, String schedule, String momentum, @TempDir Path dir)
             throws IOException {
-        Result r = run("trace", "--data", "csv:" + resource(data + ".csv"), "--label", "y", "--model", "logistic",
+        Cli.Result r = run("trace", "--data", "csv:" + resource(data + ".csv"), "--label", "y", "--model", "logistic",
                 "--test-fraction", "0", "--no-standardize", "--l2", "0.01", "--schedule", schedule, "--epochs", "6", "--batch", "8", "--momentum", momentum,
                 "--init", resource(data + "-start.txt").toString(), "--order", resource(data + "-order.txt").toString(),
                 "--dump", dir.toString());
@@ -122,7 +111,7 @@ class TraceCommandTest {
     void dumpMatchesTheTrainerApiBitForBit(@TempDir Path dir) throws IOException {
         // trace with the seed's own start and sampled orders equals the Trainer run of replicate 1
         Path csv = resource("binary.csv");
-        Result r = run("trace", "--data", "csv:" + csv, "--label", "y", "--l2", "0.01", "--schedule",
+        Cli.Result r = run("trace", "--data", "csv:" + csv, "--label", "y", "--l2", "0.01", "--schedule",
                 "{kind: constant, rate: 0.3}", "--epochs", "4", "--batch", "7", "--sampling", "replacement",
                 "--seed", "77", "--test-fraction", "0", "--no-standardize", "--dump", dir.toString());
         assertEquals(0, r.code(), r.err());
@@ -152,7 +141,7 @@ class TraceCommandTest {
         Path orderFile = dir.resolve("order.txt");
         Files.writeString(orderFile, text);
         Path replay = dir.resolve("replay");
-        Result again = run("trace", "--data", "csv:" + csv, "--label", "y", "--l2", "0.01", "--schedule",
+        Cli.Result again = run("trace", "--data", "csv:" + csv, "--label", "y", "--l2", "0.01", "--schedule",
                 "{kind: constant, rate: 0.3}", "--epochs", "4", "--batch", "7", "--sampling", "replacement",
                 "--seed", "5", "--test-fraction", "0", "--no-standardize", "--order", orderFile.toString(), "--dump", replay.toString());
         assertEquals(0, again.code(), again.err());
@@ -161,7 +150,7 @@ class TraceCommandTest {
 
     @Test
     void printsEpochByEpochWithTestMetrics() {
-        Result r = run("trace", "--data", "bundled:wine", "--test-fraction", "0.2", "--standardize", "--schedule",
+        Cli.Result r = run("trace", "--data", "bundled:wine", "--test-fraction", "0.2", "--standardize", "--schedule",
                 "{kind: reciprocal, rate: 0.5, decay: 0.1}", "--epochs", "3", "--batch", "16");
         assertEquals(0, r.code(), r.err());
         String[] lines = r.out().replace("\r\n", "\n").split("\n");
@@ -184,7 +173,7 @@ class TraceCommandTest {
 
     @Test
     void hiddenTakesCommaSeparatedWidthsAndDefaultsToThePlans() {
-        Result r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
+        Cli.Result r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
                 "--hidden", "5,3", "--activation", "tanh", "--schedule", "{kind: constant, rate: 0.1}", "--epochs", "1",
                 "--batch", "8");
         assertEquals(Main.OK, r.code(), r.out() + r.err());
@@ -198,7 +187,7 @@ class TraceCommandTest {
 
     @Test
     void divergedReplicateExitsThree() {
-        Result r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
+        Cli.Result r = run("trace", "--data", "csv:" + resource("binary.csv"), "--label", "y", "--model", "mlp",
                 "--l2", "0", "--schedule", "{kind: constant, rate: 50}", "--epochs", "20", "--batch", "8");
         assertEquals(Main.INCOMPLETE, r.code(), r.out() + r.err());
         assertTrue(r.out().contains("diverged at update "), r.out());
@@ -228,7 +217,7 @@ class TraceCommandTest {
         for (String a : args.split(" ")) {
             argv.add(a.equals("ORDER") ? resource("binary-order.txt").toString() : a);
         }
-        Result r = run(argv.toArray(new String[0]));
+        Cli.Result r = run(argv.toArray(new String[0]));
         assertEquals(Main.BAD_INPUT, r.code(), r.out() + r.err());
         String err = r.err().strip();
         assertEquals(1, err.lines().count(), err);
@@ -246,7 +235,7 @@ class TraceCommandTest {
             text.append(i == 0 ? "" : ",").append(i == 7 ? 40 : i);
         }
         Files.writeString(order, "0" + ",1".repeat(39) + "\n" + text + "\n");
-        Result r = run("trace", "--data", "csv:" + csv, "--label", "y", "--schedule", "{kind: constant, rate: 0.1}",
+        Cli.Result r = run("trace", "--data", "csv:" + csv, "--label", "y", "--schedule", "{kind: constant, rate: 0.1}",
                 "--epochs", "2", "--batch", "8", "--test-fraction", "0", "--order", order.toString());
         assertEquals(Main.BAD_INPUT, r.code());
         assertTrue(r.err().contains("order.txt:2:8: item 8: index 40 is outside the training rows 0..39"), r.err());
