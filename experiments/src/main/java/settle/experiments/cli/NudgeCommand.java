@@ -9,6 +9,7 @@ import java.nio.file.Path;
 import java.util.Locale;
 import java.util.Optional;
 import java.util.concurrent.Callable;
+import picocli.CommandLine.ArgGroup;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
@@ -46,12 +47,20 @@ public final class NudgeCommand implements Callable<Integer> {
     @Option(names = "--arm", required = true, paramLabel = "NAME", description = "the manual arm to nudge")
     String arm;
 
-    @Option(names = "--factor", paramLabel = "F", description = "multiply the arm's rates by F from its next epoch on")
-    Double factor;
+    @ArgGroup(exclusive = true, multiplicity = "1")
+    Change change;
 
-    @Option(names = "--rate", paramLabel = "R", description = "the rate wanted at the first update of the next epoch"
-            + " (stored as the factor that gives it, so later updates follow the base schedule's shape)")
-    Double rate;
+    /** Exactly one of {@code --factor F} and {@code --rate R} (picocli refuses none or both with one line). */
+    static final class Change {
+        @Option(names = "--factor", required = true, paramLabel = "F",
+                description = "multiply the arm's rates by F from its next epoch on")
+        Double factor;
+
+        @Option(names = "--rate", required = true, paramLabel = "R", description = "the rate wanted at the first"
+                + " update of the next epoch (stored as the factor that gives it, so later updates follow the base"
+                + " schedule's shape)")
+        Double rate;
+    }
 
     @Option(names = "--note", paramLabel = "TEXT", description = "recorded with the nudge in nudges.csv")
     String note = "";
@@ -66,9 +75,8 @@ public final class NudgeCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException, InterruptedException {
         PrintWriter out = spec.commandLine().getOut();
-        if ((factor == null) == (rate == null)) {
-            throw BadInputException.of("--factor", "give exactly one of --factor F and --rate R");
-        }
+        Double factor = change.factor;
+        Double rate = change.rate;
         if (factor != null) {
             NudgeRequest.checkPositive("--factor", factor);
         } else {

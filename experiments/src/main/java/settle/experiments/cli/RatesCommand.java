@@ -34,7 +34,7 @@ import settle.input.BadInputException;
 public final class RatesCommand implements Callable<Integer> {
 
     /** Output formats. */
-    enum Format { csv, table }
+    enum Layout { csv, table }
 
     @Spec
     private CommandSpec spec;
@@ -52,7 +52,7 @@ public final class RatesCommand implements Callable<Integer> {
 
     @Option(names = "--format", paramLabel = "csv|table", defaultValue = "table",
             description = "csv or table (default: ${DEFAULT-VALUE})")
-    private Format format;
+    private Layout format;
 
     @Override
     public Integer call() {
@@ -74,7 +74,7 @@ public final class RatesCommand implements Callable<Integer> {
         } catch (BadInputException e) {
             throw BadInputException.of("schedule", "schedule: " + e.getMessage());
         }
-        if (format == Format.csv) {
+        if (format == Layout.csv) {
             out.println("epoch,update,rate");
             long u = 1;
             for (int e = 1; e <= epochs; e++) {

@@ -243,8 +243,9 @@ class ManualArmTest {
             "settle nudge: --factor must be a positive, finite number, got 0.0",
             "settle nudge: --factor must be a positive, finite number, got NaN",
             "settle nudge: --rate must be a positive, finite number, got Infinity",
-            "settle nudge: give exactly one of --factor F and --rate R",
-            "settle nudge: give exactly one of --factor F and --rate R",
+            "settle nudge: --factor=F, --rate=R are mutually exclusive (specify only one) (see 'settle nudge --help')",
+            "settle nudge: Missing required argument (specify one of these): (--factor=F | --rate=R) (see 'settle"
+                    + " nudge --help')",
             "settle nudge: no arm named 'nosuch' in study small (manual arms: 'steered')",
             "settle nudge: arm 'constant' is not manual (manual: false in its plan); only manual arms take nudges",
             "settle nudge: arm 'steered' has finished: every epoch of its replicates has run, so a nudge cannot change it",
