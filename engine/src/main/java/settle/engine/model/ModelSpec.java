@@ -2,7 +2,6 @@ package settle.engine.model;
 
 import java.util.List;
 import java.util.Locale;
-import settle.input.BadInputException;
 
 /**
  * What a plan's {@code model:} block (or the {@code trace}/{@code minimum} options) asks for, validated; it
@@ -33,22 +32,6 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
         public String key() {
             return name().toLowerCase(Locale.ROOT);
         }
-
-        /**
-         * @param text {@code logistic} or {@code mlp} (case-insensitive)
-         * @throws BadInputException naming {@code model.kind} and the accepted values
-         */
-        public static Kind parse(String text) {
-            if (text != null) {
-                for (Kind k : values()) {
-                    if (k.key().equalsIgnoreCase(text.strip())) {
-                        return k;
-                    }
-                }
-            }
-            throw BadInputException.of("model.kind", "model.kind must be logistic or mlp, not "
-                    + BadInputException.shown(String.valueOf(text)));
-        }
     }
 
     /** Validates, fills defaults and copies {@code hidden}. */
@@ -63,7 +46,7 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
             hidden = List.of();
             activation = null;
             if (init == null) {
-                init = Initialisation.ZEROS;
+                init = Initialisation.standard(true);
             }
         } else {
             if (hidden == null || hidden.isEmpty()) {
@@ -80,7 +63,7 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
                 activation = Activation.RELU;
             }
             if (init == null) {
-                init = Initialisation.HE;
+                init = Initialisation.standard(false);
             }
             if (init == Initialisation.REFERENCE) {
                 throw new IllegalArgumentException("model.init: reference needs a convex model (kind logistic); "
@@ -102,21 +85,6 @@ public record ModelSpec(Kind kind, List<Integer> hidden, Activation activation, 
     /** @return the same spec with another start */
     public ModelSpec withInit(Initialisation start) {
         return new ModelSpec(kind, hidden, activation, l2, start);
-    }
-
-    /**
-     * @param text {@code zeros}, {@code reference}, {@code glorot} or {@code he} (case-insensitive)
-     * @throws IllegalArgumentException naming {@code model.init} and the accepted values
-     */
-    public static Initialisation parseInit(String text) {
-        if (text != null) {
-            for (Initialisation i : Initialisation.values()) {
-                if (i.name().equalsIgnoreCase(text.strip())) {
-                    return i;
-                }
-            }
-        }
-        throw BadInputException.of("model.init", "model.init must be zeros, reference, glorot or he: '" + text + "'");
     }
 
     /** @return the plan spelling of an initialisation: zeros, reference, glorot or he */

@@ -1,6 +1,5 @@
 package settle.engine.train;
 
-import settle.input.BadInputException;
 
 /** How an epoch's mini-batches are drawn from the training split (plan key {@code training.sampling}). */
 public enum Sampling {
@@ -18,20 +17,6 @@ public enum Sampling {
     /** @return the name as written in a plan */
     public String key() {
         return key;
-    }
-
-    /**
-     * @param text {@code shuffle} or {@code replacement}
-     * @throws BadInputException naming the key and the accepted values otherwise
-     */
-    public static Sampling parse(String text) {
-        for (Sampling s : values()) {
-            if (s.key.equals(text)) {
-                return s;
-            }
-        }
-        throw BadInputException.of("training.sampling", "sampling must be shuffle or replacement, not "
-                + BadInputException.shown(String.valueOf(text)));
     }
 
     @Override

@@ -68,8 +68,7 @@ public final class Trainer {
         this.test = b.test;
         this.holdout = b.holdout;
         this.reference = b.reference;
-        this.initialisation = b.initialisation != null ? b.initialisation
-                : model.convex() ? Initialisation.ZEROS : Initialisation.HE;
+        this.initialisation = b.initialisation != null ? b.initialisation : Initialisation.standard(model.convex());
         this.updatesPerEpoch = settings.updatesPerEpoch(train.rows());
         long planned = settings.totalUpdates(train.rows());
         if (planned > MAX_UPDATES) {

@@ -49,7 +49,7 @@ class TorchFixtureTest {
             return switch (kind) {
                 case "binary" -> new BinaryLogistic(d, l2);
                 case "softmax" -> new SoftmaxRegression(d, k, l2);
-                default -> new Mlp(d, hidden, Activation.parse(activation), k, l2);
+                default -> new Mlp(d, hidden, Activation.valueOf(activation.toUpperCase(java.util.Locale.ROOT)), k, l2);
             };
         }
     }

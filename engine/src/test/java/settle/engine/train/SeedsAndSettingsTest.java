@@ -9,7 +9,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
-import settle.input.BadInputException;
 
 class SeedsAndSettingsTest {
 
@@ -84,9 +83,6 @@ class SeedsAndSettingsTest {
         assertMessage("training.tail must be in (0, 1]", () -> TrainingSettings.of(1, 1).withTail(0, 5));
         assertMessage("training.tail", () -> TrainingSettings.of(1, 1).withTail(1.5, 5));
         assertMessage("training.snapshots", () -> TrainingSettings.of(1, 1).withTail(0.1, 0));
-        assertEquals("sampling must be shuffle or replacement, not 'bootstrap'",
-                assertThrows(BadInputException.class, () -> Sampling.parse("bootstrap")).getMessage());
-        assertEquals(Sampling.REPLACEMENT, Sampling.parse("replacement"));
     }
 
     @Test

@@ -140,11 +140,6 @@ public final class NudgeQueue {
         return Optional.of(Files.readString(p, StandardCharsets.UTF_8).strip());
     }
 
-    /** @return whether request {@code id} still waits in the queue */
-    public static boolean waiting(Path study, String id) {
-        return Files.exists(folder(study).resolve(id + REQUEST));
-    }
-
     /** Empties the queue (a fresh run), refusals included. */
     public static void clear(Path study) throws IOException {
         Path dir = folder(study);

@@ -3,6 +3,7 @@ package settle.experiments.plan;
 import java.util.Locale;
 import settle.datasets.table.TableOptions;
 import settle.engine.model.Activation;
+import settle.engine.model.Initialisation;
 import settle.engine.model.ModelSpec;
 import settle.engine.train.Sampling;
 import settle.engine.train.TrainingSettings;
@@ -67,7 +68,8 @@ public final class Defaults {
             "| `model.hidden` | [" + HIDDEN + "] (mlp only; ignored with a warning for logistic) | list of layer widths, each 1–" + PlanParser.MAX_WIDTH + " |",
             "| `model.activation` | " + ACTIVATION.key() + " (mlp only; ignored with a warning for logistic) | `relu` / `tanh` |",
             "| `model.l2` | " + text(L2) + " | λ ≥ 0, penalty (λ/2)‖weights‖², biases not penalised |",
-            "| `model.init` | zeros (logistic), he (mlp) | `zeros` / `reference` (logistic only) / `glorot` / `he` |",
+            "| `model.init` | " + ModelSpec.key(Initialisation.standard(true)) + " (logistic), "
+                    + ModelSpec.key(Initialisation.standard(false)) + " (mlp) | `zeros` / `reference` (logistic only) / `glorot` / `he` |",
             "| `training.epochs` | " + EPOCHS + " | passes over the training split, 1–" + TrainingSettings.MAX_EPOCHS + " |",
             "| `training.batch` | " + BATCH + " | examples per update, ≥ 1 |",
             "| `training.sampling` | " + SAMPLING + " | `shuffle` / `replacement` |",

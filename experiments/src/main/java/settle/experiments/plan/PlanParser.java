@@ -264,7 +264,7 @@ public final class PlanParser {
 
     private ModelSpec model(YamlNode.MapNode m) {
         if (m == null) {
-            return new ModelSpec(Defaults.MODEL, List.of(), null, Defaults.L2, Initialisation.ZEROS);
+            return new ModelSpec(Defaults.MODEL, List.of(), null, Defaults.L2, null);
         }
         checkKeys(m, "model", "model", MODEL_KEYS);
         ModelSpec.Kind kind = present(m, "kind")
@@ -288,15 +288,13 @@ public final class PlanParser {
             activation = act;
         }
         double l2 = present(m, "l2") ? number(m, "model", "l2", Range.NON_NEGATIVE) : Defaults.L2;
-        Initialisation init;
+        Initialisation init = null; // left out: the kind's standard start (Initialisation.standard)
         if (present(m, "init")) {
             init = choice(m, "model", "init", Initialisation.class);
             if (init == Initialisation.REFERENCE && kind != ModelSpec.Kind.LOGISTIC) {
                 throw error(value(m, "init"), "model.init", "'reference' starts at the exact minimiser, which "
                         + "exists for convex (logistic) models only; accepted for an mlp: zeros, glorot, he");
             }
-        } else {
-            init = kind == ModelSpec.Kind.LOGISTIC ? Initialisation.ZEROS : Initialisation.HE;
         }
         return new ModelSpec(kind, hidden, activation, l2, init);
     }

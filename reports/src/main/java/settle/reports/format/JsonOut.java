@@ -115,17 +115,4 @@ public final class JsonOut {
         }
     }
 
-    /** A row-major matrix: {@code "key": {rows, columns, values}}, or null for null values. */
-    public static void matrix(JsonGenerator g, String key, int rows, int columns, double[] values) throws IOException {
-        g.writeFieldName(key);
-        if (values == null) {
-            g.writeNull();
-            return;
-        }
-        g.writeStartObject();
-        g.writeNumberField("rows", rows);
-        g.writeNumberField("columns", columns);
-        array(g, "values", values);
-        g.writeEndObject();
-    }
 }
