@@ -154,13 +154,12 @@ public final class ProbeCommand implements Callable<Integer> {
             if (!Double.isFinite(r.upper())) {
                 where = "no suggested range to compare with";
             } else if (max > r.upper()) {
-                where = "above the suggested range (" + num(max / r.upper()) + " × its upper end): at this rate the"
-                        + " sweeps had passed their lowest objective, so check that its first epochs still fall"
-                        + " (settle trace --plan " + word(planFile.toString()) + " --arm " + word(a.name())
-                        + " --replicate 1)";
+                where = "above the suggested range (" + ProbePage.times(max / r.upper()) + " × its upper end):"
+                        + " past the sweeps' lowest objective; see that its first epochs fall with settle trace --plan "
+                        + word(planFile.toString()) + " --arm " + word(a.name()) + " --replicate 1";
             } else if (max < r.lower()) {
-                where = "below the suggested range (" + num(r.lower() / max) + " × below its lower end): the"
-                        + " sweeps had made less than half their fall by this rate, so expect a slow start";
+                where = "below the suggested range (its lower end is " + ProbePage.times(r.lower() / max) + " ×"
+                        + " this): the sweeps had made less than half their fall by this rate; expect a slow start";
             } else {
                 where = "inside the suggested range";
             }

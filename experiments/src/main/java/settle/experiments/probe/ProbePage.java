@@ -160,7 +160,15 @@ public final class ProbePage {
                 }
             }
         }
-        double xHigh = Double.isFinite(r.stabilityBound()) ? Math.max(r.to(), r.stabilityBound()) : r.to();
+        // the axis ends at the largest rate a sweep reached (and the bound, where known), not at --to, which the
+        // sweeps rarely reach: decades no sweep tried would only squeeze the curves
+        double reached = r.from();
+        for (RangeTest.Sweep s : r.sweeps()) {
+            for (double rate : s.rates()) {
+                reached = Math.max(reached, rate);
+            }
+        }
+        double xHigh = Double.isFinite(r.stabilityBound()) ? Math.max(reached, r.stabilityBound()) : reached;
         Axis x = Axis.log(r.from(), Math.min(xHigh, r.from() * 1e11), "rate");
         Axis y = Axis.linear(Math.min(0, low), top, "training objective F");
         SvgChart c = new SvgChart(w, "probe-chart", "chart", WIDTH, HEIGHT, LEFT, x, y,
@@ -235,6 +243,12 @@ public final class ProbePage {
         }
         w.close("tbody");
         w.close("table").newline();
+    }
+
+    /** @return a ratio to two significant digits ("1.3", "15", "250") for the plan's arms against the range */
+    public static String times(double ratio) {
+        return Double.isFinite(ratio) ? new BigDecimal(ratio).round(new MathContext(2)).stripTrailingZeros()
+                .toPlainString() : "—";
     }
 
     /**

@@ -112,11 +112,11 @@ class ProbeTest {
         Probe.Result r = check("bundled:wdbc", "  epochs: 20\n  batch: 32\n");
         // the plan's arms at 0.01 and 5 lie either side of the range (0.01895 to 4.886 when measured)
         assertTrue(0.01 < r.lower() && r.upper() < 5, r.lower() + " to " + r.upper());
-        assertTrue(printed.contains("arm #1 '<b>small & slow': largest planned rate 0.01, below the suggested range ("
-                + ProbePage.num(r.lower() / 0.01) + " × below its lower end)"), printed);
+        assertTrue(printed.contains("arm #1 '<b>small & slow': largest planned rate 0.01, below the suggested range"
+                + " (its lower end is " + ProbePage.times(r.lower() / 0.01) + " × this)"), printed);
         assertTrue(printed.contains("arm #2 'big': largest planned rate 5, above the suggested range ("
-                + ProbePage.num(5 / r.upper()) + " × its upper end)"), printed);
-        assertTrue(printed.contains("(settle trace --plan " + dir.resolve("probed.yaml") + " --arm big --replicate 1)"),
+                + ProbePage.times(5 / r.upper()) + " × its upper end)"), printed);
+        assertTrue(printed.contains("with settle trace --plan " + dir.resolve("probed.yaml") + " --arm big --replicate 1\n"),
                 printed);
     }
 
@@ -131,6 +131,9 @@ class ProbeTest {
         assertEquals("0.001", ProbePage.num(0.001));
         assertEquals("0", ProbePage.num(0));
         assertEquals("—", ProbePage.num(Double.NaN));
+        assertEquals("1.3", ProbePage.times(1.316));
+        assertEquals("15", ProbePage.times(15.2));
+        assertEquals("250", ProbePage.times(248));
     }
 
     @Test
