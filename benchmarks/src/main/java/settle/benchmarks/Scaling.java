@@ -13,6 +13,7 @@ import java.util.concurrent.Future;
 import settle.datasets.Dataset;
 import settle.engine.train.ReplicateResult;
 import settle.engine.train.ReplicateSeeds;
+import settle.engine.train.Sampling;
 import settle.engine.train.Trainer;
 import settle.engine.train.TrainingSettings;
 
@@ -76,9 +77,9 @@ public final class Scaling {
         System.exit(2);
     }
 
-    /** A study-like trainer: the plan's default tail (τ = 0.1, 50 snapshots), shuffle, no momentum. */
+    /** A study-like trainer: a plan's default tail (τ = 0.1, 50 snapshots: plan.Defaults), shuffle, no momentum. */
     private static Trainer studyTrainer(Workload w, Dataset data) {
-        TrainingSettings settings = TrainingSettings.of(w.epochs(), w.batch());
+        TrainingSettings settings = new TrainingSettings(w.epochs(), w.batch(), Sampling.SHUFFLE, 0.0, 0.1, 50, false);
         return Trainer.builder(w.model(), data, w.schedule(), settings).build();
     }
 

@@ -19,11 +19,6 @@ import java.util.Objects;
 public record TrainingSettings(int epochs, int batch, Sampling sampling, double momentum, double tail, int snapshots,
         boolean averageTail) {
 
-    /** The plan's defaults: shuffle, no momentum, tail 0.1, 50 snapshots, no averaging. */
-    public static final double DEFAULT_TAIL = 0.1;
-    /** Default number of tail snapshots. */
-    public static final int DEFAULT_SNAPSHOTS = 50;
-
     /** Largest number of epochs a run may ask for. */
     public static final int MAX_EPOCHS = 1_000_000;
 
@@ -45,11 +40,6 @@ public record TrainingSettings(int epochs, int batch, Sampling sampling, double 
         if (snapshots < 1) {
             throw new IllegalArgumentException("training.snapshots must be an integer ≥ 1: " + snapshots);
         }
-    }
-
-    /** @return settings with the plan's defaults for everything but epochs and batch */
-    public static TrainingSettings of(int epochs, int batch) {
-        return new TrainingSettings(epochs, batch, Sampling.SHUFFLE, 0.0, DEFAULT_TAIL, DEFAULT_SNAPSHOTS, false);
     }
 
     /** @return a copy with another sampling mode */

@@ -51,7 +51,7 @@ class ArmGroupTest {
     @Test
     void binaryLogisticArmsTogetherAreTheArmsAlone() {
         Model model = new BinaryLogistic(5, 0.01);
-        TrainingSettings plain = TrainingSettings.of(12, 8);
+        TrainingSettings plain = TrainSupport.settings(12, 8);
         assertSame(model, binary, holdoutBinary, plain);
         assertSame(model, binary, holdoutBinary, plain.withMomentum(0.9).withAverageTail(true));
         assertSame(model, binary, holdoutBinary, plain.withSampling(Sampling.REPLACEMENT).withTail(0.5, 7));
@@ -60,7 +60,7 @@ class ArmGroupTest {
     @Test
     void softmaxArmsTogetherAreTheArmsAlone() {
         Model model = new SoftmaxRegression(4, 3, 0.01);
-        TrainingSettings plain = TrainingSettings.of(10, 16);
+        TrainingSettings plain = TrainSupport.settings(10, 16);
         assertSame(model, threeClasses, holdoutThree, plain);
         assertSame(model, threeClasses, holdoutThree, plain.withAverageTail(true).withMomentum(0.5));
     }
@@ -68,18 +68,18 @@ class ArmGroupTest {
     @Test
     void mlpArmsTogetherAreTheArmsAlone() {
         Model model = new Mlp(4, new int[] {16}, Activation.RELU, 3, 0.001);
-        assertSame(model, threeClasses, holdoutThree, TrainingSettings.of(8, 10));
-        assertSame(model, threeClasses, holdoutThree, TrainingSettings.of(8, 10).withAverageTail(true));
+        assertSame(model, threeClasses, holdoutThree, TrainSupport.settings(8, 10));
+        assertSame(model, threeClasses, holdoutThree, TrainSupport.settings(8, 10).withAverageTail(true));
     }
 
     @Test
     void armsThatDrawOtherBatchesAreNotGrouped() {
         Model model = new BinaryLogistic(5, 0.01);
         Schedule s = Schedules(SCHEDULES.get(0));
-        Trainer a = Trainer.builder(model, binary, s, TrainingSettings.of(5, 8)).build();
-        Trainer b = Trainer.builder(model, binary, s, TrainingSettings.of(5, 16)).build();
-        Trainer c = Trainer.builder(model, binary, s, TrainingSettings.of(5, 8).withSampling(Sampling.REPLACEMENT)).build();
-        Trainer d = Trainer.builder(model, binary, s, TrainingSettings.of(5, 8).withMomentum(0.5)).build();
+        Trainer a = Trainer.builder(model, binary, s, TrainSupport.settings(5, 8)).build();
+        Trainer b = Trainer.builder(model, binary, s, TrainSupport.settings(5, 16)).build();
+        Trainer c = Trainer.builder(model, binary, s, TrainSupport.settings(5, 8).withSampling(Sampling.REPLACEMENT)).build();
+        Trainer d = Trainer.builder(model, binary, s, TrainSupport.settings(5, 8).withMomentum(0.5)).build();
         assertFalse(ArmGroup.shareBatches(a, b));
         assertFalse(ArmGroup.shareBatches(a, c));
         assertTrue(ArmGroup.shareBatches(a, d));

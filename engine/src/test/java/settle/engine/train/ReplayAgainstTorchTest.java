@@ -53,7 +53,7 @@ class ReplayAgainstTorchTest {
             case "update-decay" -> TrainSupport.schedule("kind", "reciprocal", "rate", 0.2, "decay", 0.05, "per", "update");
             default -> throw new IllegalArgumentException(kind);
         };
-        TrainingSettings settings = TrainingSettings.of(EPOCHS, BATCH).withMomentum(Double.parseDouble(momentum));
+        TrainingSettings settings = TrainSupport.settings(EPOCHS, BATCH).withMomentum(Double.parseDouble(momentum));
         Trainer trainer = Trainer.builder(model, train, schedule, settings)
                 .start(TrainSupport.vector(DIR + data + "-start.txt"))
                 .orders(TrainSupport.orders(DIR + data + "-order.txt"))

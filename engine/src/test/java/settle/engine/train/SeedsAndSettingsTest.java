@@ -78,16 +78,16 @@ class SeedsAndSettingsTest {
         assertMessage("training.epochs must be an integer in 1..1000000", () -> new TrainingSettings(
                 TrainingSettings.MAX_EPOCHS + 1, 8, Sampling.SHUFFLE, 0, 0.1, 5, false));
         assertMessage("training.batch", () -> new TrainingSettings(1, 0, Sampling.SHUFFLE, 0, 0.1, 5, false));
-        assertMessage("training.momentum must be in [0, 1)", () -> TrainingSettings.of(1, 1).withMomentum(1.0));
-        assertMessage("training.momentum", () -> TrainingSettings.of(1, 1).withMomentum(Double.NaN));
-        assertMessage("training.tail must be in (0, 1]", () -> TrainingSettings.of(1, 1).withTail(0, 5));
-        assertMessage("training.tail", () -> TrainingSettings.of(1, 1).withTail(1.5, 5));
-        assertMessage("training.snapshots", () -> TrainingSettings.of(1, 1).withTail(0.1, 0));
+        assertMessage("training.momentum must be in [0, 1)", () -> TrainSupport.settings(1, 1).withMomentum(1.0));
+        assertMessage("training.momentum", () -> TrainSupport.settings(1, 1).withMomentum(Double.NaN));
+        assertMessage("training.tail must be in (0, 1]", () -> TrainSupport.settings(1, 1).withTail(0, 5));
+        assertMessage("training.tail", () -> TrainSupport.settings(1, 1).withTail(1.5, 5));
+        assertMessage("training.snapshots", () -> TrainSupport.settings(1, 1).withTail(0.1, 0));
     }
 
     @Test
     void updatesPerEpochIsTheCeiling() {
-        TrainingSettings s = TrainingSettings.of(3, 8);
+        TrainingSettings s = TrainSupport.settings(3, 8);
         assertEquals(6, s.updatesPerEpoch(45)); // ⌈45/8⌉ = 6
         assertEquals(5, s.updatesPerEpoch(40)); // 40/8 = 5
         assertEquals(1, s.updatesPerEpoch(3));  // a batch larger than N: one update

@@ -24,6 +24,11 @@ final class TrainSupport {
     private TrainSupport() {
     }
 
+    /** @return settings for a test run of {@code epochs} × batch {@code batch}: shuffle, no momentum, tail 0.1, 50 snapshots */
+    static TrainingSettings settings(int epochs, int batch) {
+        return new TrainingSettings(epochs, batch, Sampling.SHUFFLE, 0.0, 0.1, 50, false);
+    }
+
     /** @return the schedule of a map given as alternating keys and values, e.g. ("kind", "constant", "rate", 0.1) */
     static Schedule schedule(Object... keysAndValues) {
         Map<String, Object> map = new LinkedHashMap<>();

@@ -40,7 +40,7 @@ class TrainerTest {
 
     @Test
     void replicateKOfEveryArmSharesStartAndOrder() {
-        TrainingSettings settings = TrainingSettings.of(4, 8);
+        TrainingSettings settings = TrainSupport.settings(4, 8);
         BatchSpy constantSpy = new BatchSpy(new BinaryLogistic(3, 0.01), binary);
         BatchSpy decaySpy = new BatchSpy(new BinaryLogistic(3, 0.01), binary);
         BatchSpy otherSpy = new BatchSpy(new BinaryLogistic(3, 0.01), binary);
@@ -62,7 +62,7 @@ class TrainerTest {
 
     @Test
     void rerunsAreBitIdentical() {
-        TrainingSettings settings = TrainingSettings.of(5, 7).withMomentum(0.3);
+        TrainingSettings settings = TrainSupport.settings(5, 7).withMomentum(0.3);
         Trainer trainer = Trainer.builder(new SoftmaxRegression(4, 3, 0.01), threeClasses, DECAY, settings)
                 .test(TrainSupport.gaussianClasses(30, 4, 3, 13)).build();
         ReplicateResult first = trainer.run(ReplicateSeeds.derive(5, 3));
@@ -81,7 +81,7 @@ class TrainerTest {
     @Test
     void explicitOrdersEqualToTheSampledOnesReproduceTheRun() {
         for (Sampling sampling : Sampling.values()) {
-            TrainingSettings settings = TrainingSettings.of(3, 8).withSampling(sampling).withMomentum(0.9);
+            TrainingSettings settings = TrainSupport.settings(3, 8).withSampling(sampling).withMomentum(0.9);
             ReplicateSeeds seeds = ReplicateSeeds.derive(42, 4);
             Model model = new BinaryLogistic(3, 0.001);
             ReplicateResult sampled = Trainer.builder(model, binary, DECAY, settings).build().run(seeds);
@@ -95,7 +95,7 @@ class TrainerTest {
     @Test
     void shuffleVisitsEachRowOnceAndReplacementDrawsFullBatches() {
         // N = 45, B = 8: ⌈45/8⌉ = 6 updates per epoch in both modes; shuffle's last batch has 45 − 40 = 5 rows
-        TrainingSettings settings = TrainingSettings.of(2, 8);
+        TrainingSettings settings = TrainSupport.settings(2, 8);
         BatchSpy shuffle = new BatchSpy(new BinaryLogistic(3, 0.01), binary);
         ReplicateResult s = Trainer.builder(shuffle, binary, CONSTANT, settings).build().run(ReplicateSeeds.derive(1, 1));
         assertEquals(12, s.rates().length);
@@ -145,12 +145,12 @@ class TrainerTest {
         Dataset one = new Dataset("one row", new double[] {1.0}, new int[] {1}, List.of("x"), List.of("0", "1"));
         Schedule unit = TrainSupport.schedule("kind", "constant", "rate", 1.0);
         double sigmoidOne = 1 / (1 + Math.exp(-1));
-        ReplicateResult plain = Trainer.builder(new BinaryLogistic(1, 0), one, unit, TrainingSettings.of(2, 1))
+        ReplicateResult plain = Trainer.builder(new BinaryLogistic(1, 0), one, unit, TrainSupport.settings(2, 1))
                 .build().run(ReplicateSeeds.derive(1, 1));
         double expectedPlain = 0.5 + (1 - sigmoidOne);
         assertArrayEquals(new double[] {expectedPlain, expectedPlain}, plain.last(), HAND_TOLERANCE);
         ReplicateResult heavy = Trainer.builder(new BinaryLogistic(1, 0), one, unit,
-                TrainingSettings.of(2, 1).withMomentum(0.5)).build().run(ReplicateSeeds.derive(1, 1));
+                TrainSupport.settings(2, 1).withMomentum(0.5)).build().run(ReplicateSeeds.derive(1, 1));
         double expectedHeavy = 0.5 + 0.25 + (1 - sigmoidOne);
         assertArrayEquals(new double[] {expectedHeavy, expectedHeavy}, heavy.last(), HAND_TOLERANCE);
     }
@@ -161,7 +161,7 @@ class TrainerTest {
      */
     @Test
     void divergenceStopsTheReplicate() {
-        TrainingSettings settings = TrainingSettings.of(20, 8);
+        TrainingSettings settings = TrainSupport.settings(20, 8);
         Schedule large = TrainSupport.schedule("kind", "constant", "rate", 3.0);
         ReplicateResult r = Trainer.builder(new BinaryLogistic(3, 1.0), binary, large, settings).build()
                 .run(ReplicateSeeds.derive(3, 1));
@@ -188,7 +188,7 @@ class TrainerTest {
         // ReLU MLP, He start: at rate 50 the first updates blow the logits up, so the cross-entropy of a batch
         // passes 1e6·F(θ₀) (≈ 0.7·1e6) or overflows; the same net at rate 0.05 trains to the end
         Model mlp = new Mlp(3, new int[] {16}, Activation.RELU, 2, 0.0);
-        TrainingSettings settings = TrainingSettings.of(30, 5);
+        TrainingSettings settings = TrainSupport.settings(30, 5);
         ReplicateResult r = Trainer.builder(mlp, binary, TrainSupport.schedule("kind", "constant", "rate", 50.0),
                 settings).build().run(ReplicateSeeds.derive(4, 1));
         assertTrue(r.diverged(), "status " + r.status());
@@ -211,7 +211,7 @@ class TrainerTest {
     void snapshotObjectivesEvaluatedAfterTrainingAreFAtEachSnapshot() {
         // the binary model has no gauge, so the stored snapshots are the raw iterates F was evaluated at
         Model model = new BinaryLogistic(3, 0.01);
-        TrainingSettings settings = TrainingSettings.of(6, 4).withTail(0.5, 9);
+        TrainingSettings settings = TrainSupport.settings(6, 4).withTail(0.5, 9);
         ReplicateResult r = Trainer.builder(model, binary, CONSTANT, settings).build().run(ReplicateSeeds.derive(3, 1));
         Wander w = r.wander();
         int k = w.tail().snapshots();
@@ -238,12 +238,12 @@ class TrainerTest {
     @Test
     void tailMetricsAreTheirDefinitionsOverEveryTailIterate() {
         Model model = new SoftmaxRegression(4, 3, 0.01);
-        double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainingSettings.of(30, 60)).build()
+        double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainSupport.settings(30, 60)).build()
                 .run(ReplicateSeeds.derive(1, 9)).last();
         model.removeGauge(point);
         ReferencePoint reference = new ReferencePoint(point, new FullBatch(model, threeClasses).objective(point));
         BatchSpy spy = new BatchSpy(model, threeClasses);
-        TrainingSettings settings = TrainingSettings.of(10, 6).withTail(0.3, 7);
+        TrainingSettings settings = TrainSupport.settings(10, 6).withTail(0.3, 7);
         ReplicateResult r = Trainer.builder(spy, threeClasses, CONSTANT, settings).reference(reference).build()
                 .run(ReplicateSeeds.derive(1, 2));
         Wander w = r.wander();
@@ -283,9 +283,9 @@ class TrainerTest {
     void tailMetricsDoNotDependOnTheSnapshotCount() {
         Model model = new SoftmaxRegression(4, 3, 0.01);
         ReferencePoint reference = new ReferencePoint(new double[model.parameterCount()], 1.0);
-        ReplicateResult ten = Trainer.builder(model, threeClasses, DECAY, TrainingSettings.of(10, 6).withTail(0.4, 10))
+        ReplicateResult ten = Trainer.builder(model, threeClasses, DECAY, TrainSupport.settings(10, 6).withTail(0.4, 10))
                 .reference(reference).build().run(ReplicateSeeds.derive(6, 2));
-        ReplicateResult many = Trainer.builder(model, threeClasses, DECAY, TrainingSettings.of(10, 6).withTail(0.4, 37))
+        ReplicateResult many = Trainer.builder(model, threeClasses, DECAY, TrainSupport.settings(10, 6).withTail(0.4, 37))
                 .reference(reference).build().run(ReplicateSeeds.derive(6, 2));
         Wander a = ten.wander();
         Wander b = many.wander();
@@ -306,12 +306,12 @@ class TrainerTest {
         // θ* here is any fixed gauge-free point: (1/L)Σ‖x_t − θ*‖² = radius² + ‖x̄ − θ*‖² over the gauge-free tail
         // iterates x_t is algebra, and x̄ is the projection of θ̄ (the projection is linear)
         Model model = new SoftmaxRegression(4, 3, 0.01);
-        double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainingSettings.of(30, 60)).build()
+        double[] point = Trainer.builder(model, threeClasses, CONSTANT, TrainSupport.settings(30, 60)).build()
                 .run(ReplicateSeeds.derive(1, 9)).last();
         model.removeGauge(point);
         double objective = new FullBatch(model, threeClasses).objective(point);
         ReferencePoint reference = new ReferencePoint(point, objective);
-        TrainingSettings settings = TrainingSettings.of(10, 6).withTail(0.3, 7);
+        TrainingSettings settings = TrainSupport.settings(10, 6).withTail(0.3, 7);
         ReplicateResult r = Trainer.builder(model, threeClasses, CONSTANT, settings).reference(reference).build()
                 .run(ReplicateSeeds.derive(1, 2));
         Wander w = r.wander();
@@ -353,7 +353,7 @@ class TrainerTest {
         }
         double[] point = new double[model.parameterCount()];
         ReferencePoint reference = new ReferencePoint(point, 1.0);
-        TrainingSettings settings = TrainingSettings.of(3, 10);
+        TrainingSettings settings = TrainSupport.settings(3, 10);
         ReplicateResult a = Trainer.builder(model, threeClasses, DECAY, settings).start(start).reference(reference)
                 .build().run(ReplicateSeeds.derive(2, 1));
         ReplicateResult b = Trainer.builder(model, threeClasses, DECAY, settings).start(shifted).reference(reference)
@@ -371,7 +371,7 @@ class TrainerTest {
         Dataset test = TrainSupport.gaussianClasses(30, 4, 3, 14);
         Model model = new SoftmaxRegression(4, 3, 0.01);
         BatchSpy spy = new BatchSpy(model, threeClasses);
-        TrainingSettings settings = TrainingSettings.of(6, 10).withTail(0.5, 5).withAverageTail(true);
+        TrainingSettings settings = TrainSupport.settings(6, 10).withTail(0.5, 5).withAverageTail(true);
         ReplicateResult r = Trainer.builder(spy, threeClasses, CONSTANT, settings).test(test).build()
                 .run(ReplicateSeeds.derive(8, 1));
         FullBatch onTrain = new FullBatch(model, threeClasses);
@@ -406,7 +406,7 @@ class TrainerTest {
                 TrainSupport.schedule("kind", "formula", "expr", "0.1 * epoch + 0.001 * update"));
         Dataset holdout = TrainSupport.gaussianClasses(20, 3, 2, 15);
         List<EpochRecord> streamed = new ArrayList<>();
-        ReplicateResult r = Trainer.builder(new BinaryLogistic(3, 0.01), binary, recording, TrainingSettings.of(4, 8))
+        ReplicateResult r = Trainer.builder(new BinaryLogistic(3, 0.01), binary, recording, TrainSupport.settings(4, 8))
                 .holdout(holdout).build().run(ReplicateSeeds.derive(1, 1), streamed::add);
         assertEquals(r.epochs(), streamed);
         assertEquals(List.of(new RunShape(4, 6)), recording.shapes);
@@ -431,7 +431,7 @@ class TrainerTest {
     @Test
     void inputsThatDoNotFitAreRefused() {
         Model model = new BinaryLogistic(3, 0.01);
-        TrainingSettings settings = TrainingSettings.of(2, 8);
+        TrainingSettings settings = TrainSupport.settings(2, 8);
         assertMessage("starting parameters: 3 values", () -> Trainer.builder(model, binary, CONSTANT, settings)
                 .start(new double[3]).build());
         assertMessage("order: 1 epoch lines for 2 epochs", () -> Trainer.builder(model, binary, CONSTANT, settings)

@@ -12,7 +12,8 @@ import settle.engine.train.TrainingSettings;
  * The one table of defaults: what a plan key left out means ({@link PlanParser} reads these), what a command-line
  * option left out means ({@code settle trace} and {@code settle minimum} read them through
  * {@link #option(String)}), and the table docs/plans.md and the README print ({@link #TABLE}, which a test compares
- * with both). The tail's two defaults are the trainer's own ({@link TrainingSettings}), read from there.
+ * with both). The engine has no defaults of its own: {@link TrainingSettings} and the models take every value
+ * from here (a model's start left out is {@code Initialisation.standard}, one rule of the model's kind).
  */
 public final class Defaults {
 
@@ -42,10 +43,10 @@ public final class Defaults {
     public static final Sampling SAMPLING = Sampling.SHUFFLE;
     /** {@code training.momentum}: plain SGD. */
     public static final double MOMENTUM = 0.0;
-    /** {@code training.tail}, the tail fraction τ. */
-    public static final double TAIL = TrainingSettings.DEFAULT_TAIL;
+    /** {@code training.tail}, the tail fraction τ: the last tenth of the updates. */
+    public static final double TAIL = 0.1;
     /** {@code training.snapshots}, the tail snapshots K. */
-    public static final int SNAPSHOTS = TrainingSettings.DEFAULT_SNAPSHOTS;
+    public static final int SNAPSHOTS = 50;
 
     /** The plan keys, their defaults and what is accepted, as a markdown table. */
     public static final String TABLE = String.join("\n",

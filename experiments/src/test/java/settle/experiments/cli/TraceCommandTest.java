@@ -116,7 +116,8 @@ class TraceCommandTest {
                 "--seed", "77", "--test-fraction", "0", "--no-standardize", "--dump", dir.toString());
         assertEquals(0, r.code(), r.err());
         Dataset data = DataSources.load("csv:" + csv, "y", null);
-        TrainingSettings settings = TrainingSettings.of(4, 7).withSampling(Sampling.REPLACEMENT);
+        TrainingSettings settings = new TrainingSettings(4, 7, Sampling.REPLACEMENT, Defaults.MOMENTUM, Defaults.TAIL,
+                Defaults.SNAPSHOTS, false);
         ReplicateResult expected = Trainer.builder(new BinaryLogistic(3, 0.01), data,
                 Schedules.parse(java.util.Map.of("kind", "constant", "rate", 0.3)), settings).build()
                 .run(ReplicateSeeds.derive(77, 1));
