@@ -91,12 +91,12 @@ class MinimumCommandTest {
         Files.writeString(mlp, String.join("\n", "study: m", "data:", "  source: bundled:wine",
                 "model: {kind: mlp, hidden: [4]}", "arms:", "  - name: a", "    schedule: {kind: constant, rate: 0.1}",
                 ""));
-        Result r = run("minimum", "--plan", mlp.toString());
+        Cli.Result r = run("minimum", "--plan", mlp.toString());
         assertEquals(2, r.code(), r.out() + r.err());
         assertEquals(mlp + ":4:15: model.kind: mlp has no exact minimiser; settle minimum accepts logistic",
                 r.err().strip());
 
-        Result both = run("minimum", "--plan", mlp.toString(), "--data", "bundled:wine");
+        Cli.Result both = run("minimum", "--plan", mlp.toString(), "--data", "bundled:wine");
         assertEquals(2, both.code());
         assertTrue(both.err().contains("mutually exclusive"), both.err());
     }
@@ -104,7 +104,7 @@ class MinimumCommandTest {
     @Test
     void aTableWithGapsUnderDataSaysThatItsKeysGoInAPlan() {
         // the bundled votes have gaps, which --data (every data key at its default) refuses
-        Result r = run("minimum", "--data", "bundled:housevotes84");
+        Cli.Result r = run("minimum", "--data", "bundled:housevotes84");
         assertEquals(2, r.code(), r.out() + r.err());
         assertEquals(1, r.err().strip().lines().count(), r.err());
         assertTrue(r.err().startsWith("settle minimum: bundled:housevotes84: missing cells"), r.err());
