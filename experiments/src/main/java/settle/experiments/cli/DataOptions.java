@@ -4,9 +4,9 @@ import picocli.CommandLine.Option;
 import settle.input.BadInputException;
 
 /**
- * The data options {@code settle trace} and {@code settle minimum} share (a picocli mixin): where the rows come
- * from, the label, the penalty λ and standardisation. Defaults are the plan's ({@link OptionDefaults}). Trace's
- * data form extends it (picocli takes no mixin inside an argument group).
+ * The data options {@code settle trace --data} and {@code settle minimum --data} share: where the rows come from,
+ * the label, the penalty λ and standardisation. Defaults are the plan's ({@link OptionDefaults}). The data form of
+ * each command extends it (picocli takes no mixin inside an argument group).
  */
 class DataOptions {
 
