@@ -40,8 +40,22 @@ public final class NoiseBallTheory {
     private final int p;
     private final double noiseScale;     // max |C̃_ij|
     private final double[] diagonal;     // C̃_ii
+    /** The terms beyond first order (binary logistic regression), or null. */
+    private final SecondOrder secondOrder;
+
+    private NoiseBallTheory(NoiseBallTheory first, SecondOrder secondOrder) {
+        this.basis = first.basis;
+        this.lambda = first.lambda;
+        this.noise = first.noise;
+        this.examples = first.examples;
+        this.p = first.p;
+        this.noiseScale = first.noiseScale;
+        this.diagonal = first.diagonal;
+        this.secondOrder = secondOrder;
+    }
 
     private NoiseBallTheory(EigenBasis basis, double[] covariance, int examples) {
+        this.secondOrder = null;
         this.basis = basis;
         this.p = basis.dimension();
         if (examples < 1) {
@@ -141,6 +155,37 @@ public final class NoiseBallTheory {
         return new NoiseBallTheory(basis, covariance, examples);
     }
 
+    /**
+     * @param terms the terms beyond first order of the same problem ({@link SecondOrder#binaryLogistic})
+     * @return this theory with them: {@link #predict} adds them for SGD without momentum
+     */
+    public NoiseBallTheory withSecondOrder(SecondOrder terms) {
+        if (terms.dimension() != p) {
+            throw new IllegalArgumentException("second-order terms of dimension " + terms.dimension() + " for P = " + p);
+        }
+        return new NoiseBallTheory(this, terms);
+    }
+
+    /** @return the first-order theory alone (this one when it has no second-order terms) */
+    public NoiseBallTheory firstOrder() {
+        return secondOrder == null ? this : new NoiseBallTheory(this, null);
+    }
+
+    /** @return true when {@link #predict} adds the second-order terms (without momentum) */
+    public boolean hasSecondOrder() {
+        return secondOrder != null;
+    }
+
+    /** @return C̃ = Qᵀ C Q, row-major P×P: the array itself, not to be modified */
+    double[] noiseView() {
+        return noise;
+    }
+
+    /** @return H's eigenvalues with flat ones set to 0: the array itself, not to be modified */
+    double[] eigenvaluesView() {
+        return lambda;
+    }
+
     /** @return H's eigen-decomposition, ascending */
     public EigenBasis basis() {
         return basis;
@@ -208,6 +253,8 @@ public final class NoiseBallTheory {
         BatchSampling sampling = updates.sampling();
         Recursion recursion = new Recursion(lambda, diagonal, examples, beta, sampling);
         recursion.start(rotateIn(initialOffset));
+        // the terms beyond first order: derived without momentum only
+        SecondOrder.Run second = secondOrder != null && beta == 0.0 ? secondOrder.start(sampling) : null;
         double top = Math.max(0.0, lambda[p - 1]);
         double limit = 2.0 * (1.0 + beta);
         double[] epochDistance = new double[updates.epochs()];
@@ -234,25 +281,31 @@ public final class NoiseBallTheory {
                     unstableProduct = product;
                 } else {
                     recursion.step(a, checkBatch(updates.batch(t), t));
-                    if (!Double.isFinite(recursion.distance()) || !Double.isFinite(recursion.loss())) {
+                    if (second != null) {
+                        second.step(a, updates.batch(t));
+                    }
+                    if (!Double.isFinite(distance(recursion, second)) || !Double.isFinite(loss(recursion, second))) {
                         unstableFrom = t + 1;
                         unstableProduct = product;
                     } else if (t >= tailFrom) {
-                        tail.update(recursion);
+                        tail.update(recursion, second);
                     }
                 }
             }
             if (perUpdate != null) {
-                perUpdate[t] = unstableFrom == 0 ? recursion.distance() : Double.NaN;
+                perUpdate[t] = unstableFrom == 0 ? distance(recursion, second) : Double.NaN;
             }
             if (nextEpoch < epochDistance.length && updates.epochEnd(nextEpoch) == t + 1) {
                 if (unstableFrom == 0) {
-                    epochDistance[nextEpoch] = recursion.distance();
-                    epochLoss[nextEpoch] = recursion.loss();
+                    epochDistance[nextEpoch] = distance(recursion, second);
+                    epochLoss[nextEpoch] = loss(recursion, second);
                     if (t >= tailFrom) {
-                        tail.epochEnd(recursion);
+                        tail.epochEnd(distance(recursion, second));
                     }
                     recursion.endEpoch();
+                    if (second != null) {
+                        second.endEpoch();
+                    }
                 }
                 nextEpoch++;
             }
@@ -263,7 +316,8 @@ public final class NoiseBallTheory {
         }
         FixedPoint fixed = fixedPoint(updates.rate(steps - 1), nominal, sampling, beta);
         PredictionKind kind = PredictionKind.of(objective);
-        String label = PredictionKind.label(objective, sampling, beta);
+        String label = PredictionKind.label(objective, sampling, beta, second != null,
+                secondOrder != null && second == null);
         double bound = stabilityBound(beta);
         if (unstableFrom != 0) {
             return NoiseBallPrediction.unstable(kind, label, sampling, beta, epochDistance, epochLoss, tailUpdates,
@@ -272,8 +326,8 @@ public final class NoiseBallTheory {
         return new NoiseBallPrediction(true, "", kind, label, sampling, beta, bound, worst, 0, Double.NaN,
                 epochDistance, epochLoss, tailUpdates, tail.distance / tailUpdates, tailEpochEnds,
                 tailEpochEnds == 0 ? Double.NaN : tail.epochEndDistance / tailEpochEnds, tail.loss / tailUpdates,
-                tail.bias / tailUpdates, tail.ball / tailUpdates, recursion.distance(), recursion.loss(),
-                recursion.bias(), recursion.ball(), fixed);
+                tail.bias / tailUpdates, tail.ball / tailUpdates, distance(recursion, second), loss(recursion, second),
+                recursion.bias(), recursion.ball() + (second == null ? 0.0 : second.distance()), fixed);
     }
 
     /** Sums over the tail's updates and over its epoch ends. */
@@ -284,16 +338,28 @@ public final class NoiseBallTheory {
         double ball;
         double epochEndDistance;
 
-        void update(Recursion r) {
-            distance += r.distance();
-            loss += r.loss();
+        void update(Recursion r, SecondOrder.Run s) {
+            distance += NoiseBallTheory.distance(r, s);
+            loss += NoiseBallTheory.loss(r, s);
             bias += r.bias();
-            ball += r.ball();
+            ball += r.ball() + (s == null ? 0.0 : s.distance());
         }
 
-        void epochEnd(Recursion r) {
-            epochEndDistance += r.distance();
+        void epochEnd(double d) {
+            epochEndDistance += d;
         }
+    }
+
+    /**
+     * E‖θ − θ*‖²: first order, plus the second-order terms when they are computed. They count in the ball: they are
+     * kept up by the noise, not left over from the start.
+     */
+    private static double distance(Recursion r, SecondOrder.Run s) {
+        return s == null ? r.distance() : r.distance() + s.distance();
+    }
+
+    private static double loss(Recursion r, SecondOrder.Run s) {
+        return s == null ? r.loss() : r.loss() + s.loss();
     }
 
     /**
