@@ -42,6 +42,14 @@ public final class NoiseBallTheory {
     private final double[] diagonal;     // C̃_ii
     /** The terms beyond first order (binary logistic regression), or null. */
     private final SecondOrder secondOrder;
+    /** The second-order series of the last few update sequences (see {@link #secondOrderSeries}). */
+    private final java.util.Map<SeriesKey, SecondOrder.Series> recent = new java.util.LinkedHashMap<>(16, 0.75f, true) {
+        @Override
+        protected boolean removeEldestEntry(java.util.Map.Entry<SeriesKey, SecondOrder.Series> eldest) {
+            return size() > KEPT_SERIES;
+        }
+    };
+    private static final int KEPT_SERIES = 8;
 
     private NoiseBallTheory(NoiseBallTheory first, SecondOrder secondOrder) {
         this.basis = first.basis;
@@ -254,7 +262,9 @@ public final class NoiseBallTheory {
         Recursion recursion = new Recursion(lambda, diagonal, examples, beta, sampling);
         recursion.start(rotateIn(initialOffset));
         // the terms beyond first order: derived without momentum only
-        SecondOrder.Run second = secondOrder != null && beta == 0.0 ? secondOrder.start(sampling) : null;
+        String leftOut = secondOrder == null ? "" : beta != 0.0 ? "they are not derived with momentum"
+                : secondOrder.skipReason(updates).orElse("");
+        SecondOrder.Series second = secondOrder != null && leftOut.isEmpty() ? secondOrderSeries(updates) : null;
         double top = Math.max(0.0, lambda[p - 1]);
         double limit = 2.0 * (1.0 + beta);
         double[] epochDistance = new double[updates.epochs()];
@@ -281,31 +291,25 @@ public final class NoiseBallTheory {
                     unstableProduct = product;
                 } else {
                     recursion.step(a, checkBatch(updates.batch(t), t));
-                    if (second != null) {
-                        second.step(a, updates.batch(t));
-                    }
-                    if (!Double.isFinite(distance(recursion, second)) || !Double.isFinite(loss(recursion, second))) {
+                    if (!Double.isFinite(distance(recursion, second, t)) || !Double.isFinite(loss(recursion, second, t))) {
                         unstableFrom = t + 1;
                         unstableProduct = product;
                     } else if (t >= tailFrom) {
-                        tail.update(recursion, second);
+                        tail.update(recursion, second, t);
                     }
                 }
             }
             if (perUpdate != null) {
-                perUpdate[t] = unstableFrom == 0 ? distance(recursion, second) : Double.NaN;
+                perUpdate[t] = unstableFrom == 0 ? distance(recursion, second, t) : Double.NaN;
             }
             if (nextEpoch < epochDistance.length && updates.epochEnd(nextEpoch) == t + 1) {
                 if (unstableFrom == 0) {
-                    epochDistance[nextEpoch] = distance(recursion, second);
-                    epochLoss[nextEpoch] = loss(recursion, second);
+                    epochDistance[nextEpoch] = distance(recursion, second, t);
+                    epochLoss[nextEpoch] = loss(recursion, second, t);
                     if (t >= tailFrom) {
-                        tail.epochEnd(distance(recursion, second));
+                        tail.epochEnd(distance(recursion, second, t));
                     }
                     recursion.endEpoch();
-                    if (second != null) {
-                        second.endEpoch();
-                    }
                 }
                 nextEpoch++;
             }
@@ -316,8 +320,7 @@ public final class NoiseBallTheory {
         }
         FixedPoint fixed = fixedPoint(updates.rate(steps - 1), nominal, sampling, beta);
         PredictionKind kind = PredictionKind.of(objective);
-        String label = PredictionKind.label(objective, sampling, beta, second != null,
-                secondOrder != null && second == null);
+        String label = PredictionKind.label(objective, sampling, beta, second != null, leftOut);
         double bound = stabilityBound(beta);
         if (unstableFrom != 0) {
             return NoiseBallPrediction.unstable(kind, label, sampling, beta, epochDistance, epochLoss, tailUpdates,
@@ -326,8 +329,9 @@ public final class NoiseBallTheory {
         return new NoiseBallPrediction(true, "", kind, label, sampling, beta, bound, worst, 0, Double.NaN,
                 epochDistance, epochLoss, tailUpdates, tail.distance / tailUpdates, tailEpochEnds,
                 tailEpochEnds == 0 ? Double.NaN : tail.epochEndDistance / tailEpochEnds, tail.loss / tailUpdates,
-                tail.bias / tailUpdates, tail.ball / tailUpdates, distance(recursion, second), loss(recursion, second),
-                recursion.bias(), recursion.ball() + (second == null ? 0.0 : second.distance()), fixed);
+                tail.bias / tailUpdates, tail.ball / tailUpdates, distance(recursion, second, steps - 1),
+                loss(recursion, second, steps - 1), recursion.bias(),
+                recursion.ball() + (second == null ? 0.0 : second.distance()[steps - 1]), fixed);
     }
 
     /** Sums over the tail's updates and over its epoch ends. */
@@ -338,11 +342,11 @@ public final class NoiseBallTheory {
         double ball;
         double epochEndDistance;
 
-        void update(Recursion r, SecondOrder.Run s) {
-            distance += NoiseBallTheory.distance(r, s);
-            loss += NoiseBallTheory.loss(r, s);
+        void update(Recursion r, SecondOrder.Series s, int t) {
+            distance += NoiseBallTheory.distance(r, s, t);
+            loss += NoiseBallTheory.loss(r, s, t);
             bias += r.bias();
-            ball += r.ball() + (s == null ? 0.0 : s.distance());
+            ball += r.ball() + (s == null ? 0.0 : s.distance()[t]);
         }
 
         void epochEnd(double d) {
@@ -354,12 +358,51 @@ public final class NoiseBallTheory {
      * E‖θ − θ*‖²: first order, plus the second-order terms when they are computed. They count in the ball: they are
      * kept up by the noise, not left over from the start.
      */
-    private static double distance(Recursion r, SecondOrder.Run s) {
-        return s == null ? r.distance() : r.distance() + s.distance();
+    private static double distance(Recursion r, SecondOrder.Series s, int t) {
+        return s == null ? r.distance() : r.distance() + s.distance()[t];
     }
 
-    private static double loss(Recursion r, SecondOrder.Run s) {
-        return s == null ? r.loss() : r.loss() + s.loss();
+    private static double loss(Recursion r, SecondOrder.Series s, int t) {
+        return s == null ? r.loss() : r.loss() + s.loss()[t];
+    }
+
+    /**
+     * The second-order terms after every update of a sequence without momentum. They do not depend on the start, so
+     * replicates with the same rates share them: the last few sequences are kept (a pure function of the sequence,
+     * so what is kept never changes a number).
+     */
+    private SecondOrder.Series secondOrderSeries(UpdateSequence updates) {
+        SeriesKey key = new SeriesKey(updates);
+        synchronized (recent) {
+            SecondOrder.Series kept = recent.get(key);
+            if (kept != null) {
+                return kept;
+            }
+        }
+        SecondOrder.Series computed = secondOrder.series(updates, Math.max(0.0, lambda[p - 1]));
+        synchronized (recent) {
+            recent.put(key, computed);
+        }
+        return computed;
+    }
+
+    /** An update sequence compared by value. */
+    private record SeriesKey(double[] rates, int[] batches, int[] epochEnds, BatchSampling sampling) {
+        SeriesKey(UpdateSequence u) {
+            this(u.rates(), u.batches(), u.epochEnds(), u.sampling());
+        }
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof SeriesKey k && k.sampling == sampling && java.util.Arrays.equals(k.rates, rates)
+                    && java.util.Arrays.equals(k.batches, batches) && java.util.Arrays.equals(k.epochEnds, epochEnds);
+        }
+
+        @Override
+        public int hashCode() {
+            return java.util.Objects.hash(sampling, java.util.Arrays.hashCode(rates), java.util.Arrays.hashCode(batches),
+                    java.util.Arrays.hashCode(epochEnds));
+        }
     }
 
     /**

@@ -24,7 +24,7 @@ public enum PredictionKind {
      * @return a plain sentence saying what the prediction is, for the report
      */
     public static String label(ObjectiveKind objective, BatchSampling sampling, double momentum) {
-        return label(objective, sampling, momentum, false, false);
+        return label(objective, sampling, momentum, false, "");
     }
 
     /**
@@ -32,11 +32,12 @@ public enum PredictionKind {
      * @param sampling how batches were drawn
      * @param momentum heavy-ball β
      * @param secondOrder true when the terms beyond first order ({@link SecondOrder}) are added
-     * @param secondOrderLeftOut true when they exist for the model but are not derived for this run (momentum)
+     * @param leftOut why the second-order terms of the model are not added to this run (empty when they are
+     *     added or the model has none)
      * @return a plain sentence saying what the prediction is, for the report
      */
     public static String label(ObjectiveKind objective, BatchSampling sampling, double momentum, boolean secondOrder,
-            boolean secondOrderLeftOut) {
+            String leftOut) {
         StringBuilder b = new StringBuilder();
         if (objective == ObjectiveKind.QUADRATIC) {
             b.append("exact for a quadratic objective whose examples share one Hessian");
@@ -50,7 +51,7 @@ public enum PredictionKind {
         } else {
             b.append("first order: logistic regression linearised at θ* (H and C taken at θ*; exact only for a"
                     + " quadratic whose examples share one Hessian");
-            b.append(secondOrderLeftOut ? "; the second-order terms are not derived with momentum)" : ")");
+            b.append(leftOut.isEmpty() ? ")" : "; second-order terms left out: " + leftOut + ")");
         }
         if (sampling == BatchSampling.SHUFFLE) {
             b.append("; batches cut from a fresh permutation each epoch, the last one short, by the exact"

@@ -29,6 +29,8 @@ public final class SecondOrder {
 
     /** The largest P the terms are computed for (the tensors hold P²(P + 1)/2 values each). */
     public static final int MAX_PARAMETERS = 96;
+    /** The most multiply-adds one update sequence may cost (a few seconds): P²(P + 1)/2 per tensor per update. */
+    public static final double WORK_LIMIT = 4e9;
 
     private final int p;
     private final int n;
@@ -201,6 +203,59 @@ public final class SecondOrder {
     /** @return P */
     int dimension() {
         return p;
+    }
+
+    /**
+     * @param updates an update sequence without momentum
+     * @return why the terms are not computed for it (over {@link #WORK_LIMIT}), or empty
+     */
+    java.util.Optional<String> skipReason(UpdateSequence updates) {
+        double work = (double) updates.length() * (updates.sampling() == BatchSampling.SHUFFLE ? 1 : 2) * p * packed;
+        if (work > WORK_LIMIT) {
+            return java.util.Optional.of(String.format(java.util.Locale.ROOT, "%d updates at P = %d would take %.2g"
+                    + " multiply-adds, over the limit of %.2g", updates.length(), p, work, WORK_LIMIT));
+        }
+        return java.util.Optional.empty();
+    }
+
+    /**
+     * The terms' addition to E‖θ_t − θ*‖² and to the excess loss after every update t = 1 … T.
+     *
+     * @param distance after update t at index t − 1
+     * @param loss the same for the excess loss
+     */
+    record Series(double[] distance, double[] loss) {
+    }
+
+    /**
+     * @param updates the rates, batches and epoch ends (no momentum)
+     * @param lambdaMax λmax: from the first update with α·λmax ≥ 2 the values are NaN (the mean is unstable there)
+     * @return the terms after every update
+     */
+    Series series(UpdateSequence updates, double lambdaMax) {
+        int steps = updates.length();
+        double[] distance = new double[steps];
+        double[] loss = new double[steps];
+        Run run = start(updates.sampling());
+        int nextEpoch = 0;
+        boolean stable = true;
+        for (int t = 0; t < steps; t++) {
+            double a = updates.rate(t);
+            stable &= a * lambdaMax < 2.0;
+            if (stable) {
+                run.step(a, updates.batch(t));
+                distance[t] = run.distance();
+                loss[t] = run.loss();
+            } else {
+                distance[t] = Double.NaN;
+                loss[t] = Double.NaN;
+            }
+            if (nextEpoch < updates.epochs() && updates.epochEnd(nextEpoch) == t + 1) {
+                run.endEpoch();
+                nextEpoch++;
+            }
+        }
+        return new Series(distance, loss);
     }
 
     /**
