@@ -67,6 +67,47 @@ class SecondOrderTest {
         check("replacement", BatchSampling.REPLACEMENT, epoch);
     }
 
+    @Test
+    void predictionAddsTheTermsWithoutMomentumOnly() {
+        NoiseBallTheory both = theory.withSecondOrder(terms);
+        double[] rates = new double[15 * 4];
+        java.util.Arrays.fill(rates, RATE);
+        UpdateSequence plain = UpdateSequence.of(rates, rows, 32, BatchSampling.SHUFFLE, 0.0);
+        double[] first = theory.distanceAfterEveryUpdate(plain, new double[theory.dimension()]);
+        double[] with = both.distanceAfterEveryUpdate(plain, new double[theory.dimension()]);
+        SecondOrder.Run run = terms.start(BatchSampling.SHUFFLE);
+        int[] epoch = UpdateSequence.epochBatches(rows, 32);
+        for (int t = 0; t < rates.length; t++) {
+            run.step(RATE, epoch[t % epoch.length]);
+            assertEquals(first[t] + run.distance(), with[t], 1e-15 * with[t], "update " + (t + 1));
+            if (t % epoch.length == epoch.length - 1) {
+                run.endEpoch();
+            }
+        }
+        assertTrue(both.predict(plain, new double[theory.dimension()], 15, ObjectiveKind.LOGISTIC).label()
+                .startsWith("first order plus second-order terms"));
+        UpdateSequence momentum = UpdateSequence.of(rates, rows, 32, BatchSampling.SHUFFLE, 0.9);
+        double[] firstMomentum = theory.distanceAfterEveryUpdate(momentum, new double[theory.dimension()]);
+        double[] withMomentum = both.distanceAfterEveryUpdate(momentum, new double[theory.dimension()]);
+        org.junit.jupiter.api.Assertions.assertArrayEquals(firstMomentum, withMomentum, "momentum: first order only");
+        String label = both.predict(momentum, new double[theory.dimension()], 15, ObjectiveKind.LOGISTIC).label();
+        assertTrue(label.contains("second-order terms left out: they are not derived with momentum"), label);
+    }
+
+    @Test
+    void aSequenceOverTheWorkLimitIsFirstOrderAndSaysWhy() {
+        NoiseBallTheory both = theory.withSecondOrder(terms);
+        int packed = theory.dimension() * (theory.dimension() + 1) / 2;
+        int updates = (int) (SecondOrder.WORK_LIMIT / ((double) theory.dimension() * packed)) + 15;
+        double[] rates = new double[updates];
+        java.util.Arrays.fill(rates, 0.1);
+        UpdateSequence longRun = UpdateSequence.of(rates, rows, 32, BatchSampling.SHUFFLE, 0.0);
+        NoiseBallPrediction p = both.predict(longRun, new double[theory.dimension()], 15, ObjectiveKind.LOGISTIC);
+        NoiseBallPrediction first = theory.predict(longRun, new double[theory.dimension()], 15, ObjectiveKind.LOGISTIC);
+        assertTrue(p.label().contains("second-order terms left out: " + updates + " updates at P = 31"), p.label());
+        assertEquals(first.tailDistanceSq(), p.tailDistanceSq());
+    }
+
     private static void check(String name, BatchSampling sampling, int[] epoch) throws IOException {
         List<double[]> expected = fixture(name);
         assertEquals(3 * epoch.length, expected.size());
