@@ -16,10 +16,12 @@ import org.ejml.dense.row.CommonOps_DDRM;
  * ½ Σ λ_i (m̃_i² + S_ii) need, evolves direction by direction ({@link Recursion}): {@link #predict} costs O(P) per
  * update and allocates nothing per update. {@link #covarianceAfter} runs the full O(P²) recursion for the whole Σ
  * (replacement sampling without momentum). The eigen-decomposition and C̃ = Qᵀ C Q (O(P³)) are computed once here
- * and shared by every replicate; an instance is immutable and may be used from several threads.
+ * and shared by every replicate; an instance is immutable (apart from a cache of {@link SecondOrder} series, a pure
+ * function of the update sequence) and may be used from several threads.
  *
  * <p>Exact for a quadratic whose examples share one Hessian (the gradient noise at θ is then the noise at θ*); first
- * order for logistic regression, whose examples' curvatures differ. Guarded: from the first update whose rate makes
+ * order for logistic regression, whose examples' curvatures differ. {@link #withSecondOrder} adds the terms beyond
+ * first order of binary logistic regression for runs without momentum. Guarded: from the first update whose rate makes
  * the linearised mean unstable (α_t·λmax ≥ 2(1 + β)) the prediction has no numbers, only that update.
  */
 public final class NoiseBallTheory {
@@ -172,16 +174,6 @@ public final class NoiseBallTheory {
             throw new IllegalArgumentException("second-order terms of dimension " + terms.dimension() + " for P = " + p);
         }
         return new NoiseBallTheory(this, terms);
-    }
-
-    /** @return the first-order theory alone (this one when it has no second-order terms) */
-    public NoiseBallTheory firstOrder() {
-        return secondOrder == null ? this : new NoiseBallTheory(this, null);
-    }
-
-    /** @return true when {@link #predict} adds the second-order terms (without momentum) */
-    public boolean hasSecondOrder() {
-        return secondOrder != null;
     }
 
     /** @return C̃ = Qᵀ C Q, row-major P×P: the array itself, not to be modified */
