@@ -39,50 +39,85 @@ lamk, Q = np.linalg.eigh(H)
 Xt = X@Q; Ut = U@Q; Ct = Q.T@C@Q
 Hdata = (Xt.T*w)@Xt/N                                         # mean of w_i x_i x_i^T (D_i = w_i x_i x_i^T - Hdata)
 W = np.einsum('ij,ik,i->jk', Xt, Xt*Ut, w)/N                  # (1/N) sum_i (D_i)_jk (g_i)_k; the -Hdata part sums to 0
+Z = ((Xt*Ut).T*w)@(Xt*Ut)/N - Hdata*Ct                        # (1/N) sum_i (g_i)_j (g_i)_k (D_i)_jk
 B = 32; sizes = [B]*(N//B) + ([N % B] if N % B else [])
 
 
-def predict(a, epochs=300, burn=100):
+def predict(a, epochs=300, burn=100, sampling='shuffle', trace=False):
+    """Tail means (epochs burn..epochs-1; every update / epoch ends) of the first-order E||e||^2 and the derived terms,
+    for a constant rate a from theta*. With trace=True also the per-update values, one row per update:
+    first, |m1|^2, |m3|^2, |m1 + m3|^2, tr V, 2 E<e0, e1>."""
     A = 1 - a*lamk
+    shuffled = sampling == 'shuffle'
+    batches = sizes if shuffled else [B]*len(sizes)
     S0 = np.zeros((P, P)); m1 = np.zeros(P); m3 = np.zeros(P); V = np.zeros((P, P))
-    keys = ('first', 'm1', 'm3', 'm', 'V')
-    tot = {k: np.zeros(2) for k in keys}; n = np.zeros(2)
+    X0 = np.zeros(P)                       # diagonal of E[e0 e1^T] carried into the epoch
+    k0 = 2/((N-1)*(N-2))                   # third moment of three different positions of one permutation
+    keys = ('first', 'm1', 'm3', 'm', 'V', 'cross')
+    tot = {k: np.zeros(2) for k in keys}; n = np.zeros(2); rows = []
     for ep in range(epochs):
         Dm = np.zeros((P, P)); G = np.zeros(P); Pp = np.ones(P)
-        for b in sizes:
-            S = np.outer(Pp, Pp)*S0 + Dm - np.outer(G, G)*Ct/(N-1)   # E[e e^T] before this update, first order
+        Y = np.zeros((P, P)); K = np.zeros((P, P)); Yr = np.zeros((P, P)); Ys = np.zeros((P, P))
+        Xin = np.zeros(P)
+        for b in batches:
+            if shuffled:
+                S = np.outer(Pp, Pp)*S0 + Dm - np.outer(G, G)*Ct/(N-1)   # E[e e^T] before this update, first order
+                kb = -(N-2*b)/((N-1)*(N-2)*b) - k0      # two of three positions in one batch, less k0
+                Y, Yr, Ys, K = (A[:, None]*Y + a*G[None, :], (A*A)[:, None]*Yr - a*A[:, None]*K,
+                                (A*A)[:, None]*Ys - kb*a*a*G[None, :], np.outer(A, A)*K + kb*a*a)
+                fpc = (N-b)/((N-1)*b)
+            else:
+                S = S0
+                fpc = 1.0/b
             T = Xt.T @ (w3*np.einsum('ij,jk,ik->i', Xt, S, Xt)) / N
             q = w*w*np.einsum('ij,jk,ik->i', Xt, S, Xt)
             MS = (Xt.T*q)@Xt/N - Hdata@S@Hdata                      # (1/N) sum_i D_i S D_i
-            m1 = A*m1 - a*(W@G)/(N-1)
+            if shuffled:
+                m1 = A*m1 - a*(W@G)/(N-1)
             m3 = A*m3 - a*0.5*T
-            V = np.outer(A, A)*V + a*a*(N-b)/((N-1)*b)*MS
-            Dm = np.outer(A, A)*Dm + a*a*Ct*N/(b*(N-1))
-            G = A*G + a; Pp = A*Pp
-            S = np.outer(Pp, Pp)*S0 + Dm - np.outer(G, G)*Ct/(N-1)
+            V = np.outer(A, A)*V + a*a*fpc*MS
+            if shuffled:
+                Dm = np.outer(A, A)*Dm + a*a*Ct*N/(b*(N-1))
+                G = A*G + a; Pp = A*Pp
+                S = np.outer(Pp, Pp)*S0 + Dm - np.outer(G, G)*Ct/(N-1)
+                Xin = ((Z*(-k0*G[:, None]*Y + Yr + Ys)).sum(1))  # in-epoch part of diag E[e0 e1^T]; gc = -G
+            else:
+                S = np.outer(A, A)*S0 + a*a*Ct/b; S0 = S
+            vals = dict(first=np.trace(S), m1=m1@m1, m3=m3@m3, m=(m1+m3)@(m1+m3), V=np.trace(V),
+                        cross=2*(Pp*Pp*X0 + Xin).sum())
+            if trace:
+                rows.append([vals[k] for k in keys])
             if ep >= burn:
-                vals = dict(first=np.trace(S), m1=m1@m1, m3=m3@m3, m=(m1+m3)@(m1+m3), V=np.trace(V))
                 for k in keys:
                     tot[k][0] += vals[k]
                 n[0] += 1
-        S0 = S
+        if shuffled:
+            S0 = S
+            X0 = Pp*Pp*X0 + Xin
         if ep >= burn:
             for k in keys:
                 tot[k][1] += vals[k]
             n[1] += 1
-    return {k: tot[k]/n for k in keys}, Q@m1, Q@m3
+    out = {k: tot[k]/n for k in keys}
+    if trace:
+        return out, Q@m1, Q@m3, np.array(rows)
+    return out, Q@m1, Q@m3
 
 
 if __name__ == '__main__':
-    rates = [float(r) for r in sys.argv[1:]] or [0.1, 0.4]
+    args = sys.argv[1:]
+    sampling = 'replacement' if 'replacement' in args else 'shuffle'
+    rates = [float(r) for r in args if r != 'replacement' and r != 'shuffle'] or [0.1, 0.4]
     print('lambda_max(H) = %.5f' % lamk.max())
     for a in rates:
-        r, m1, m3 = predict(a)
-        print('rate %g (a*lambda_max = %.3f); over every update / at epoch ends' % (a, a*lamk.max()))
-        for k in ('first', 'm1', 'm3', 'm', 'V'):
+        r, m1, m3 = predict(a, sampling=sampling)
+        print('rate %g %s (a*lambda_max = %.3f); over every update / at epoch ends' % (a, sampling, a*lamk.max()))
+        for k in ('first', 'm1', 'm3', 'm', 'V', 'cross'):
             print('  %-6s %.5g / %.5g' % (k, r[k][0], r[k][1]))
         f = r['first']
         print('  first + m       %.5g / %.5g' % tuple(f + r['m']))
         print('  first + m + V   %.5g / %.5g' % tuple(f + r['m'] + r['V']))
-        np.save(os.path.join(HERE, 'predicted_mean_m1_%g.npy' % a), m1)
-        np.save(os.path.join(HERE, 'predicted_mean_m3_%g.npy' % a), m3)
+        if sampling == 'shuffle':
+            print('  derived: first + m + cross   %.5g / %.5g' % tuple(f + r['m'] + r['cross']))
+        else:
+            print('  derived: first + m3 + V      %.5g / %.5g' % tuple(f + r['m3'] + r['V']))

@@ -16,10 +16,12 @@ import org.ejml.dense.row.CommonOps_DDRM;
  * ½ Σ λ_i (m̃_i² + S_ii) need, evolves direction by direction ({@link Recursion}): {@link #predict} costs O(P) per
  * update and allocates nothing per update. {@link #covarianceAfter} runs the full O(P²) recursion for the whole Σ
  * (replacement sampling without momentum). The eigen-decomposition and C̃ = Qᵀ C Q (O(P³)) are computed once here
- * and shared by every replicate; an instance is immutable and may be used from several threads.
+ * and shared by every replicate; an instance is immutable (apart from a cache of {@link SecondOrder} series, a pure
+ * function of the update sequence) and may be used from several threads.
  *
  * <p>Exact for a quadratic whose examples share one Hessian (the gradient noise at θ is then the noise at θ*); first
- * order for logistic regression, whose examples' curvatures differ. Guarded: from the first update whose rate makes
+ * order for logistic regression, whose examples' curvatures differ. {@link #withSecondOrder} adds the terms beyond
+ * first order of binary logistic regression for runs without momentum. Guarded: from the first update whose rate makes
  * the linearised mean unstable (α_t·λmax ≥ 2(1 + β)) the prediction has no numbers, only that update.
  */
 public final class NoiseBallTheory {
@@ -40,8 +42,30 @@ public final class NoiseBallTheory {
     private final int p;
     private final double noiseScale;     // max |C̃_ij|
     private final double[] diagonal;     // C̃_ii
+    /** The terms beyond first order (binary logistic regression), or null. */
+    private final SecondOrder secondOrder;
+    /** The second-order series of the last few update sequences (see {@link #secondOrderSeries}). */
+    private final java.util.Map<SeriesKey, SecondOrder.Series> recent = new java.util.LinkedHashMap<>(16, 0.75f, true) {
+        @Override
+        protected boolean removeEldestEntry(java.util.Map.Entry<SeriesKey, SecondOrder.Series> eldest) {
+            return size() > KEPT_SERIES;
+        }
+    };
+    private static final int KEPT_SERIES = 8;
+
+    private NoiseBallTheory(NoiseBallTheory first, SecondOrder secondOrder) {
+        this.basis = first.basis;
+        this.lambda = first.lambda;
+        this.noise = first.noise;
+        this.examples = first.examples;
+        this.p = first.p;
+        this.noiseScale = first.noiseScale;
+        this.diagonal = first.diagonal;
+        this.secondOrder = secondOrder;
+    }
 
     private NoiseBallTheory(EigenBasis basis, double[] covariance, int examples) {
+        this.secondOrder = null;
         this.basis = basis;
         this.p = basis.dimension();
         if (examples < 1) {
@@ -141,6 +165,27 @@ public final class NoiseBallTheory {
         return new NoiseBallTheory(basis, covariance, examples);
     }
 
+    /**
+     * @param terms the terms beyond first order of the same problem ({@link SecondOrder#binaryLogistic})
+     * @return this theory with them: {@link #predict} adds them for SGD without momentum
+     */
+    public NoiseBallTheory withSecondOrder(SecondOrder terms) {
+        if (terms.dimension() != p) {
+            throw new IllegalArgumentException("second-order terms of dimension " + terms.dimension() + " for P = " + p);
+        }
+        return new NoiseBallTheory(this, terms);
+    }
+
+    /** @return C̃ = Qᵀ C Q, row-major P×P: the array itself, not to be modified */
+    double[] noiseView() {
+        return noise;
+    }
+
+    /** @return H's eigenvalues with flat ones set to 0: the array itself, not to be modified */
+    double[] eigenvaluesView() {
+        return lambda;
+    }
+
     /** @return H's eigen-decomposition, ascending */
     public EigenBasis basis() {
         return basis;
@@ -208,6 +253,10 @@ public final class NoiseBallTheory {
         BatchSampling sampling = updates.sampling();
         Recursion recursion = new Recursion(lambda, diagonal, examples, beta, sampling);
         recursion.start(rotateIn(initialOffset));
+        // the terms beyond first order: derived without momentum only
+        String leftOut = secondOrder == null ? "" : beta != 0.0 ? "they are not derived with momentum"
+                : secondOrder.skipReason(updates).orElse("");
+        SecondOrder.Series second = secondOrder != null && leftOut.isEmpty() ? secondOrderSeries(updates) : null;
         double top = Math.max(0.0, lambda[p - 1]);
         double limit = 2.0 * (1.0 + beta);
         double[] epochDistance = new double[updates.epochs()];
@@ -234,23 +283,23 @@ public final class NoiseBallTheory {
                     unstableProduct = product;
                 } else {
                     recursion.step(a, checkBatch(updates.batch(t), t));
-                    if (!Double.isFinite(recursion.distance()) || !Double.isFinite(recursion.loss())) {
+                    if (!Double.isFinite(distance(recursion, second, t)) || !Double.isFinite(loss(recursion, second, t))) {
                         unstableFrom = t + 1;
                         unstableProduct = product;
                     } else if (t >= tailFrom) {
-                        tail.update(recursion);
+                        tail.update(recursion, second, t);
                     }
                 }
             }
             if (perUpdate != null) {
-                perUpdate[t] = unstableFrom == 0 ? recursion.distance() : Double.NaN;
+                perUpdate[t] = unstableFrom == 0 ? distance(recursion, second, t) : Double.NaN;
             }
             if (nextEpoch < epochDistance.length && updates.epochEnd(nextEpoch) == t + 1) {
                 if (unstableFrom == 0) {
-                    epochDistance[nextEpoch] = recursion.distance();
-                    epochLoss[nextEpoch] = recursion.loss();
+                    epochDistance[nextEpoch] = distance(recursion, second, t);
+                    epochLoss[nextEpoch] = loss(recursion, second, t);
                     if (t >= tailFrom) {
-                        tail.epochEnd(recursion);
+                        tail.epochEnd(distance(recursion, second, t));
                     }
                     recursion.endEpoch();
                 }
@@ -263,7 +312,7 @@ public final class NoiseBallTheory {
         }
         FixedPoint fixed = fixedPoint(updates.rate(steps - 1), nominal, sampling, beta);
         PredictionKind kind = PredictionKind.of(objective);
-        String label = PredictionKind.label(objective, sampling, beta);
+        String label = PredictionKind.label(objective, sampling, beta, second != null, leftOut);
         double bound = stabilityBound(beta);
         if (unstableFrom != 0) {
             return NoiseBallPrediction.unstable(kind, label, sampling, beta, epochDistance, epochLoss, tailUpdates,
@@ -272,8 +321,9 @@ public final class NoiseBallTheory {
         return new NoiseBallPrediction(true, "", kind, label, sampling, beta, bound, worst, 0, Double.NaN,
                 epochDistance, epochLoss, tailUpdates, tail.distance / tailUpdates, tailEpochEnds,
                 tailEpochEnds == 0 ? Double.NaN : tail.epochEndDistance / tailEpochEnds, tail.loss / tailUpdates,
-                tail.bias / tailUpdates, tail.ball / tailUpdates, recursion.distance(), recursion.loss(),
-                recursion.bias(), recursion.ball(), fixed);
+                tail.bias / tailUpdates, tail.ball / tailUpdates, distance(recursion, second, steps - 1),
+                loss(recursion, second, steps - 1), recursion.bias(),
+                recursion.ball() + (second == null ? 0.0 : second.distance()[steps - 1]), fixed);
     }
 
     /** Sums over the tail's updates and over its epoch ends. */
@@ -284,15 +334,66 @@ public final class NoiseBallTheory {
         double ball;
         double epochEndDistance;
 
-        void update(Recursion r) {
-            distance += r.distance();
-            loss += r.loss();
+        void update(Recursion r, SecondOrder.Series s, int t) {
+            distance += NoiseBallTheory.distance(r, s, t);
+            loss += NoiseBallTheory.loss(r, s, t);
             bias += r.bias();
-            ball += r.ball();
+            ball += r.ball() + (s == null ? 0.0 : s.distance()[t]);
         }
 
-        void epochEnd(Recursion r) {
-            epochEndDistance += r.distance();
+        void epochEnd(double d) {
+            epochEndDistance += d;
+        }
+    }
+
+    /**
+     * E‖θ − θ*‖²: first order, plus the second-order terms when they are computed. They count in the ball: they are
+     * kept up by the noise, not left over from the start.
+     */
+    private static double distance(Recursion r, SecondOrder.Series s, int t) {
+        return s == null ? r.distance() : r.distance() + s.distance()[t];
+    }
+
+    private static double loss(Recursion r, SecondOrder.Series s, int t) {
+        return s == null ? r.loss() : r.loss() + s.loss()[t];
+    }
+
+    /**
+     * The second-order terms after every update of a sequence without momentum. They do not depend on the start, so
+     * replicates with the same rates share them: the last few sequences are kept (a pure function of the sequence,
+     * so what is kept never changes a number).
+     */
+    private SecondOrder.Series secondOrderSeries(UpdateSequence updates) {
+        SeriesKey key = new SeriesKey(updates);
+        synchronized (recent) {
+            SecondOrder.Series kept = recent.get(key);
+            if (kept != null) {
+                return kept;
+            }
+        }
+        SecondOrder.Series computed = secondOrder.series(updates, Math.max(0.0, lambda[p - 1]));
+        synchronized (recent) {
+            recent.put(key, computed);
+        }
+        return computed;
+    }
+
+    /** An update sequence compared by value. */
+    private record SeriesKey(double[] rates, int[] batches, int[] epochEnds, BatchSampling sampling) {
+        SeriesKey(UpdateSequence u) {
+            this(u.rates(), u.batches(), u.epochEnds(), u.sampling());
+        }
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof SeriesKey k && k.sampling == sampling && java.util.Arrays.equals(k.rates, rates)
+                    && java.util.Arrays.equals(k.batches, batches) && java.util.Arrays.equals(k.epochEnds, epochEnds);
+        }
+
+        @Override
+        public int hashCode() {
+            return java.util.Objects.hash(sampling, java.util.Arrays.hashCode(rates), java.util.Arrays.hashCode(batches),
+                    java.util.Arrays.hashCode(epochEnds));
         }
     }
 

@@ -7,6 +7,7 @@ import settle.engine.minimum.Curvature;
 import settle.engine.minimum.Minimiser;
 import settle.engine.minimum.Minimum;
 import settle.engine.minimum.NoMinimiserException;
+import settle.engine.model.BinaryLogistic;
 import settle.engine.model.Model;
 import settle.engine.schedule.NudgeLog;
 import settle.engine.schedule.NudgedSchedule;
@@ -16,6 +17,7 @@ import settle.engine.theory.BatchSampling;
 import settle.engine.theory.NoiseBallPrediction;
 import settle.engine.theory.NoiseBallTheory;
 import settle.engine.theory.ObjectiveKind;
+import settle.engine.theory.SecondOrder;
 import settle.engine.theory.UpdateSequence;
 import settle.engine.train.Sampling;
 import settle.engine.train.ReferencePoint;
@@ -109,6 +111,12 @@ public final class StudyContext {
             } else {
                 curvature = Curvature.at(model, data.train(), minimum.theta());
                 theory = NoiseBallTheory.of(curvature.hessian(), curvature.covariance(), data.train().rows());
+                if (model instanceof BinaryLogistic
+                        && SecondOrder.skipReason(model.parameterCount(), data.train().rows()).isEmpty()) {
+                    // binary logistic: the terms beyond first order (softmax keeps the first-order prediction)
+                    theory = theory.withSecondOrder(
+                            SecondOrder.binaryLogistic(theory, data.train(), minimum.theta(), model.l2()));
+                }
                 theorySkipped = "";
             }
         }

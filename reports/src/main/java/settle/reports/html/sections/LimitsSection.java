@@ -45,9 +45,10 @@ final class LimitsSection implements Section {
                 + "ranking can change. The tail radius measures how much a run still moves over its tail; a rate that "
                 + "ends near zero makes it small wherever the run froze, which is why it is descriptive.");
         w.element("li", "The predicted noise ball linearises SGD at θ*: exact for a quadratic objective (reshuffled "
-                + "batches and momentum included), first-order for logistic regression, whose curvature varies over "
-                + "the ball. Measured against predicted tests the theory only for an arm that has reached its ball; "
-                + "the distance section says which did.");
+                + "batches and momentum included), approximate for logistic regression, whose curvature varies over "
+                + "the ball: first order, with second-order terms for binary logistic regression without momentum "
+                + "(the distance section says which). Measured against predicted tests the theory only for an arm "
+                + "that has reached its ball; the distance section says which did.");
         w.element("li", "Test metrics are measured on one test split of " + manifest.testRows() + " rows.");
         w.close("ul");
     }
