@@ -184,7 +184,7 @@ class CorruptionCorpusTest {
         for (Damage d : corpus()) {
             Path study = dir.resolve("case-" + i++);
             tests.add(DynamicTest.dynamicTest(d.name(), () -> {
-                copy(original, study);
+                StudyFiles.copyTree(original, study);
                 Path json = study.resolve(DAMAGED);
                 Path binary = StudyFiles.binary(json);
                 Path file = json.resolveSibling(d.file());
@@ -236,18 +236,5 @@ class CorruptionCorpusTest {
             }));
         }
         return tests;
-    }
-
-    private static void copy(Path from, Path to) throws Exception {
-        try (var walk = Files.walk(from)) {
-            for (Path p : walk.toList()) {
-                Path target = to.resolve(from.relativize(p).toString());
-                if (Files.isDirectory(p)) {
-                    Files.createDirectories(target);
-                } else {
-                    Files.copy(p, target);
-                }
-            }
-        }
     }
 }

@@ -118,4 +118,18 @@ public final class StudyFiles {
         String name = json.getFileName().toString();
         return json.resolveSibling(name.substring(0, name.length() - ".json".length()) + ".bin");
     }
+
+    /** Copies a study directory tree: {@code to} gets every directory and file of {@code from}. */
+    public static void copyTree(Path from, Path to) throws Exception {
+        try (var walk = Files.walk(from)) {
+            for (Path p : walk.toList()) {
+                Path target = to.resolve(from.relativize(p).toString());
+                if (Files.isDirectory(p)) {
+                    Files.createDirectories(target);
+                } else {
+                    Files.copy(p, target);
+                }
+            }
+        }
+    }
 }

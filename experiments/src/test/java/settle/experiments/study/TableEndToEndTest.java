@@ -134,19 +134,6 @@ class TableEndToEndTest {
         }
     }
 
-    private static void copy(Path from, Path to) throws Exception {
-        try (var walk = Files.walk(from)) {
-            for (Path p : walk.toList()) {
-                Path target = to.resolve(from.relativize(p).toString());
-                if (Files.isDirectory(p)) {
-                    Files.createDirectories(target);
-                } else {
-                    Files.copy(p, target);
-                }
-            }
-        }
-    }
-
     private record Change(String name, String from, String to, String expected) {
     }
 
@@ -232,7 +219,7 @@ class TableEndToEndTest {
         for (Damage d : damages) {
             Path copy = dir.resolve("damaged-" + i++);
             tests.add(DynamicTest.dynamicTest(d.name(), () -> {
-                copy(study, copy);
+                StudyFiles.copyTree(study, copy);
                 Path file = copy.resolve("encoding.json");
                 String damaged = d.damage().apply(text);
                 assertFalse(damaged.equals(text), "the damage changes the file");
