@@ -91,9 +91,16 @@ final class Studies {
         if (!Files.exists(study.resolve("arms"))) {
             return files;
         }
-        try (var walk = Files.walk(study.resolve("arms"))) {
-            walk.filter(Files::isRegularFile).sorted().forEach(files::add);
+        // by name only (no file attributes): a run may be renaming a partial file into place meanwhile, and a stat
+        // of a name that was just renamed away would fail; every entry of arms/ is an arm directory of files
+        try (var arms = Files.newDirectoryStream(study.resolve("arms"))) {
+            for (Path arm : arms) {
+                try (var entries = Files.newDirectoryStream(arm)) {
+                    entries.forEach(files::add);
+                }
+            }
         }
+        files.sort(null);
         return files;
     }
 

@@ -98,7 +98,8 @@ class MarksMetricsTest {
     void whichReplicateStandsForAnArm() throws Exception {
         Study study = study(false);
         assertEquals(2, Replicates.first(study, 0).replicate(), "replicate 1 of the plateau arm is missing");
-        assertEquals(2, Replicates.firstOfIndex(study, 0).arm(), "replicate 1's seeds come from the next arm");
+        assertEquals(study.manifest().arms().get(1), Replicates.firstOfIndex(study, 0).armName(),
+                "replicate 1's seeds come from the next arm");
         assertEquals(2, Replicates.firstTail(study, 0).length(), "the fixture's tail of 2 updates");
         assertEquals(3, Replicates.withOwnRates(study, 0).size(), "a cut arm: every present replicate");
         assertEquals(1, Replicates.withOwnRates(study, 1).size(), "no cut: the first replicate");

@@ -77,15 +77,15 @@ class StudyReaderTest {
                 .contains("not a study directory (no manifest.json"));
 
         Path study = twoArms().write(dir.resolve("s"));
-        Path file = study.resolve("arms/1/2.json");
-        Files.writeString(file, "{\"format\": 3,\n  \"arm\": oops}");
+        Path file = study.resolve(twoArms().path(1, 2));
+        Files.writeString(file, "{\"format\": 4,\n  \"arm\": oops}");
         String message = assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage();
         assertEquals(file + ":2:10: not valid JSON: it holds something that is not JSON here; " + remedy(study), message);
         assertEquals(-1, message.indexOf('\n'), "one line");
 
         Path manifest = study.resolve("manifest.json");
-        Files.writeString(manifest, Files.readString(manifest).replace("\"format\":3", "\"format\":4"));
-        assertEquals(manifest + ": format: study directory format 4 is not supported; this settle reads format 3",
+        Files.writeString(manifest, Files.readString(manifest).replace("\"format\":4", "\"format\":5"));
+        assertEquals(manifest + ": format: study directory format 5 is not supported; this settle reads format 4",
                 assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 
@@ -97,7 +97,7 @@ class StudyReaderTest {
         String expected = study.resolve("manifest.json") + ": this study directory is in format 1, written by an"
                 + " earlier settle whose tail metrics came from snapshots and whose reshuffling prediction was"
                 + " approximate; rerun it with `settle run " + study.resolve("plan.yaml") + " --out " + study
-                + " --fresh` to rewrite it in format 3";
+                + " --fresh` to rewrite it in format 4";
         assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
         assertEquals(expected, assertThrows(BadInputException.class, () -> Report.write(study)).getMessage());
         assertFalse(Files.exists(study.resolve("report.html")), "no report from numbers that mean something else");
@@ -105,10 +105,10 @@ class StudyReaderTest {
 
         // A format-1 replicate file left in a format-3 directory is refused by name: settle run trains it again.
         Path mixed = twoArms().write(dir.resolve("mixed"));
-        Path file = mixed.resolve("arms/2/1.json");
-        Files.writeString(file, Files.readString(file).replace("\"format\":3", "\"format\":1"));
+        Path file = mixed.resolve(twoArms().path(2, 1));
+        Files.writeString(file, Files.readString(file).replace("\"format\":4", "\"format\":1"));
         String message = assertThrows(BadInputException.class, () -> StudyReader.read(mixed)).getMessage();
-        assertEquals(file + ": format: this file is in format 1; this settle reads format 3; " + remedy(mixed),
+        assertEquals(file + ": format: this file is in format 1; this settle reads format 4; " + remedy(mixed),
                 message);
     }
 
@@ -120,8 +120,22 @@ class StudyReaderTest {
         String expected = study.resolve("manifest.json") + ": this study directory is in format 2, written by an"
                 + " earlier settle whose replicate files hold every array as JSON text (format 3 keeps the large"
                 + " arrays in a binary file beside each, a third of the bytes); rerun it with `settle run "
-                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 3";
+                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4";
         assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
+        assertFalse(Files.exists(study.resolve("report.html")));
+    }
+
+    @Test
+    void aFormatThreeDirectoryGetsOneClearLine() throws Exception {
+        SyntheticStudy old = twoArms();
+        old.format = 3;
+        Path study = old.write(dir.resolve("three"));
+        String expected = study.resolve("manifest.json") + ": this study directory is in format 3, written by an"
+                + " earlier settle whose arm directories are named by the arms' positions in the plan (format 4 names"
+                + " each by its arm's specification, so that a study can grow); rerun it with `settle run "
+                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4";
+        assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
+        assertEquals(expected, assertThrows(BadInputException.class, () -> Report.write(study)).getMessage());
         assertFalse(Files.exists(study.resolve("report.html")));
     }
 
@@ -177,7 +191,7 @@ class StudyReaderTest {
     @Test
     void aPredictionWithoutItsStabilityIsRefused() throws Exception {
         Path study = twoArms().write(dir.resolve("s"));
-        Path file = study.resolve("arms/1/1.json");
+        Path file = study.resolve(twoArms().path(1, 1));
         ObjectMapper mapper = new ObjectMapper();
         ObjectNode root = (ObjectNode) mapper.readTree(file.toFile());
         ((ObjectNode) root.get("prediction")).remove("stable");
@@ -189,10 +203,10 @@ class StudyReaderTest {
     @Test
     void aReplicateFileInTheWrongPlaceIsRefused() throws Exception {
         Path study = twoArms().write(dir.resolve("s"));
-        Files.copy(study.resolve("arms/1/1.json"), study.resolve("arms/1/3.json"),
+        Files.copy(study.resolve(twoArms().path(1, 1)), study.resolve(twoArms().path(1, 3)),
                 java.nio.file.StandardCopyOption.REPLACE_EXISTING);
-        assertEquals(study.resolve("arms/1/3.json") + ": replicate: the file holds arm 1 replicate 1; its path says arm 1"
-                + " replicate 3; " + remedy(study),
+        assertEquals(study.resolve(twoArms().path(1, 3)) + ": replicate: the file holds arm '" + twoArms().armId(1) + "' replicate 1; its"
+                + " path says arm '" + twoArms().armId(1) + "' replicate 3; " + remedy(study),
                 assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 }

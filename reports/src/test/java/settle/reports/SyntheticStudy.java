@@ -12,7 +12,7 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Writes a study directory in the documented format 3 (the README's study-directory schema) with
+ * Writes a study directory in the documented format 4 (the README's study-directory schema) with
  * values chosen by a test: the reports module reads it exactly as it reads a real study. Binary logistic
  * regression with {@code features} weights and a bias; every replicate gets the same per-epoch series and the
  * same prediction unless set. {@link #format} writes an older directory for the tests that refuse one.
@@ -81,7 +81,7 @@ final class SyntheticStudy {
     /** When set, reference.json's bound block says it was skipped, for this reason. */
     String boundSkipped;
     /** The format every file records. */
-    int format = 3;
+    int format = 4;
     /** The plan's momentum β, as the predictions record it. */
     double momentum;
     /** The plan's sampling, as the predictions record it. */
@@ -176,6 +176,25 @@ final class SyntheticStudy {
      * file (a partial study).
      */
     Path write(Path dir, String... skip) throws IOException {
+        return writeFormat(dir, skip);
+    }
+
+    /**
+     * @param a the arm's index, from 1
+     * @return its id: its name made safe and a made-up hash that differs per index (the fixture has no plan to hash)
+     */
+    String armId(int a) {
+        return format < 4 ? Integer.toString(a) : settle.reports.format.StudyFormat.armId(arms.get(a - 1),
+                String.format("%012x", a) + "0".repeat(52));
+    }
+
+    /** @return the path of replicate {@code k} of arm {@code a} (both from 1) relative to the study */
+    String path(int a, int k) {
+        return "arms/" + armId(a) + "/" + k + ".json";
+    }
+
+    /** Formats before 4 named an arm's directory by its index; the manifest is refused before anything is read. */
+    private Path writeFormat(Path dir, String... skip) throws IOException {
         Files.createDirectories(dir);
         int count = replicates.get(0).size();
         int p = featureNames.size() + 1;
@@ -198,6 +217,7 @@ final class SyntheticStudy {
         m.put("plan_sha256", "aa");
         m.put("data_sha256", "bb");
         m.put("split_sha256", "cc");
+        m.put("settings_sha256", "dd");
         int testRows = testRows();
         ObjectNode data = m.putObject("data");
         data.put("source", "synthetic:test");
@@ -218,7 +238,8 @@ final class SyntheticStudy {
         m.put("baseline", baseline);
         ArrayNode armList = m.putArray("arms");
         for (int a = 0; a < arms.size(); a++) {
-            armList.addObject().put("index", a + 1).put("name", arms.get(a)).put("directory", "arms/" + (a + 1));
+            armList.addObject().put("index", a + 1).put("name", arms.get(a)).put("id", armId(a + 1))
+                    .put("directory", "arms/" + armId(a + 1));
         }
         m.putArray("grid").addAll(grids);
         ArrayNode repList = m.putArray("replicates");
@@ -274,7 +295,7 @@ final class SyntheticStudy {
         }
         List<String> skipped = List.of(skip);
         for (int a = 0; a < arms.size(); a++) {
-            Path armDir = dir.resolve("arms").resolve(Integer.toString(a + 1));
+            Path armDir = dir.resolve("arms").resolve(armId(a + 1));
             Files.createDirectories(armDir);
             for (int k = 0; k < count; k++) {
                 if (skipped.contains((a + 1) + "/" + (k + 1))) {
@@ -324,7 +345,7 @@ final class SyntheticStudy {
             size += 8 * v.length;
         }
         java.nio.ByteBuffer b = java.nio.ByteBuffer.allocate(size).order(java.nio.ByteOrder.LITTLE_ENDIAN);
-        b.put("SETTLEBN".getBytes(java.nio.charset.StandardCharsets.US_ASCII)).putInt(3).putInt(names.size());
+        b.put("SETTLEBN".getBytes(java.nio.charset.StandardCharsets.US_ASCII)).putInt(4).putInt(names.size());
         for (int i = 0; i < names.size(); i++) {
             b.put(java.util.Arrays.copyOf(names.get(i).getBytes(java.nio.charset.StandardCharsets.US_ASCII), 32));
             b.putInt(shapes.get(i)[0]).putInt(shapes.get(i)[1]);
@@ -358,7 +379,7 @@ final class SyntheticStudy {
         boolean diverged = rep.status.equals("diverged");
         ObjectNode r = MAPPER.createObjectNode();
         r.put("format", format);
-        r.put("arm", a + 1);
+        r.put("arm_id", armId(a + 1));
         r.put("arm_name", arms.get(a));
         r.put("replicate", k + 1);
         r.putObject("seeds").put("algorithm", "L64X128MixRandom").put("root", 7).put("initialisation", 100 + k)

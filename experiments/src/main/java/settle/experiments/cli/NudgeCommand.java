@@ -148,8 +148,9 @@ public final class NudgeCommand implements Callable<Integer> {
     /** @return whether every replicate of the arm is written, or its replicates have run their last epoch */
     private boolean finished(Plan plan, int index) {
         boolean all = true;
+        String id = settle.experiments.plan.PlanWriter.armId(plan.arms().get(index - 1));
         for (int r = 1; r <= plan.replicates() && all; r++) {
-            all = Files.exists(StudyFormat.replicateFile(study, index, r));
+            all = Files.exists(StudyFormat.replicateFile(study, id, r));
         }
         if (all) {
             return true;

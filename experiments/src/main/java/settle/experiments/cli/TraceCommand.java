@@ -227,7 +227,7 @@ public final class TraceCommand implements Callable<Integer> {
                     ReplicateJson.writeFiles(dump.resolve("replicate.json"), ReplicateJson.write(ReplicateFile.of(
                             context, key, result)));
                     also = " and " + dump.resolve("replicate.json") + " with replicate.bin (the study's "
-                            + StudyFormat.replicatePath(key.arm(), key.replicate()) + " and its binary file)";
+                            + StudyFormat.replicatePath(context.armId(key.arm()), key.replicate()) + " and its binary file)";
                 }
             } catch (IOException e) {
                 throw new IOException("cannot write " + dump + ": " + e.getMessage(), e);

@@ -14,6 +14,7 @@ import settle.engine.model.ModelSpec;
 import settle.engine.schedule.NudgeLog;
 import settle.engine.train.TrainingSettings;
 import settle.reports.format.AtomicFile;
+import settle.reports.format.StudyFormat;
 
 /**
  * Writes a resolved {@link Plan} as YAML in a canonical form: every key written (defaults included, except the
@@ -42,6 +43,55 @@ public final class PlanWriter {
         b.append("study: ").append(scalar(plan.study())).append('\n');
         b.append("seed: ").append(plan.seed()).append('\n');
         b.append("replicates: ").append(plan.replicates()).append('\n');
+        shared(plan, b);
+        b.append("baseline: ").append(scalar(plan.baseline())).append('\n');
+        b.append("arms:\n");
+        for (ArmPlan a : plan.arms()) {
+            arm(a, b);
+        }
+        return b.toString();
+    }
+
+    /**
+     * The shared settings as the resolved plan writes them: {@code seed}, then {@code data}, {@code model} and
+     * {@code training}; everything a replicate depends on but its arm and its index. The study's name, the replicate
+     * count, the baseline and the arms are not in it, so a study grows (more arms, more replicates, another
+     * baseline) while its SHA-256 stays the same.
+     *
+     * @return the text, ending with a newline
+     */
+    public static String settingsYaml(Plan plan) {
+        StringBuilder b = new StringBuilder();
+        b.append("seed: ").append(plan.seed()).append('\n');
+        shared(plan, b);
+        return b.toString();
+    }
+
+    /** @return the lower-case hexadecimal SHA-256 of {@link #settingsYaml}: the manifest's {@code settings_sha256} */
+    public static String settingsSha256(Plan plan) {
+        return sha256(settingsYaml(plan));
+    }
+
+    /**
+     * @return an arm's canonical specification: its entry under {@code arms:} in the resolved plan, ending with a
+     *     newline (its name, schedule, average, manual and nudges)
+     */
+    public static String armYaml(ArmPlan arm) {
+        StringBuilder b = new StringBuilder();
+        arm(arm, b);
+        return b.toString();
+    }
+
+    /**
+     * @return the arm's id, the name of its directory in the study: its name made safe and the first digits of the
+     *     SHA-256 of {@link #armYaml} ({@link StudyFormat#armId})
+     */
+    public static String armId(ArmPlan arm) {
+        return StudyFormat.armId(arm.name(), sha256(armYaml(arm)));
+    }
+
+    /** Appends {@code data}, {@code model} and {@code training}. */
+    private static void shared(Plan plan, StringBuilder b) {
         DataPlan d = plan.data();
         b.append("data:\n");
         b.append("  source: ").append(scalar(d.source())).append('\n');
@@ -85,25 +135,24 @@ public final class PlanWriter {
         b.append("  momentum: ").append(number(t.momentum())).append('\n');
         b.append("  tail: ").append(number(t.tail())).append('\n');
         b.append("  snapshots: ").append(t.snapshots()).append('\n');
-        b.append("baseline: ").append(scalar(plan.baseline())).append('\n');
-        b.append("arms:\n");
-        for (ArmPlan a : plan.arms()) {
-            b.append("  - name: ").append(scalar(a.name())).append('\n');
-            b.append("    schedule: ").append(flow(a.schedule().settings())).append('\n');
-            b.append("    average: ").append(a.average().yamlName()).append('\n');
-            b.append("    manual: ").append(a.manual()).append('\n');
-            if (!a.nudges().isEmpty()) {
-                b.append("    nudges:\n");
-                for (NudgeLog.Entry n : a.nudges()) {
-                    Map<String, Object> nudge = new java.util.LinkedHashMap<>();
-                    nudge.put("from", n.from());
-                    nudge.put("factor", n.factor());
-                    nudge.put("note", n.note());
-                    b.append("      - ").append(flow(nudge)).append('\n');
-                }
+    }
+
+    /** Appends one arm's entry under {@code arms:}. */
+    private static void arm(ArmPlan a, StringBuilder b) {
+        b.append("  - name: ").append(scalar(a.name())).append('\n');
+        b.append("    schedule: ").append(flow(a.schedule().settings())).append('\n');
+        b.append("    average: ").append(a.average().yamlName()).append('\n');
+        b.append("    manual: ").append(a.manual()).append('\n');
+        if (!a.nudges().isEmpty()) {
+            b.append("    nudges:\n");
+            for (NudgeLog.Entry n : a.nudges()) {
+                Map<String, Object> nudge = new java.util.LinkedHashMap<>();
+                nudge.put("from", n.from());
+                nudge.put("factor", n.factor());
+                nudge.put("note", n.note());
+                b.append("      - ").append(flow(nudge)).append('\n');
             }
         }
-        return b.toString();
     }
 
     /**
@@ -118,9 +167,14 @@ public final class PlanWriter {
 
     /** @return the lower-case hexadecimal SHA-256 of the UTF-8 bytes of {@link #toYaml(Plan)} */
     public static String sha256(Plan plan) {
+        return sha256(toYaml(plan));
+    }
+
+    /** @return the lower-case hexadecimal SHA-256 of the UTF-8 bytes of {@code text} */
+    private static String sha256(String text) {
         try {
             MessageDigest digest = MessageDigest.getInstance("SHA-256");
-            return HexFormat.of().formatHex(digest.digest(toYaml(plan).getBytes(StandardCharsets.UTF_8)));
+            return HexFormat.of().formatHex(digest.digest(text.getBytes(StandardCharsets.UTF_8)));
         } catch (NoSuchAlgorithmException e) {
             throw new IllegalStateException("every Java platform has SHA-256", e);
         }

@@ -3,8 +3,9 @@ package settle.experiments.run;
 import java.io.Serializable;
 
 /**
- * One unit of work of a study: replicate {@code replicate} (numbered from 1) of the arm with directory index
- * {@code arm} (numbered from 1, in plan order after grid expansion).
+ * One unit of work of a study: replicate {@code replicate} (numbered from 1) of the arm with index {@code arm}
+ * (numbered from 1, in plan order after grid expansion). The index is the running plan's only: the arm's files are
+ * in its directory named by its id ({@code StudyContext.armId}), whatever its position.
  */
 public record ReplicateKey(int arm, int replicate) implements Serializable, Comparable<ReplicateKey> {
 

@@ -32,7 +32,8 @@ public final class ReplicateFile {
     }
 
     /**
-     * @param key which replicate
+     * @param key which replicate (its arm's index is not recorded: the file is the same wherever the arm stands)
+     * @param armId the arm's id, the name of its directory
      * @param armName the arm's name
      * @param classes K, the number of classes (the columns of the test probabilities)
      * @param result what the replicate recorded
@@ -41,7 +42,7 @@ public final class ReplicateFile {
      * @param plateauCuts where a plateau schedule cut this replicate's rate, in epoch order
      * @return the replicate's record
      */
-    public static Replicate record(ReplicateKey key, String armName, int classes, ReplicateResult result,
+    public static Replicate record(ReplicateKey key, String armId, String armName, int classes, ReplicateResult result,
             NoiseBallPrediction prediction, List<NudgeLog.Entry> nudges, List<PlateauCuts.Cut> plateauCuts) {
         ReplicateSeeds s = result.seeds();
         Wander w = result.wander();
@@ -92,7 +93,7 @@ public final class ReplicateFile {
         for (PlateauCuts.Cut c : plateauCuts) {
             cuts.add(new PlateauCut(c.fromEpoch(), c.rate()));
         }
-        return new Replicate(key.arm(), armName, key.replicate(), new Replicate.Seeds(s.algorithm(), s.rootSeed(),
+        return new Replicate(armId, armName, key.replicate(), new Replicate.Seeds(s.algorithm(), s.rootSeed(),
                 s.initialisationSeed(), s.samplingSeed()), result.status().key(), result.divergedAt(),
                 result.totalUpdates(), result.rates().length, result.averageTail(), result.initialObjective(),
                 metrics, averagedObjective, tail, new Replicate.Epochs(series[0], series[1], series[2], series[3],
@@ -134,7 +135,8 @@ public final class ReplicateFile {
             }
         }
         List<PlateauCuts.Cut> cuts = PlateauCuts.of(arm.schedule().schedule(), context.shape(), result);
-        return record(key, arm.name(), context.model().classes(), result, context.predict(result), applied, cuts);
+        return record(key, context.armId(key.arm()), arm.name(), context.model().classes(), result,
+                context.predict(result), applied, cuts);
     }
 
     /**
@@ -144,6 +146,6 @@ public final class ReplicateFile {
     public static ReplicateOutcome outcome(StudyContext context, ReplicateKey key, ReplicateResult result) {
         Replicate r = of(context, key, result);
         return new ReplicateOutcome(key, ReplicateJson.write(r), result.diverged(), result.rates().length,
-                EpochsCsv.rows(r.arm(), r.armName(), r.replicate(), r.epochs()));
+                EpochsCsv.rows(key.arm(), r.armName(), r.replicate(), r.epochs()));
     }
 }

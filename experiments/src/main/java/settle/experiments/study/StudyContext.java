@@ -28,6 +28,7 @@ import settle.engine.train.TrainingSettings;
 import settle.experiments.plan.ArmPlan;
 import settle.experiments.plan.ParsedPlan;
 import settle.experiments.plan.Plan;
+import settle.experiments.plan.PlanWriter;
 import settle.experiments.plan.PlanData;
 import settle.experiments.run.ReplicateKey;
 import settle.input.BadInputException;
@@ -280,7 +281,19 @@ public final class StudyContext {
         return trainers.get(arm - 1);
     }
 
-    /** @return the derived seeds of replicate {@code replicate} (1-based), the same for every arm */
+    /**
+     * @return the id of the arm with 1-based index {@code arm}, the name of its directory in the study: its name and
+     *     the hash of its specification, never its position ({@link PlanWriter#armId})
+     */
+    public String armId(int arm) {
+        return PlanWriter.armId(plan().arms().get(arm - 1));
+    }
+
+    /**
+     * @return the derived seeds of replicate {@code replicate} (1-based), the same for every arm: they depend on the
+     *     plan's seed and the replicate alone, never on the arm or its position, so replicate k of every arm sees the
+     *     same start and the same mini-batches, and an arm's files do not change when arms are added or reordered
+     */
     public ReplicateSeeds seeds(int replicate) {
         return ReplicateSeeds.derive(plan().seed(), replicate);
     }

@@ -28,6 +28,7 @@ import settle.experiments.manual.ProgressBoard;
 import settle.experiments.plan.Plan;
 import settle.experiments.plan.PlanData;
 import settle.experiments.plan.PlanWriter;
+import settle.experiments.plan.SharedSettings;
 import settle.experiments.run.LocalExecutor;
 import settle.experiments.run.Progress;
 import settle.experiments.run.ReplicateExecutor;
@@ -158,6 +159,7 @@ public final class StudyRunner {
         String planHash = PlanWriter.sha256(plan);
         String dataHash = Hashes.of(context.data().all());
         String splitHash = splitHash(context.data());
+        String settingsHash = PlanWriter.settingsSha256(plan);
         if (Files.exists(directory) && !Files.isDirectory(directory)) {
             throw BadInputException.inFile(directory.toString(), "--out", "a file, not a directory; expected the study"
                     + " directory (it is made if missing)");
@@ -165,7 +167,7 @@ public final class StudyRunner {
         boolean existed = Files.exists(directory);
         try (StudyLock lock = StudyLock.acquire(directory)) {
             try {
-                prepare(fresh, planHash, dataHash, splitHash);
+                prepare(fresh, planHash, dataHash, splitHash, settingsHash);
             } catch (BadInputException e) {
                 lock.close();
                 if (!existed) {
@@ -190,7 +192,7 @@ public final class StudyRunner {
             int[] presentDiverged = new int[plan.arms().size() + 1];
             AtomicFile.removeLeftovers(directory);
             for (int a = 1; a <= plan.arms().size(); a++) {
-                AtomicFile.removeLeftovers(StudyFormat.armDirectory(directory, a));
+                AtomicFile.removeLeftovers(StudyFormat.armDirectory(directory, context.armId(a)));
             }
             // every file an earlier run left is read and checked once; files are independent, so in parallel, each
             // into its own slot; a file that fails is then set aside in key order, so the notes come in a fixed order
@@ -218,7 +220,7 @@ public final class StudyRunner {
             if (!manualArms.isEmpty()) {
                 ManualArms.writeReplay(directory, plan, logs());
             }
-            writeManifest(started, null, planHash, dataHash, splitHash);
+            writeManifest(started, null, planHash, dataHash, splitHash, settingsHash);
             int toRun = missing.size() + manualMissing.size();
             Progress progress = new Progress(err, progressMode, all.size(), all.size() - toRun);
             ReplicateWork work = new LocalWork(context);
@@ -234,8 +236,8 @@ public final class StudyRunner {
             Runtime.getRuntime().addShutdownHook(onInterrupt);
             ReplicateExecutor.Sink sink = outcome -> {
                 ReplicateKey key = outcome.key();
-                ReplicateJson.writeFiles(StudyFormat.replicateFile(directory, key.arm(), key.replicate()),
-                        outcome.file());
+                ReplicateJson.writeFiles(StudyFormat.replicateFile(directory, context.armId(key.arm()),
+                        key.replicate()), outcome.file());
                 int i = index(key);
                 synchronized (status) {
                     status[i] = outcome.diverged() ? Replicate.DIVERGED : Replicate.FINISHED;
@@ -269,7 +271,8 @@ public final class StudyRunner {
                 }
             }
             EpochsCsv.write(directory, rows);
-            Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash);
+            Outcome outcome = writeManifest(started, Instant.now().toString(), planHash, dataHash, splitHash,
+                    settingsHash);
             ReportWritten report = writeReport();
             return new Outcome(directory, outcome.total(), outcome.finished(), outcome.diverged(), outcome.missing(),
                     missing.size(), report.problem(), report.outcome());
@@ -277,10 +280,12 @@ public final class StudyRunner {
     }
 
     /**
-     * Everything that may refuse the run, before anything is written: an older or unreadable manifest, a plan or data
-     * that changed under the study (unless fresh), manual arms on a cluster; then, when fresh, discards the results.
+     * Everything that may refuse the run, before anything is written: an older or unreadable manifest, shared settings
+     * or data that changed under the study (unless fresh), manual arms on a cluster; then, when fresh, discards the
+     * results, and otherwise puts the arm directories in order for this plan ({@link #arrangeArms}).
      */
-    private void prepare(boolean fresh, String planHash, String dataHash, String splitHash) throws IOException {
+    private void prepare(boolean fresh, String planHash, String dataHash, String splitHash, String settingsHash)
+            throws IOException {
         Path manifestFile = directory.resolve(StudyFormat.MANIFEST);
         grids = context.parsed().grids();
         if (Files.exists(manifestFile) && !fresh) {
@@ -294,12 +299,13 @@ public final class StudyRunner {
                 } catch (BadInputException e) {
                     throw StudyFormat.damagedEncoding(directory, e);
                 }
-                boolean unchanged = planHash.equals(earlier.planSha256()) && dataHash.equals(earlier.dataSha256())
-                        && splitHash.equals(earlier.splitSha256());
+                boolean unchanged = settingsHash.equals(earlier.settingsSha256())
+                        && dataHash.equals(earlier.dataSha256()) && splitHash.equals(earlier.splitSha256());
                 EncodingFile.refuseChanged(directory, recorded, encoding(), unchanged);
             }
-            refuseChanged(earlier, planHash, dataHash, splitHash);
-            if (grids.isEmpty() && fitsThisPlan(earlier.grids())) {
+            refuseChanged(earlier, dataHash, splitHash, settingsHash);
+            // a grid recorded by an earlier run is kept only for the same arms (its members are arm indices)
+            if (grids.isEmpty() && planHash.equals(earlier.planSha256()) && fitsThisPlan(earlier.grids())) {
                 grids = earlier.grids();
             }
         }
@@ -309,6 +315,55 @@ public final class StudyRunner {
         }
         if (fresh) {
             clear();
+        } else {
+            arrangeArms();
+        }
+    }
+
+    /**
+     * Puts the arm directories in order for this plan: the directory of an arm no longer in the plan moves from
+     * {@code arms/} to {@code retired/} (kept, never deleted), and that of an arm of the plan which is in
+     * {@code retired/} moves back, so its replicates are used again. Lists directories by name only: nothing is
+     * opened or read.
+     */
+    private void arrangeArms() throws IOException {
+        java.util.Set<String> ids = new java.util.LinkedHashSet<>();
+        for (int a = 1; a <= context.plan().arms().size(); a++) {
+            ids.add(context.armId(a));
+        }
+        Path arms = directory.resolve(StudyFormat.ARMS);
+        Path retired = directory.resolve(StudyFormat.RETIRED);
+        for (String name : names(arms)) {
+            if (!ids.contains(name)) {
+                Files.createDirectories(retired);
+                Path to = retired.resolve(name);
+                for (int n = 2; Files.exists(to); n++) {
+                    to = retired.resolve(name + "." + n);
+                }
+                Files.move(arms.resolve(name), to, java.nio.file.StandardCopyOption.ATOMIC_MOVE);
+                notes.println("settle run: " + StudyFormat.ARMS + "/" + name + " is not an arm of this plan: moved to "
+                        + StudyFormat.RETIRED + "/" + to.getFileName() + " (kept; an arm put back is moved back)");
+            }
+        }
+        List<String> back = names(retired);
+        for (String id : ids) {
+            if (back.contains(id) && !Files.exists(arms.resolve(id))) {
+                Files.createDirectories(arms);
+                Files.move(retired.resolve(id), arms.resolve(id), java.nio.file.StandardCopyOption.ATOMIC_MOVE);
+                notes.println("settle run: " + StudyFormat.RETIRED + "/" + id + " is an arm of this plan again: moved"
+                        + " back to " + StudyFormat.ARMS + "/" + id + ", its replicates kept");
+            }
+        }
+        notes.flush();
+    }
+
+    /** @return the names in {@code dir} (none when it does not exist), sorted; by name only, nothing is read */
+    private static List<String> names(Path dir) throws IOException {
+        if (!Files.isDirectory(dir)) {
+            return List.of();
+        }
+        try (var entries = Files.list(dir)) {
+            return entries.map(p -> p.getFileName().toString()).sorted().toList();
         }
     }
 
@@ -349,12 +404,13 @@ public final class StudyRunner {
      * @return null when the file is kept or there is none; else one line saying what is wrong with it
      */
     private String check(ReplicateKey key) {
-        Path file = StudyFormat.replicateFile(directory, key.arm(), key.replicate());
+        String id = context.armId(key.arm());
+        Path file = StudyFormat.replicateFile(directory, id, key.replicate());
         if (!Files.exists(file)) {
             return null;
         }
         Plan plan = context.plan();
-        ReplicateJson.Expected expected = new ReplicateJson.Expected(key.arm(), plan.arms().get(key.arm() - 1).name(),
+        ReplicateJson.Expected expected = new ReplicateJson.Expected(id, plan.arms().get(key.arm() - 1).name(),
                 key.replicate(), plan.seed(), seeds(key.replicate()), context.model().parameterCount(),
                 context.model().classes(), context.data().test().rows(), context.shape().updatesPerEpoch(),
                 context.shape().totalUpdates(), context.minimum() != null);
@@ -362,7 +418,7 @@ public final class StudyRunner {
             Replicate r = ReplicateJson.readFiles(file, expected);
             int i = index(key);
             status[i] = r.status();
-            epochRows[i] = EpochsCsv.rows(r.arm(), r.armName(), r.replicate(), r.epochs());
+            epochRows[i] = EpochsCsv.rows(key.arm(), r.armName(), r.replicate(), r.epochs());
             return null;
         } catch (BadInputException e) {
             return e.getMessage();
@@ -373,8 +429,9 @@ public final class StudyRunner {
 
     /** Moves the invalid replicate file of {@code key} aside (never deleting it) and says so on stderr. */
     private void setAside(ReplicateKey key, String why) throws IOException {
-        Path aside = StudyFormat.quarantine(StudyFormat.replicateFile(directory, key.arm(), key.replicate()));
-        Path binary = StudyFormat.binaryFile(directory, key.arm(), key.replicate());
+        String id = context.armId(key.arm());
+        Path aside = StudyFormat.quarantine(StudyFormat.replicateFile(directory, id, key.replicate()));
+        Path binary = StudyFormat.binaryFile(directory, id, key.replicate());
         String alsoBinary = "";
         if (Files.exists(binary)) {
             alsoBinary = " (with " + StudyFormat.quarantine(binary).getFileName() + ")";
@@ -517,27 +574,43 @@ public final class StudyRunner {
         return all;
     }
 
-    private void refuseChanged(ManifestJson.Earlier old, String planHash, String dataHash, String splitHash) {
+    /**
+     * Refuses a study whose shared settings (seed, data and its encoding, model, training), data or split changed:
+     * one line naming every shared key that changed with its new and old values, and what to do. Arms, the replicate
+     * count, the baseline and the study's name may change: the study grows.
+     */
+    private void refuseChanged(ManifestJson.Earlier old, String dataHash, String splitHash, String settingsHash) {
         List<String> changed = new ArrayList<>();
-        if (!planHash.equals(old.planSha256())) {
-            changed.add("the plan");
+        if (!settingsHash.equals(old.settingsSha256())) {
+            Path planFile = directory.resolve(StudyFormat.PLAN);
+            try {
+                changed.addAll(SharedSettings.changes(Files.readString(planFile), context.plan()));
+            } catch (IOException e) {
+                // no key by key: the study's plan.yaml cannot say which
+            }
+            if (changed.isEmpty()) {
+                changed.add("the shared settings (seed, data, model, training; " + planFile.getFileName()
+                        + " cannot say which)");
+            }
         }
         if (!dataHash.equals(old.dataSha256())) {
-            changed.add("the data");
+            changed.add("the data (its SHA-256)");
         }
-        if (!splitHash.equals(old.splitSha256())) {
-            changed.add("the split");
+        if (!splitHash.equals(old.splitSha256()) && changed.isEmpty()) {
+            changed.add("the split (its SHA-256)");
         }
         if (!changed.isEmpty()) {
-            throw BadInputException.inFile(directory.toString(), "", String.join(" and ", changed)
-                    + " changed since this study was run; use --fresh to discard its results, or --out DIR for a new"
-                    + " study");
+            throw BadInputException.inFile(directory.toString(), "", "changed since this study was run: "
+                    + String.join(", ", changed) + "; a study grows (arms, replicates) only while its seed, data, model"
+                    + " and training stay the same: use --fresh to discard its results, or --out DIR for a new study");
         }
     }
 
     private void clear() throws IOException {
-        Path arms = directory.resolve(StudyFormat.ARMS);
-        if (Files.exists(arms)) {
+        for (Path arms : List.of(directory.resolve(StudyFormat.ARMS), directory.resolve(StudyFormat.RETIRED))) {
+            if (!Files.exists(arms)) {
+                continue;
+            }
             try (var walk = Files.walk(arms)) {
                 List<Path> paths = walk.sorted((a, b) -> b.getNameCount() - a.getNameCount()).toList();
                 for (Path p : paths) {
@@ -575,11 +648,11 @@ public final class StudyRunner {
             }
         }
         for (NudgeRecord n : logged) {
-            int a = n.armIndex();
-            if (a > plan.arms().size() || !plan.arms().get(a - 1).name().equals(n.arm())
-                    || !plan.arms().get(a - 1).manual()) {
+            // by name: the arm may stand elsewhere in a plan that grew
+            int a = LockstepRunner.armIndex(plan, n.arm());
+            if (a < 1 || !plan.arms().get(a - 1).manual()) {
                 throw BadInputException.inFile(directory.resolve(StudyFormat.NUDGES).toString(), "", "a nudge of arm "
-                        + a + " " + BadInputException.shown(n.arm()) + ", which is not a manual arm of this plan; use"
+                        + n.armIndex() + " " + BadInputException.shown(n.arm()) + ", which is not a manual arm of this plan; use"
                         + " --fresh to discard the study");
             }
             context.nudgeLog(a).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
@@ -600,9 +673,8 @@ public final class StudyRunner {
         try {
             JsonNode old = MAPPER.readTree(file.toFile());
             for (JsonNode arm : old.path("arms")) {
-                int index = arm.path("index").asInt();
-                if (manualArms.contains(index) && index <= context.plan().arms().size() && arm.path("name").asText().equals(
-                        context.plan().arms().get(index - 1).name())) {
+                int index = LockstepRunner.armIndex(context.plan(), arm.path("name").asText());
+                if (manualArms.contains(index)) {
                     out.put(index, arm.path("epoch").asInt(0) + 1);
                 }
             }
@@ -664,8 +736,8 @@ public final class StudyRunner {
     }
 
     /** Writes the manifest, with each replicate's status as held in memory. */
-    private Outcome writeManifest(String started, String ended, String planHash, String dataHash, String splitHash)
-            throws IOException {
+    private Outcome writeManifest(String started, String ended, String planHash, String dataHash, String splitHash,
+            String settingsHash) throws IOException {
         Plan plan = context.plan();
         PlanData data = context.data();
         List<ReplicateKey> keys = context.keys();
@@ -689,8 +761,10 @@ public final class StudyRunner {
         }
         Standardiser st = data.standardiser();
         List<String> arms = new ArrayList<>();
-        for (var arm : plan.arms()) {
-            arms.add(arm.name());
+        List<String> armIds = new ArrayList<>();
+        for (int a = 1; a <= plan.arms().size(); a++) {
+            arms.add(plan.arms().get(a - 1).name());
+            armIds.add(context.armId(a));
         }
         Manifest manifest = new Manifest(StudyFormat.VERSION, plan.study(),
                 new Manifest.Tool("settle", Provenance.version(), Provenance.gitCommit()),
@@ -699,7 +773,7 @@ public final class StudyRunner {
                 new Manifest.Cpu(Provenance.cpuModel(), System.getProperty("os.arch", ""),
                         Runtime.getRuntime().availableProcessors()),
                 executor.describe(), executor.parallelism(), commandLine, ReplicateSeeds.ALGORITHM, plan.seed(),
-                started, ended, planHash, dataHash, splitHash,
+                started, ended, planHash, dataHash, splitHash, settingsHash,
                 new Manifest.Data(plan.data().source(), data.all().rows(), data.all().features(),
                         data.all().featureNames(), data.all().classNames(), data.train().rows(), data.test().rows(),
                         data.holdout() == null ? 0 : data.holdout().rows(),
@@ -707,7 +781,7 @@ public final class StudyRunner {
                 st == null ? null : new Manifest.Standardisation(st.means(), st.scales()),
                 context.model().describe(), context.model().parameterCount(), plan.model().l2(),
                 context.minimum() == null ? "none: the model is not convex" : StudyFormat.REFERENCE, plan.baseline(),
-                arms, grids, statuses);
+                arms, armIds, grids, statuses);
         AtomicFile.write(directory.resolve(StudyFormat.MANIFEST), ManifestJson.write(manifest));
         return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "", null);
     }

@@ -1,5 +1,6 @@
 package settle.experiments.cli;
 
+import settle.experiments.study.StudyFiles;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -50,8 +51,8 @@ class TracePlanTest {
         Path dump = dir.resolve("dump");
         assertEquals(0, settle(out, err, "trace", "--plan", plan.toString(), "--arm", "plateau", "--replicate", "2",
                 "--dump", dump.toString()), err.toString());
-        assertArrayEquals(Files.readAllBytes(study.resolve("arms/2/2.json")), Files.readAllBytes(dump.resolve("replicate.json")));
-        assertArrayEquals(Files.readAllBytes(study.resolve("arms/2/2.bin")), Files.readAllBytes(dump.resolve("replicate.bin")));
+        assertArrayEquals(Files.readAllBytes(StudyFiles.arm(study, 2).resolve("2.json")), Files.readAllBytes(dump.resolve("replicate.json")));
+        assertArrayEquals(Files.readAllBytes(StudyFiles.arm(study, 2).resolve("2.bin")), Files.readAllBytes(dump.resolve("replicate.bin")));
         assertTrue(out.toString().contains("arm 2 'plateau', replicate 2 of 3"), out.toString());
         assertEquals(7, Files.readAllLines(dump.resolve(TraceCommand.EPOCHS_FILE)).size(), "header and 6 epochs");
     }

@@ -134,7 +134,7 @@ class ManualArmTest {
 
         int updatesPerEpoch = 23; // ⌈180 training rows / 8⌉
         for (int r = 1; r <= 3; r++) {
-            JsonNode rep = StudyFiles.replicate(study.resolve("arms/2/" + r + ".json"));
+            JsonNode rep = StudyFiles.replicate(StudyFiles.arm(study, 2).resolve(r + ".json"));
             assertEquals(2, rep.path("nudges").size());
             assertEquals(halve.fromEpoch(), rep.path("nudges").get(0).path("from_epoch").asInt());
             assertEquals("loss flat, halve it", rep.path("nudges").get(0).path("note").asText());
@@ -148,7 +148,7 @@ class ManualArmTest {
             }
             int first = (target.fromEpoch() - 1) * updatesPerEpoch;
             assertEquals(0.02, rates.get(first).asDouble(), 0.02 * RATE_TOLERANCE, "the --rate nudge's first update");
-            assertEquals(0, StudyFiles.replicate(study.resolve("arms/1/" + r + ".json")).path("nudges").size());
+            assertEquals(0, StudyFiles.replicate(StudyFiles.arm(study, 1).resolve(r + ".json")).path("nudges").size());
         }
 
         // the ended study: follow prints it once and ends; nudges are refused
@@ -208,7 +208,7 @@ class ManualArmTest {
         assertEquals(reached + 2, nudges.get(0).fromEpoch());
         assertEquals(2.0, nudges.get(1).factor());
         assertTrue(NudgeQueue.pending(study).requests().isEmpty());
-        JsonNode rep = StudyFiles.replicate(study.resolve("arms/2/1.json"));
+        JsonNode rep = StudyFiles.replicate(StudyFiles.arm(study, 2).resolve("1.json"));
         assertEquals(2, rep.path("nudges").size());
 
         Path replay = dir.resolve("crash-replayed");

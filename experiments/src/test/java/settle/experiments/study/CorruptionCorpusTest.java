@@ -36,8 +36,10 @@ class CorruptionCorpusTest {
     private static Path plan;
     private static Path original;
 
-    /** The damaged file: replicate 2 of arm 3. */
-    private static final String DAMAGED = "arms/3/2.json";
+    /** @return the damaged file: replicate 2 of arm 3 */
+    private static Path damaged(Path study) throws Exception {
+        return StudyFiles.arm(study, 3).resolve("2.json");
+    }
 
     @BeforeAll
     static void aFinishedStudy() throws Exception {
@@ -94,8 +96,8 @@ class CorruptionCorpusTest {
     }
 
     private static List<Damage> corpus() throws Exception {
-        byte[] other = Files.readAllBytes(original.resolve("arms/3/1.json"));
-        byte[] otherBinary = Files.readAllBytes(original.resolve("arms/3/1.bin"));
+        byte[] other = Files.readAllBytes(StudyFiles.arm(original, 3).resolve("1.json"));
+        byte[] otherBinary = Files.readAllBytes(StudyFiles.arm(original, 3).resolve("1.bin"));
         return List.of(
                 new Damage("truncated", b -> Arrays.copyOf(b, b.length / 2), ":NUMBERS: not valid JSON: the file ends in"
                         + " the middle of a value (it was cut short)"),
@@ -105,8 +107,8 @@ class CorruptionCorpusTest {
                     return c;
                 }, ":NUMBERS: not valid JSON: it holds a control character (a NUL byte) where JSON allows none"),
                 new Damage("empty", b -> new byte[0], ": the file is empty; expected a JSON object"),
-                new Damage("another replicate's content", b -> other.clone(), ": replicate: the file holds arm 3"
-                        + " replicate 1; its path says arm 3 replicate 2"),
+                new Damage("another replicate's content", b -> other.clone(), ": replicate: the file holds arm ARMID"
+                        + " replicate 1; its path says arm ARMID replicate 2"),
                 new Damage("a missing field", text(s -> s.replaceFirst("\"final_gap\" : [^,]*,\\s*", "")),
                         ": metrics.final_gap: missing; every 'metrics' has it"),
                 new Damage("the metrics deleted", text(s -> s.replaceFirst("\"metrics\" : \\{[^}]*\\},\\s*", "")),
@@ -116,9 +118,9 @@ class CorruptionCorpusTest {
                 new Damage("an out-of-range value", text(s -> s.replaceFirst("\"tail_radius\" : [^,]*,",
                         "\"tail_radius\" : -5.0,")), ": metrics.tail_radius: must be a number ≥ 0 or null, not -5.0"),
                 new Damage("a wrong replicate index", text(s -> s.replaceFirst("\"replicate\" : 2,", "\"replicate\" : 9,")),
-                        ": replicate: the file holds arm 3 replicate 9; its path says arm 3 replicate 2"),
-                new Damage("a wrong format version", text(s -> s.replaceFirst("\"format\" : 3,", "\"format\" : 1,")),
-                        ": format: this file is in format 1; this settle reads format 3"),
+                        ": replicate: the file holds arm ARMID replicate 9; its path says arm ARMID replicate 2"),
+                new Damage("a wrong format version", text(s -> s.replaceFirst("\"format\" : 4,", "\"format\" : 1,")),
+                        ": format: this file is in format 1; this settle reads format 4"),
                 new Damage("the binary file missing", "2.bin", null, false, "2.bin", ": missing; the replicate's JSON"
                         + " records a binary file of NUMBER bytes beside it"),
                 new Damage("the binary file truncated", "2.bin", b -> Arrays.copyOf(b, b.length / 2), false, "2.bin",
@@ -142,7 +144,7 @@ class CorruptionCorpusTest {
                     byte[] c = b.clone();
                     ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(8, 2);
                     return sealed(c);
-                }, true, "2.bin", ": format: this file is in format 2; this settle reads format 3"),
+                }, true, "2.bin", ": format: this file is in format 2; this settle reads format 4"),
                 new Damage("a probability row that does not sum to 1", "2.bin", b -> {
                     byte[] c = b.clone();
                     ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putDouble(blockOffset(c,
@@ -169,6 +171,7 @@ class CorruptionCorpusTest {
     /** @return the problem as a pattern's text: NUMBERS stands for a line and column, NUMBER for a number */
     private static boolean matches(String expected, String actual) {
         String regex = java.util.regex.Pattern.quote(expected).replace("NUMBERS", "\\E[0-9]+:[0-9]+\\Q")
+                .replace("ARMID", "\\E'[A-Za-z0-9_.-]+-[0-9a-f]{12}'\\Q")
                 .replace("NUMBER", "\\E[0-9.E-]+\\Q")
                 .replace("HEX", "\\E[0-9a-f']{8,10}\\Q");
         return actual.matches(regex);
@@ -176,7 +179,7 @@ class CorruptionCorpusTest {
 
     @TestFactory
     List<DynamicTest> reportRefusesByNameAndRunTrainsAgain() throws Exception {
-        Path wholeJson = original.resolve(DAMAGED);
+        Path wholeJson = damaged(original);
         byte[] whole = Files.readAllBytes(wholeJson);
         byte[] wholeBinary = Files.readAllBytes(StudyFiles.binary(wholeJson));
         List<DynamicTest> tests = new ArrayList<>();
@@ -185,7 +188,7 @@ class CorruptionCorpusTest {
             Path study = dir.resolve("case-" + i++);
             tests.add(DynamicTest.dynamicTest(d.name(), () -> {
                 StudyFiles.copyTree(original, study);
-                Path json = study.resolve(DAMAGED);
+                Path json = damaged(study);
                 Path binary = StudyFiles.binary(json);
                 Path file = json.resolveSibling(d.file());
                 byte[] before = Files.readAllBytes(file);

@@ -17,7 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * A study directory written in format 1 by an earlier settle: {@code settle run} neither resumes it nor writes beside
  * it, and {@code settle report} shows none of its numbers; both say so in one line and exit 2. {@code --fresh}
- * rewrites it in format 3.
+ * rewrites it in format 4. So is a directory in format 3, whose arm directories were named by position.
  */
 class OlderFormatTest {
 
@@ -29,14 +29,19 @@ class OlderFormatTest {
 
     /** Turns every JSON file of a study directory into format 1, as an earlier settle wrote it. */
     private static void makeFormatOne(Path study, Path only) throws Exception {
+        makeFormat(study, only, 1);
+    }
+
+    /** Marks every JSON file of a study directory (or {@code only}) as of an earlier {@code format}. */
+    private static void makeFormat(Path study, Path only, int format) throws Exception {
         List<Path> files = new ArrayList<>(StudyFiles.replicateFiles(study));
         files.add(study.resolve("manifest.json"));
         files.add(study.resolve("reference.json"));
         for (Path f : files) {
             if (only == null || f.equals(only)) {
                 String text = Files.readString(f);
-                String old = text.replace("\"format\" : 3,", "\"format\" : 1,");
-                assertFalse(old.equals(text), "format 3 written in " + f);
+                String old = text.replace("\"format\" : 4,", "\"format\" : " + format + ",");
+                assertFalse(old.equals(text), "format 4 written in " + f);
                 Files.writeString(f, old);
             }
         }
@@ -63,7 +68,7 @@ class OlderFormatTest {
         assertEquals(0, StudyRunnerTest.settle(new StringWriter(), new StringWriter(), "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1"));
         // A killed earlier run: one replicate missing, so a run would resume it.
-        Files.delete(study.resolve("arms/2/3.json"));
+        Files.delete(StudyFiles.arm(study, 2).resolve("3.json"));
         makeFormatOne(study, null);
         Map<Path, byte[]> before = snapshot(study);
 
@@ -71,7 +76,7 @@ class OlderFormatTest {
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1"));
         assertEquals(study.resolve("manifest.json") + ": this study directory" + WHY + "settle run " + plan + " --out "
-                + study + " --quiet --threads 1 --fresh` to rewrite it in format 3", err.toString().trim());
+                + study + " --quiet --threads 1 --fresh` to rewrite it in format 4", err.toString().trim());
         Map<Path, byte[]> after = snapshot(study);
         assertEquals(before.keySet(), after.keySet(), "no file written or removed");
         for (Path p : before.keySet()) {
@@ -81,11 +86,34 @@ class OlderFormatTest {
         err = new StringWriter();
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
         assertEquals(study.resolve("manifest.json") + ": this study directory" + WHY + "settle run "
-                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 3",
+                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4",
                 err.toString().trim());
         assertArrayEquals(before.get(Path.of("report.html")), Files.readAllBytes(study.resolve("report.html")),
                 "the earlier report is left as it was");
 
+        err = new StringWriter();
+        assertEquals(0, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
+                study.toString(), "--quiet", "--threads", "1", "--fresh"), err.toString());
+        StudySchema.validate(study);
+    }
+
+    @Test
+    void runRefusesAFormatThreeDirectoryInOneLineAndFreshRewritesIt() throws Exception {
+        Path plan = dir.resolve("plan.yaml");
+        Files.writeString(plan, StudyRunnerTest.plan("three", 3, ""));
+        Path study = dir.resolve("study");
+        assertEquals(0, StudyRunnerTest.settle(new StringWriter(), new StringWriter(), "run", plan.toString(), "--out",
+                study.toString(), "--quiet", "--threads", "1"));
+        makeFormat(study, study.resolve("manifest.json"), 3);
+        Map<Path, byte[]> before = snapshot(study);
+        StringWriter err = new StringWriter();
+        assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
+                study.toString(), "--quiet", "--threads", "1"));
+        assertEquals(study.resolve("manifest.json") + ": this study directory is in format 3, written by an earlier"
+                + " settle whose arm directories are named by the arms' positions in the plan (format 4 names each by"
+                + " its arm's specification, so that a study can grow); rerun it with `settle run " + plan + " --out "
+                + study + " --quiet --threads 1 --fresh` to rewrite it in format 4", err.toString().trim());
+        assertEquals(before.keySet(), snapshot(study).keySet(), "no file written or removed");
         err = new StringWriter();
         assertEquals(0, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1", "--fresh"), err.toString());
@@ -99,23 +127,23 @@ class OlderFormatTest {
         Path study = dir.resolve("study");
         assertEquals(0, StudyRunnerTest.settle(new StringWriter(), new StringWriter(), "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1"));
-        Path file = study.resolve("arms/3/2.json");
+        Path file = StudyFiles.arm(study, 3).resolve("2.json");
         byte[] whole = Files.readAllBytes(file);
         makeFormatOne(study, file);
         byte[] older = Files.readAllBytes(file);
 
         StringWriter err = new StringWriter();
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
-        assertEquals(file + ": format: this file is in format 1; this settle reads format 3; settle run "
+        assertEquals(file + ": format: this file is in format 1; this settle reads format 4; settle run "
                 + study.resolve("plan.yaml") + " --out " + study + " sets invalid replicate files aside and trains them"
                 + " again", err.toString().trim());
 
         err = new StringWriter();
         assertEquals(0, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet"));
-        assertEquals("settle run: " + file + ": format: this file is in format 1; this settle reads format 3; moved"
+        assertEquals("settle run: " + file + ": format: this file is in format 1; this settle reads format 4; moved"
                 + " aside to 2.json.quarantined-1 (with 2.bin.quarantined-1) and trained again", err.toString().trim());
         assertArrayEquals(whole, Files.readAllBytes(file), "trained again, byte for byte");
-        assertArrayEquals(older, Files.readAllBytes(study.resolve("arms/3/2.json.quarantined-1")), "kept aside");
+        assertArrayEquals(older, Files.readAllBytes(StudyFiles.arm(study, 3).resolve("2.json.quarantined-1")), "kept aside");
     }
 }

@@ -48,7 +48,7 @@ class PlateauCutsTest {
         StudySchema.validate(study);
         int cutsSeen = 0;
         for (int r = 1; r <= 3; r++) {
-            JsonNode rep = StudyFiles.replicate(study.resolve("arms/1/" + r + ".json"));
+            JsonNode rep = StudyFiles.replicate(StudyFiles.arm(study, 1).resolve(r + ".json"));
             JsonNode rates = rep.path("epochs").path("rate");
             // without warmup a plateau rate is constant within an epoch and between cuts: a cut is a drop
             List<Integer> drops = new ArrayList<>();
@@ -68,7 +68,7 @@ class PlateauCutsTest {
             assertEquals(drops, recorded, "replicate " + r);
             assertEquals(dropRates, recordedRates, "replicate " + r);
             cutsSeen += recorded.size();
-            JsonNode constant = StudyFiles.replicate(study.resolve("arms/2/" + r + ".json"));
+            JsonNode constant = StudyFiles.replicate(StudyFiles.arm(study, 2).resolve(r + ".json"));
             assertEquals(0, constant.path("plateau_cuts").size());
         }
         assertFalse(cutsSeen == 0, "the plan is meant to cut: window 1 with a 5 % gain");

@@ -44,7 +44,7 @@ class ReportAfterRunTest {
         assertTrue(out.toString().contains("summary: "), out.toString());
         assertTrue(Files.exists(study.resolve("report.html")));
 
-        Files.delete(study.resolve("arms/2/3.json"));
+        Files.delete(StudyFiles.arm(study, 2).resolve("3.json"));
         err = new StringWriter();
         assertEquals(3, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
         assertTrue(err.toString().contains("partial study: 1 of 12 replicates missing"), err.toString());

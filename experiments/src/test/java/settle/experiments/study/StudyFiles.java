@@ -49,6 +49,16 @@ public final class StudyFiles {
     private static final ObjectMapper MAPPER = new ObjectMapper();
 
     /**
+     * @param a the arm's index in the study's plan, from 1
+     * @return the directory of the arm's replicate files, as the study's manifest.json names it ({@code arms/<id>})
+     */
+    public static Path arm(Path study, int a) throws Exception {
+        String directory = MAPPER.readTree(study.resolve("manifest.json").toFile()).path("arms").get(a - 1)
+                .path("directory").asText();
+        return study.resolve(directory);
+    }
+
+    /**
      * Reads a replicate's JSON and, independently of settle's reader, its binary file {@code <k>.bin} as the README
      * spells it (magic "SETTLEBN", format, block table, little-endian float64, CRC-32C of the rest), checks that the
      * JSON records the binary file's length and checksum, and puts each array back where format 2 wrote it in the

@@ -84,15 +84,15 @@ class StudyRunnerTest {
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", study.toString(),
                 "--quiet"));
         for (int k = 1; k <= 4; k++) {
-            JsonNode first = StudyFiles.replicate(study.resolve("arms/1/" + k + ".json"));
+            JsonNode first = StudyFiles.replicate(StudyFiles.arm(study, 1).resolve(k + ".json"));
             for (int arm = 2; arm <= 3; arm++) {
-                JsonNode other = StudyFiles.replicate(study.resolve("arms/" + arm + "/" + k + ".json"));
+                JsonNode other = StudyFiles.replicate(StudyFiles.arm(study, arm).resolve(k + ".json"));
                 assertEquals(first.path("seeds"), other.path("seeds"));
                 assertEquals(first.path("start"), other.path("start"));
             }
         }
-        JsonNode r1 = StudyFiles.replicate(study.resolve("arms/1/1.json"));
-        JsonNode r2 = StudyFiles.replicate(study.resolve("arms/1/2.json"));
+        JsonNode r1 = StudyFiles.replicate(StudyFiles.arm(study, 1).resolve("1.json"));
+        JsonNode r2 = StudyFiles.replicate(StudyFiles.arm(study, 1).resolve("2.json"));
         assertFalse(r1.path("seeds").equals(r2.path("seeds")));
     }
 
@@ -106,11 +106,11 @@ class StudyRunnerTest {
                 "--quiet"));
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", resumed.toString(),
                 "--quiet"));
-        Files.delete(resumed.resolve("arms/2/3.json"));
-        Files.delete(resumed.resolve("arms/3/1.json"));
+        Files.delete(StudyFiles.arm(resumed, 2).resolve("3.json"));
+        Files.delete(StudyFiles.arm(resumed, 3).resolve("1.json"));
         // what a writer killed outright leaves: a temporary file named with its (no longer live) pid
         String leftover = ".1.json." + deadPid() + ".1" + AtomicFile.TEMP_SUFFIX;
-        Files.writeString(resumed.resolve("arms/3").resolve(leftover), "{\"half");
+        Files.writeString(StudyFiles.arm(resumed, 3).resolve(leftover), "{\"half");
         StringWriter out = new StringWriter();
         assertEquals(0, settle(out, new StringWriter(), "run", planFile.toString(), "--out", resumed.toString(), "--quiet",
                 "--json"));
@@ -128,7 +128,7 @@ class StudyRunnerTest {
             assertTrue(arm.path("headline").asText().startsWith("ends "), arm.toString());
         }
         StudyFiles.assertSameReplicateFiles(whole, resumed);
-        assertFalse(Files.exists(resumed.resolve("arms/3").resolve(leftover)));
+        assertFalse(Files.exists(StudyFiles.arm(resumed, 3).resolve(leftover)));
     }
 
     @Test
@@ -141,13 +141,14 @@ class StudyRunnerTest {
         Files.writeString(planFile, plan("changed", 3, ""));
         StringWriter err = new StringWriter();
         assertEquals(2, settle(new StringWriter(), err, "run", planFile.toString(), "--out", study.toString(), "--quiet"));
-        assertEquals(study + ": the plan changed since this study was run; use --fresh to discard its results, "
-                + "or --out DIR for a new study", err.toString().trim());
-        assertEquals(2, StudyFiles.replicate(study.resolve("arms/1/1.json")).path("epochs").path("epoch").size(),
+        assertEquals(study + ": changed since this study was run: training.epochs: 3 (was 2); a study grows (arms,"
+                + " replicates) only while its seed, data, model and training stay the same: use --fresh to discard its"
+                + " results, or --out DIR for a new study", err.toString().trim());
+        assertEquals(2, StudyFiles.replicate(StudyFiles.arm(study, 1).resolve("1.json")).path("epochs").path("epoch").size(),
                 "the refused run must not touch the results");
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", planFile.toString(), "--out", study.toString(),
                 "--quiet", "--fresh"));
-        assertEquals(3, StudyFiles.replicate(study.resolve("arms/1/1.json")).path("epochs").path("epoch").size());
+        assertEquals(3, StudyFiles.replicate(StudyFiles.arm(study, 1).resolve("1.json")).path("epochs").path("epoch").size());
     }
 
     @Test
@@ -179,7 +180,7 @@ class StudyRunnerTest {
         assertEquals(4, summary.path("diverged").asInt());
         assertEquals(12, summary.path("finished").asInt());
         for (int k = 1; k <= 4; k++) {
-            JsonNode r = StudyFiles.replicate(study.resolve("arms/4/" + k + ".json"));
+            JsonNode r = StudyFiles.replicate(StudyFiles.arm(study, 4).resolve(k + ".json"));
             assertEquals("diverged", r.path("status").asText());
             long at = r.path("diverged_at_update").asLong();
             assertTrue(at >= 1 && at < r.path("total_updates").asLong(), "diverged at " + at);

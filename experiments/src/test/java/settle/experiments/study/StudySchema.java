@@ -1,6 +1,7 @@
 package settle.experiments.study;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.fasterxml.jackson.databind.JsonNode;
@@ -12,7 +13,7 @@ import java.util.ArrayList;
 import java.util.List;
 
 /**
- * Checks a study directory against the written schema of format 2 (README, "Study directory"): every file
+ * Checks a study directory against the written schema of format 4 (README, "Study directory"): every file
  * present, every field there with its type, sizes consistent across files.
  */
 final class StudySchema {
@@ -35,7 +36,7 @@ final class StudySchema {
             assertTrue(Files.isRegularFile(dir.resolve(file)), dir + " lacks " + file);
         }
         JsonNode m = MAPPER.readTree(dir.resolve("manifest.json").toFile());
-        assertEquals(3, m.path("format").asInt(), "manifest format");
+        assertEquals(4, m.path("format").asInt(), "manifest format");
         for (String key : List.of("plan_sha256", "data_sha256", "split_sha256")) {
             assertTrue(m.path(key).asText().matches("[0-9a-f]{64}"), key);
         }
@@ -59,10 +60,15 @@ final class StudySchema {
                 == data.path("features").asInt());
         int arms = m.path("arms").size();
         assertTrue(arms >= 1);
+        assertTrue(m.path("settings_sha256").asText().matches("[0-9a-f]{64}"), "settings_sha256");
+        java.util.Set<String> ids = new java.util.HashSet<>();
         for (int a = 0; a < arms; a++) {
             JsonNode arm = m.path("arms").get(a);
             assertEquals(a + 1, arm.path("index").asInt());
-            assertEquals("arms/" + (a + 1), arm.path("directory").asText());
+            String id = arm.path("id").asText();
+            assertTrue(id.matches("[A-Za-z0-9_-][A-Za-z0-9_.-]{0,39}-[0-9a-f]{12}"), "arms[].id: " + id);
+            assertTrue(ids.add(id), "arm ids are distinct: " + id);
+            assertEquals("arms/" + id, arm.path("directory").asText());
             assertTrue(arm.path("name").isTextual());
         }
         JsonNode enc = MAPPER.readTree(dir.resolve("encoding.json").toFile());
@@ -126,7 +132,7 @@ final class StudySchema {
                     assertEquals(m.path("arms").get(a).path("name").asText(), arm.path("name").asText());
                     // An arm whose replicate 1 finished without nudge or cut ran exactly its planned rates: the
                     // recorded value is the bound of those rates with the recorded D and G.
-                    Path first = dir.resolve("arms/" + (a + 1) + "/1.json");
+                    Path first = dir.resolve(m.path("arms").get(a).path("directory").asText()).resolve("1.json");
                     if (!Files.isRegularFile(first)) {
                         continue;
                     }
@@ -150,17 +156,19 @@ final class StudySchema {
             if (status.equals("missing")) {
                 continue;
             }
-            Path file = dir.resolve("arms/" + rep.path("arm").asInt() + "/" + rep.path("replicate").asInt() + ".json");
+            JsonNode arm = m.path("arms").get(rep.path("arm").asInt() - 1);
+            Path file = dir.resolve(arm.path("directory").asText()).resolve(rep.path("replicate").asInt() + ".json");
             JsonNode r = StudyFiles.replicate(file);
-            assertEquals(3, r.path("format").asInt());
+            assertEquals(4, r.path("format").asInt());
             JsonNode own = MAPPER.readTree(file.toFile());
             for (String big : List.of("rates", "start", "last")) {
                 assertTrue(!own.has(big), big + " lives in the binary file, not in the JSON");
             }
             assertTrue(!own.path("test_probabilities").has("values") && !own.path("snapshots").has("values"),
                     "matrices' values live in the binary file");
-            assertEquals(rep.path("arm").asInt(), r.path("arm").asInt());
-            assertEquals(m.path("arms").get(r.path("arm").asInt() - 1).path("name").asText(), r.path("arm_name").asText());
+            assertFalse(r.has("arm"), "a replicate file does not record its arm's position");
+            assertEquals(arm.path("id").asText(), r.path("arm_id").asText());
+            assertEquals(arm.path("name").asText(), r.path("arm_name").asText());
             assertEquals(status, r.path("status").asText());
             assertTrue(r.path("seeds").path("algorithm").isTextual() && r.path("seeds").path("root").isIntegralNumber());
             long updates = r.path("updates_run").asLong();

@@ -21,6 +21,8 @@ import java.util.List;
  * @param planSha256 SHA-256 of the resolved plan
  * @param dataSha256 SHA-256 of the data
  * @param splitSha256 SHA-256 of the train/test/holdout split
+ * @param settingsSha256 SHA-256 of the shared settings (seed, data and its encoding, model, training: the plan but
+ *     its study name, replicate count, baseline and arms); a study grows only while it is unchanged
  * @param data the data's source, size, names and splits
  * @param standardisation the z-score fitted on the training split, or null without one
  * @param model the model in words
@@ -28,15 +30,17 @@ import java.util.List;
  * @param l2 the model's penalty λ (the plan's {@code model.l2}; 0 for none)
  * @param reference "reference.json", or why there is none
  * @param baseline the baseline arm's name
- * @param arms the arms' names, in arm-index order (index 1 first; directory {@code arms/<index>})
+ * @param arms the arms' names, in arm-index order (index 1 first)
+ * @param armIds the arms' ids ({@link StudyFormat#armId}), in the same order: arm i's replicate files are in
+ *     {@code arms/<armIds[i]>}
  * @param grids what each grid entry of the plan expanded into, in the plan's order; empty without a grid
  * @param statuses each replicate's status, arm by arm, replicate by replicate
  */
 public record Manifest(int format, String study, Tool tool, Jvm runtime, Cpu processor, String executor,
         int threads, List<String> command, String generator, long rootSeed, String started, String endedAt,
-        String planSha256, String dataSha256, String splitSha256, Data data, Standardisation standardisation,
-        String model, int parameters, double l2, String reference, String baseline, List<String> arms,
-        List<Grid> grids, List<Status> statuses) {
+        String planSha256, String dataSha256, String splitSha256, String settingsSha256, Data data,
+        Standardisation standardisation, String model, int parameters, double l2, String reference, String baseline,
+        List<String> arms, List<String> armIds, List<Grid> grids, List<Status> statuses) {
 
     /** The status of a replicate still to train while the run goes on. */
     public static final String PENDING = "pending";
@@ -46,6 +50,10 @@ public record Manifest(int format, String study, Tool tool, Jvm runtime, Cpu pro
     public Manifest {
         command = List.copyOf(command);
         arms = List.copyOf(arms);
+        armIds = List.copyOf(armIds);
+        if (armIds.size() != arms.size()) {
+            throw new IllegalArgumentException(armIds.size() + " arm ids for " + arms.size() + " arms");
+        }
         grids = List.copyOf(grids);
         statuses = List.copyOf(statuses);
     }

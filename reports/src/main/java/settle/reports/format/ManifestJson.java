@@ -49,6 +49,7 @@ public final class ManifestJson {
             g.writeStringField("plan_sha256", m.planSha256());
             g.writeStringField("data_sha256", m.dataSha256());
             g.writeStringField("split_sha256", m.splitSha256());
+            g.writeStringField("settings_sha256", m.settingsSha256());
             Manifest.Data d = m.data();
             g.writeObjectFieldStart("data");
             g.writeStringField("source", d.source());
@@ -80,7 +81,8 @@ public final class ManifestJson {
                 g.writeStartObject();
                 g.writeNumberField("index", a + 1);
                 g.writeStringField("name", m.arms().get(a));
-                g.writeStringField("directory", StudyFormat.ARMS + "/" + (a + 1));
+                g.writeStringField("id", m.armIds().get(a));
+                g.writeStringField("directory", StudyFormat.ARMS + "/" + m.armIds().get(a));
                 g.writeEndObject();
             }
             g.writeEndArray();
@@ -179,7 +181,9 @@ public final class ManifestJson {
         int parameters = m.integer("parameters", 1, Integer.MAX_VALUE);
         double l2 = m.number("model_l2", Range.NON_NEGATIVE);
         String reference = m.text("reference");
+        String settingsHash = m.text("settings_sha256");
         List<String> arms = new ArrayList<>();
+        List<String> armIds = new ArrayList<>();
         List<Obj> armList = m.objects("arms");
         if (armList.isEmpty()) {
             throw m.problem("arms", "is empty; a study has at least one arm");
@@ -192,10 +196,20 @@ public final class ManifestJson {
                         + " from 1)");
             }
             arms.add(arm.text("name"));
+            String id = arm.text("id");
+            if (!StudyFormat.isArmId(id)) {
+                throw arm.problem("id", "is " + BadInputException.shown(id) + "; expected the arm's name made safe for a"
+                        + " file name, '-' and 12 hexadecimal digits");
+            }
+            if (armIds.contains(id)) {
+                throw arm.problem("id", "is " + BadInputException.shown(id) + ", the id of arm " + (armIds.indexOf(id) + 1)
+                        + " too; every arm has its own");
+            }
+            armIds.add(id);
             String directory = arm.text("directory");
-            if (!directory.equals(StudyFormat.ARMS + "/" + (i + 1))) {
+            if (!directory.equals(StudyFormat.ARMS + "/" + id)) {
                 throw arm.problem("directory", "is " + BadInputException.shown(directory) + "; arm " + (i + 1)
-                        + "'s replicate files are in " + StudyFormat.ARMS + "/" + (i + 1));
+                        + "'s replicate files are in " + StudyFormat.ARMS + "/" + BadInputException.shown(id));
             }
         }
         String baseline = m.text("baseline");
@@ -205,8 +219,8 @@ public final class ManifestJson {
         List<Grid> grids = grids(m, arms.size());
         List<Manifest.Status> statuses = statuses(m, arms.size());
         return new Manifest(StudyFormat.VERSION, study, tool, jvm, cpu, executor, threads, command, generator, rootSeed, started,
-                ended, planHash, dataHash, splitHash, data, standardisation, model, parameters, l2, reference, baseline,
-                arms, grids, statuses);
+                ended, planHash, dataHash, splitHash, settingsHash, data, standardisation, model, parameters, l2,
+                reference, baseline, arms, armIds, grids, statuses);
     }
 
     /**
@@ -216,9 +230,11 @@ public final class ManifestJson {
      * @param planSha256 SHA-256 of the earlier resolved plan
      * @param dataSha256 SHA-256 of its data
      * @param splitSha256 SHA-256 of its split
+     * @param settingsSha256 SHA-256 of its shared settings ({@link Manifest#settingsSha256})
      * @param grids the grid it recorded; empty when it recorded none, or one this settle cannot read
      */
-    public record Earlier(String planSha256, String dataSha256, String splitSha256, List<Grid> grids) {
+    public record Earlier(String planSha256, String dataSha256, String splitSha256, String settingsSha256,
+            List<Grid> grids) {
     }
 
     /**
@@ -253,7 +269,8 @@ public final class ManifestJson {
         } catch (BadInputException e) {
             grids = List.of(); // not this settle's grid record: nothing to keep
         }
-        return new Earlier(m.text("plan_sha256"), m.text("data_sha256"), m.text("split_sha256"), grids);
+        return new Earlier(m.text("plan_sha256"), m.text("data_sha256"), m.text("split_sha256"),
+                m.text("settings_sha256"), grids);
     }
 
     private static Manifest.Data data(Obj d) {

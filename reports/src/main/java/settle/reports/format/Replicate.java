@@ -3,11 +3,11 @@ package settle.reports.format;
 import java.util.List;
 
 /**
- * One replicate file {@code arms/<arm>/<replicate>.json} (README, "Study directory"): what the runner writes through
+ * One replicate file {@code arms/<arm id>/<replicate>.json} (README, "Study directory"): what the runner writes through
  * {@link ReplicateJson#write} and the report reads through {@link ReplicateJson#read}. Arrays are not copied: treat
  * them as read-only. A number that does not apply is NaN (null in the file).
  *
- * @param arm arm index, from 1
+ * @param armId the arm's id ({@link StudyFormat#armId}), the name of its directory
  * @param armName the arm's name
  * @param replicate replicate number, from 1
  * @param seeds its derived seeds
@@ -33,7 +33,7 @@ import java.util.List;
  * @param testProbabilities test-set class probabilities, rows × K row-major (null when none)
  * @param prediction the predicted noise ball, or a skipped one
  */
-public record Replicate(int arm, String armName, int replicate, Seeds seeds, String status, long divergedAtUpdate,
+public record Replicate(String armId, String armName, int replicate, Seeds seeds, String status, long divergedAtUpdate,
         long totalUpdates, long updatesRun, boolean averageTail, double initialObjective, double[] metrics,
         double averagedObjective, Tail tail, Epochs epochs, List<Nudge> nudges, List<PlateauCut> plateauCuts,
         double[] rates, double[] start, double[] last, double[] tailMean, int snapshotRows, double[] snapshots,

@@ -9,7 +9,7 @@ import settle.reports.format.JsonIn.Obj;
 import settle.reports.format.JsonIn.Range;
 
 /**
- * The replicate file {@code arms/<arm>/<replicate>.json}: its one writer and its one reader. Every field is described
+ * The replicate file {@code arms/<arm id>/<replicate>.json}: its one writer and its one reader. Every field is described
  * in the README's study-directory schema. The file holds no wall-clock time, so the same plan and seeds give the same
  * bytes on any machine, thread count, executor or JDK.
  *
@@ -32,7 +32,7 @@ public final class ReplicateJson {
     /**
      * What the study says a replicate file must hold.
      *
-     * @param arm the arm's index (from 1)
+     * @param armId the arm's id ({@link StudyFormat#armId}), the name of its directory
      * @param armName the arm's name
      * @param replicate the replicate (from 1)
      * @param rootSeed the plan's root seed
@@ -44,7 +44,7 @@ public final class ReplicateJson {
      * @param totalUpdates T, or −1 when not known (the report takes it from the file, a whole number of epochs)
      * @param convex whether the model has a reference minimiser (the metrics needing θ* are then numbers, else null)
      */
-    public record Expected(int arm, String armName, int replicate, long rootSeed, Replicate.Seeds seeds,
+    public record Expected(String armId, String armName, int replicate, long rootSeed, Replicate.Seeds seeds,
             int parameters, int classes, int testRows, int updatesPerEpoch, long totalUpdates, boolean convex) {
     }
 
@@ -111,7 +111,7 @@ public final class ReplicateJson {
     private static void write(JsonGenerator g, Replicate r, byte[] binary) throws IOException {
         g.writeStartObject();
         g.writeNumberField("format", StudyFormat.VERSION);
-        g.writeNumberField("arm", r.arm());
+        g.writeStringField("arm_id", r.armId());
         g.writeStringField("arm_name", r.armName());
         g.writeNumberField("replicate", r.replicate());
         g.writeObjectFieldStart("seeds");
@@ -290,16 +290,18 @@ public final class ReplicateJson {
             throw r.problem("format", "this file is in format " + format + "; this settle reads format "
                     + StudyFormat.VERSION);
         }
-        int arm = r.integer("arm", 1, Integer.MAX_VALUE);
+        String arm = r.text("arm_id");
         int replicate = r.integer("replicate", 1, Integer.MAX_VALUE);
-        if (arm != expected.arm() || replicate != expected.replicate()) {
-            throw r.problem(arm != expected.arm() ? "arm" : "replicate", "the file holds arm " + arm + " replicate "
-                    + replicate + "; its path says arm " + expected.arm() + " replicate " + expected.replicate());
+        if (!arm.equals(expected.armId()) || replicate != expected.replicate()) {
+            throw r.problem(!arm.equals(expected.armId()) ? "arm_id" : "replicate", "the file holds arm "
+                    + BadInputException.shown(arm) + " replicate " + replicate + "; its path says arm "
+                    + BadInputException.shown(expected.armId()) + " replicate " + expected.replicate());
         }
         String armName = r.text("arm_name");
         if (!armName.equals(expected.armName())) {
             throw r.problem("arm_name", "the file names arm " + BadInputException.shown(armName) + "; arm "
-                    + expected.arm() + " of this study is " + BadInputException.shown(expected.armName()));
+                    + BadInputException.shown(expected.armId()) + " of this study is "
+                    + BadInputException.shown(expected.armName()));
         }
         placeBlocks(r, binary, binaryFile);
         Replicate.Seeds seeds = seeds(r.object("seeds"), expected);

@@ -15,7 +15,7 @@ import settle.input.BadInputException;
 public final class StudyFormat {
 
     /** The study directory format this settle writes and reads. */
-    public static final int VERSION = 3;
+    public static final int VERSION = 4;
 
     /** The resolved plan. */
     public static final String PLAN = "plan.yaml";
@@ -25,8 +25,14 @@ public final class StudyFormat {
     public static final String REFERENCE = "reference.json";
     /** How the data's columns became the model's inputs, and the test split's labels. */
     public static final String ENCODING = "encoding.json";
-    /** The directory of the replicate files, one subdirectory per arm index. */
+    /** The directory of the replicate files, one subdirectory per arm ({@link #armId}). */
     public static final String ARMS = "arms";
+    /** Where the directory of an arm removed from the plan is moved, kept (an arm put back is moved back). */
+    public static final String RETIRED = "retired";
+    /** How many hexadecimal digits of the SHA-256 of an arm's specification its id ends with. */
+    public static final int ARM_HASH_DIGITS = 12;
+    /** At most this many characters of an arm's name start its id. */
+    private static final int ARM_NAME_CHARACTERS = 40;
     /** Every replicate's per-epoch records. */
     public static final String EPOCHS = "epochs.csv";
     /** The report. */
@@ -50,19 +56,52 @@ public final class StudyFormat {
     private StudyFormat() {
     }
 
-    /** @return the replicate file of replicate {@code k} (from 1) of arm {@code arm} (from 1), relative to the study */
-    public static String replicatePath(int arm, int k) {
-        return ARMS + "/" + arm + "/" + k + ".json";
+    /**
+     * An arm's id, the name of its directory under {@code arms/}: its name made safe for a file name (every
+     * character other than an ASCII letter, digit, {@code -}, {@code _} or a {@code .} not at the start becomes
+     * {@code _}; cut to 40 characters; {@code arm} when empty), a {@code -}, and the first 12 hexadecimal digits of
+     * the SHA-256 of the arm's specification as the resolved plan writes it. Two arms with the same name and
+     * specification are the same arm wherever they stand in the plan.
+     *
+     * @param name the arm's name
+     * @param specificationSha256 the lower-case hexadecimal SHA-256 of the arm's canonical specification
+     * @return the id
+     */
+    public static String armId(String name, String specificationSha256) {
+        if (specificationSha256.length() < ARM_HASH_DIGITS) {
+            throw new IllegalArgumentException("not a SHA-256 in hexadecimal: " + specificationSha256);
+        }
+        StringBuilder b = new StringBuilder();
+        for (int i = 0; i < name.length() && b.length() < ARM_NAME_CHARACTERS; i++) {
+            char c = name.charAt(i);
+            boolean safe = c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= '0' && c <= '9' || c == '-'
+                    || c == '_' || c == '.' && b.length() > 0;
+            b.append(safe ? c : '_');
+        }
+        if (b.length() == 0) {
+            b.append("arm");
+        }
+        return b.append('-').append(specificationSha256, 0, ARM_HASH_DIGITS).toString();
     }
 
-    /** @return the replicate file of replicate {@code k} of arm {@code arm} in study directory {@code directory} */
-    public static Path replicateFile(Path directory, int arm, int k) {
-        return armDirectory(directory, arm).resolve(k + ".json");
+    /** @return true when {@code name} has the form of an {@link #armId} (names only; nothing is read) */
+    public static boolean isArmId(String name) {
+        return name.matches("[A-Za-z0-9_\\-][A-Za-z0-9_.\\-]{0,39}-[0-9a-f]{12}");
+    }
+
+    /** @return the replicate file of replicate {@code k} (from 1) of the arm with id {@code armId}, relative to the study */
+    public static String replicatePath(String armId, int k) {
+        return ARMS + "/" + armId + "/" + k + ".json";
+    }
+
+    /** @return the replicate file of replicate {@code k} of the arm {@code armId} in study directory {@code directory} */
+    public static Path replicateFile(Path directory, String armId, int k) {
+        return armDirectory(directory, armId).resolve(k + ".json");
     }
 
     /** @return the binary file of replicate {@code k} (its large arrays) beside {@link #replicateFile} */
-    public static Path binaryFile(Path directory, int arm, int k) {
-        return binaryFileOf(replicateFile(directory, arm, k));
+    public static Path binaryFile(Path directory, String armId, int k) {
+        return binaryFileOf(replicateFile(directory, armId, k));
     }
 
     /** @return the binary file beside a replicate's JSON file {@code <k>.json}: {@code <k>.bin} */
@@ -75,9 +114,14 @@ public final class StudyFormat {
     /** The suffix of a replicate's binary file. */
     public static final String BINARY_SUFFIX = ".bin";
 
-    /** @return the directory of arm {@code arm}'s replicate files */
-    public static Path armDirectory(Path directory, int arm) {
-        return directory.resolve(ARMS).resolve(Integer.toString(arm));
+    /** @return the directory of the replicate files of the arm {@code armId} */
+    public static Path armDirectory(Path directory, String armId) {
+        return directory.resolve(ARMS).resolve(armId);
+    }
+
+    /** @return where the directory of the arm {@code armId} is kept while the arm is not in the plan */
+    public static Path retiredDirectory(Path directory, String armId) {
+        return directory.resolve(RETIRED).resolve(armId);
     }
 
     /**
@@ -98,7 +142,8 @@ public final class StudyFormat {
     /**
      * The one-line refusal of a file written in an older format: format 1's tail radius and distance came from the
      * snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside today's; format
-     * 2 wrote every array of a replicate as JSON text.
+     * 2 wrote every array of a replicate as JSON text; format 3 named each arm's directory by its position in the
+     * plan, so a plan that gained, lost or reordered arms could not keep its replicates.
      *
      * @param file the manifest (or the file) in the older format
      * @param format the format it records
@@ -108,9 +153,13 @@ public final class StudyFormat {
     public static BadInputException olderFormat(Path file, int format, String rerun) {
         String what = file.getFileName() != null && file.getFileName().toString().equals(MANIFEST)
                 ? "this study directory" : "this file";
-        String why = format == 2 ? " whose replicate files hold every array as JSON text (format 3 keeps the"
-                + " large arrays in a binary file beside each, a third of the bytes)"
-                : " whose tail metrics came from snapshots and whose reshuffling prediction was approximate";
+        String why = switch (format) {
+            case 3 -> " whose arm directories are named by the arms' positions in the plan (format 4 names each by"
+                    + " its arm's specification, so that a study can grow)";
+            case 2 -> " whose replicate files hold every array as JSON text (format 3 keeps the large arrays in a"
+                    + " binary file beside each, a third of the bytes)";
+            default -> " whose tail metrics came from snapshots and whose reshuffling prediction was approximate";
+        };
         return BadInputException.inFile(file.toString(), "", what + " is in format " + format + ", written by an"
                 + " earlier settle" + why + "; rerun it with `" + rerun + "` to rewrite it in format " + VERSION);
     }

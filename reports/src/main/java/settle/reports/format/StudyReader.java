@@ -85,12 +85,13 @@ public final class StudyReader {
             IntStream.range(0, files.length).parallel().forEach(i -> {
                 int a = i / count + 1;
                 int k = i % count + 1;
-                Path file = StudyFormat.replicateFile(directory, a, k);
+                String id = manifest.armIds().get(a - 1);
+                Path file = StudyFormat.replicateFile(directory, id, k);
                 if (!Files.isRegularFile(file)) {
                     return;
                 }
                 try {
-                    ReplicateJson.Expected expected = new ReplicateJson.Expected(a, manifest.arms().get(a - 1), k,
+                    ReplicateJson.Expected expected = new ReplicateJson.Expected(id, manifest.arms().get(a - 1), k,
                             manifest.rootSeed(), null, manifest.parameters(), manifest.classes(), manifest.testRows(),
                             manifest.updatesPerEpoch(), -1, convex);
                     files[i] = ReplicateJson.readFiles(file, expected);

@@ -1,0 +1,265 @@
+package settle.experiments.study;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/**
+ * Growing a study: {@code settle run} on an existing study directory whose shared settings (seed, data, model,
+ * training) are unchanged keeps every finished replicate of an arm still in the plan, trains only new arms and new
+ * replicate indices, moves a removed arm's directory to {@code retired/} (and back when the arm returns), and refuses
+ * a changed shared setting naming each key. After each growth every replicate file, JSON and binary, and epochs.csv
+ * and summary.csv, are byte for byte those of a fresh run of the grown plan.
+ */
+class GrowStudyTest {
+
+    private static final ObjectMapper MAPPER = new ObjectMapper();
+
+    private static final String CONSTANT = "  - name: constant\n    schedule: {kind: constant, rate: 0.3}";
+    private static final String RECIPROCAL = "  - name: 'reciprocal, per update'\n"
+            + "    schedule: {kind: reciprocal, rate: 0.3, decay: 0.01, per: update}";
+    private static final String AVERAGED = "  - name: averaged\n    schedule: {kind: constant, rate: 0.3}\n"
+            + "    average: tail";
+    private static final String STEP = "  - name: cosine\n    schedule: {kind: cosine, rate: 0.3, floor: 0.003}";
+
+    @TempDir
+    Path dir;
+
+    private int plans;
+
+    /** A small convex plan: logistic regression on seeded Gaussian classes, with the arms given in order. */
+    private static String plan(int replicates, int epochs, double l2, String... arms) {
+        return String.join("\n",
+                "study: grow",
+                "seed: 7",
+                "replicates: " + replicates,
+                "data:",
+                "  source: synthetic:gaussian?rows=240&features=3&classes=2&separation=1.5&seed=3",
+                "  test-fraction: 0.25",
+                "  standardize: true",
+                "model:",
+                "  kind: logistic",
+                "  l2: " + l2,
+                "training:",
+                "  epochs: " + epochs,
+                "  batch: 8",
+                "  snapshots: 20",
+                "baseline: constant",
+                "arms:",
+                String.join("\n", arms),
+                "");
+    }
+
+    private static String plan(int replicates, String... arms) {
+        return plan(replicates, 2, 0.01, arms);
+    }
+
+    /** A run's exit code, its stderr and the summary it printed with --json. */
+    private record Run(int exit, String err, JsonNode summary) {
+        int trainedNow() {
+            return summary.path("trained_now").asInt();
+        }
+    }
+
+    /** Runs {@code plan} into {@code study} with --json. */
+    private Run run(String plan, Path study, String... more) throws Exception {
+        Path file = dir.resolve("plan-" + plans++ + ".yaml");
+        Files.writeString(file, plan);
+        List<String> args = new ArrayList<>(List.of("run", file.toString(), "--out", study.toString(), "--quiet",
+                "--json", "--threads", "2"));
+        args.addAll(List.of(more));
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int exit = StudyRunnerTest.settle(out, err, args.toArray(String[]::new));
+        JsonNode summary = out.toString().isBlank() ? MAPPER.nullNode() : MAPPER.readTree(out.toString());
+        return new Run(exit, err.toString().trim(), summary);
+    }
+
+    /** Asserts that {@code grown} holds what a fresh run of {@code plan} writes, byte for byte. */
+    private void assertSameAsFresh(String plan, Path grown) throws Exception {
+        Path fresh = dir.resolve("fresh-" + plans);
+        Run run = run(plan, fresh);
+        assertEquals(0, run.exit(), run.err());
+        StudyFiles.assertSameReplicateFiles(fresh, grown);
+        for (String name : List.of("epochs.csv", "summary.csv", "plan.yaml", "encoding.json", "reference.json")) {
+            assertArrayEquals(Files.readAllBytes(fresh.resolve(name)), Files.readAllBytes(grown.resolve(name)),
+                    name + " differs from a fresh run's");
+        }
+        JsonNode a = MAPPER.readTree(fresh.resolve("manifest.json").toFile());
+        JsonNode b = MAPPER.readTree(grown.resolve("manifest.json").toFile());
+        for (String key : List.of("arms", "replicates", "settings_sha256", "plan_sha256", "grid")) {
+            assertEquals(a.path(key), b.path(key), "manifest " + key);
+        }
+        StudySchema.validate(grown);
+    }
+
+    /** @return every file under the study's {@code arms/} and {@code retired/} with its bytes */
+    private static Map<Path, byte[]> replicateBytes(Path study) throws Exception {
+        Map<Path, byte[]> out = new LinkedHashMap<>();
+        for (String top : List.of("arms", "retired")) {
+            if (!Files.isDirectory(study.resolve(top))) {
+                continue;
+            }
+            try (var walk = Files.walk(study.resolve(top))) {
+                for (Path p : walk.sorted().toList()) {
+                    if (Files.isRegularFile(p)) {
+                        out.put(study.relativize(p), Files.readAllBytes(p));
+                    }
+                }
+            }
+        }
+        return out;
+    }
+
+    /** @return the directory name (the arm id) of the arm named {@code name} in the study's manifest */
+    private static String armId(Path study, String name) throws Exception {
+        for (JsonNode arm : MAPPER.readTree(study.resolve("manifest.json").toFile()).path("arms")) {
+            if (arm.path("name").asText().equals(name)) {
+                return arm.path("id").asText();
+            }
+        }
+        throw new AssertionError("no arm " + name + " in " + study);
+    }
+
+    @Test
+    void addingAnArmTrainsOnlyTheNewArm() throws Exception {
+        Path study = dir.resolve("study");
+        assertEquals(12, run(plan(4, CONSTANT, RECIPROCAL, AVERAGED), study).trainedNow());
+        Map<Path, byte[]> before = replicateBytes(study);
+
+        String grown = plan(4, CONSTANT, RECIPROCAL, STEP, AVERAGED);
+        Run run = run(grown, study);
+        assertEquals(0, run.exit(), run.err());
+        assertEquals(4, run.trainedNow(), "only the new arm's 4 replicates");
+        assertEquals(16, run.summary().path("finished").asInt());
+        Map<Path, byte[]> after = replicateBytes(study);
+        for (Map.Entry<Path, byte[]> e : before.entrySet()) {
+            assertArrayEquals(e.getValue(), after.get(e.getKey()), e.getKey() + " kept as it was");
+        }
+        assertEquals(before.size() + 8, after.size(), "the new arm's 4 JSON and 4 binary files");
+        assertSameAsFresh(grown, study);
+    }
+
+    @Test
+    void raisingReplicatesTrainsOnlyTheNewIndices() throws Exception {
+        Path study = dir.resolve("study");
+        assertEquals(6, run(plan(2, CONSTANT, RECIPROCAL, AVERAGED), study).trainedNow());
+        String grown = plan(5, CONSTANT, RECIPROCAL, AVERAGED);
+        Run run = run(grown, study);
+        assertEquals(0, run.exit(), run.err());
+        assertEquals(9, run.trainedNow(), "replicates 3 to 5 of each of the 3 arms");
+        assertEquals(15, run.summary().path("replicates").asInt(), "3 arms × 5 replicates");
+        assertSameAsFresh(grown, study);
+    }
+
+    @Test
+    void reorderingArmsTrainsNothing() throws Exception {
+        Path study = dir.resolve("study");
+        run(plan(3, CONSTANT, RECIPROCAL, AVERAGED), study);
+        Map<Path, byte[]> before = replicateBytes(study);
+        String reordered = plan(3, AVERAGED, CONSTANT, RECIPROCAL);
+        Run run = run(reordered, study);
+        assertEquals(0, run.exit(), run.err());
+        assertEquals(0, run.trainedNow(), "every arm is the same arm at another position");
+        Map<Path, byte[]> after = replicateBytes(study);
+        assertEquals(before.keySet(), after.keySet());
+        for (Map.Entry<Path, byte[]> e : before.entrySet()) {
+            assertArrayEquals(e.getValue(), after.get(e.getKey()), e.getKey() + " unchanged");
+        }
+        assertSameAsFresh(reordered, study);
+    }
+
+    @Test
+    void aRemovedArmIsRetiredAndComesBackWhenPutBack() throws Exception {
+        Path study = dir.resolve("study");
+        String whole = plan(3, CONSTANT, RECIPROCAL, AVERAGED);
+        run(whole, study);
+        String id = armId(study, "averaged");
+        Map<Path, byte[]> before = replicateBytes(study);
+
+        String fewer = plan(3, CONSTANT, RECIPROCAL);
+        Run run = run(fewer, study);
+        assertEquals(0, run.exit(), run.err());
+        assertEquals(0, run.trainedNow());
+        assertEquals("settle run: arms/" + id + " is not an arm of this plan: moved to retired/" + id
+                + " (kept; an arm put back is moved back)", run.err());
+        assertFalse(Files.exists(study.resolve("arms").resolve(id)));
+        for (int k = 1; k <= 3; k++) {
+            for (String ext : List.of(".json", ".bin")) {
+                Path retired = Path.of("retired", id, k + ext);
+                assertArrayEquals(before.get(Path.of("arms", id, k + ext)), Files.readAllBytes(study.resolve(retired)),
+                        retired + " kept, byte for byte");
+            }
+        }
+        assertSameAsFresh(fewer, study);
+
+        run = run(whole, study);
+        assertEquals(0, run.exit(), run.err());
+        assertEquals(0, run.trainedNow(), "the arm's replicates are used again");
+        assertEquals("settle run: retired/" + id + " is an arm of this plan again: moved back to arms/" + id
+                + ", its replicates kept", run.err());
+        assertFalse(Files.exists(study.resolve("retired").resolve(id)));
+        assertEquals(before.keySet(), replicateBytes(study).keySet());
+        assertSameAsFresh(whole, study);
+    }
+
+    @Test
+    void loweringReplicatesKeepsTheHigherFilesAndUsesTheFirstN() throws Exception {
+        Path study = dir.resolve("study");
+        String four = plan(4, CONSTANT, RECIPROCAL);
+        run(four, study);
+        Map<Path, byte[]> before = replicateBytes(study);
+        String two = plan(2, CONSTANT, RECIPROCAL);
+        Run run = run(two, study);
+        assertEquals(0, run.exit(), run.err());
+        assertEquals(0, run.trainedNow());
+        assertEquals(4, run.summary().path("replicates").asInt(), "2 arms × the first 2 replicates");
+        assertEquals(before.keySet(), replicateBytes(study).keySet(), "replicates 3 and 4 are kept on disk");
+        JsonNode manifest = MAPPER.readTree(study.resolve("manifest.json").toFile());
+        assertEquals(4, manifest.path("replicates").size());
+        Path fresh = dir.resolve("fresh-two");
+        run(two, fresh);
+        for (String name : List.of("epochs.csv", "summary.csv")) {
+            assertArrayEquals(Files.readAllBytes(fresh.resolve(name)), Files.readAllBytes(study.resolve(name)), name);
+        }
+        run = run(four, study);
+        assertEquals(0, run.trainedNow(), "raised again: replicates 3 and 4 are read back, not trained");
+        assertSameAsFresh(four, study);
+    }
+
+    @Test
+    void aChangedSharedSettingIsRefusedNamingEachKey() throws Exception {
+        Path study = dir.resolve("study");
+        run(plan(3, 2, 0.01, CONSTANT, RECIPROCAL), study);
+        Map<Path, byte[]> before = replicateBytes(study);
+        byte[] manifest = Files.readAllBytes(study.resolve("manifest.json"));
+
+        Run run = run(plan(4, 3, 0.02, CONSTANT, RECIPROCAL, STEP), study);
+        assertEquals(2, run.exit());
+        assertEquals(study + ": changed since this study was run: model.l2: 0.02 (was 0.01),"
+                + " training.epochs: 3 (was 2); a study grows (arms, replicates) only while its seed, data, model"
+                + " and training stay the same: use --fresh to discard its results, or --out DIR for a new study",
+                run.err());
+        assertEquals(-1, run.err().indexOf('\n'), "one line");
+        Map<Path, byte[]> after = replicateBytes(study);
+        assertEquals(before.keySet(), after.keySet(), "nothing trained, moved or removed");
+        assertArrayEquals(manifest, Files.readAllBytes(study.resolve("manifest.json")), "the manifest untouched");
+
+        run = run(plan(3, 2, 0.01, CONSTANT, RECIPROCAL).replace("seed: 7", "seed: 8"), study);
+        assertEquals(2, run.exit());
+        assertTrue(run.err().contains(": changed since this study was run: seed: 8 (was 7); "), run.err());
+    }
+}
