@@ -164,12 +164,13 @@ class ManualArmTest {
         assertEquals("settle nudge: arm 'steered' has finished: every epoch of its replicates has run, so a nudge"
                 + " cannot change it\n", err.toString());
 
-        // replay.yaml: the plan unchanged in plan.yaml, the nudges fixed in the replay, identical replicate files
+        // replay.yaml: the plan unchanged in plan.yaml, the nudges fixed in the replay, identical replicate files but for
+        // the arm's id (the replayed arm is another specification: an ordinary arm with its nudges fixed)
         assertEquals(PlanParser.parse(planFile), PlanParser.parse(study.resolve("plan.yaml")));
         Path replay = dir.resolve("replayed");
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", study.resolve("replay.yaml").toString(),
                 "--out", replay.toString(), "--quiet"));
-        StudyFiles.assertSameReplicateFiles(study, replay);
+        StudyFiles.assertSameReplicatesUnderOtherIds(study, replay);
     }
 
     @Test
@@ -214,7 +215,7 @@ class ManualArmTest {
         Path replay = dir.resolve("crash-replayed");
         assertEquals(0, settle(new StringWriter(), new StringWriter(), "run", study.resolve("replay.yaml").toString(),
                 "--out", replay.toString(), "--quiet"));
-        StudyFiles.assertSameReplicateFiles(study, replay);
+        StudyFiles.assertSameReplicatesUnderOtherIds(study, replay);
     }
 
     @Test

@@ -2,7 +2,9 @@ package settle.experiments.study;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -120,6 +122,45 @@ public final class StudyFiles {
             Path leftBin = binary(left.get(i));
             assertArrayEquals(Files.readAllBytes(leftBin), Files.readAllBytes(binary(right.get(i))),
                     "binary file " + a.relativize(leftBin) + " differs");
+        }
+    }
+
+    /**
+     * Asserts that arm i of study {@code b} holds the same replicates as arm i of study {@code a}, for every arm, where
+     * the arms' specifications (so their ids) may differ while their replicates cannot (a manual arm and its replay
+     * with the nudges fixed): the binary files byte for byte, the JSON files byte for byte but for {@code arm_id}.
+     */
+    public static void assertSameReplicatesUnderOtherIds(Path a, Path b) throws Exception {
+        JsonNode armsA = MAPPER.readTree(a.resolve("manifest.json").toFile()).path("arms");
+        JsonNode armsB = MAPPER.readTree(b.resolve("manifest.json").toFile()).path("arms");
+        assertEquals(armsA.size(), armsB.size());
+        for (int i = 0; i < armsA.size(); i++) {
+            String idA = armsA.get(i).path("id").asText();
+            String idB = armsB.get(i).path("id").asText();
+            Path dirA = a.resolve(armsA.get(i).path("directory").asText());
+            Path dirB = b.resolve(armsB.get(i).path("directory").asText());
+            List<String> names = new ArrayList<>();
+            try (var entries = Files.newDirectoryStream(dirA)) {
+                entries.forEach(p -> names.add(p.getFileName().toString()));
+            }
+            names.sort(null);
+            List<String> other = new ArrayList<>();
+            try (var entries = Files.newDirectoryStream(dirB)) {
+                entries.forEach(p -> other.add(p.getFileName().toString()));
+            }
+            other.sort(null);
+            assertEquals(names, other, "the files of arm " + (i + 1));
+            for (String name : names) {
+                byte[] left = Files.readAllBytes(dirA.resolve(name));
+                byte[] right = Files.readAllBytes(dirB.resolve(name));
+                if (name.endsWith(".json")) {
+                    String l = new String(left, StandardCharsets.UTF_8);
+                    assertTrue(l.contains("\"arm_id\" : \"" + idA + "\""), name + " names its arm " + idA);
+                    left = l.replace("\"arm_id\" : \"" + idA + "\"", "\"arm_id\" : \"" + idB + "\"")
+                            .getBytes(StandardCharsets.UTF_8);
+                }
+                assertArrayEquals(left, right, "arm " + (i + 1) + " " + name + " differs");
+            }
         }
     }
 
