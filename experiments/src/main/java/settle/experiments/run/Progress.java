@@ -40,6 +40,11 @@ public final class Progress {
         this.done = alreadyDone;
         this.start = System.nanoTime();
         this.lastShown = start - LINE_INTERVAL_NANOS;
+        if (mode != Mode.QUIET && alreadyDone > 0) {
+            // a resumed or grown study: say what is kept before the counts start from it
+            err.println(String.format(Locale.ROOT, "settle: %d of %d replicates kept from earlier runs; %d to train",
+                    alreadyDone, total, total - alreadyDone));
+        }
     }
 
     /** Records a finished replicate and redraws when due. */
