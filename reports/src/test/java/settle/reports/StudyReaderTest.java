@@ -78,14 +78,14 @@ class StudyReaderTest {
 
         Path study = twoArms().write(dir.resolve("s"));
         Path file = study.resolve("arms/1/2.json");
-        Files.writeString(file, "{\"format\": 3,\n  \"arm\": oops}");
+        Files.writeString(file, "{\"format\": 4,\n  \"arm\": oops}");
         String message = assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage();
         assertEquals(file + ":2:10: not valid JSON: it holds something that is not JSON here; " + remedy(study), message);
         assertEquals(-1, message.indexOf('\n'), "one line");
 
         Path manifest = study.resolve("manifest.json");
-        Files.writeString(manifest, Files.readString(manifest).replace("\"format\":3", "\"format\":4"));
-        assertEquals(manifest + ": format: study directory format 4 is not supported; this settle reads format 3",
+        Files.writeString(manifest, Files.readString(manifest).replace("\"format\":4", "\"format\":5"));
+        assertEquals(manifest + ": format: study directory format 5 is not supported; this settle reads format 4",
                 assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
     }
 
@@ -97,18 +97,18 @@ class StudyReaderTest {
         String expected = study.resolve("manifest.json") + ": this study directory is in format 1, written by an"
                 + " earlier settle whose tail metrics came from snapshots and whose reshuffling prediction was"
                 + " approximate; rerun it with `settle run " + study.resolve("plan.yaml") + " --out " + study
-                + " --fresh` to rewrite it in format 3";
+                + " --fresh` to rewrite it in format 4";
         assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
         assertEquals(expected, assertThrows(BadInputException.class, () -> Report.write(study)).getMessage());
         assertFalse(Files.exists(study.resolve("report.html")), "no report from numbers that mean something else");
         assertFalse(Files.exists(study.resolve("summary.csv")));
 
-        // A format-1 replicate file left in a format-3 directory is refused by name: settle run trains it again.
+        // A format-1 replicate file left in a format-4 directory is refused by name: settle run trains it again.
         Path mixed = twoArms().write(dir.resolve("mixed"));
         Path file = mixed.resolve("arms/2/1.json");
-        Files.writeString(file, Files.readString(file).replace("\"format\":3", "\"format\":1"));
+        Files.writeString(file, Files.readString(file).replace("\"format\":4", "\"format\":1"));
         String message = assertThrows(BadInputException.class, () -> StudyReader.read(mixed)).getMessage();
-        assertEquals(file + ": format: this file is in format 1; this settle reads format 3; " + remedy(mixed),
+        assertEquals(file + ": format: this file is in format 1; this settle reads format 4; " + remedy(mixed),
                 message);
     }
 
@@ -118,9 +118,23 @@ class StudyReaderTest {
         old.format = 2;
         Path study = old.write(dir.resolve("two"));
         String expected = study.resolve("manifest.json") + ": this study directory is in format 2, written by an"
-                + " earlier settle whose replicate files hold every array as JSON text (format 3 keeps the large"
-                + " arrays in a binary file beside each, a third of the bytes); rerun it with `settle run "
-                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 3";
+                + " earlier settle whose replicate files hold every array as JSON text (format 4 keeps the large"
+                + " arrays in a compact binary file beside each, a fifth of the bytes); rerun it with `settle run "
+                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4";
+        assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
+        assertFalse(Files.exists(study.resolve("report.html")));
+    }
+
+    @Test
+    void aFormatThreeDirectoryGetsOneClearLine() throws Exception {
+        SyntheticStudy old = twoArms();
+        old.format = 3;
+        Path study = old.write(dir.resolve("three"));
+        String expected = study.resolve("manifest.json") + ": this study directory is in format 3, written by an"
+                + " earlier settle whose replicate binary files hold every array as float64 (format 4 codes them"
+                + " compactly, test probabilities and snapshots as float32, about half the bytes); rerun it with"
+                + " `settle run " + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in"
+                + " format 4";
         assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
         assertFalse(Files.exists(study.resolve("report.html")));
     }

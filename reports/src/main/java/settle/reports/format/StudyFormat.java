@@ -15,7 +15,7 @@ import settle.input.BadInputException;
 public final class StudyFormat {
 
     /** The study directory format this settle writes and reads. */
-    public static final int VERSION = 3;
+    public static final int VERSION = 4;
 
     /** The resolved plan. */
     public static final String PLAN = "plan.yaml";
@@ -98,7 +98,7 @@ public final class StudyFormat {
     /**
      * The one-line refusal of a file written in an older format: format 1's tail radius and distance came from the
      * snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside today's; format
-     * 2 wrote every array of a replicate as JSON text.
+     * 2 wrote every array of a replicate as JSON text, format 3 as float64 in its binary file.
      *
      * @param file the manifest (or the file) in the older format
      * @param format the format it records
@@ -108,8 +108,10 @@ public final class StudyFormat {
     public static BadInputException olderFormat(Path file, int format, String rerun) {
         String what = file.getFileName() != null && file.getFileName().toString().equals(MANIFEST)
                 ? "this study directory" : "this file";
-        String why = format == 2 ? " whose replicate files hold every array as JSON text (format 3 keeps the"
-                + " large arrays in a binary file beside each, a third of the bytes)"
+        String why = format == 3 ? " whose replicate binary files hold every array as float64 (format 4 codes"
+                + " them compactly, test probabilities and snapshots as float32, about half the bytes)"
+                : format == 2 ? " whose replicate files hold every array as JSON text (format 4 keeps the"
+                + " large arrays in a compact binary file beside each, a fifth of the bytes)"
                 : " whose tail metrics came from snapshots and whose reshuffling prediction was approximate";
         return BadInputException.inFile(file.toString(), "", what + " is in format " + format + ", written by an"
                 + " earlier settle" + why + "; rerun it with `" + rerun + "` to rewrite it in format " + VERSION);
