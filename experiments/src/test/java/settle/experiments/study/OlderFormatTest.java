@@ -17,7 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * A study directory written in format 1 by an earlier settle: {@code settle run} neither resumes it nor writes beside
  * it, and {@code settle report} shows none of its numbers; both say so in one line and exit 2. {@code --fresh}
- * rewrites it in format 3.
+ * rewrites it in format 4.
  */
 class OlderFormatTest {
 
@@ -35,8 +35,8 @@ class OlderFormatTest {
         for (Path f : files) {
             if (only == null || f.equals(only)) {
                 String text = Files.readString(f);
-                String old = text.replace("\"format\" : 3,", "\"format\" : 1,");
-                assertFalse(old.equals(text), "format 3 written in " + f);
+                String old = text.replace("\"format\" : 4,", "\"format\" : 1,");
+                assertFalse(old.equals(text), "format 4 written in " + f);
                 Files.writeString(f, old);
             }
         }
@@ -71,7 +71,7 @@ class OlderFormatTest {
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1"));
         assertEquals(study.resolve("manifest.json") + ": this study directory" + WHY + "settle run " + plan + " --out "
-                + study + " --quiet --threads 1 --fresh` to rewrite it in format 3", err.toString().trim());
+                + study + " --quiet --threads 1 --fresh` to rewrite it in format 4", err.toString().trim());
         Map<Path, byte[]> after = snapshot(study);
         assertEquals(before.keySet(), after.keySet(), "no file written or removed");
         for (Path p : before.keySet()) {
@@ -81,7 +81,7 @@ class OlderFormatTest {
         err = new StringWriter();
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
         assertEquals(study.resolve("manifest.json") + ": this study directory" + WHY + "settle run "
-                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 3",
+                + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4",
                 err.toString().trim());
         assertArrayEquals(before.get(Path.of("report.html")), Files.readAllBytes(study.resolve("report.html")),
                 "the earlier report is left as it was");
@@ -106,14 +106,14 @@ class OlderFormatTest {
 
         StringWriter err = new StringWriter();
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
-        assertEquals(file + ": format: this file is in format 1; this settle reads format 3; settle run "
+        assertEquals(file + ": format: this file is in format 1; this settle reads format 4; settle run "
                 + study.resolve("plan.yaml") + " --out " + study + " sets invalid replicate files aside and trains them"
                 + " again", err.toString().trim());
 
         err = new StringWriter();
         assertEquals(0, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet"));
-        assertEquals("settle run: " + file + ": format: this file is in format 1; this settle reads format 3; moved"
+        assertEquals("settle run: " + file + ": format: this file is in format 1; this settle reads format 4; moved"
                 + " aside to 2.json.quarantined-1 (with 2.bin.quarantined-1) and trained again", err.toString().trim());
         assertArrayEquals(whole, Files.readAllBytes(file), "trained again, byte for byte");
         assertArrayEquals(older, Files.readAllBytes(study.resolve("arms/3/2.json.quarantined-1")), "kept aside");

@@ -35,7 +35,7 @@ final class StudySchema {
             assertTrue(Files.isRegularFile(dir.resolve(file)), dir + " lacks " + file);
         }
         JsonNode m = MAPPER.readTree(dir.resolve("manifest.json").toFile());
-        assertEquals(3, m.path("format").asInt(), "manifest format");
+        assertEquals(4, m.path("format").asInt(), "manifest format");
         for (String key : List.of("plan_sha256", "data_sha256", "split_sha256")) {
             assertTrue(m.path(key).asText().matches("[0-9a-f]{64}"), key);
         }
@@ -152,7 +152,7 @@ final class StudySchema {
             }
             Path file = dir.resolve("arms/" + rep.path("arm").asInt() + "/" + rep.path("replicate").asInt() + ".json");
             JsonNode r = StudyFiles.replicate(file);
-            assertEquals(3, r.path("format").asInt());
+            assertEquals(4, r.path("format").asInt());
             JsonNode own = MAPPER.readTree(file.toFile());
             for (String big : List.of("rates", "start", "last")) {
                 assertTrue(!own.has(big), big + " lives in the binary file, not in the JSON");
