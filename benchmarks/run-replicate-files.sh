@@ -1,4 +1,4 @@
-#!/bin/sh
+#!/bin/bash
 # The replicate-file check of docs/benchmarks.md ("Replicate files"): runs benchmarks/plans/mlp-20000x16-26.yaml with
 # a settle of format 3 (built from git revision OLD, by default the last one before format 4) and with this one, then
 # prints the bytes of both directories' replicate files and format 2's from the same arrays, and times the report's
@@ -32,5 +32,10 @@ run "$WORK/old/experiments/target/settle.jar" "$WORK/format3"
 run "$HERE/experiments/target/settle.jar" "$WORK/format4"
 B="java -cp $HERE/benchmarks/target/benchmarks.jar settle.benchmarks.ReplicateFiles"
 $B bytes "$WORK/format3" "$WORK/format4"
+echo "summary.csv rows that differ between the two studies (format 3 first):"
+diff "$WORK/format3/summary.csv" "$WORK/format4/summary.csv" || true
+echo "report.html lines that differ (one element a line):"
+diff "$WORK/format3/report.html" "$WORK/format4/report.html" >/dev/null && echo none || \
+  diff <(sed 's/></>\n</g' "$WORK/format3/report.html") <(sed 's/></>\n</g' "$WORK/format4/report.html") | grep '^[<>]' || true
 $B time "$WORK/old/experiments/target/settle.jar" "$WORK/format3" "$HERE/experiments/target/settle.jar" \
   "$WORK/format4" "$ROUNDS" 2>/dev/null

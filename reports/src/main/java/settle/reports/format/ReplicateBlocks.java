@@ -393,12 +393,19 @@ public final class ReplicateBlocks {
             for (int j = 0; j < kept; j++) {
                 x |= (bytes[at++] & 0xffL) << (8 * j);
             }
+            if (kept > 0 && bytes[at - 1] == 0) {
+                throw BadInputException.inFile(file, name, "value " + (i + 1) + " keeps a high zero byte; the coding"
+                        + " leaves every high zero byte out");
+            }
             previous ^= x;
             v[i] = Double.longBitsToDouble(previous);
         }
         if (at != end) {
             throw BadInputException.inFile(file, name, "its counts make " + (at - from) + " bytes; it records "
                     + length);
+        }
+        if (m % 2 == 1 && (bytes[from + m / 2] & 0xf0) != 0) {
+            throw BadInputException.inFile(file, name, "the count after the last value is not 0");
         }
     }
 }

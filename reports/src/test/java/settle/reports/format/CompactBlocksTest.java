@@ -178,6 +178,25 @@ class CompactBlocksTest {
         reseal(xor);
         assertEquals("x.bin: rates: value 1 records 15 bytes; the block's counts are 0 to 8 and its bytes hold them",
                 assertThrows(BadInputException.class, () -> ReplicateBlocks.read(xor, "x.bin")).getMessage());
+        byte[] padded = ReplicateBlocks.write(List.of(new Block("rates", 1, 1, Coding.FLOAT64_XOR,
+                new double[] {1})));
+        padded[16 + 48] |= 0x10;
+        reseal(padded);
+        assertEquals("x.bin: rates: the count after the last value is not 0",
+                assertThrows(BadInputException.class, () -> ReplicateBlocks.read(padded, "x.bin")).getMessage());
+        // One value said in more bytes than it needs (high zero bytes kept) is refused: each value has one coding
+        byte[] wide = ReplicateBlocks.write(List.of(new Block("rates", 1, 1, Coding.FLOAT64_XOR,
+                new double[] {Double.MIN_VALUE})));
+        // Double.MIN_VALUE's bits are 1: one byte kept; widen it to 8 bytes (seven of them zero)
+        byte[] body = new byte[wide.length + 7];
+        System.arraycopy(wide, 0, body, 0, 16 + 48);
+        body[16 + 48] = 8;
+        body[16 + 48 + 1] = 1;
+        System.arraycopy(wide, wide.length - 4, body, body.length - 4, 4);
+        ByteBuffer.wrap(body).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 44, 9);
+        reseal(body);
+        assertEquals("x.bin: rates: value 1 keeps a high zero byte; the coding leaves every high zero byte out",
+                assertThrows(BadInputException.class, () -> ReplicateBlocks.read(body, "x.bin")).getMessage());
     }
 
     private static void reseal(byte[] bin) {
