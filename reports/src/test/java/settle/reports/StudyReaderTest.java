@@ -103,7 +103,7 @@ class StudyReaderTest {
         assertFalse(Files.exists(study.resolve("report.html")), "no report from numbers that mean something else");
         assertFalse(Files.exists(study.resolve("summary.csv")));
 
-        // A format-1 replicate file left in a format-3 directory is refused by name: settle run trains it again.
+        // A format-1 replicate file left in a format-4 directory is refused by name: settle run trains it again.
         Path mixed = twoArms().write(dir.resolve("mixed"));
         Path file = mixed.resolve(twoArms().path(2, 1));
         Files.writeString(file, Files.readString(file).replace("\"format\":4", "\"format\":1"));
@@ -118,8 +118,8 @@ class StudyReaderTest {
         old.format = 2;
         Path study = old.write(dir.resolve("two"));
         String expected = study.resolve("manifest.json") + ": this study directory is in format 2, written by an"
-                + " earlier settle whose replicate files hold every array as JSON text (format 3 keeps the large"
-                + " arrays in a binary file beside each, a third of the bytes); rerun it with `settle run "
+                + " earlier settle whose replicate files hold every array as JSON text (format 4 keeps the large"
+                + " arrays in a compact binary file beside each, a fifth of the bytes); rerun it with `settle run "
                 + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4";
         assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
         assertFalse(Files.exists(study.resolve("report.html")));
@@ -131,8 +131,10 @@ class StudyReaderTest {
         old.format = 3;
         Path study = old.write(dir.resolve("three"));
         String expected = study.resolve("manifest.json") + ": this study directory is in format 3, written by an"
-                + " earlier settle whose arm directories are named by the arms' positions in the plan (format 4 names"
-                + " each by its arm's specification, so that a study can grow); rerun it with `settle run "
+                + " earlier settle whose arm directories are named by the arms' positions in the plan and whose"
+                + " binary files hold every array as float64 (format 4 names each arm's directory by its"
+                + " specification, so that a study can grow, and codes the arrays compactly, about half the bytes);"
+                + " rerun it with `settle run "
                 + study.resolve("plan.yaml") + " --out " + study + " --fresh` to rewrite it in format 4";
         assertEquals(expected, assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
         assertEquals(expected, assertThrows(BadInputException.class, () -> Report.write(study)).getMessage());

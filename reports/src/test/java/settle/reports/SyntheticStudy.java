@@ -302,7 +302,7 @@ final class SyntheticStudy {
                     continue;
                 }
                 ObjectNode r = replicate(a, k, p, testRows);
-                if (format >= 3) {
+                if (format >= 4) {
                     Files.write(armDir.resolve((k + 1) + ".bin"), split(r));
                 }
                 MAPPER.writeValue(armDir.resolve((k + 1) + ".json").toFile(), r);
@@ -311,13 +311,15 @@ final class SyntheticStudy {
         return dir;
     }
 
-    /** The arrays format 3 keeps in a replicate's binary file, in the order the README gives. */
+    /** The arrays format 4 keeps in a replicate's binary file, in the order the README gives. */
     private static final List<String> BLOCKS = List.of("rates", "start", "last", "tail_mean", "snapshots.values",
             "test_probabilities.values");
 
     /**
-     * Moves the large arrays of a format-3 replicate out of its JSON into the bytes of its binary file, written here
-     * from the README's layout (not settle's writer), and records the file's length and CRC-32C in the JSON.
+     * Moves the large arrays of a format-4 replicate out of its JSON into the bytes of its binary file, written here
+     * from the README's layout (not settle's writer): rates and θ vectors as float64 (coding 1), snapshots and test
+     * probabilities as float32 (coding 3), then each test row's most probable class (ties to the lower) as one byte
+     * (coding 4); records the file's length and CRC-32C in the JSON.
      */
     static byte[] split(ObjectNode r) {
         List<String> names = new ArrayList<>();
@@ -339,20 +341,45 @@ final class SyntheticStudy {
             arrays.add(v);
             shapes.add(dot < 0 ? new int[] {1, v.length} : new int[] {parent.path("rows").asInt(),
                     parent.path("columns").asInt()});
+            if (name.equals("test_probabilities.values")) {
+                int rows = shapes.get(shapes.size() - 1)[0];
+                int k = shapes.get(shapes.size() - 1)[1];
+                double[] best = new double[rows];
+                for (int row = 0; row < rows; row++) {
+                    for (int c = 1; c < k; c++) {
+                        if (v[row * k + c] > v[row * k + (int) best[row]]) {
+                            best[row] = c;
+                        }
+                    }
+                }
+                names.add("test_probabilities.classes");
+                arrays.add(best);
+                shapes.add(new int[] {rows, 1});
+            }
         }
-        int size = 16 + 40 * names.size() + 4;
-        for (double[] v : arrays) {
-            size += 8 * v.length;
+        int[] width = new int[names.size()];
+        int[] coding = new int[names.size()];
+        int size = 16 + 48 * names.size() + 4;
+        for (int i = 0; i < names.size(); i++) {
+            String name = names.get(i);
+            coding[i] = name.endsWith(".classes") ? 4 : name.endsWith(".values") ? 3 : 1;
+            width[i] = coding[i] == 4 ? 1 : coding[i] == 3 ? 4 : 8;
+            size += width[i] * arrays.get(i).length;
         }
         java.nio.ByteBuffer b = java.nio.ByteBuffer.allocate(size).order(java.nio.ByteOrder.LITTLE_ENDIAN);
         b.put("SETTLEBN".getBytes(java.nio.charset.StandardCharsets.US_ASCII)).putInt(4).putInt(names.size());
         for (int i = 0; i < names.size(); i++) {
             b.put(java.util.Arrays.copyOf(names.get(i).getBytes(java.nio.charset.StandardCharsets.US_ASCII), 32));
-            b.putInt(shapes.get(i)[0]).putInt(shapes.get(i)[1]);
+            b.putInt(shapes.get(i)[0]).putInt(shapes.get(i)[1]).putInt(coding[i])
+                    .putInt(width[i] * arrays.get(i).length);
         }
-        for (double[] v : arrays) {
-            for (double x : v) {
-                b.putDouble(x);
+        for (int i = 0; i < names.size(); i++) {
+            for (double x : arrays.get(i)) {
+                switch (coding[i]) {
+                    case 4 -> b.put((byte) x);
+                    case 3 -> b.putFloat(Double.isNaN(x) ? Float.NaN : (float) x);
+                    default -> b.putDouble(x);
+                }
             }
         }
         java.util.zip.CRC32C crc = new java.util.zip.CRC32C();

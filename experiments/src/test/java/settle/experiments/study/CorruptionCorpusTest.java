@@ -76,13 +76,13 @@ class CorruptionCorpusTest {
     private static int blockOffset(byte[] bin, String name) {
         ByteBuffer in = ByteBuffer.wrap(bin).order(ByteOrder.LITTLE_ENDIAN);
         int count = in.getInt(12);
-        int offset = 16 + 40 * count;
+        int offset = 16 + 48 * count;
         for (int i = 0; i < count; i++) {
-            String n = new String(bin, 16 + 40 * i, 32, StandardCharsets.US_ASCII).replace("\0", "");
+            String n = new String(bin, 16 + 48 * i, 32, StandardCharsets.US_ASCII).replace("\0", "");
             if (n.equals(name)) {
                 return offset;
             }
-            offset += 8 * in.getInt(16 + 40 * i + 32) * in.getInt(16 + 40 * i + 36);
+            offset += in.getInt(16 + 48 * i + 44);
         }
         throw new AssertionError("no block " + name);
     }
@@ -147,8 +147,8 @@ class CorruptionCorpusTest {
                 }, true, "2.bin", ": format: this file is in format 2; this settle reads format 4"),
                 new Damage("a probability row that does not sum to 1", "2.bin", b -> {
                     byte[] c = b.clone();
-                    ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putDouble(blockOffset(c,
-                            "test_probabilities.values"), 0.75);
+                    ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putFloat(blockOffset(c,
+                            "test_probabilities.values"), 0.75f);
                     return sealed(c);
                 }, true, "2.json", ": test_probabilities.values: row 1 sums to NUMBER; each row of class probabilities"
                         + " sums to 1"),
@@ -160,12 +160,42 @@ class CorruptionCorpusTest {
                     System.arraycopy(b, 0, c, 0, at);
                     System.arraycopy(b, at + 8, c, at, b.length - at - 8);
                     for (int i = 0; i < in.getInt(12); i++) {
-                        if (new String(b, 16 + 40 * i, 32, StandardCharsets.US_ASCII).startsWith("last\0")) {
-                            ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 40 * i + 36, 3);
+                        if (new String(b, 16 + 48 * i, 32, StandardCharsets.US_ASCII).startsWith("last\0")) {
+                            ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 48 * i + 36, 3)
+                                    .putInt(16 + 48 * i + 44, 24);
                         }
                     }
                     return sealed(c);
-                }, true, "2.json", ": last: holds 3 values; expected 4"));
+                }, true, "2.json", ": last: holds 3 values; expected 4"),
+                new Damage("a predicted class that is not the most probable", "2.bin", b -> {
+                    // row 1's stored class moves to the other column of the two: its probability is the smaller
+                    byte[] c = b.clone();
+                    ByteBuffer in = ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN);
+                    int p = blockOffset(c, "test_probabilities.values");
+                    int best = in.getFloat(p) >= in.getFloat(p + 4) ? 0 : 1;
+                    c[blockOffset(c, "test_probabilities.classes")] = (byte) (1 - best);
+                    return sealed(c);
+                }, true, "2.json", ": test_probabilities.classes: row 1 predicts class NUMBER, but class NUMBER is"
+                        + " more probable in test_probabilities.values; the predicted class is the most probable"),
+                new Damage("θ_T in a lossy coding", "2.bin", b -> {
+                    byte[] c = b.clone();
+                    for (int i = 0; i < ByteBuffer.wrap(b).order(ByteOrder.LITTLE_ENDIAN).getInt(12); i++) {
+                        if (new String(b, 16 + 48 * i, 32, StandardCharsets.US_ASCII).startsWith("last\0")) {
+                            // float32 of 4 values would be 16 bytes: the table says so, the file is cut to fit
+                            ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 48 * i + 40, 3);
+                        }
+                    }
+                    int at = blockOffset(b, "last");
+                    byte[] d = new byte[c.length - 16];
+                    System.arraycopy(c, 0, d, 0, at + 16);
+                    System.arraycopy(c, at + 32, d, at + 16, c.length - at - 32);
+                    for (int i = 0; i < ByteBuffer.wrap(b).order(ByteOrder.LITTLE_ENDIAN).getInt(12); i++) {
+                        if (new String(b, 16 + 48 * i, 32, StandardCharsets.US_ASCII).startsWith("last\0")) {
+                            ByteBuffer.wrap(d).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 48 * i + 44, 16);
+                        }
+                    }
+                    return sealed(d);
+                }, true, "2.bin", ": last: is in float32; this array is written in float64 or float64-xor"));
     }
 
     /** @return the problem as a pattern's text: NUMBERS stands for a line and column, NUMBER for a number */

@@ -110,8 +110,10 @@ class OlderFormatTest {
         assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "run", plan.toString(), "--out",
                 study.toString(), "--quiet", "--threads", "1"));
         assertEquals(study.resolve("manifest.json") + ": this study directory is in format 3, written by an earlier"
-                + " settle whose arm directories are named by the arms' positions in the plan (format 4 names each by"
-                + " its arm's specification, so that a study can grow); rerun it with `settle run " + plan + " --out "
+                + " settle whose arm directories are named by the arms' positions in the plan and whose binary files"
+                + " hold every array as float64 (format 4 names each arm's directory by its specification, so that a"
+                + " study can grow, and codes the arrays compactly, about half the bytes); rerun it with `settle run "
+                + plan + " --out "
                 + study + " --quiet --threads 1 --fresh` to rewrite it in format 4", err.toString().trim());
         assertEquals(before.keySet(), snapshot(study).keySet(), "no file written or removed");
         err = new StringWriter();

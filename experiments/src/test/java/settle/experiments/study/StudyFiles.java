@@ -62,7 +62,7 @@ public final class StudyFiles {
 
     /**
      * Reads a replicate's JSON and, independently of settle's reader, its binary file {@code <k>.bin} as the README
-     * spells it (magic "SETTLEBN", format, block table, little-endian float64, CRC-32C of the rest), checks that the
+     * spells it (magic "SETTLEBN", format, block table, each block in its coding, CRC-32C of the rest), checks that the
      * JSON records the binary file's length and checksum, and puts each array back where format 2 wrote it in the
      * JSON (NaN as null), so that tests read a replicate as one tree.
      */
@@ -82,22 +82,49 @@ public final class StudyFiles {
         int count = in.getInt();
         String[] names = new String[count];
         int[] sizes = new int[count];
+        int[] codings = new int[count];
+        int[] lengths = new int[count];
         for (int i = 0; i < count; i++) {
             byte[] raw = new byte[32];
             in.get(raw);
             names[i] = new String(raw, StandardCharsets.US_ASCII).replace("\0", "");
             sizes[i] = in.getInt() * in.getInt();
+            codings[i] = in.getInt();
+            lengths[i] = in.getInt();
         }
         for (int i = 0; i < count; i++) {
             ArrayNode values = MAPPER.createArrayNode();
+            int end = in.position() + lengths[i];
+            long previous = 0;
+            int kept = in.position() + (sizes[i] + 1) / 2;
             for (int j = 0; j < sizes[i]; j++) {
-                double v = in.getDouble();
+                double v = switch (codings[i]) {
+                    case 1 -> in.getDouble();
+                    case 3 -> in.getFloat();
+                    case 4 -> lengths[i] == sizes[i] ? in.get() & 0xff : lengths[i] == 2 * sizes[i]
+                            ? in.getShort() & 0xffff : in.getInt() & 0xffffffffL;
+                    case 2 -> {
+                        // the XOR of this value's bits with the previous value's, its high zero bytes left out
+                        int n = (bin[in.position() + j / 2] >>> (4 * (j % 2))) & 0xf;
+                        long x = 0;
+                        for (int b = 0; b < n; b++) {
+                            x |= (bin[kept++] & 0xffL) << (8 * b);
+                        }
+                        previous ^= x;
+                        yield Double.longBitsToDouble(previous);
+                    }
+                    default -> throw new AssertionError("coding " + codings[i] + " of " + names[i]);
+                };
                 if (Double.isNaN(v)) {
                     values.addNull();
                 } else {
                     values.add(v);
                 }
             }
+            if (codings[i] == 2) {
+                assertEquals(end, kept, "the XOR-coded bytes of " + names[i] + " fill its length");
+            }
+            in.position(end);
             int dot = names[i].indexOf('.');
             ObjectNode into = dot < 0 ? r : (ObjectNode) r.get(names[i].substring(0, dot));
             into.set(dot < 0 ? names[i] : names[i].substring(dot + 1), values);

@@ -226,6 +226,17 @@ final class StudySchema {
                 assertEquals(classes, probabilities.path("columns").asInt());
                 assertEquals(data.path("test_rows").asInt(), probabilities.path("rows").asInt());
                 assertEquals(probabilities.path("rows").asInt() * classes, probabilities.path("values").size());
+                JsonNode predicted = probabilities.path("classes");
+                assertEquals(probabilities.path("rows").asInt(), predicted.size(), "one predicted class per test row");
+                for (int row = 0; row < predicted.size(); row++) {
+                    int c = predicted.get(row).asInt();
+                    assertTrue(c >= 0 && c < classes && predicted.get(row).asDouble() == c, "class index " + c);
+                    double chosen = probabilities.path("values").get(row * classes + c).asDouble();
+                    for (int k = 0; k < classes; k++) {
+                        assertTrue(probabilities.path("values").get(row * classes + k).asDouble() <= chosen,
+                                "row " + row + "'s predicted class is one of its most probable");
+                    }
+                }
                 if (!r.path("snapshots").isNull()) {
                     assertEquals(parameters, r.path("snapshots").path("columns").asInt());
                 }

@@ -30,14 +30,17 @@ import java.util.List;
  * @param snapshotRows K, the tail snapshots recorded (0 when none)
  * @param snapshots the gauge-free tail snapshots, K × P row-major (null when none)
  * @param testClasses columns of the test probabilities
- * @param testProbabilities test-set class probabilities, rows × K row-major (null when none)
+ * @param testProbabilities test-set class probabilities, rows × K row-major (null when none); as read from a study,
+ *     each rounded to float32 (README, "Study directory")
+ * @param testPredicted the predicted class of each test row, the most probable in the float64 probabilities the run
+ *     computed (a tie to the lower class index), kept exactly so that no float32 tie changes it (null when none)
  * @param prediction the predicted noise ball, or a skipped one
  */
 public record Replicate(String armId, String armName, int replicate, Seeds seeds, String status, long divergedAtUpdate,
         long totalUpdates, long updatesRun, boolean averageTail, double initialObjective, double[] metrics,
         double averagedObjective, Tail tail, Epochs epochs, List<Nudge> nudges, List<PlateauCut> plateauCuts,
         double[] rates, double[] start, double[] last, double[] tailMean, int snapshotRows, double[] snapshots,
-        int testClasses, double[] testProbabilities, Prediction prediction) {
+        int testClasses, double[] testProbabilities, int[] testPredicted, Prediction prediction) {
 
     /** The status of a replicate that ran to its last update. */
     public static final String FINISHED = "finished";
@@ -50,6 +53,50 @@ public record Replicate(String armId, String armName, int replicate, Seeds seeds
         if (metrics.length != Metric.values().length) {
             throw new IllegalArgumentException(metrics.length + " metrics; expected " + Metric.values().length);
         }
+        if ((testPredicted == null) != (testProbabilities == null) || testPredicted != null
+                && (long) testPredicted.length * testClasses != testProbabilities.length) {
+            throw new IllegalArgumentException("predicted classes do not match the test probabilities");
+        }
+    }
+
+    /**
+     * A replicate as the run computed it: the predicted test classes are those of its float64 probabilities.
+     *
+     * @see Replicate the parameters
+     */
+    public Replicate(int arm, String armName, int replicate, Seeds seeds, String status, long divergedAtUpdate,
+            long totalUpdates, long updatesRun, boolean averageTail, double initialObjective, double[] metrics,
+            double averagedObjective, Tail tail, Epochs epochs, List<Nudge> nudges, List<PlateauCut> plateauCuts,
+            double[] rates, double[] start, double[] last, double[] tailMean, int snapshotRows, double[] snapshots,
+            int testClasses, double[] testProbabilities, Prediction prediction) {
+        this(arm, armName, replicate, seeds, status, divergedAtUpdate, totalUpdates, updatesRun, averageTail,
+                initialObjective, metrics, averagedObjective, tail, epochs, nudges, plateauCuts, rates, start, last,
+                tailMean, snapshotRows, snapshots, testClasses, testProbabilities,
+                predictedClasses(testProbabilities, testClasses), prediction);
+    }
+
+    /**
+     * @param probabilities rows × K row-major, or null
+     * @param classes K
+     * @return each row's most probable class, a tie going to the lower index (the test accuracy's rule); null for null
+     */
+    public static int[] predictedClasses(double[] probabilities, int classes) {
+        if (probabilities == null) {
+            return null;
+        }
+        int rows = classes == 0 ? 0 : probabilities.length / classes;
+        int[] out = new int[rows];
+        for (int r = 0; r < rows; r++) {
+            int base = r * classes;
+            int best = 0;
+            for (int c = 1; c < classes; c++) {
+                if (probabilities[base + c] > probabilities[base + best]) {
+                    best = c;
+                }
+            }
+            out[r] = best;
+        }
+        return out;
     }
 
     /** @return true when the replicate diverged */

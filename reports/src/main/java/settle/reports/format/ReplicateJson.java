@@ -7,6 +7,7 @@ import java.util.List;
 import settle.input.BadInputException;
 import settle.reports.format.JsonIn.Obj;
 import settle.reports.format.JsonIn.Range;
+import settle.reports.format.ReplicateBlocks.Coding;
 
 /**
  * The replicate file {@code arms/<arm id>/<replicate>.json}: its one writer and its one reader. Every field is described
@@ -23,8 +24,13 @@ public final class ReplicateJson {
 
     /** The one key of {@code metrics} that is not a {@link Metric}: F(θ̄), written before {@code averaged_gap}. */
     private static final String AVERAGED_OBJECTIVE = "averaged_objective";
-    /** Tolerance on the sum of a row of test probabilities (K values in [0, 1] summed in double). */
+    /** Tolerance on the sum of a row of test probabilities, per class (K values in [0, 1] summed in double). */
     private static final double PROBABILITY_SUM_TOLERANCE = 1e-9;
+    /**
+     * Further tolerance on the sum of a row of test probabilities stored as float32: each value is within 2⁻²⁴ of its
+     * own size, or 2⁻¹⁵⁰ below float32's normal range, so a row summing to 1 moves by at most 2⁻²⁴ + K·2⁻¹⁵⁰.
+     */
+    static final double FLOAT32_SUM_TOLERANCE = 0x1p-24;
 
     private ReplicateJson() {
     }
@@ -52,7 +58,7 @@ public final class ReplicateJson {
 
     /** The JSON paths of the arrays the binary file holds, in the order written. */
     static final List<String> BLOCKS = List.of("rates", "start", "last", "tail_mean", "snapshots.values",
-            "test_probabilities.values");
+            "test_probabilities.values", "test_probabilities.classes");
 
     /**
      * A replicate's two files.
@@ -66,19 +72,25 @@ public final class ReplicateJson {
     /** @return the replicate's two files' bytes; the binary file is written first, the JSON (which names it) last */
     public static Written write(Replicate r) {
         List<ReplicateBlocks.Block> blocks = new ArrayList<>();
-        blocks.add(new ReplicateBlocks.Block("rates", 1, r.rates().length, r.rates()));
-        blocks.add(new ReplicateBlocks.Block("start", 1, r.start().length, r.start()));
-        blocks.add(new ReplicateBlocks.Block("last", 1, r.last().length, r.last()));
+        blocks.add(new ReplicateBlocks.Block("rates", 1, r.rates().length, Coding.FLOAT64_XOR, r.rates()));
+        blocks.add(new ReplicateBlocks.Block("start", 1, r.start().length, Coding.FLOAT64, r.start()));
+        blocks.add(new ReplicateBlocks.Block("last", 1, r.last().length, Coding.FLOAT64, r.last()));
         if (r.tailMean() != null) {
-            blocks.add(new ReplicateBlocks.Block("tail_mean", 1, r.tailMean().length, r.tailMean()));
+            blocks.add(new ReplicateBlocks.Block("tail_mean", 1, r.tailMean().length, Coding.FLOAT64, r.tailMean()));
         }
         if (r.tail() != null && r.snapshots() != null) {
             blocks.add(new ReplicateBlocks.Block("snapshots.values", r.snapshotRows(), r.last().length,
-                    r.snapshots()));
+                    ReplicateBlocks.float32Unless(r.snapshots()), r.snapshots()));
         }
         if (r.tail() != null && r.testProbabilities() != null) {
             blocks.add(new ReplicateBlocks.Block("test_probabilities.values", r.testRows(), r.testClasses(),
-                    r.testProbabilities()));
+                    Coding.FLOAT32, r.testProbabilities()));
+            double[] classes = new double[r.testRows()];
+            for (int i = 0; i < classes.length; i++) {
+                classes[i] = r.testPredicted()[i];
+            }
+            blocks.add(new ReplicateBlocks.Block("test_probabilities.classes", classes.length, 1, Coding.INDEX,
+                    classes));
         }
         byte[] binary = ReplicateBlocks.write(blocks);
         return new Written(JsonOut.document(g -> write(g, r, binary)), binary);
@@ -368,30 +380,57 @@ public final class ReplicateJson {
         }
         int classes = 0;
         double[] probabilities = null;
+        int[] predicted = null;
         Obj t = diverged ? nullOr(r, "test_probabilities") : r.object("test_probabilities");
         if (t != null) {
             int rows = t.integer("rows", expected.testRows(), expected.testRows());
             classes = t.integer("columns", expected.classes(), expected.classes());
             probabilities = t.numbers("values", (int) Math.min(Integer.MAX_VALUE, (long) rows * classes), Range.UNIT,
                     false);
+            double[] best = t.numbers("classes", rows, Range.NON_NEGATIVE, false);
+            predicted = new int[rows];
+            double tolerance = PROBABILITY_SUM_TOLERANCE * classes + FLOAT32_SUM_TOLERANCE;
             for (int i = 0; i < rows; i++) {
                 double sum = 0;
                 for (int k = 0; k < classes; k++) {
                     sum += probabilities[i * classes + k];
                 }
-                if (!(Math.abs(sum - 1) <= PROBABILITY_SUM_TOLERANCE * classes)) {
+                if (!(Math.abs(sum - 1) <= tolerance)) {
                     throw t.problem("values", "row " + (i + 1) + " sums to " + NumberText.shortest(sum)
                             + "; each row of class probabilities sums to 1");
                 }
+                predicted[i] = predictedClass(t, best[i], i, probabilities, classes);
             }
             if (rows == 0) {
                 probabilities = null;
+                predicted = null;
             }
         }
         Prediction prediction = prediction(r.object("prediction"), epochs.size());
         return new Replicate(arm, armName, replicate, seeds, status, divergedAt, total, updatesRun, averageTail,
                 initialObjective, metrics, averagedObjective, tail, epochs, nudges, cuts, rates, start, last, tailMean,
-                snapshotRows, snapshots, classes, probabilities, prediction);
+                snapshotRows, snapshots, classes, probabilities, predicted, prediction);
+    }
+
+    /**
+     * @return the predicted class of test row {@code row}: a class index whose stored probability is the row's largest
+     *     (rounding to float32 keeps the order of the float64 values, ties aside, so the run's argmax is one of the
+     *     stored row's largest)
+     */
+    private static int predictedClass(Obj t, double value, int row, double[] probabilities, int classes) {
+        int c = (int) value;
+        if (value != c || c >= classes) {
+            throw t.problem("classes", "row " + (row + 1) + " predicts class " + NumberText.shortest(value)
+                    + "; a class is an index from 0 to " + (classes - 1));
+        }
+        int base = row * classes;
+        for (int k = 0; k < classes; k++) {
+            if (probabilities[base + k] > probabilities[base + c]) {
+                throw t.problem("classes", "row " + (row + 1) + " predicts class " + c + ", but class " + k
+                        + " is more probable in test_probabilities.values; the predicted class is the most probable");
+            }
+        }
+        return c;
     }
 
     /**
@@ -416,17 +455,23 @@ public final class ReplicateJson {
                 throw BadInputException.inFile(binaryFile, block.name(), "is not an array of a replicate; expected "
                         + String.join(", ", BLOCKS));
             }
+            List<Coding> codings = codings(block.name());
+            if (!codings.contains(block.coding())) {
+                throw BadInputException.inFile(binaryFile, block.name(), "is in " + block.coding().word()
+                        + "; this array is written in " + String.join(" or ", codings.stream().map(Coding::word)
+                        .toList()));
+            }
             int dot = block.name().indexOf('.');
             Obj into = r;
             String key = block.name();
             if (dot > 0) {
                 into = r.object(block.name().substring(0, dot));
                 key = block.name().substring(dot + 1);
-                if (into.integer("rows", 0, Integer.MAX_VALUE) != block.rows()
-                        || into.integer("columns", 0, Integer.MAX_VALUE) != block.columns()) {
+                int columns = key.equals("classes") ? 1 : into.integer("columns", 0, Integer.MAX_VALUE);
+                if (into.integer("rows", 0, Integer.MAX_VALUE) != block.rows() || columns != block.columns()) {
                     throw BadInputException.inFile(binaryFile, block.name(), "is " + block.rows() + " × "
                             + block.columns() + "; the JSON's " + into.path + " is " + into.map.get("rows") + " × "
-                            + into.map.get("columns"));
+                            + columns);
                 }
             }
             if (into.map.containsKey(key)) {
@@ -440,6 +485,19 @@ public final class ReplicateJson {
             }
             into.map.put(key, new JsonIn.NumberArray(v, firstNull));
         }
+    }
+
+    /**
+     * @return the codings an array may be in: rates and θ vectors lossless, snapshots and test probabilities float32
+     *     (float64 where a snapshot value lies beyond float32), predicted classes as indices
+     */
+    private static List<Coding> codings(String block) {
+        return switch (block) {
+            case "rates", "start", "last", "tail_mean" -> List.of(Coding.FLOAT64, Coding.FLOAT64_XOR);
+            case "snapshots.values" -> List.of(Coding.FLOAT32, Coding.FLOAT64);
+            case "test_probabilities.values" -> List.of(Coding.FLOAT32);
+            default -> List.of(Coding.INDEX);
+        };
     }
 
     /** @return null: the key must hold JSON null (a diverged replicate has no tail, snapshots or probabilities) */

@@ -142,8 +142,9 @@ public final class StudyFormat {
     /**
      * The one-line refusal of a file written in an older format: format 1's tail radius and distance came from the
      * snapshots and its reshuffling prediction was approximate, so its numbers cannot stand beside today's; format
-     * 2 wrote every array of a replicate as JSON text; format 3 named each arm's directory by its position in the
-     * plan, so a plan that gained, lost or reordered arms could not keep its replicates.
+     * 2 wrote every array of a replicate as JSON text; format 3 wrote them as float64 in its binary file and named
+     * each arm's directory by its position in the plan, so a plan that gained, lost or reordered arms could not keep
+     * its replicates.
      *
      * @param file the manifest (or the file) in the older format
      * @param format the format it records
@@ -154,10 +155,11 @@ public final class StudyFormat {
         String what = file.getFileName() != null && file.getFileName().toString().equals(MANIFEST)
                 ? "this study directory" : "this file";
         String why = switch (format) {
-            case 3 -> " whose arm directories are named by the arms' positions in the plan (format 4 names each by"
-                    + " its arm's specification, so that a study can grow)";
-            case 2 -> " whose replicate files hold every array as JSON text (format 3 keeps the large arrays in a"
-                    + " binary file beside each, a third of the bytes)";
+            case 3 -> " whose arm directories are named by the arms' positions in the plan and whose binary files"
+                    + " hold every array as float64 (format 4 names each arm's directory by its specification, so"
+                    + " that a study can grow, and codes the arrays compactly, about half the bytes)";
+            case 2 -> " whose replicate files hold every array as JSON text (format 4 keeps the large arrays in a"
+                    + " compact binary file beside each, a fifth of the bytes)";
             default -> " whose tail metrics came from snapshots and whose reshuffling prediction was approximate";
         };
         return BadInputException.inFile(file.toString(), "", what + " is in format " + format + ", written by an"

@@ -52,18 +52,23 @@ public final class ClassBalance {
      * @return per class, the fraction of its rows predicted as it (NaN for a class without rows)
      */
     public static double[] recall(double[] probabilities, int classes, int[] labels) {
+        return recall(Replicate.predictedClasses(probabilities, classes), classes, labels);
+    }
+
+    /**
+     * Recall of every class.
+     *
+     * @param predicted the predicted class of each row (the replicate file's, exact)
+     * @param classes K
+     * @param labels the class of each row
+     * @return per class, the fraction of its rows predicted as it (NaN for a class without rows)
+     */
+    public static double[] recall(int[] predicted, int classes, int[] labels) {
         long[] hits = new long[classes];
         long[] rows = new long[classes];
         for (int i = 0; i < labels.length; i++) {
-            int base = i * classes;
-            int best = 0;
-            for (int c = 1; c < classes; c++) {
-                if (probabilities[base + c] > probabilities[base + best]) {
-                    best = c;
-                }
-            }
             rows[labels[i]]++;
-            if (best == labels[i]) {
+            if (predicted[i] == labels[i]) {
                 hits[labels[i]]++;
             }
         }
@@ -109,7 +114,7 @@ public final class ClassBalance {
             for (int k = 0; k < reps; k++) {
                 Replicate r = study.replicate(a, k);
                 if (r != null && !r.diverged() && r.testProbabilities() != null) {
-                    double[] rec = recall(r.testProbabilities(), classes, labels);
+                    double[] rec = recall(r.testPredicted(), classes, labels);
                     double[] v = java.util.Arrays.copyOf(rec, classes + 1);
                     v[classes] = balancedAccuracy(rec);
                     values[a][k] = v;

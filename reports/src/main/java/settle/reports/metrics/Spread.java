@@ -143,6 +143,21 @@ public final class Spread {
                 predicted[i][r] = argmax(probabilities[i], r * classes, classes);
             }
         }
+        return disagreement(predicted);
+    }
+
+    /**
+     * @param predicted per replicate, the predicted class of each test row. Not modified.
+     * @return D_st: the fraction of test rows where the classes of s and t differ, S × S row-major
+     */
+    public static double[] disagreement(int[][] predicted) {
+        int s = predicted.length;
+        int rows = s == 0 ? 0 : predicted[0].length;
+        for (int[] p : predicted) {
+            if (p.length != rows) {
+                throw new IllegalArgumentException("replicates have different numbers of test rows");
+            }
+        }
         double[] d = new double[s * s];
         for (int a = 0; a < s; a++) {
             for (int b = a + 1; b < s; b++) {

@@ -322,14 +322,15 @@ public final class StudyAnalysis {
             }
             if (probabilities) {
                 double[][] p = new double[n][];
+                int[][] predicted = new int[n][];
                 for (int i = 0; i < n; i++) {
                     p[i] = finished.get(i).testProbabilities();
+                    predicted[i] = finished.get(i).testPredicted();
                 }
                 int rows = finished.get(0).testRows();
-                int classes = finished.get(0).testClasses();
                 Spread.PairMeans spread = Spread.pairMeans(Spread.halfSquaredDistances(p, rows), n);
                 predictionSpread[a] = level(spread.value(), spread.leaveOneOut(), n);
-                Spread.PairMeans differ = Spread.pairMeans(Spread.disagreement(p, classes), n);
+                Spread.PairMeans differ = Spread.pairMeans(Spread.disagreement(predicted), n);
                 disagreement[a] = level(differ.value(), differ.leaveOneOut(), n);
             }
         }
