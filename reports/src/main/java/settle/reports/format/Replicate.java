@@ -64,12 +64,12 @@ public record Replicate(String armId, String armName, int replicate, Seeds seeds
      *
      * @see Replicate the parameters
      */
-    public Replicate(int arm, String armName, int replicate, Seeds seeds, String status, long divergedAtUpdate,
+    public Replicate(String armId, String armName, int replicate, Seeds seeds, String status, long divergedAtUpdate,
             long totalUpdates, long updatesRun, boolean averageTail, double initialObjective, double[] metrics,
             double averagedObjective, Tail tail, Epochs epochs, List<Nudge> nudges, List<PlateauCut> plateauCuts,
             double[] rates, double[] start, double[] last, double[] tailMean, int snapshotRows, double[] snapshots,
             int testClasses, double[] testProbabilities, Prediction prediction) {
-        this(arm, armName, replicate, seeds, status, divergedAtUpdate, totalUpdates, updatesRun, averageTail,
+        this(armId, armName, replicate, seeds, status, divergedAtUpdate, totalUpdates, updatesRun, averageTail,
                 initialObjective, metrics, averagedObjective, tail, epochs, nudges, plateauCuts, rates, start, last,
                 tailMean, snapshotRows, snapshots, testClasses, testProbabilities,
                 predictedClasses(testProbabilities, testClasses), prediction);

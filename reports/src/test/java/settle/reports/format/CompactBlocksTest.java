@@ -222,8 +222,11 @@ class CompactBlocksTest {
         return p;
     }
 
+    /** The arm's id, as a study names its directory. */
+    private static final String ARM_ID = StudyFormat.armId("cosine", "0".repeat(64));
+
     private static ReplicateJson.Expected expected(int replicate) {
-        return new ReplicateJson.Expected(1, "cosine", replicate, 7, null, P, CLASSES, TEST_ROWS, PER_EPOCH,
+        return new ReplicateJson.Expected(ARM_ID, "cosine", replicate, 7, null, P, CLASSES, TEST_ROWS, PER_EPOCH,
                 PER_EPOCH * EPOCHS, false);
     }
 
@@ -258,7 +261,7 @@ class CompactBlocksTest {
         }
         Replicate.Tail tail = new Replicate.Tail(total - 4, 5, 1, snapshots, new long[] {total - 4, total - 2, total},
                 new double[] {0.5, 0.45, 0.4});
-        return new Replicate(1, "cosine", k, new Replicate.Seeds("L64X128MixRandom", 7, 100 + k, 200 + k),
+        return new Replicate(ARM_ID, "cosine", k, new Replicate.Seeds("L64X128MixRandom", 7, 100 + k, 200 + k),
                 Replicate.FINISHED, 0, total, total, false, 1.2, metrics, Double.NaN, tail,
                 new Replicate.Epochs(epoch, lastUpdate, rate, objective, nan, nan.clone(), nan.clone(), nan.clone()),
                 List.of(), List.of(), rates, start, last, mean, snapshots, snap, CLASSES, p,
