@@ -41,6 +41,9 @@ public final class ComparePage {
             svg.forest .effect-text { fill: var(--ink); }
             svg.forest .picked-text { fill: #0072B2; font-weight: 600; }
             svg.forest .interval { stroke-width: 2.2; }
+            table.studies td.budget { min-width: 24ch; }
+            table.studies td.model, table.studies td.data { min-width: 18ch; }
+            table.studies td.directory { overflow-wrap: anywhere; max-width: 28ch; }
             span.key { display: inline-block; width: 10px; height: 10px; margin: 0 4px 0 12px; vertical-align: -1px; }
             """;
 
@@ -235,7 +238,7 @@ public final class ComparePage {
         final double high = range[1];
         int rows = a.rows().size();
         double height = TOP + rows * ROW + AXIS;
-        w.open("svg", "xmlns", "http://www.w3.org/2000/svg", "class", "forest", "id", "forest-" + (index + 1),
+        w.open("svg", "class", "forest", "id", "forest-" + (index + 1),
                 "viewBox", "0 0 " + SvgChart.n(WIDTH) + " " + SvgChart.n(height), "width", SvgChart.n(WIDTH),
                 "height", SvgChart.n(height), "role", "img", "aria-label", "forest plot of " + a.name());
         double bottom = TOP + rows * ROW;
@@ -359,15 +362,16 @@ public final class ComparePage {
             StudyDigest d = c.studies().get(s);
             w.open("tr");
             w.element("th", Names.shown(c.labels().get(s)), "class", "arm");
-            w.element("td", d.dataSource() + " (" + d.trainRows() + " training rows, " + d.testRows() + " test rows)");
-            w.element("td", d.model());
-            w.element("td", d.budget());
+            w.element("td", d.dataSource() + " (" + d.trainRows() + " training rows, " + d.testRows() + " test rows)",
+                    "class", "data");
+            w.element("td", d.model(), "class", "model");
+            w.element("td", d.budget(), "class", "budget");
             w.element("td", d.replicates() + " per arm × " + (d.arms().size() + 1) + " arms"
                     + (d.pairs() < d.replicates() ? " (" + d.pairs() + " paired)" : ""), "class", "num");
             w.element("td", Names.shown(d.baseline()));
             w.element("td", d.primary().words() + (d.primary() == Metric.FINAL_GAP ? " (convex)" : ""));
             w.element("td", d.pick() == null ? "none" : Names.shown(d.pick()));
-            w.element("td", d.directory().toString());
+            w.element("td", d.directory().toString(), "class", "directory");
             w.close("tr");
         }
         w.close("tbody");
