@@ -186,8 +186,8 @@ public final class Compare {
     }
 
     /**
-     * The answer for the terminal: per group a heading, one line per shared arm (its summary sentence), and each
-     * study's pick.
+     * The answer for the terminal: per group a heading, per shared arm its summary sentence and a line of its effect
+     * in each study (the page's right-hand column), and each study's pick.
      *
      * @param c the studies side by side
      * @return the lines, without line ends
@@ -195,7 +195,7 @@ public final class Compare {
     public static List<String> lines(CrossStudy c) {
         List<String> out = new ArrayList<>();
         for (CrossStudy.Group g : c.groups()) {
-            out.add((g.why().isEmpty() ? "" : "apart: ") + g.studies().size() + " stud" + (g.studies().size() == 1
+            out.add((g.why().isEmpty() ? "" : "kept apart: ") + g.studies().size() + " stud" + (g.studies().size() == 1
                     ? "y" : "ies") + " (" + g.primary().words() + " of the returned iterate against the baseline "
                     + Names.shown(g.baseline()) + "; each study's own verdict, nothing pooled):");
             if (!g.why().isEmpty()) {
@@ -206,6 +206,12 @@ public final class Compare {
             }
             for (CrossStudy.SharedArm a : g.arms()) {
                 out.add("  " + a.sentence());
+                List<String> effects = new ArrayList<>();
+                for (CrossStudy.Row row : a.rows()) {
+                    effects.add(Names.shown(c.labels().get(row.study())) + " " + ComparePage.effectText(
+                            row.effect().comparison()));
+                }
+                out.add("    " + String.join("; ", effects));
             }
             List<String> picks = new ArrayList<>();
             for (int s : g.studies()) {

@@ -133,7 +133,7 @@ class CrossStudyTest {
         assertFalse(objective.why().contains("baseline is"), objective.why());
 
         List<String> lines = Compare.lines(c);
-        assertTrue(lines.stream().anyMatch(l -> l.startsWith("apart: 1 study (final objective")), lines.toString());
+        assertTrue(lines.stream().anyMatch(l -> l.startsWith("kept apart: 1 study (final objective")), lines.toString());
     }
 
     @Test

@@ -292,8 +292,12 @@ public final class ComparePage {
         w.close("figure").newline();
     }
 
-    /** @return the effect as the plot's right column shows it */
-    private static String effectText(Comparison k) {
+    /**
+     * @param k an arm's comparison with its study's baseline on the primary metric (null: not compared)
+     * @return the effect as the plot's right column and the terminal show it: "−92 % (−97 to −77 %, 99 %), adjusted p
+     *     0.0049"
+     */
+    public static String effectText(Comparison k) {
         if (k == null || k.effectPairs() == 0 || !Double.isFinite(k.estimate())) {
             return "not compared: no usable pair of replicates";
         }
@@ -318,7 +322,7 @@ public final class ComparePage {
 
     /**
      * @return the % changes to label on an axis from log ratio {@code low} to {@code high}: no change first, then the
-     *     candidates from the ends inwards, each kept only when it lies at least 64 pixels from every label kept
+     *     candidates from the ends inwards, each kept only when it lies at least 52 pixels from every label kept
      */
     private static List<Double> ticks(double low, double high) {
         List<Double> candidates = new ArrayList<>();
@@ -336,7 +340,7 @@ public final class ComparePage {
             double px = x(Math.log1p(t / 100), low, high);
             boolean clear = true;
             for (double k : kept) {
-                clear &= Math.abs(x(Math.log1p(k / 100), low, high) - px) >= 64;
+                clear &= Math.abs(x(Math.log1p(k / 100), low, high) - px) >= 52;
             }
             if (clear) {
                 kept.add(t);
