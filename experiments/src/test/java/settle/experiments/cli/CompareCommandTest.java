@@ -84,6 +84,9 @@ class CompareCommandTest {
         assertEquals(1 + 1 + 2, csv.size(), "a header, cosine of the first, cosine and halving of the second");
         assertTrue(csv.get(0).startsWith("study,directory,group,"), csv.get(0));
         assertTrue(csv.get(1).startsWith("first,"), csv.get(1));
+        // epochs, batch, sampling and updates as the run's resolved plan.yaml and replicate files give them: 90 training
+        // rows in batches of 8 are 12 updates an epoch, 36 in 3 epochs
+        assertTrue(csv.get(1).contains(",3,8,shuffle,36,3,3,constant,final_gap,cosine,true,"), csv.get(1));
     }
 
     @Test
