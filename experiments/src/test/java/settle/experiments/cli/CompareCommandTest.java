@@ -11,6 +11,7 @@ import java.util.List;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.reports.format.StudyFormat;
 
 /**
  * {@code settle compare} as a user runs it on two real (small) studies: the answer on the terminal, the page and the
@@ -149,6 +150,24 @@ class CompareCommandTest {
         String text = Files.readString(manifest, StandardCharsets.UTF_8);
         Files.writeString(manifest, text.replaceFirst("\"format\" ?: ?\\d+", "\"format\": 1"), StandardCharsets.UTF_8);
         refused(manifest + ": this study directory is in format 1", first.toString(), old.toString());
+    }
+
+    @Test
+    void aPartialStudyIsComparedAsItStandsWithExitThree() throws Exception {
+        Path partial = dir.resolve("partial");
+        try (var files = Files.walk(second)) {
+            for (Path f : files.toList()) {
+                Files.copy(f, partial.resolve(second.relativize(f).toString()));
+            }
+        }
+        Files.delete(StudyFormat.replicateFile(partial, 2, 3));
+        Files.deleteIfExists(StudyFormat.binaryFile(partial, 2, 3));
+        Path page = dir.resolve("partial.html");
+        Cli.Result r = Cli.run("compare", first.toString(), partial.toString(), "--html", page.toString());
+        assertEquals(3, r.code(), r.err());
+        assertEquals("settle compare: " + partial + ": partial study: 1 of 9 replicates missing (its verdict pairs the 2"
+                + " indices present in every arm)" + System.lineSeparator(), r.err());
+        assertTrue(Files.readString(page, StandardCharsets.UTF_8).contains("is partial (1 replicate missing"));
     }
 
     @Test

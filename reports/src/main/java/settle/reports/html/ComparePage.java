@@ -143,12 +143,12 @@ public final class ComparePage {
         for (int s = 0; s < c.studies().size(); s++) {
             StudyDigest d = c.studies().get(s);
             if (d.missing() > 0) {
-                parts.add(Names.shown(c.labels().get(s)) + " is partial (" + d.missing() + " replicates missing; its"
-                        + " verdict pairs " + d.pairs() + ")");
+                parts.add(Names.shown(c.labels().get(s)) + " is partial (" + d.missing() + " replicate"
+                        + (d.missing() == 1 ? "" : "s") + " missing; its verdict pairs " + d.pairs() + ")");
             }
             if (d.diverged() > 0) {
-                parts.add(Names.shown(c.labels().get(s)) + " has " + d.diverged() + " diverged replicates (counted as"
-                        + " the worst value)");
+                parts.add(Names.shown(c.labels().get(s)) + " has " + d.diverged() + " diverged replicate"
+                        + (d.diverged() == 1 ? "" : "s") + " (counted as the worst value)");
             }
         }
         if (!parts.isEmpty()) {
