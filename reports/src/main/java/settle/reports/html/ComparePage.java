@@ -238,7 +238,7 @@ public final class ComparePage {
         final double high = range[1];
         int rows = a.rows().size();
         double height = TOP + rows * ROW + AXIS;
-        w.open("svg", "class", "forest", "id", "forest-" + (index + 1),
+        w.open("svg", "class", "chart forest", "id", "forest-" + (index + 1),
                 "viewBox", "0 0 " + SvgChart.n(WIDTH) + " " + SvgChart.n(height), "width", SvgChart.n(WIDTH),
                 "height", SvgChart.n(height), "role", "img", "aria-label", "forest plot of " + a.name());
         double bottom = TOP + rows * ROW;
@@ -322,7 +322,7 @@ public final class ComparePage {
 
     /**
      * @return the % changes to label on an axis from log ratio {@code low} to {@code high}: no change first, then the
-     *     candidates from the ends inwards, each kept only when it lies at least 52 pixels from every label kept
+     *     candidates from the ends inwards, each kept only when it lies at least 46 pixels from every label kept
      */
     private static List<Double> ticks(double low, double high) {
         List<Double> candidates = new ArrayList<>();
@@ -340,7 +340,7 @@ public final class ComparePage {
             double px = x(Math.log1p(t / 100), low, high);
             boolean clear = true;
             for (double k : kept) {
-                clear &= Math.abs(x(Math.log1p(k / 100), low, high) - px) >= 52;
+                clear &= Math.abs(x(Math.log1p(k / 100), low, high) - px) >= 46;
             }
             if (clear) {
                 kept.add(t);
