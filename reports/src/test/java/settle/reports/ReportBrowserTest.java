@@ -31,7 +31,7 @@ class ReportBrowserTest {
     @TempDir
     Path dir;
 
-    private static String chromium() {
+    static String chromium() {
         for (String name : new String[] {"chromium", "chromium-browser"}) {
             for (String p : System.getenv().getOrDefault("PATH", "").split(File.pathSeparator)) {
                 Path c = Path.of(p, name);

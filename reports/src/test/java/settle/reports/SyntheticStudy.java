@@ -88,6 +88,8 @@ final class SyntheticStudy {
     String sampling = "shuffle";
     /** The study's name the manifest records. */
     String study = "synthetic";
+    /** The plan's SHA-256 the manifest records ({@code plan_sha256}). */
+    String planSha256 = "aa";
     /** The model's λ the manifest records ({@code model_l2}). */
     double l2 = 0.01;
     /** The manifest's {@code grid} entries, written as given (see {@link #grid}). */
@@ -214,7 +216,7 @@ final class SyntheticStudy {
         m.put("root_seed", 7);
         m.put("started", "2026-01-01T00:00:00Z");
         m.put("ended", "2026-01-01T00:01:00Z");
-        m.put("plan_sha256", "aa");
+        m.put("plan_sha256", planSha256);
         m.put("data_sha256", "bb");
         m.put("split_sha256", "cc");
         m.put("settings_sha256", "dd");

@@ -19,7 +19,7 @@ import picocli.CommandLine.Spec;
         versionProvider = Main.Version.class,
         description = "Does learning-rate decay shrink the SGD noise ball on your data? "
                 + "Seed-paired studies of learning-rate schedules.",
-        subcommands = {DemoCommand.class, RunCommand.class, CheckCommand.class, ReportCommand.class, RatesCommand.class, TraceCommand.class, MinimumCommand.class, DatasetsCommand.class, FollowCommand.class, NudgeCommand.class, ProbeCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {DemoCommand.class, RunCommand.class, CheckCommand.class, ReportCommand.class, CompareCommand.class, RatesCommand.class, TraceCommand.class, MinimumCommand.class, DatasetsCommand.class, FollowCommand.class, NudgeCommand.class, ProbeCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Callable<Integer> {
 
     /** Exit code: success, warnings included. */

@@ -21,6 +21,9 @@ class PlacesTest {
         assertEquals(Path.of("studies", "frost-demo"), Places.study("frost-demo"));
         assertEquals(Path.of("studies", "satellite-mlp-probe.html"), Places.probePage("satellite-mlp"));
         assertTrue(Places.probePage("x").startsWith(Places.STUDIES));
+        assertEquals(Path.of("studies", "compare.html"), Places.COMPARISON);
+        assertEquals(Path.of("studies", "compare.csv"), Places.besidePage(Places.COMPARISON));
+        assertEquals(Path.of("out", "page.htm.csv"), Places.besidePage(Path.of("out", "page.htm")));
     }
 
     @Test
@@ -37,5 +40,7 @@ class PlacesTest {
         assertTrue(probe.contains("(default: studies/<study>-probe.html)"), probe);
         String run = Cli.run("run", "--help").out();
         assertTrue(run.contains("(default: studies/<study>)"), run);
+        String compare = Cli.run("compare", "--help").out();
+        assertTrue(compare.contains("(default: studies/compare.html)"), compare);
     }
 }

@@ -137,13 +137,22 @@ public final class ReportPage {
      * @param title the page's title
      */
     public static void openPage(HtmlWriter w, String title) {
+        openPage(w, title, "");
+    }
+
+    /**
+     * As {@link #openPage(HtmlWriter, String)}, with rules of the page's own after the report's style sheet.
+     *
+     * @param css the page's own rules (from the code, never from a study)
+     */
+    public static void openPage(HtmlWriter w, String title, String css) {
         w.doctype().open("html", "lang", "en").newline();
         w.open("head").newline();
         w.empty("meta", "charset", "utf-8").newline();
         w.empty("meta", "http-equiv", "Content-Security-Policy", "content", CSP).newline();
         w.empty("meta", "name", "viewport", "content", "width=device-width, initial-scale=1").newline();
         w.element("title", title).newline();
-        w.styleSheet(Css.SHEET).newline();
+        w.styleSheet(Css.SHEET + css).newline();
         w.close("head").newline();
         w.open("body").newline();
     }
