@@ -8,10 +8,8 @@ import static org.junit.jupiter.api.Assumptions.assumeTrue;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.junit.jupiter.api.Test;
@@ -27,7 +25,6 @@ import settle.reports.html.ComparePage;
  */
 class CompareBrowserTest {
 
-    private static final long TIMEOUT_SECONDS = 120;
     private static final int N = 8;
 
     @TempDir
@@ -53,26 +50,13 @@ class CompareBrowserTest {
     }
 
     private String browse(String chromium, Path page, String... extra) throws Exception {
-        Path profile = Files.createTempDirectory(dir, "profile");
-        List<String> command = new ArrayList<>(List.of(chromium, "--headless", "--no-sandbox", "--disable-gpu",
-                "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run",
-                "--user-data-dir=" + profile, "--enable-logging=stderr", "--v=0", "--window-size=1200,1600"));
-        command.addAll(List.of(extra));
-        command.add(page.toUri().toString());
-        Path out = dir.resolve("out-" + System.nanoTime());
-        Path err = dir.resolve("err-" + System.nanoTime());
-        Process p = new ProcessBuilder(command).redirectOutput(out.toFile()).redirectError(err.toFile()).start();
-        if (!p.waitFor(TIMEOUT_SECONDS, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            throw new AssertionError("chromium did not finish in " + TIMEOUT_SECONDS + " s");
-        }
-        String log = Files.readString(err, StandardCharsets.UTF_8);
-        assertEquals(0, p.exitValue(), "chromium exit code; stderr: " + log);
+        HeadlessChromium.Result r = HeadlessChromium.browse(chromium, dir, "1200,1600", page, extra);
+        String log = r.log();
         for (String line : log.split("\n")) {
             assertFalse(line.contains("CONSOLE") || line.contains("Refused to") || line.contains("Content Security"
                     + " Policy"), "console message or CSP violation: " + line);
         }
-        return Files.readString(out, StandardCharsets.UTF_8);
+        return r.out();
     }
 
     /** @return the number of forest rows in the forest plot whose heading names {@code arm} */
@@ -90,7 +74,7 @@ class CompareBrowserTest {
 
     @Test
     void thePageLoadsAndEachForestPlotHasOneRowPerStudy() throws Exception {
-        String chromium = ReportBrowserTest.chromium();
+        String chromium = HeadlessChromium.find();
         assumeTrue(chromium != null, "chromium is not installed (.ci/run installs it); browser check skipped");
         Path a = study("<script>alert('study')</script>", "a", "cosine", "halving");
         Path b = study("spam", "bb", "halving", "cosine");

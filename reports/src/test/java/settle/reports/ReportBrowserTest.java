@@ -5,14 +5,12 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
-import java.io.File;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import settle.reports.html.ReportPage;
@@ -26,53 +24,23 @@ import settle.reports.html.ReportPage;
  */
 class ReportBrowserTest {
 
-    private static final long TIMEOUT_SECONDS = 120;
 
     @TempDir
     Path dir;
 
-    static String chromium() {
-        for (String name : new String[] {"chromium", "chromium-browser"}) {
-            for (String p : System.getenv().getOrDefault("PATH", "").split(File.pathSeparator)) {
-                Path c = Path.of(p, name);
-                if (Files.isExecutable(c)) {
-                    return c.toString();
-                }
-            }
-        }
-        return null;
-    }
-
-    private Result browse(String chromium, Path report, String... extra) throws Exception {
-        Path profile = Files.createTempDirectory(dir, "profile");
-        List<String> command = new ArrayList<>(List.of(chromium, "--headless", "--no-sandbox", "--disable-gpu",
-                "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run",
-                "--user-data-dir=" + profile, "--enable-logging=stderr", "--v=0", "--window-size=1280,2400"));
-        command.addAll(List.of(extra));
-        command.add(report.toUri().toString());
-        Path out = dir.resolve("out-" + System.nanoTime());
-        Path err = dir.resolve("err-" + System.nanoTime());
-        Process p = new ProcessBuilder(command).redirectOutput(out.toFile()).redirectError(err.toFile()).start();
-        if (!p.waitFor(TIMEOUT_SECONDS, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            throw new AssertionError("chromium did not finish in " + TIMEOUT_SECONDS + " s");
-        }
-        assertEquals(0, p.exitValue(), "chromium exit code; stderr: " + Files.readString(err));
-        return new Result(Files.readString(out, StandardCharsets.UTF_8), Files.readString(err, StandardCharsets.UTF_8));
-    }
-
-    private record Result(String out, String log) {
+    private HeadlessChromium.Result browse(String chromium, Path report, String... extra) throws Exception {
+        return HeadlessChromium.browse(chromium, dir, "1280,2400", report, extra);
     }
 
     @Test
     void theBrowserShowsEverySectionEveryReplicateAndNoScript() throws Exception {
-        String chromium = chromium();
+        String chromium = HeadlessChromium.find();
         assumeTrue(chromium != null, "chromium is not installed (.ci/run installs it); browser check skipped");
         Path study = ReportHtmlTest.hostileStudy(dir);
         Report.write(study);
         Path report = study.resolve("report.html");
 
-        Result dom = browse(chromium, report, "--dump-dom");
+        HeadlessChromium.Result dom = browse(chromium, report, "--dump-dom");
         String html = dom.out();
         for (String id : ReportPage.SECTIONS) {
             assertTrue(html.contains("<section id=\"" + id + "\">"), "section " + id + " in the DOM");
@@ -131,7 +99,7 @@ class ReportBrowserTest {
      */
     @Test
     void rightToLeftNamesLeaveTheSentenceInOrder() throws Exception {
-        String chromium = chromium();
+        String chromium = HeadlessChromium.find();
         assumeTrue(chromium != null, "chromium is not installed (.ci/run installs it); browser check skipped");
         SyntheticStudy s = new SyntheticStudy();
         int n = 8;
