@@ -229,7 +229,9 @@ class StudyRunnerTest {
     @Test
     void ctrlCStopsCleanlyWithExitCode130AndKeepsWholeFiles() throws Exception {
         Path planFile = dir.resolve("plan.yaml");
-        Files.writeString(planFile, plan("interrupted", 60, ""));
+        // long enough that the run is still going when the signal arrives: the arms of a replicate train together,
+        // so the files appear three at a time, and starting `kill` can take a while on a loaded machine
+        Files.writeString(planFile, plan("interrupted", 600, ""));
         Path study = dir.resolve("s");
         String java = ProcessHandle.current().info().command().orElse("java");
         Path log = dir.resolve("child.log");
