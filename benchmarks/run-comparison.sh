@@ -2,8 +2,15 @@
 # The speed comparison of docs/benchmarks.md: settle against Debian's python3-torch (idiomatic and hand-written
 # variants), float64, one thread each, interleaved rounds. Installs the peer with apt when it is missing, builds
 # the benchmarks jar, and runs. Extra arguments go to the comparison (e.g. --rounds 7, --only logistic-b64).
-# Not part of the test suite.
+# With --study (first argument) it runs the study-level comparison instead (settle.benchmarks.StudySpeed: whole
+# studies with the arms of a replicate trained together and apart, against the batched peer; e.g.
+# --study --rounds 5, --study --only mlp). Not part of the test suite.
 set -euo pipefail
+main=settle.benchmarks.PeerSpeed
+if [ "${1:-}" = "--study" ]; then
+  main=settle.benchmarks.StudySpeed
+  shift
+fi
 root=$(cd "$(dirname "$0")/.." && pwd)
 cd "$root"
 # The peer must multiply with an optimised BLAS: python3-torch alone may pull in Debian's reference BLAS
@@ -27,5 +34,5 @@ if [ ! -f "$jar" ] || [ -n "$(find "$root" -path '*/src/main/*' -newer "$jar" -p
   mvn -B -q -DskipTests -pl benchmarks -am package
 fi
 export OMP_NUM_THREADS=1 OPENBLAS_NUM_THREADS=1 MKL_NUM_THREADS=1
-exec java --add-modules jdk.incubator.vector -cp "$jar" settle.benchmarks.PeerSpeed \
+exec java --add-modules jdk.incubator.vector -cp "$jar" "$main" \
   --peer "$root/benchmarks/src/main/python/peer.py" --python /usr/bin/python3 "$@" 2> >(grep -v 'Using incubator modules' >&2)

@@ -11,6 +11,15 @@ final class Clock {
     private Clock() {
     }
 
+    /**
+     * @return this process's CPU time in nanoseconds, every thread (garbage collection and the JIT included), as
+     *     the peer's {@code time.process_time()} counts its own
+     */
+    static long processCpuNanos() {
+        return ((com.sun.management.OperatingSystemMXBean) ManagementFactory.getOperatingSystemMXBean())
+                .getProcessCpuTime();
+    }
+
     /** @return the current thread's CPU time in nanoseconds */
     static long cpuNanos() {
         return THREADS.getCurrentThreadCpuTime();

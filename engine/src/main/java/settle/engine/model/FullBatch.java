@@ -26,6 +26,15 @@ public final class FullBatch {
     private final int[] y;
     private final double[] p;
     private final Model.Workspace workspace;
+    /** The workspace of {@link #objectives}, for up to {@link #STACK} vectors at once; made on first use. */
+    private Model.Workspace stacked;
+
+    /**
+     * How many parameter vectors {@link #objectives} hands the model at once ({@link Model#addLossSums}): a
+     * multinomial model stacks their weights into one product, 8 × K outputs wide (the chunk's scores then take
+     * 8·K·chunk values: 160 KB at K = 10 and 256 rows).
+     */
+    static final int STACK = 8;
 
     /** Same as {@code FullBatch(model, data, DEFAULT_CHUNK)}. */
     public FullBatch(Model model, Dataset data) {
@@ -107,8 +116,10 @@ public final class FullBatch {
 
     /**
      * F at several parameter vectors in one pass over the data: each chunk of rows is gathered once and evaluated
-     * at every θ while it is in cache, so a table larger than the cache is read once instead of once per θ. Each
-     * value is summed in the same order as {@link #objective}, so it is the same bit for bit.
+     * at every θ while it is in cache, so a table larger than the cache is read once instead of once per θ; the
+     * model gets up to {@link #STACK} vectors at a time ({@link Model#addLossSums}: a multinomial model stacks
+     * their weights into one product). Each value is summed in the same order as {@link #objective}, so it is the
+     * same bit for bit.
      *
      * @param thetas the parameter vectors, each of length P; not modified
      * @param count how many of them, from index 0
@@ -119,12 +130,13 @@ public final class FullBatch {
             return;
         }
         Arrays.fill(out, 0, count, 0.0);
+        if (stacked == null) {
+            stacked = model.workspace(chunk, STACK);
+        }
         for (int first = 0; first < rows; first += chunk) {
             int n = Math.min(chunk, rows - first);
             data.copyRange(first, n, x, y);
-            for (int s = 0; s < count; s++) {
-                out[s] += model.lossSum(thetas[s], x, y, n, workspace);
-            }
+            model.addLossSums(thetas, count, x, y, n, out, stacked);
         }
         for (int s = 0; s < count; s++) {
             out[s] = out[s] / rows + model.penalty(thetas[s]);

@@ -230,16 +230,16 @@ public final class Mlp implements Model {
     }
 
     /**
-     * Keeps each row's target logit, turns the logits (n, K) in s.out[L] into probabilities in place and returns
-     * Σ_r (log-sum-exp_r − logit_{r,y_r}).
+     * Keeps each row's target logit, turns the logits (n, K) in s.out[L] into probabilities in place (when
+     * {@code probabilities}; a loss alone needs only the log-sum-exps) and returns Σ_r (log-sum-exp_r − logit_{r,y_r}).
      */
-    private double softmax(int[] y, int n, Scratch s) {
+    private double softmax(int[] y, int n, Scratch s, boolean probabilities) {
         double[] logits = s.out[layers];
         int k = sizes[layers];
         for (int r = 0; r < n; r++) {
             s.targets[r] = logits[r * k + y[r]];
         }
-        Softmax.probabilities(logits, n, k, s.logSumExp, s.exponents);
+        Softmax.probabilities(logits, n, k, s.logSumExp, s.exponents, probabilities);
         double sum = 0;
         for (int r = 0; r < n; r++) {
             sum += s.logSumExp[r] - s.targets[r];
@@ -279,7 +279,7 @@ public final class Mlp implements Model {
     public double lossSum(double[] theta, double[] x, int[] y, int n, Workspace workspace) {
         Scratch s = scratch(theta, n, workspace);
         forward(theta, x, n, s);
-        return softmax(y, n, s);
+        return softmax(y, n, s, false);
     }
 
     @Override
@@ -288,7 +288,7 @@ public final class Mlp implements Model {
         Scratch s = scratch(theta, n, workspace);
         Starts.checkLength("gradient", gradientSum, parameterCount);
         forward(theta, x, n, s);
-        double sum = softmax(y, n, s);
+        double sum = softmax(y, n, s, true);
         double[] delta = s.delta[layers];
         int k = sizes[layers];
         System.arraycopy(s.out[layers], 0, delta, 0, n * k);
@@ -316,7 +316,7 @@ public final class Mlp implements Model {
         Scratch s = scratch(theta, n, workspace);
         forward(theta, x, n, s);
         double[] logits = s.out[layers];
-        Softmax.probabilities(logits, n, sizes[layers], s.logSumExp, s.exponents);
+        Softmax.probabilities(logits, n, sizes[layers], s.logSumExp, s.exponents, true);
         System.arraycopy(logits, 0, out, 0, n * sizes[layers]);
     }
 

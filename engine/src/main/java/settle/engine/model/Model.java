@@ -113,6 +113,22 @@ public interface Model {
     }
 
     /**
+     * {@link #lossSum} of several parameter vectors on one batch, each added to its sum: {@code sums[s] +=
+     * lossSum(thetas[s], …)} for s in [0, count), the same bits (a model that computes the vectors together keeps
+     * every value's chain of operations). {@link FullBatch#objectives} evaluates its chunks this way.
+     *
+     * @param thetas the parameter vectors, {@code count} of them from index 0; not modified
+     * @param sums added to, from index 0; modified
+     * @param workspace from {@link #workspace(int, int)}; modified
+     */
+    default void addLossSums(double[][] thetas, int count, double[] x, int[] y, int n, double[] sums,
+            Workspace workspace) {
+        for (int s = 0; s < count; s++) {
+            sums[s] += lossSum(thetas[s], x, y, n, workspace);
+        }
+    }
+
+    /**
      * {@link #batchObjective} of several parameter vectors on one batch (the arms of one replicate, which share
      * their mini-batches). Each arm's objective and gradient are the same bits as {@link #batchObjective} gives it
      * alone: a model that computes the arms together keeps every output element's chain of operations, so the

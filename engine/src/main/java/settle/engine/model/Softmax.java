@@ -17,8 +17,10 @@ final class Softmax {
      * @param z the scores, row r at r·K; modified
      * @param logSumExp receives each row's log-sum-exp in [0, n); modified
      * @param scratch at least n·K values for {@link Kernels#exp(double[], int, int, double[])}; modified
+     * @param normalise true to finish the probabilities; false when only the log-sum-exps are wanted (a loss),
+     *     which leaves z holding e_rk (the log-sum-exps are the same bits either way)
      */
-    static void probabilities(double[] z, int n, int k, double[] logSumExp, double[] scratch) {
+    static void probabilities(double[] z, int n, int k, double[] logSumExp, double[] scratch, boolean normalise) {
         for (int r = 0; r < n; r++) {
             int base = r * k;
             // two running maxima halve the dependent chain; max is exact, so any grouping gives the same value
@@ -45,9 +47,11 @@ final class Softmax {
             for (int c = 0; c < k; c++) {
                 sum += z[base + c];
             }
-            double inverse = 1.0 / sum;
-            for (int c = 0; c < k; c++) {
-                z[base + c] *= inverse;
+            if (normalise) {
+                double inverse = 1.0 / sum;
+                for (int c = 0; c < k; c++) {
+                    z[base + c] *= inverse;
+                }
             }
             logSumExp[r] += Math.log(sum);
         }

@@ -204,6 +204,33 @@ class FullBatchTest {
         }
     }
 
+    /**
+     * A multinomial model stacks up to {@link FullBatch#STACK} vectors into one product, wide enough for the vector
+     * path's register blocks even where one vector alone takes the narrow or the scalar product (10 classes; a last
+     * chunk of 4 rows): every value the same bits as one vector at a time, in groups of 8 and a rest of 3.
+     */
+    @Test
+    void stackedSoftmaxObjectivesGiveTheSameBitsAsOneAtATime() {
+        SplittableRandom rng = new SplittableRandom(44);
+        for (Model model : List.of(new SoftmaxRegression(20, 10, 0.01), new SoftmaxRegression(3, 5, 0.0),
+                new Mlp(20, new int[] {24}, Activation.RELU, 10, 0.01))) {
+            Dataset data = dataset(rng, 100, model.inputs(), model.classes());
+            FullBatch full = new FullBatch(model, data, 48); // chunks of 48, 48 and 4 rows
+            double[][] thetas = new double[11][];
+            for (int s = 0; s < thetas.length; s++) {
+                thetas[s] = FiniteDifferences.point(rng, model.parameterCount(), 0.3 + 0.1 * s);
+            }
+            for (int count : new int[] {2, 8, 11}) {
+                double[] out = new double[count];
+                full.objectives(thetas, count, out);
+                for (int s = 0; s < count; s++) {
+                    assertEquals(Double.doubleToRawLongBits(full.objective(thetas[s])), Double.doubleToRawLongBits(out[s]),
+                            model.describe() + ", " + count + " vectors, θ_" + s);
+                }
+            }
+        }
+    }
+
     @Test
     void nothingIsAllocatedPerCall() {
         SplittableRandom rng = new SplittableRandom(47);

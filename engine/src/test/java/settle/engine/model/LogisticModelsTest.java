@@ -18,6 +18,38 @@ class LogisticModelsTest {
     /** Random points per configuration (the issue asks for at least 3). */
     private static final int POINTS = 4;
 
+    /**
+     * More arms than one stacked product takes ({@link SoftmaxRegression#MAX_STACK}) go in groups (16 + 4 here):
+     * every arm's batch objective and gradient are the bits {@link Model#batchObjective} gives it alone, on a batch
+     * of 37 rows (not a whole number of register blocks).
+     */
+    @Test
+    void softmaxArmsInGroupsGiveEachArmItsOwnBits() {
+        SplittableRandom rng = new SplittableRandom(61);
+        SoftmaxRegression model = new SoftmaxRegression(20, 10, 0.01);
+        int n = 37;
+        double[] x = FiniteDifferences.features(rng, n, 20);
+        int[] y = FiniteDifferences.labels(rng, n, 10);
+        int arms = SoftmaxRegression.MAX_STACK + 4;
+        double[][] thetas = new double[arms][];
+        double[][] gradients = new double[arms][];
+        for (int a = 0; a < arms; a++) {
+            thetas[a] = FiniteDifferences.point(rng, model.parameterCount(), 0.2 + 0.05 * a);
+            gradients[a] = new double[model.parameterCount()];
+        }
+        double[] objectives = new double[arms];
+        model.batchObjectives(thetas, arms, x, y, n, gradients, objectives, model.workspace(n, arms));
+        double[] gradient = new double[model.parameterCount()];
+        for (int a = 0; a < arms; a++) {
+            double alone = model.batchObjective(thetas[a], x, y, n, gradient, model.workspace(n));
+            assertEquals(Double.doubleToRawLongBits(alone), Double.doubleToRawLongBits(objectives[a]), "arm " + a);
+            for (int i = 0; i < gradient.length; i++) {
+                assertEquals(Double.doubleToRawLongBits(gradient[i]), Double.doubleToRawLongBits(gradients[a][i]),
+                        "arm " + a + ", gradient " + i);
+            }
+        }
+    }
+
     @Test
     void binaryGradientMatchesFiniteDifferences() {
         SplittableRandom rng = new SplittableRandom(11);

@@ -65,6 +65,20 @@ class ArmGroupTest {
         assertSame(model, threeClasses, holdoutThree, plain.withAverageTail(true).withMomentum(0.5));
     }
 
+    /**
+     * Ten classes and 20 inputs: the arms' stacked products take the vector path's register blocks in both the
+     * forward and the gradient product, where one arm alone takes the narrow forward product (and the scalar one on
+     * the short last batch of 8 rows).
+     */
+    @Test
+    void softmaxArmsTogetherOnTheWideProductsAreTheArmsAlone() {
+        Model model = new SoftmaxRegression(20, 10, 0.001);
+        Dataset train = TrainSupport.gaussianClasses(200, 20, 10, 25);
+        Dataset holdout = TrainSupport.gaussianClasses(40, 20, 10, 26);
+        assertSame(model, train, holdout, TrainSupport.settings(6, 32));
+        assertSame(model, train, holdout, TrainSupport.settings(4, 24).withAverageTail(true).withMomentum(0.5));
+    }
+
     @Test
     void mlpArmsTogetherAreTheArmsAlone() {
         Model model = new Mlp(4, new int[] {16}, Activation.RELU, 3, 0.001);

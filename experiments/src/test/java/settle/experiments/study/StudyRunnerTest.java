@@ -230,9 +230,9 @@ class StudyRunnerTest {
     @Test
     void ctrlCStopsCleanlyWithExitCode130AndKeepsWholeFiles() throws Exception {
         Path planFile = dir.resolve("plan.yaml");
-        // 400 epochs: the 3 units of work left after the first one's files take seconds, not a third of one, so the
-        // interrupt lands while the run trains even on a loaded machine (at 60 epochs it could arrive after the end)
-        Files.writeString(planFile, plan("interrupted", 400, ""));
+        // long enough that the run is still going when the signal arrives: the arms of a replicate train together,
+        // so the files appear three at a time, and starting `kill` can take a while on a loaded machine
+        Files.writeString(planFile, plan("interrupted", 600, ""));
         Path study = dir.resolve("s");
         String java = ProcessHandle.current().info().command().orElse("java");
         Path log = dir.resolve("child.log");
