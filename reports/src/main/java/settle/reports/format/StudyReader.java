@@ -60,8 +60,12 @@ public final class StudyReader {
         Path referenceFile = directory.resolve(StudyFormat.REFERENCE);
         Reference reference = null;
         if (Files.isRegularFile(referenceFile)) {
-            reference = ReferenceJson.read(Files.readAllBytes(referenceFile), referenceFile.toString(),
-                    manifest.parameters(), manifest.arms());
+            try {
+                reference = ReferenceJson.read(Files.readAllBytes(referenceFile), referenceFile.toString(),
+                        manifest.parameters(), manifest.arms());
+            } catch (BadInputException e) {
+                throw StudyFormat.damagedReference(directory, e);
+            }
         }
         Path encodingFile = directory.resolve(StudyFormat.ENCODING);
         EncodingRecord encoding = null;
