@@ -283,8 +283,8 @@ class CorruptionCorpusTest {
     }
 
     /**
-     * A damaged reference.json: the report refuses it with one line naming the file and the field and, as for a
-     * damaged encoding.json, what to do (θ* and its curvature are computed from the plan and the data); the next run
+     * A damaged or deleted reference.json: the report refuses it with one line naming the file and the field and, as
+     * for a damaged encoding.json, what to do (θ* and its curvature are computed from the plan and the data); the next run
      * writes it again, byte for byte as before, trains nothing and keeps every replicate file as it was.
      */
     @TestFactory
@@ -299,7 +299,8 @@ class CorruptionCorpusTest {
                 new Broken("a wrong type", s -> s.replaceFirst("\"objective\" : [^,]*,", "\"objective\" : \"low\","),
                         ": objective: must be a number ≥ 0, not the text 'low'"),
                 new Broken("a field deleted", s -> s.replaceFirst("\"gradient_norm\" : [^,]*,\\s*", ""),
-                        ": gradient_norm: missing; every file of this kind has it"));
+                        ": gradient_norm: missing; every file of this kind has it"),
+                new Broken("deleted", s -> null, ": missing; the manifest records θ* of the convex model in it"));
         List<DynamicTest> tests = new ArrayList<>();
         int i = 0;
         for (Broken b : cases) {
@@ -308,8 +309,12 @@ class CorruptionCorpusTest {
                 StudyFiles.copyTree(original, study);
                 Path file = study.resolve("reference.json");
                 String damaged = b.damage().apply(text);
-                assertFalse(damaged.equals(text), "the damage changes the file");
-                Files.writeString(file, damaged);
+                if (damaged == null) {
+                    Files.delete(file);
+                } else {
+                    assertFalse(damaged.equals(text), "the damage changes the file");
+                    Files.writeString(file, damaged);
+                }
                 java.util.Map<String, byte[]> before = files(study);
 
                 StringWriter err = new StringWriter();

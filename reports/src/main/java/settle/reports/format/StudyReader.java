@@ -66,6 +66,9 @@ public final class StudyReader {
             } catch (BadInputException e) {
                 throw StudyFormat.damagedReference(directory, e);
             }
+        } else if (manifest.reference().equals(StudyFormat.REFERENCE)) {
+            throw BadInputException.inFile(referenceFile.toString(), "", "missing; the manifest records θ* of the"
+                    + " convex model in it; " + StudyFormat.referenceRemedy(directory));
         }
         Path encodingFile = directory.resolve(StudyFormat.ENCODING);
         EncodingRecord encoding = null;
