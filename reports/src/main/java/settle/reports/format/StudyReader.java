@@ -100,7 +100,7 @@ public final class StudyReader {
                 try {
                     ReplicateJson.Expected expected = new ReplicateJson.Expected(id, manifest.arms().get(a - 1), k,
                             manifest.rootSeed(), null, manifest.parameters(), manifest.classes(), manifest.testRows(),
-                            manifest.updatesPerEpoch(), -1, convex);
+                            manifest.updatesPerEpoch(), manifest.plannedUpdates(), convex);
                     files[i] = ReplicateJson.readFiles(file, expected);
                 } catch (BadInputException e) {
                     failures[i] = BadInputException.at(e.file(), e.line(), e.column(), e.key(), e.detail() + "; "
