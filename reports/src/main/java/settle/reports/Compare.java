@@ -152,7 +152,7 @@ public final class Compare {
             }
             List<String> facts = List.of(Csv.text(c.labels().get(s)), Csv.text(d.directory().toString()),
                     Integer.toString(group), Csv.text(d.dataSource()), Csv.text(d.model()), Integer.toString(d.epochs()),
-                    d.batch() > 0 ? Integer.toString(d.batch()) : "", Csv.text(d.sampling()), Long.toString(d.updates()),
+                    Integer.toString(d.batch()), Csv.text(d.sampling()), Long.toString(d.updates()),
                     Integer.toString(d.replicates()), Integer.toString(d.pairs()), Csv.text(d.baseline()),
                     d.primary().key());
             if (d.arms().isEmpty()) {

@@ -14,14 +14,16 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.reports.compare.StudyDigest;
 import settle.reports.format.Grid;
 import settle.reports.format.Manifest;
 import settle.input.BadInputException;
 import settle.reports.format.StudyReader;
+import settle.reports.metrics.StudyAnalysis;
 
 /**
- * What the report learns from the manifest and nowhere else: the study's name, the model's λ and the grid structure.
- * A format-2 manifest without them is refused with one line naming the file and key; a malformed grid likewise. Arm
+ * What the report learns from the manifest and nowhere else: the study's name, the model's λ, the training settings
+ * (the comparison's budget) and the grid structure. A manifest without them is refused with one line naming the file and key; a malformed grid likewise. Arm
  * names that look like grid arms make no grid, and a grid needs no such names.
  */
 class ManifestRecordsTest {
@@ -53,11 +55,18 @@ class ManifestRecordsTest {
         SyntheticStudy s = study("slow", "slower", "fast", "faster");
         s.study = "from-the-manifest";
         s.l2 = 0.0;
-        s.planText = "study: not-this-name\nmodel:\n  l2: 0.5\n";
+        s.planText = "study: not-this-name\nmodel:\n  l2: 0.5\ntraining:\n  epochs: 9\n  batch: 99\n  sampling:"
+                + " replacement\n";
+        s.batch = 20;
+        s.momentum = 0.25;
         s.grid("reciprocal", 1, List.of("rate", "decay"), List.of(List.of("0.1", "0.2"), List.of("0.3", "1.0")));
         Manifest m = StudyReader.read(s.write(dir.resolve("s"))).manifest();
         assertEquals("from-the-manifest", m.study());
         assertEquals(0.0, m.l2());
+        assertEquals(new Manifest.Training(4, 20, "shuffle", 0.25, 0.5, 2), m.training());
+        // the comparison's budget is the manifest's, whatever the plan's text says
+        StudyDigest digest = StudyDigest.of(StudyAnalysis.of(StudyReader.read(dir.resolve("s"))));
+        assertEquals("4 epochs × 5 updates (batch 20, shuffle) = 20 updates", digest.budget());
         assertEquals(1, m.grids().size());
         Grid g = m.grids().get(0);
         assertEquals("reciprocal", g.arm());
@@ -94,14 +103,14 @@ class ManifestRecordsTest {
 
     @Test
     void aManifestWithoutWhatTheReportNeedsIsRefusedByKey() throws Exception {
-        for (String key : List.of("study", "model_l2", "grid")) {
+        for (String key : List.of("study", "model_l2", "training", "grid")) {
             SyntheticStudy s = study("decay");
             s.omitted.add(key);
             Path study = s.write(dir.resolve("without-" + key));
             Path manifest = study.resolve("manifest.json");
             String message = assertThrows(BadInputException.class, () -> Report.write(study)).getMessage();
-            assertEquals(manifest + ": " + key + ": missing (the manifest records the study's name, model_l2 and"
-                    + " grid for the report since this settle); run the study's plan again with settle run PLAN --out "
+            assertEquals(manifest + ": " + key + ": missing (the manifest records the study's name, model_l2,"
+                    + " training and grid for the report since this settle); run the study's plan again with settle run PLAN --out "
                     + study.toAbsolutePath() + " to rewrite it: its finished replicates are kept", message);
             assertFalse(Files.exists(study.resolve("report.html")));
         }
@@ -115,9 +124,39 @@ class ManifestRecordsTest {
         assertRefused("grid", grid(2, "0.1"), "grid[0].arms[1].index: 2 is already listed by a grid; an arm comes from"
                 + " at most one grid entry");
         assertRefused("grid", grid(3, "0.5"), "grid[0].arms[1].values[0]: is '0.5', not one of the values of 'rate'");
+        assertRefused("training", training("epochs", MAPPER.getNodeFactory().numberNode(0)),
+                "training.epochs: must be a whole number in [1, 2147483647], not 0");
+        assertRefused("training", training("batch", MAPPER.getNodeFactory().textNode("32")),
+                "training.batch: must be a whole number in [1, 2147483647], not the text '32'");
+        assertRefused("training", training("batch", MAPPER.getNodeFactory().numberNode(2.5)),
+                "training.batch: must be a whole number in [1, 2147483647], not 2.5");
+        assertRefused("training", training("sampling", MAPPER.getNodeFactory().textNode("Shuffle")),
+                "training.sampling: must be one of shuffle, replacement, not the text 'Shuffle'");
+        assertRefused("training", training("momentum", MAPPER.getNodeFactory().numberNode(1.0)),
+                "training.momentum: must be a number in [0, 1), not 1.0");
+        assertRefused("training", training("tail", MAPPER.getNodeFactory().numberNode(0.0)),
+                "training.tail: must be a number in (0, 1], not 0.0");
+        assertRefused("training", training("snapshots", MAPPER.getNodeFactory().nullNode()),
+                "training.snapshots: must be a whole number in [1, 2147483647], not null");
+        assertRefused("training", training("epochs", null), "training.epochs: missing; every 'training' has it");
+        assertRefused("training", MAPPER.getNodeFactory().arrayNode(), "training: must be an object, not an array");
         ObjectNode noName = grid(3, "0.2");
         ((ObjectNode) noName.get("grid").get(0)).remove("arm");
         assertRefused("grid", noName, "grid[0].arm: missing; every 'grid[0]' has it");
+    }
+
+    /** @return a holder of a manifest "training" as SyntheticStudy writes it, with {@code value} at {@code key} (null: removed) */
+    private static ObjectNode training(String key, JsonNode value) {
+        ObjectNode holder = MAPPER.createObjectNode();
+        ObjectNode t = holder.putObject("training");
+        t.put("epochs", 4).put("batch", 16).put("sampling", "shuffle").put("momentum", 0.0).put("tail", 0.5)
+                .put("snapshots", 2);
+        if (value == null) {
+            t.remove(key);
+        } else {
+            t.set(key, value);
+        }
+        return holder;
     }
 
     /** @return a manifest "grid" with one entry over rate [0.1, 0.2], arms 2 (0.1) and {@code second} (value) */

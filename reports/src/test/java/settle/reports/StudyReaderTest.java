@@ -90,6 +90,17 @@ class StudyReaderTest {
     }
 
     @Test
+    void aReplicateWhosePlannedUpdatesAreNotTheManifestsIsRefused() throws Exception {
+        // the fixture trains 4 epochs of 5 updates; a manifest that says 5 epochs plans 25 updates a replicate
+        Path study = twoArms().write(dir.resolve("t"));
+        Path manifest = study.resolve("manifest.json");
+        Files.writeString(manifest, Files.readString(manifest).replace("\"epochs\":4", "\"epochs\":5"));
+        assertEquals(study.resolve(twoArms().path(1, 1)) + ": total_updates: is 20; the study's training gives 25"
+                + " updates (5 epochs of 5); " + remedy(study),
+                assertThrows(BadInputException.class, () -> StudyReader.read(study)).getMessage());
+    }
+
+    @Test
     void aFormatOneDirectoryGetsOneClearLineAndNoNumber() throws Exception {
         SyntheticStudy old = twoArms();
         old.format = 1;

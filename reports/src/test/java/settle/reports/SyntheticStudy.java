@@ -82,10 +82,15 @@ final class SyntheticStudy {
     String boundSkipped;
     /** The format every file records. */
     int format = 4;
-    /** The plan's momentum β, as the predictions record it. */
+    /** The plan's momentum β, as the predictions and the manifest's {@code training} record it. */
     double momentum;
-    /** The plan's sampling, as the predictions record it. */
+    /** The plan's sampling, as the predictions and the manifest's {@code training} record it. */
     String sampling = "shuffle";
+    /** The batch size B the manifest's {@code training} records. */
+    int batch = 16;
+    /** The tail fraction τ and the snapshots K the manifest's {@code training} records. */
+    double tail = 0.5;
+    int snapshots = 2;
     /** The study's name the manifest records. */
     String study = "synthetic";
     /** The plan's SHA-256 the manifest records ({@code plan_sha256}). */
@@ -236,6 +241,8 @@ final class SyntheticStudy {
         m.put("model", "binary logistic regression, " + featureNames.size() + " features, 2 classes");
         m.put("parameters", p);
         m.put("model_l2", l2);
+        m.putObject("training").put("epochs", epochs).put("batch", batch).put("sampling", sampling)
+                .put("momentum", momentum).put("tail", tail).put("snapshots", snapshots);
         m.put("reference", convex ? "reference.json" : "none: the model is not convex");
         m.put("baseline", baseline);
         ArrayNode armList = m.putArray("arms");

@@ -37,6 +37,7 @@ import settle.experiments.run.ReplicateOutcome;
 import settle.experiments.run.ReplicateWork;
 import settle.engine.train.ArmGroup;
 import settle.engine.train.Trainer;
+import settle.engine.train.TrainingSettings;
 import settle.input.BadInputException;
 import settle.reports.Report;
 import settle.reports.format.AtomicFile;
@@ -780,9 +781,14 @@ public final class StudyRunner {
                         data.updatesPerEpoch(plan.training().batch())),
                 st == null ? null : new Manifest.Standardisation(st.means(), st.scales()),
                 context.model().describe(), context.model().parameterCount(), plan.model().l2(),
-                context.minimum() == null ? "none: the model is not convex" : StudyFormat.REFERENCE, plan.baseline(),
+                training(plan.training()), context.minimum() == null ? "none: the model is not convex" : StudyFormat.REFERENCE, plan.baseline(),
                 arms, armIds, grids, statuses);
         AtomicFile.write(directory.resolve(StudyFormat.MANIFEST), ManifestJson.write(manifest));
         return new Outcome(directory, keys.size(), finished, diverged, missingCount, 0, "", null);
+    }
+
+    /** @return the plan's training settings as the manifest records them */
+    static Manifest.Training training(TrainingSettings t) {
+        return new Manifest.Training(t.epochs(), t.batch(), t.sampling().key(), t.momentum(), t.tail(), t.snapshots());
     }
 }

@@ -4,6 +4,8 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -85,9 +87,15 @@ class CompareCommandTest {
         assertEquals(1 + 1 + 2, csv.size(), "a header, cosine of the first, cosine and halving of the second");
         assertTrue(csv.get(0).startsWith("study,directory,group,"), csv.get(0));
         assertTrue(csv.get(1).startsWith("first,"), csv.get(1));
-        // epochs, batch, sampling and updates as the run's resolved plan.yaml and replicate files give them: 90 training
-        // rows in batches of 8 are 12 updates an epoch, 36 in 3 epochs
+        // epochs, batch, sampling and updates as the plan asks and the run's manifest records them: 90 training rows
+        // in batches of 8 are 12 updates an epoch, 36 in 3 epochs (sampling left out: the default, shuffle)
         assertTrue(csv.get(1).contains(",3,8,shuffle,36,3,3,constant,final_gap,cosine,true,"), csv.get(1));
+        JsonNode training = new ObjectMapper().readTree(first.resolve("manifest.json").toFile()).path("training");
+        assertEquals(3, training.path("epochs").asInt());
+        assertEquals(8, training.path("batch").asInt());
+        assertEquals("shuffle", training.path("sampling").asText());
+        assertEquals(12, new ObjectMapper().readTree(first.resolve("manifest.json").toFile()).path("data")
+                .path("updates_per_epoch").asInt());
     }
 
     @Test

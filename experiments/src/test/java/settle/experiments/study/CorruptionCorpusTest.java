@@ -270,4 +270,82 @@ class CorruptionCorpusTest {
         }
         return tests;
     }
+
+    /** The files of a study, by path relative to it, with their bytes. */
+    private static java.util.Map<String, byte[]> files(Path study) throws Exception {
+        java.util.Map<String, byte[]> out = new java.util.TreeMap<>();
+        try (java.util.stream.Stream<Path> walk = Files.walk(study)) {
+            for (Path p : walk.filter(Files::isRegularFile).toList()) {
+                out.put(study.relativize(p).toString(), Files.readAllBytes(p));
+            }
+        }
+        return out;
+    }
+
+    /**
+     * A damaged or deleted reference.json: the report refuses it with one line naming the file and the field and, as
+     * for a damaged encoding.json, what to do (θ* and its curvature are computed from the plan and the data); the next run
+     * writes it again, byte for byte as before, trains nothing and keeps every replicate file as it was.
+     */
+    @TestFactory
+    List<DynamicTest> aDamagedReferenceIsRefusedWithTheRemedyAndWrittenAgainByTheNextRun() throws Exception {
+        byte[] whole = Files.readAllBytes(original.resolve("reference.json"));
+        String text = new String(whole, StandardCharsets.UTF_8);
+        record Broken(String name, UnaryOperator<String> damage, String problem) {
+        }
+        List<Broken> cases = List.of(
+                new Broken("truncated", s -> s.substring(0, s.length() / 2), ":NUMBERS: not valid JSON: the file ends"
+                        + " in the middle of a value (it was cut short)"),
+                new Broken("a wrong type", s -> s.replaceFirst("\"objective\" : [^,]*,", "\"objective\" : \"low\","),
+                        ": objective: must be a number ≥ 0, not the text 'low'"),
+                new Broken("a field deleted", s -> s.replaceFirst("\"gradient_norm\" : [^,]*,\\s*", ""),
+                        ": gradient_norm: missing; every file of this kind has it"),
+                new Broken("deleted", s -> null, ": missing; the manifest records θ* of the convex model in it"));
+        List<DynamicTest> tests = new ArrayList<>();
+        int i = 0;
+        for (Broken b : cases) {
+            Path study = dir.resolve("reference-" + i++);
+            tests.add(DynamicTest.dynamicTest(b.name(), () -> {
+                StudyFiles.copyTree(original, study);
+                Path file = study.resolve("reference.json");
+                String damaged = b.damage().apply(text);
+                if (damaged == null) {
+                    Files.delete(file);
+                } else {
+                    assertFalse(damaged.equals(text), "the damage changes the file");
+                    Files.writeString(file, damaged);
+                }
+                java.util.Map<String, byte[]> before = files(study);
+
+                StringWriter err = new StringWriter();
+                assertEquals(2, StudyRunnerTest.settle(new StringWriter(), err, "report", study.toString()));
+                String line = err.toString().strip();
+                assertEquals(-1, line.indexOf('\n'), "one line: " + line);
+                String remedy = "; it is computed from the plan and the data: settle run " + study.resolve("plan.yaml")
+                        + " --out " + study + " writes it again, keeping the finished replicates";
+                assertTrue(line.startsWith(file.toString()) && line.endsWith(remedy), line);
+                String problem = line.substring(file.toString().length(), line.length() - remedy.length());
+                assertTrue(matches(b.problem(), problem), "expected " + b.problem() + ", said " + problem);
+                java.util.Map<String, byte[]> after = files(study);
+                assertEquals(before.keySet(), after.keySet(), "the refused report writes nothing");
+
+                // as the line says: the run writes the file again and trains nothing
+                StringWriter out = new StringWriter();
+                err = new StringWriter();
+                assertEquals(0, StudyRunnerTest.settle(out, err, "run", study.resolve("plan.yaml").toString(), "--out",
+                        study.toString(), "--quiet", "--json"), err.toString());
+                assertEquals(0, new com.fasterxml.jackson.databind.ObjectMapper().readTree(out.toString())
+                        .path("trained_now").asInt(-1), out.toString());
+                assertArrayEquals(whole, Files.readAllBytes(file), "θ* and its curvature again, byte for byte");
+                for (java.util.Map.Entry<String, byte[]> e : before.entrySet()) {
+                    if (e.getKey().startsWith("arms")) {
+                        assertArrayEquals(e.getValue(), Files.readAllBytes(study.resolve(e.getKey())), e.getKey());
+                    }
+                }
+                assertEquals(0, StudyRunnerTest.settle(new StringWriter(), new StringWriter(), "report",
+                        study.toString()), "the report reads the study again");
+            }));
+        }
+        return tests;
+    }
 }

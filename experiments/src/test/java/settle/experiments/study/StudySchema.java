@@ -87,6 +87,24 @@ final class StudySchema {
         }
         assertTrue(m.path("study").isTextual() && !m.path("study").asText().isBlank(), "manifest.study");
         assertTrue(m.path("model_l2").isNumber() && m.path("model_l2").asDouble() >= 0, "manifest.model_l2");
+        JsonNode training = m.path("training");
+        assertEquals(List.of("epochs", "batch", "sampling", "momentum", "tail", "snapshots"), fieldNames(training),
+                "manifest.training keys in order");
+        int plannedEpochs = training.path("epochs").asInt();
+        int batch = training.path("batch").asInt();
+        assertTrue(training.path("epochs").isInt() && plannedEpochs >= 1, "manifest.training.epochs");
+        assertTrue(training.path("batch").isInt() && batch >= 1, "manifest.training.batch");
+        assertTrue(List.of("shuffle", "replacement").contains(training.path("sampling").asText()),
+                "manifest.training.sampling");
+        double beta = training.path("momentum").asDouble(-1);
+        assertTrue(training.path("momentum").isNumber() && beta >= 0 && beta < 1, "manifest.training.momentum");
+        double tau = training.path("tail").asDouble(-1);
+        assertTrue(training.path("tail").isNumber() && tau > 0 && tau <= 1, "manifest.training.tail");
+        assertTrue(training.path("snapshots").isInt() && training.path("snapshots").asInt() >= 1,
+                "manifest.training.snapshots");
+        // an epoch is ⌈N/B⌉ updates in both samplings (README, "Training")
+        assertEquals((data.path("train_rows").asInt() + batch - 1) / batch, data.path("updates_per_epoch").asInt(),
+                "updates_per_epoch is ⌈train_rows / training.batch⌉");
         assertTrue(m.path("grid").isArray(), "manifest.grid");
         boolean[] inGrid = new boolean[arms];
         for (JsonNode grid : m.path("grid")) {
@@ -210,6 +228,10 @@ final class StudySchema {
                 assertEquals(TAIL, fieldNames(tail), "tail keys in order");
                 long first = tail.path("first_update").asLong();
                 long total = r.path("total_updates").asLong();
+                assertEquals((long) plannedEpochs * data.path("updates_per_epoch").asInt(), total,
+                        "T is training.epochs × updates_per_epoch");
+                assertTrue(tail.path("snapshots").asInt() <= training.path("snapshots").asInt(),
+                        "no more tail snapshots than training.snapshots");
                 assertEquals(total - first + 1, tail.path("length").asLong());
                 int perEpoch = data.path("updates_per_epoch").asInt();
                 assertEquals(total / perEpoch - (first - 1) / perEpoch, tail.path("epoch_ends").asLong(),

@@ -5,10 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import settle.reports.format.Manifest;
 import settle.reports.format.Metric;
-import settle.reports.format.Replicate;
-import settle.reports.format.ResolvedPlan;
 import settle.reports.format.Study;
-import settle.reports.metrics.Replicates;
 import settle.reports.metrics.StudyAnalysis;
 import settle.reports.metrics.VerdictSummary;
 import settle.reports.stats.Comparison;
@@ -26,11 +23,11 @@ import settle.reports.stats.VerdictSentence.Outcome;
  * @param testRows test rows
  * @param model the model in words
  * @param parameters the model's parameters P
- * @param epochs epochs of the longest replicate present
- * @param batch the batch size B (0 when the resolved plan does not say)
- * @param sampling {@code shuffle} or {@code replacement} ("" when the resolved plan does not say)
+ * @param epochs the planned epochs (the manifest's {@code training.epochs})
+ * @param batch the batch size B (the manifest's {@code training.batch})
+ * @param sampling {@code shuffle} or {@code replacement} (the manifest's {@code training.sampling})
  * @param updatesPerEpoch updates in one epoch
- * @param updates the planned updates T of one replicate
+ * @param updates the planned updates T of one replicate: epochs × updates per epoch
  * @param replicates replicates per arm
  * @param pairs replicate pairs behind the comparisons (indices present in every arm)
  * @param baseline the baseline's name as recorded
@@ -78,19 +75,11 @@ public record StudyDigest(Path directory, String name, String dataSource, int tr
             }
             arms.add(new ArmEffect(a.name(), a.primary(), a.outcome(), a.arm() == verdict.pick().arm()));
         }
-        ResolvedPlan training = ResolvedPlan.training(study.planText());
-        long updates = 0;
-        for (List<Replicate> arm : study.replicates()) {
-            for (Replicate r : arm) {
-                if (r != null) {
-                    updates = Math.max(updates, r.totalUpdates());
-                }
-            }
-        }
+        Manifest.Training training = m.training();
         return new StudyDigest(study.directory(), m.study(), m.dataSource(), m.trainRows(), m.testRows(), m.model(),
-                m.parameters(), Replicates.epochs(study), training.batch(), training.sampling(), m.updatesPerEpoch(),
-                updates, study.replicateCount(), verdict.pairs(), m.baseline(), verdict.primary(), arms, pick,
-                m.planSha256(), m.dataSha256(), study.missing(), study.diverged());
+                m.parameters(), training.epochs(), training.batch(), training.sampling(), m.updatesPerEpoch(),
+                m.plannedUpdates(), study.replicateCount(), verdict.pairs(), m.baseline(), verdict.primary(), arms,
+                pick, m.planSha256(), m.dataSha256(), study.missing(), study.diverged());
     }
 
     /** @return the arm named {@code name} (not the baseline), or null when the study has none of that name */
@@ -105,19 +94,7 @@ public record StudyDigest(Path directory, String name, String dataSource, int tr
 
     /** @return the budget in words: "50 epochs × 15 updates (batch 32, shuffle) = 750 updates" */
     public String budget() {
-        StringBuilder b = new StringBuilder();
-        b.append(epochs).append(epochs == 1 ? " epoch" : " epochs").append(" × ").append(updatesPerEpoch)
-                .append(" updates");
-        List<String> how = new ArrayList<>();
-        if (batch > 0) {
-            how.add("batch " + batch);
-        }
-        if (!sampling.isEmpty()) {
-            how.add(sampling);
-        }
-        if (!how.isEmpty()) {
-            b.append(" (").append(String.join(", ", how)).append(')');
-        }
-        return b.append(" = ").append(updates).append(" updates").toString();
+        return epochs + (epochs == 1 ? " epoch" : " epochs") + " × " + updatesPerEpoch + " updates (batch " + batch
+                + ", " + sampling + ") = " + updates + " updates";
     }
 }

@@ -232,7 +232,9 @@ final class JsonIn {
         /** A number in [0, 1]. */
         UNIT("a number in [0, 1]"),
         /** A number in [0, 1). */
-        MOMENTUM("a number in [0, 1)");
+        MOMENTUM("a number in [0, 1)"),
+        /** A number in (0, 1]: a fraction that is not empty. */
+        TAIL("a number in (0, 1]");
 
         final String words;
 
@@ -247,6 +249,7 @@ final class JsonIn {
                 case POSITIVE -> v > 0 && Double.isFinite(v);
                 case UNIT -> v >= 0 && v <= 1;
                 case MOMENTUM -> v >= 0 && v < 1;
+                case TAIL -> v > 0 && v <= 1;
             };
         }
     }

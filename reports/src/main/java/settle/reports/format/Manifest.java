@@ -28,6 +28,7 @@ import java.util.List;
  * @param model the model in words
  * @param parameters the number of parameters P
  * @param l2 the model's penalty λ (the plan's {@code model.l2}; 0 for none)
+ * @param training the training settings every replicate ran with (the resolved plan's {@code training} keys)
  * @param reference "reference.json", or why there is none
  * @param baseline the baseline arm's name
  * @param arms the arms' names, in arm-index order (index 1 first)
@@ -39,7 +40,8 @@ import java.util.List;
 public record Manifest(int format, String study, Tool tool, Jvm runtime, Cpu processor, String executor,
         int threads, List<String> command, String generator, long rootSeed, String started, String endedAt,
         String planSha256, String dataSha256, String splitSha256, String settingsSha256, Data data,
-        Standardisation standardisation, String model, int parameters, double l2, String reference, String baseline,
+        Standardisation standardisation, String model, int parameters, double l2, Training training, String reference,
+        String baseline,
         List<String> arms, List<String> armIds, List<Grid> grids, List<Status> statuses) {
 
     /** The status of a replicate still to train while the run goes on. */
@@ -56,6 +58,38 @@ public record Manifest(int format, String study, Tool tool, Jvm runtime, Cpu pro
         }
         grids = List.copyOf(grids);
         statuses = List.copyOf(statuses);
+        java.util.Objects.requireNonNull(training, "training");
+    }
+
+    /**
+     * The training settings shared by every replicate, as the runner used them: the resolved plan's {@code training}
+     * keys, every default filled in. The budget of one replicate is {@code epochs} × {@link Data#updatesPerEpoch}
+     * updates.
+     *
+     * @param epochs passes over the training split, ≥ 1
+     * @param batch rows per mini-batch B, ≥ 1
+     * @param sampling how an epoch's batches are drawn: one of {@link #SAMPLINGS}
+     * @param momentum heavy-ball β in [0, 1); 0 is plain SGD
+     * @param tail τ in (0, 1]: the tail is the last ⌈τT⌉ updates
+     * @param snapshots the tail snapshots K asked for, ≥ 1
+     */
+    public record Training(int epochs, int batch, String sampling, double momentum, double tail, int snapshots) {
+
+        /** The samplings the manifest records, as a plan writes them. */
+        public static final List<String> SAMPLINGS = List.of("shuffle", "replacement");
+
+        public Training {
+            if (epochs < 1 || batch < 1 || snapshots < 1 || !SAMPLINGS.contains(sampling)
+                    || !(momentum >= 0 && momentum < 1) || !(tail > 0 && tail <= 1)) {
+                throw new IllegalArgumentException("training settings out of range: " + epochs + ", " + batch + ", "
+                        + sampling + ", " + momentum + ", " + tail + ", " + snapshots);
+            }
+        }
+
+        /** @return T, the planned updates of one replicate for {@code updatesPerEpoch} updates in an epoch */
+        public long updates(int updatesPerEpoch) {
+            return (long) epochs * updatesPerEpoch;
+        }
     }
 
     /**
@@ -174,6 +208,11 @@ public record Manifest(int format, String study, Tool tool, Jvm runtime, Cpu pro
     /** @return updates in one epoch */
     public int updatesPerEpoch() {
         return data.updatesPerEpoch();
+    }
+
+    /** @return T, the planned updates of one replicate: epochs × updates per epoch */
+    public long plannedUpdates() {
+        return training.updates(data.updatesPerEpoch());
     }
 
     /** @return replicates per arm */

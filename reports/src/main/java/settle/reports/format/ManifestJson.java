@@ -74,6 +74,15 @@ public final class ManifestJson {
             g.writeStringField("model", m.model());
             g.writeNumberField("parameters", m.parameters());
             g.writeNumberField("model_l2", m.l2());
+            Manifest.Training t = m.training();
+            g.writeObjectFieldStart("training");
+            g.writeNumberField("epochs", t.epochs());
+            g.writeNumberField("batch", t.batch());
+            g.writeStringField("sampling", t.sampling());
+            JsonOut.number(g, "momentum", t.momentum());
+            JsonOut.number(g, "tail", t.tail());
+            g.writeNumberField("snapshots", t.snapshots());
+            g.writeEndObject();
             g.writeStringField("reference", m.reference());
             g.writeStringField("baseline", m.baseline());
             g.writeArrayFieldStart("arms");
@@ -142,9 +151,10 @@ public final class ManifestJson {
      */
     public static Manifest read(byte[] bytes, String file, String rerun) {
         Obj m = thisFormat(bytes, file, rerun);
-        for (String key : new String[] {"study", "model_l2", "grid"}) {
+        for (String key : new String[] {"study", "model_l2", "training", "grid"}) {
             if (!m.has(key)) {
-                throw m.problem(key, "missing (the manifest records the study's name, model_l2 and grid for the report"
+                throw m.problem(key, "missing (the manifest records the study's name, model_l2, training and grid for"
+                        + " the report"
                         + " since this settle); run the study's plan again with settle run PLAN --out "
                         + java.nio.file.Path.of(file).toAbsolutePath().getParent() + " to rewrite it: its finished"
                         + " replicates are kept");
@@ -180,6 +190,7 @@ public final class ManifestJson {
         String model = m.text("model");
         int parameters = m.integer("parameters", 1, Integer.MAX_VALUE);
         double l2 = m.number("model_l2", Range.NON_NEGATIVE);
+        Manifest.Training training = training(m.object("training"));
         String reference = m.text("reference");
         String settingsHash = m.text("settings_sha256");
         List<String> arms = new ArrayList<>();
@@ -220,7 +231,7 @@ public final class ManifestJson {
         List<Manifest.Status> statuses = statuses(m, arms.size());
         return new Manifest(StudyFormat.VERSION, study, tool, jvm, cpu, executor, threads, command, generator, rootSeed, started,
                 ended, planHash, dataHash, splitHash, settingsHash, data, standardisation, model, parameters, l2,
-                reference, baseline, arms, armIds, grids, statuses);
+                training, reference, baseline, arms, armIds, grids, statuses);
     }
 
     /**
@@ -271,6 +282,18 @@ public final class ManifestJson {
         }
         return new Earlier(m.text("plan_sha256"), m.text("data_sha256"), m.text("split_sha256"),
                 m.text("settings_sha256"), grids);
+    }
+
+    /**
+     * The manifest's {@code training}: {@code epochs} and {@code batch} (whole numbers ≥ 1), {@code sampling} (one of
+     * {@link Manifest.Training#SAMPLINGS}), {@code momentum} in [0, 1), {@code tail} in (0, 1], {@code snapshots}
+     * (a whole number ≥ 1).
+     */
+    private static Manifest.Training training(Obj t) {
+        return new Manifest.Training(t.integer("epochs", 1, Integer.MAX_VALUE), t.integer("batch", 1, Integer.MAX_VALUE),
+                t.choice("sampling", Manifest.Training.SAMPLINGS.toArray(new String[0])),
+                t.number("momentum", Range.MOMENTUM), t.number("tail", Range.TAIL),
+                t.integer("snapshots", 1, Integer.MAX_VALUE));
     }
 
     private static Manifest.Data data(Obj d) {

@@ -47,7 +47,8 @@ public final class ReplicateJson {
      * @param classes K, the number of classes
      * @param testRows N_test, the rows of the test split
      * @param updatesPerEpoch updates in one epoch
-     * @param totalUpdates T, or −1 when not known (the report takes it from the file, a whole number of epochs)
+     * @param totalUpdates T (the runner's plan, the report's manifest: epochs × updates per epoch), or −1 when not
+     *     known (then any whole number of epochs)
      * @param convex whether the model has a reference minimiser (the metrics needing θ* are then numbers, else null)
      */
     public record Expected(String armId, String armName, int replicate, long rootSeed, Replicate.Seeds seeds,
@@ -320,9 +321,11 @@ public final class ReplicateJson {
         String status = r.choice("status", Replicate.FINISHED, Replicate.DIVERGED);
         boolean diverged = status.equals(Replicate.DIVERGED);
         int u = expected.updatesPerEpoch();
-        long total = expected.totalUpdates() > 0
-                ? r.whole("total_updates", expected.totalUpdates(), expected.totalUpdates())
-                : r.whole("total_updates", 1, Long.MAX_VALUE);
+        long total = r.whole("total_updates", 1, Long.MAX_VALUE);
+        if (expected.totalUpdates() > 0 && total != expected.totalUpdates()) {
+            throw r.problem("total_updates", "is " + total + "; the study's training gives " + expected.totalUpdates()
+                    + " updates (" + expected.totalUpdates() / u + " epochs of " + u + ")");
+        }
         if (total % u != 0) {
             throw r.problem("total_updates", total + " is not a whole number of epochs of " + u + " updates");
         }

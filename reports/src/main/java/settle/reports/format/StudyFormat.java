@@ -173,14 +173,14 @@ public final class StudyFormat {
 
     /**
      * What to do about a damaged {@code encoding.json}: the file is made from the plan and the data alone, so deleting
-     * it loses nothing, and the next run writes it again.
+     * it loses nothing, and the next run writes it again (a run reads it to check the encoding has not changed, so it
+     * must go first).
      *
      * @param directory the study directory
      * @return the remedy, to follow the problem after "; "
      */
     public static String encodingRemedy(Path directory) {
-        return "it is made from the plan and the data: delete it, and settle run " + directory.resolve(PLAN)
-                + " --out " + directory + " writes it again, keeping the finished replicates";
+        return "it is made from the plan and the data: delete it, and " + rewrites(directory);
     }
 
     /**
@@ -189,7 +189,38 @@ public final class StudyFormat {
      * @return the same refusal with {@link #encodingRemedy} after it
      */
     public static BadInputException damagedEncoding(Path directory, BadInputException problem) {
+        return withRemedy(problem, encodingRemedy(directory));
+    }
+
+    /**
+     * What to do about a damaged or missing {@code reference.json}: θ* and its curvature are computed from the plan and
+     * the data alone, deterministically, and every run writes the file again before it trains (it never reads it), so
+     * the next run makes it whole and trains nothing it has.
+     *
+     * @param directory the study directory
+     * @return the remedy, to follow the problem after "; "
+     */
+    public static String referenceRemedy(Path directory) {
+        return "it is computed from the plan and the data: " + rewrites(directory);
+    }
+
+    /**
+     * @param directory the study directory
+     * @param problem the refusal of its {@code reference.json}
+     * @return the same refusal with {@link #referenceRemedy} after it
+     */
+    public static BadInputException damagedReference(Path directory, BadInputException problem) {
+        return withRemedy(problem, referenceRemedy(directory));
+    }
+
+    /** @return "settle run PLAN --out DIR writes it again, keeping the finished replicates" */
+    private static String rewrites(Path directory) {
+        return "settle run " + directory.resolve(PLAN) + " --out " + directory + " writes it again, keeping the"
+                + " finished replicates";
+    }
+
+    private static BadInputException withRemedy(BadInputException problem, String remedy) {
         return BadInputException.at(problem.file(), problem.line(), problem.column(), problem.key(), problem.detail()
-                + "; " + encodingRemedy(directory));
+                + "; " + remedy);
     }
 }

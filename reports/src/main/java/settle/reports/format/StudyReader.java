@@ -60,8 +60,15 @@ public final class StudyReader {
         Path referenceFile = directory.resolve(StudyFormat.REFERENCE);
         Reference reference = null;
         if (Files.isRegularFile(referenceFile)) {
-            reference = ReferenceJson.read(Files.readAllBytes(referenceFile), referenceFile.toString(),
-                    manifest.parameters(), manifest.arms());
+            try {
+                reference = ReferenceJson.read(Files.readAllBytes(referenceFile), referenceFile.toString(),
+                        manifest.parameters(), manifest.arms());
+            } catch (BadInputException e) {
+                throw StudyFormat.damagedReference(directory, e);
+            }
+        } else if (manifest.reference().equals(StudyFormat.REFERENCE)) {
+            throw BadInputException.inFile(referenceFile.toString(), "", "missing; the manifest records θ* of the"
+                    + " convex model in it; " + StudyFormat.referenceRemedy(directory));
         }
         Path encodingFile = directory.resolve(StudyFormat.ENCODING);
         EncodingRecord encoding = null;
@@ -93,7 +100,7 @@ public final class StudyReader {
                 try {
                     ReplicateJson.Expected expected = new ReplicateJson.Expected(id, manifest.arms().get(a - 1), k,
                             manifest.rootSeed(), null, manifest.parameters(), manifest.classes(), manifest.testRows(),
-                            manifest.updatesPerEpoch(), -1, convex);
+                            manifest.updatesPerEpoch(), manifest.plannedUpdates(), convex);
                     files[i] = ReplicateJson.readFiles(file, expected);
                 } catch (BadInputException e) {
                     failures[i] = BadInputException.at(e.file(), e.line(), e.column(), e.key(), e.detail() + "; "
