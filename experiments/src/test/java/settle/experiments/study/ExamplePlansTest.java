@@ -13,7 +13,7 @@ import org.junit.jupiter.params.provider.ValueSource;
 import settle.experiments.cli.Main;
 
 /**
- * Every example plan under experiments/plans runs at a reduced budget into a study directory of format 2, and gives
+ * Every example plan under experiments/plans runs at a reduced budget into a valid study directory, and gives
  * the same files byte for byte whether the arms that share their mini-batches train together or apart.
  */
 class ExamplePlansTest {
