@@ -324,6 +324,11 @@ public final class ReplicateBlocks {
             long id = Integer.toUnsignedLong(in.getInt());
             codings[i] = id > 255 ? null : Coding.of((int) id);
             lengths[i] = Integer.toUnsignedLong(in.getInt());
+            // each below 2³², so their product is below 2⁶⁴ but may pass 2⁶³: compare before multiplying
+            if (rows[i] != 0 && columns[i] > Integer.MAX_VALUE / rows[i]) {
+                throw BadInputException.inFile(file, name, "records " + rows[i] + " × " + columns[i] + " values; a"
+                        + " block holds at most " + Integer.MAX_VALUE);
+            }
             long values = rows[i] * columns[i];
             if (codings[i] == null) {
                 throw BadInputException.inFile(file, name, "its coding is " + id + "; expected 1 (float64), 2"
@@ -335,7 +340,7 @@ public final class ReplicateBlocks {
                 case INDEX -> lengths[i] == values || lengths[i] == 2 * values || lengths[i] == 4 * values;
                 case FLOAT64_XOR -> lengths[i] >= (values + 1) / 2 && lengths[i] <= (values + 1) / 2 + 8 * values;
             };
-            if (!fits || values > Integer.MAX_VALUE) {
+            if (!fits) {
                 throw BadInputException.inFile(file, name, "records " + lengths[i] + " bytes for " + rows[i] + " × "
                         + columns[i] + " values in " + codings[i].word());
             }

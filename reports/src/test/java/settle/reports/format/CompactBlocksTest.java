@@ -199,6 +199,26 @@ class CompactBlocksTest {
                 assertThrows(BadInputException.class, () -> ReplicateBlocks.read(body, "x.bin")).getMessage());
     }
 
+    @Test
+    void rowsTimesColumnsBeyondALongAreRefusedNotWrapped() {
+        // rows × columns of two u32 can pass 2⁶³: (2³¹ + 2¹⁵)(2³² − 2¹⁶ + 1) = 2⁶³ + 2¹⁵, which a signed long holds as a
+        // negative number whose double, 2 × values, wraps to 2¹⁶: the length of 2¹⁵ two-byte indices, as written below
+        double[] classes = new double[1 << 15];
+        for (int i = 0; i < classes.length; i++) {
+            classes[i] = i % 300;
+        }
+        byte[] file = ReplicateBlocks.write(List.of(new Block("test_probabilities.classes", classes.length, 1,
+                Coding.INDEX, classes)));
+        ByteBuffer table = ByteBuffer.wrap(file).order(ByteOrder.LITTLE_ENDIAN);
+        assertEquals(2 * classes.length, table.getInt(16 + 44), "two bytes an index");
+        table.putInt(16 + 32, (int) ((1L << 31) + (1L << 15)));
+        table.putInt(16 + 36, (int) ((1L << 32) - (1L << 16) + 1));
+        reseal(file);
+        assertEquals("x.bin: test_probabilities.classes: records 2147516416 × 4294901761 values; a block holds at most"
+                + " 2147483647", assertThrows(BadInputException.class, () -> ReplicateBlocks.read(file, "x.bin"))
+                .getMessage());
+    }
+
     private static void reseal(byte[] bin) {
         ByteBuffer.wrap(bin).order(ByteOrder.LITTLE_ENDIAN).putInt(bin.length - 4,
                 (int) ReplicateBlocks.crc(bin, bin.length - 4));
