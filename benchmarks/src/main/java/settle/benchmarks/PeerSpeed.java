@@ -79,7 +79,7 @@ public final class PeerSpeed {
         List<String[][]> table = new ArrayList<>();
         try (PrintWriter to = new PrintWriter(new OutputStreamWriter(process.getOutputStream(), StandardCharsets.UTF_8), true);
                 BufferedReader from = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8))) {
-            System.out.println("peer: " + ask(to, from, "version") + " (OMP/OPENBLAS/MKL_NUM_THREADS=1)");
+            System.out.println("peer: " + PeerFiles.ask(to, from, "version") + " (OMP/OPENBLAS/MKL_NUM_THREADS=1)");
             System.out.println("both sides: float64, 1 thread, shuffle each epoch, rate/(1 + 0.5 e), full-batch objective "
                     + "at the start and after each epoch; " + rounds + " interleaved rounds after warm-up rounds (until settle has "
                     + "trained " + WARM_UP_SECONDS + " s)");
@@ -134,7 +134,7 @@ public final class PeerSpeed {
         w.write(data, dir);
         String hidden = w.hidden().length == 0 ? "-"
                 : String.join(",", Arrays.stream(w.hidden()).mapToObj(Integer::toString).toList());
-        ask(to, from, String.format(Locale.ROOT, "load %s %s %d %s %d %d %d %d %s", w.key(), dir, w.inputs(), hidden,
+        PeerFiles.ask(to, from, String.format(Locale.ROOT, "load %s %s %d %s %d %d %d %d %s", w.key(), dir, w.inputs(), hidden,
                 w.classes(), w.batch(), w.rows(), w.epochs(), Double.toString(w.rate())));
         Trainer trainer = w.trainer(data);
         long examples = w.examples();
@@ -244,20 +244,8 @@ public final class PeerSpeed {
 
     private static Timing runPeer(PrintWriter to, BufferedReader from, Workload w, String variant, int first,
             int count) throws IOException {
-        String[] reply = ask(to, from, "run " + w.key() + " " + variant + " " + first + " " + count).split(" ");
+        String[] reply = PeerFiles.ask(to, from, "run " + w.key() + " " + variant + " " + first + " " + count).split(" ");
         return new Timing(Double.parseDouble(reply[0]) / count, Double.parseDouble(reply[1]) / count);
-    }
-
-    private static String ask(PrintWriter to, BufferedReader from, String command) throws IOException {
-        to.println(command);
-        String line = from.readLine();
-        if (line == null) {
-            throw new IOException("the peer process ended (command: " + command + ")");
-        }
-        if (!line.startsWith("ok")) {
-            throw new IOException("the peer answered '" + line + "' to: " + command);
-        }
-        return line.substring(2).trim();
     }
 
     static double median(double[] values) {

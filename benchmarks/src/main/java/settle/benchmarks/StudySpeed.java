@@ -5,8 +5,6 @@ import java.io.IOException;
 import java.io.InputStreamReader;
 import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
-import java.nio.ByteBuffer;
-import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -123,7 +121,7 @@ public final class StudySpeed {
         List<String> table = new ArrayList<>();
         try (PrintWriter to = new PrintWriter(new OutputStreamWriter(process.getOutputStream(), StandardCharsets.UTF_8), true);
                 BufferedReader from = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8))) {
-            System.out.println("peer: " + ask(to, from, "version") + " (OMP/OPENBLAS/MKL_NUM_THREADS=1)");
+            System.out.println("peer: " + PeerFiles.ask(to, from, "version") + " (OMP/OPENBLAS/MKL_NUM_THREADS=1)");
             System.out.println("both sides: float64, 1 training thread, by CPU time of the whole process (settle's "
                     + "JVM: training thread, garbage collector and JIT; the peer: time.process_time()); " + rounds + " interleaved rounds (fusion on, fusion off, peer) after one warm-up round");
             System.out.println();
@@ -183,7 +181,7 @@ public final class StudySpeed {
             averaged[a] = context.plan().arms().get(a).average() == ArmPlan.Averaging.TAIL;
             averageFlags.append(a == 0 ? "" : ",").append(averaged[a] ? 1 : 0);
         }
-        ask(to, from, String.format(Locale.ROOT, "study %s %s %d %s %d %d %d %d %s %s", w.key, dir, train.features(),
+        PeerFiles.ask(to, from, String.format(Locale.ROOT, "study %s %s %d %s %d %d %d %d %s %s", w.key, dir, train.features(),
                 hidden, train.classes(), base.batch(), base.epochs(), arms, Double.toString(context.model().l2()),
                 averageFlags));
 
@@ -204,7 +202,7 @@ public final class StudySpeed {
             Map<ReplicateKey, ReplicateOutcome> outOff = new java.util.HashMap<>();
             Timing s = runSettle(context, together, outOn);
             Timing sOff = runSettle(context, apart, outOff);
-            String[] reply = ask(to, from, "trainstudy " + w.key + " 1 " + replicates).split(" ");
+            String[] reply = PeerFiles.ask(to, from, "trainstudy " + w.key + " 1 " + replicates).split(" ");
             Timing p = new Timing(Double.parseDouble(reply[0]), Double.parseDouble(reply[1]), Double.NaN);
             boolean warmUp = round == 0;
             System.out.printf(Locale.ROOT, "  %s: fusion on %.3f s (cpu %.3f, thread %.3f), fusion off %.3f s (cpu %.3f, "
@@ -392,47 +390,23 @@ public final class StudySpeed {
      */
     private static void writePeerData(String key, Path dir, Dataset train, Dataset test, StudyContext context,
             TailPlan tail, int arms) throws IOException {
-        writeDoubles(dir.resolve(key + ".train.x"), train.featureMatrix());
-        writeInts(dir.resolve(key + ".train.y"), train.labels());
-        writeDoubles(dir.resolve(key + ".test.x"), test.featureMatrix());
-        writeInts(dir.resolve(key + ".test.y"), test.labels());
+        PeerFiles.writeDoubles(dir.resolve(key + ".train.x"), train.featureMatrix());
+        PeerFiles.writeInts(dir.resolve(key + ".train.y"), train.labels());
+        PeerFiles.writeDoubles(dir.resolve(key + ".test.x"), test.featureMatrix());
+        PeerFiles.writeInts(dir.resolve(key + ".test.y"), test.labels());
         List<double[]> planned = context.plannedRates();
         int t = planned.get(0).length;
         double[] rates = new double[arms * t];
         for (int a = 0; a < arms; a++) {
             System.arraycopy(planned.get(a), 0, rates, a * t, t);
         }
-        writeDoubles(dir.resolve(key + ".rates"), rates);
+        PeerFiles.writeDoubles(dir.resolve(key + ".rates"), rates);
         long[] snapshots = tail.snapshotUpdates();
         int[] tailInfo = new int[snapshots.length + 1];
         tailInfo[0] = (int) tail.firstUpdate();
         for (int s = 0; s < snapshots.length; s++) {
             tailInfo[s + 1] = (int) snapshots[s];
         }
-        writeInts(dir.resolve(key + ".tail"), tailInfo);
-    }
-
-    private static void writeDoubles(Path file, double[] values) throws IOException {
-        ByteBuffer bytes = ByteBuffer.allocate(values.length * 8).order(ByteOrder.LITTLE_ENDIAN);
-        bytes.asDoubleBuffer().put(values);
-        Files.write(file, bytes.array());
-    }
-
-    private static void writeInts(Path file, int[] values) throws IOException {
-        ByteBuffer bytes = ByteBuffer.allocate(values.length * 4).order(ByteOrder.LITTLE_ENDIAN);
-        bytes.asIntBuffer().put(values);
-        Files.write(file, bytes.array());
-    }
-
-    private static String ask(PrintWriter to, BufferedReader from, String command) throws IOException {
-        to.println(command);
-        String line = from.readLine();
-        if (line == null) {
-            throw new IOException("the peer process ended (command: " + command + ")");
-        }
-        if (!line.startsWith("ok")) {
-            throw new IOException("the peer answered '" + line + "' to: " + command);
-        }
-        return line.substring(2).trim();
+        PeerFiles.writeInts(dir.resolve(key + ".tail"), tailInfo);
     }
 }

@@ -1,11 +1,6 @@
 package settle.benchmarks;
 
-import java.io.DataOutputStream;
 import java.io.IOException;
-import java.io.OutputStream;
-import java.nio.ByteBuffer;
-import java.nio.ByteOrder;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -176,15 +171,7 @@ public record Workload(String key, int inputs, int[] hidden, int classes, int ba
      * (N int32, little-endian).
      */
     public void write(Dataset data, Path dir) throws IOException {
-        double[] x = data.featureMatrix();
-        ByteBuffer bytes = ByteBuffer.allocate(x.length * 8).order(ByteOrder.LITTLE_ENDIAN);
-        bytes.asDoubleBuffer().put(x);
-        Files.write(dir.resolve(key + ".x"), bytes.array());
-        int[] y = data.labels();
-        ByteBuffer labels = ByteBuffer.allocate(y.length * 4).order(ByteOrder.LITTLE_ENDIAN);
-        labels.asIntBuffer().put(y);
-        try (OutputStream out = new DataOutputStream(Files.newOutputStream(dir.resolve(key + ".y")))) {
-            out.write(labels.array());
-        }
+        PeerFiles.writeDoubles(dir.resolve(key + ".x"), data.featureMatrix());
+        PeerFiles.writeInts(dir.resolve(key + ".y"), data.labels());
     }
 }
