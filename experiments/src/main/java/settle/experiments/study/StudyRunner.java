@@ -317,6 +317,7 @@ public final class StudyRunner {
         if (fresh) {
             clear();
         } else {
+            refuseForeignNudges();
             arrangeArms();
         }
     }
@@ -649,16 +650,35 @@ public final class StudyRunner {
             }
         }
         for (NudgeRecord n : logged) {
-            // by name: the arm may stand elsewhere in a plan that grew
-            int a = LockstepRunner.armIndex(plan, n.arm());
-            if (a < 1 || !plan.arms().get(a - 1).manual()) {
-                throw BadInputException.inFile(directory.resolve(StudyFormat.NUDGES).toString(), "", "a nudge of arm "
-                        + n.armIndex() + " " + BadInputException.shown(n.arm()) + ", which is not a manual arm of this plan; use"
-                        + " --fresh to discard the study");
-            }
-            context.nudgeLog(a).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
+            context.nudgeLog(manualArm(n)).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
         }
         return logged;
+    }
+
+    /**
+     * Refuses a study whose {@code nudges.csv} holds a nudge of an arm that is not a manual arm of this plan; called
+     * before the run writes or moves anything, so the refusal leaves the study as it was.
+     */
+    private void refuseForeignNudges() throws IOException {
+        for (NudgeRecord n : NudgesCsv.read(directory)) {
+            manualArm(n);
+        }
+    }
+
+    /**
+     * @return the index of the manual arm of this plan that {@code n} nudged, found by name (the arm may stand
+     *     elsewhere in a plan that grew)
+     * @throws BadInputException when no manual arm of this plan has its name
+     */
+    private int manualArm(NudgeRecord n) {
+        Plan plan = context.plan();
+        int a = LockstepRunner.armIndex(plan, n.arm());
+        if (a < 1 || !plan.arms().get(a - 1).manual()) {
+            throw BadInputException.inFile(directory.resolve(StudyFormat.NUDGES).toString(), "", "a nudge of arm "
+                    + n.armIndex() + " " + BadInputException.shown(n.arm()) + ", which is not a manual arm of this plan;"
+                    + " use --fresh to discard the study");
+        }
+        return a;
     }
 
     /**

@@ -262,4 +262,28 @@ class GrowStudyTest {
         assertEquals(2, run.exit());
         assertTrue(run.err().contains(": changed since this study was run: seed: 8 (was 7); "), run.err());
     }
+
+    @Test
+    void aRefusedNudgeLogLeavesTheStudyAsItWas() throws Exception {
+        // A run that refuses the study's nudges.csv (a nudge of an arm that is not a manual arm of the new plan) must
+        // refuse before it writes plan.yaml or retires an arm, like every other refusal of a study
+        String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
+        Path study = dir.resolve("study");
+        Run first = run(plan(2, steered, CONSTANT), study);
+        assertEquals(0, first.exit(), first.err());
+        Files.writeString(study.resolve("nudges.csv"), "arm_index,arm,from_epoch,factor,rate,note,time,request\n"
+                + "1,steered,2,0.5,0.15,flat,2026-12-05T10:00:00Z,r1\n");
+        Map<Path, byte[]> before = replicateBytes(study);
+        byte[] plan = Files.readAllBytes(study.resolve("plan.yaml"));
+        byte[] manifest = Files.readAllBytes(study.resolve("manifest.json"));
+
+        Run run = run(plan(2, CONSTANT, STEP), study);
+        assertEquals(2, run.exit(), run.err());
+        assertEquals(study.resolve("nudges.csv") + ": a nudge of arm 1 'steered', which is not a manual arm of this"
+                + " plan; use --fresh to discard the study", run.err());
+        assertEquals(before.keySet(), replicateBytes(study).keySet(), "no arm retired, nothing trained");
+        assertFalse(Files.exists(study.resolve("retired")), "no arm retired");
+        assertArrayEquals(plan, Files.readAllBytes(study.resolve("plan.yaml")), "plan.yaml untouched");
+        assertArrayEquals(manifest, Files.readAllBytes(study.resolve("manifest.json")), "the manifest untouched");
+    }
 }
