@@ -16,6 +16,8 @@ import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import settle.reports.format.StudyReader;
+import settle.reports.metrics.ArmNudges;
 
 /**
  * Growing a study: {@code settle run} on an existing study directory whose shared settings (seed, data, model,
@@ -285,5 +287,24 @@ class GrowStudyTest {
         assertFalse(Files.exists(study.resolve("retired")), "no arm retired");
         assertArrayEquals(plan, Files.readAllBytes(study.resolve("plan.yaml")), "plan.yaml untouched");
         assertArrayEquals(manifest, Files.readAllBytes(study.resolve("manifest.json")), "the manifest untouched");
+    }
+
+    @Test
+    void aNudgeStaysWithItsArmWhenTheArmsAreReordered() throws Exception {
+        // nudges.csv records the arm's index at the time of the nudge; a plan that grew may have moved the arm, and
+        // the report must mark the nudge on the arm of that name, as the runner replays it
+        String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
+        Path study = dir.resolve("study");
+        Run first = run(plan(2, steered, CONSTANT), study);
+        assertEquals(0, first.exit(), first.err());
+        Files.writeString(study.resolve("nudges.csv"), "arm_index,arm,from_epoch,factor,rate,note,time,request\n"
+                + "1,steered,2,0.5,0.15,flat,2026-12-05T10:00:00Z,r1\n");
+
+        Run run = run(plan(2, CONSTANT, steered), study);
+        assertEquals(0, run.exit(), run.err());
+        List<List<ArmNudges.Mark>> marks = ArmNudges.of(StudyReader.read(study));
+        assertEquals(List.of(), marks.get(0), "constant, now arm 1, was never nudged");
+        assertEquals(1, marks.get(1).size(), "steered, now arm 2, has its nudge");
+        assertEquals(0.5, marks.get(1).get(0).factor());
     }
 }

@@ -42,8 +42,11 @@ public final class ArmNudges {
         List<List<Mark>> out = new ArrayList<>();
         for (int a = 0; a < arms; a++) {
             List<Mark> marks = new ArrayList<>();
+            // by name, as the runner replays them: nudges.csv records the arm's index when it was nudged, and a
+            // study that grew since may have moved the arm
+            String name = study.manifest().arms().get(a);
             for (NudgeRecord r : study.nudgeLog()) {
-                if (r.armIndex() == a + 1) {
+                if (r.arm().equals(name)) {
                     marks.add(new Mark(a, r.fromEpoch(), r.factor(), r.rate(), r.note(), r.time()));
                 }
             }
