@@ -317,7 +317,8 @@ public final class StudyRunner {
         if (fresh) {
             clear();
         } else {
-            refuseForeignNudges();
+            // a damaged nudges.csv is refused here, before the run writes or moves anything
+            NudgesCsv.read(directory);
             arrangeArms();
         }
     }
@@ -639,7 +640,9 @@ public final class StudyRunner {
 
     /**
      * Puts the nudges recorded in {@code nudges.csv} (by the run this one resumes) back into the manual arms'
-     * logs, so the replicates still to train replay them.
+     * logs, so the replicates still to train replay them. A nudge is the arm's of that name (the arm may stand
+     * elsewhere in a plan that grew); one of an arm that is not a manual arm of this plan (removed from the plan, its
+     * directory retired) is not replayed but stays in {@code nudges.csv}, for when the arm is put back.
      */
     private List<NudgeRecord> replayLoggedNudges() throws IOException {
         List<NudgeRecord> logged = NudgesCsv.read(directory);
@@ -650,35 +653,12 @@ public final class StudyRunner {
             }
         }
         for (NudgeRecord n : logged) {
-            context.nudgeLog(manualArm(n)).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
+            int a = LockstepRunner.armIndex(plan, n.arm());
+            if (a >= 1 && plan.arms().get(a - 1).manual()) {
+                context.nudgeLog(a).append(new NudgeLog.Entry(n.fromEpoch(), n.factor(), n.note()));
+            }
         }
         return logged;
-    }
-
-    /**
-     * Refuses a study whose {@code nudges.csv} holds a nudge of an arm that is not a manual arm of this plan; called
-     * before the run writes or moves anything, so the refusal leaves the study as it was.
-     */
-    private void refuseForeignNudges() throws IOException {
-        for (NudgeRecord n : NudgesCsv.read(directory)) {
-            manualArm(n);
-        }
-    }
-
-    /**
-     * @return the index of the manual arm of this plan that {@code n} nudged, found by name (the arm may stand
-     *     elsewhere in a plan that grew)
-     * @throws BadInputException when no manual arm of this plan has its name
-     */
-    private int manualArm(NudgeRecord n) {
-        Plan plan = context.plan();
-        int a = LockstepRunner.armIndex(plan, n.arm());
-        if (a < 1 || !plan.arms().get(a - 1).manual()) {
-            throw BadInputException.inFile(directory.resolve(StudyFormat.NUDGES).toString(), "", "a nudge of arm "
-                    + n.armIndex() + " " + BadInputException.shown(n.arm()) + ", which is not a manual arm of this plan;"
-                    + " use --fresh to discard the study");
-        }
-        return a;
     }
 
     /**

@@ -267,26 +267,49 @@ class GrowStudyTest {
 
     @Test
     void aRefusedNudgeLogLeavesTheStudyAsItWas() throws Exception {
-        // A run that refuses the study's nudges.csv (a nudge of an arm that is not a manual arm of the new plan) must
-        // refuse before it writes plan.yaml or retires an arm, like every other refusal of a study
+        // A run that refuses the study's nudges.csv must refuse before it writes plan.yaml or retires an arm, like
+        // every other refusal of a study
         String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
         Path study = dir.resolve("study");
         Run first = run(plan(2, steered, CONSTANT), study);
         assertEquals(0, first.exit(), first.err());
         Files.writeString(study.resolve("nudges.csv"), "arm_index,arm,from_epoch,factor,rate,note,time,request\n"
-                + "1,steered,2,0.5,0.15,flat,2026-12-05T10:00:00Z,r1\n");
+                + "1,steered,2,half,0.15,flat,2026-12-05T10:00:00Z,r1\n");
         Map<Path, byte[]> before = replicateBytes(study);
         byte[] plan = Files.readAllBytes(study.resolve("plan.yaml"));
         byte[] manifest = Files.readAllBytes(study.resolve("manifest.json"));
 
         Run run = run(plan(2, CONSTANT, STEP), study);
         assertEquals(2, run.exit(), run.err());
-        assertEquals(study.resolve("nudges.csv") + ": a nudge of arm 1 'steered', which is not a manual arm of this"
-                + " plan; use --fresh to discard the study", run.err());
+        assertTrue(run.err().startsWith(study.resolve("nudges.csv") + ":2:"), run.err());
+        assertEquals(-1, run.err().indexOf('\n'), "one line");
         assertEquals(before.keySet(), replicateBytes(study).keySet(), "no arm retired, nothing trained");
         assertFalse(Files.exists(study.resolve("retired")), "no arm retired");
         assertArrayEquals(plan, Files.readAllBytes(study.resolve("plan.yaml")), "plan.yaml untouched");
         assertArrayEquals(manifest, Files.readAllBytes(study.resolve("manifest.json")), "the manifest untouched");
+    }
+
+    @Test
+    void aNudgedManualArmIsRetiredLikeAnyOtherAndComesBackWithItsNudges() throws Exception {
+        // Removing a manual arm that was nudged grows the study like removing any arm: its directory is retired and
+        // its nudges stay in nudges.csv, replayed when the arm is put back
+        String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
+        Path study = dir.resolve("study");
+        assertEquals(0, run(plan(2, steered, CONSTANT), study).exit());
+        String log = "arm_index,arm,from_epoch,factor,rate,note,time,request\r\n"
+                + "1,steered,2,0.5,0.15,flat,2026-12-05T10:00:00Z,r1\r\n";
+        Files.writeString(study.resolve("nudges.csv"), log);
+        String id = armId(study, "steered");
+
+        Run removed = run(plan(3, CONSTANT, STEP), study);
+        assertEquals(0, removed.exit(), removed.err());
+        assertTrue(Files.isDirectory(study.resolve("retired").resolve(id)), "steered retired");
+        assertEquals(log, Files.readString(study.resolve("nudges.csv")), "its nudges kept");
+
+        Run back = run(plan(2, steered, CONSTANT, STEP), study);
+        assertEquals(0, back.exit(), back.err());
+        assertEquals(0, back.trainedNow(), "steered's replicates moved back, nothing trained");
+        assertEquals(1, ArmNudges.of(StudyReader.read(study)).get(0).size(), "its nudge shown on it again");
     }
 
     @Test
