@@ -36,9 +36,11 @@ public final class SharedSettings {
         List<String> out = new ArrayList<>();
         for (Map.Entry<String, String> e : is.entrySet()) {
             String old = was.get(e.getKey());
-            if (!e.getValue().equals(old)) {
-                out.add(e.getKey() + ": " + shown(e.getValue()) + " (was " + (old == null ? "not set" : shown(old))
-                        + ")");
+            if (old == null) {
+                out.add(e.getKey() + ": " + shown(e.getValue()) + " (was not set)");
+            } else if (!e.getValue().equals(old)) {
+                int from = shownFrom(e.getValue(), old);
+                out.add(e.getKey() + ": " + shown(e.getValue(), from) + " (was " + shown(old, from) + ")");
             }
         }
         for (Map.Entry<String, String> e : was.entrySet()) {
@@ -52,6 +54,32 @@ public final class SharedSettings {
     /** @return a value as a message shows it: a number or a plain word as it is, anything else quoted */
     private static String shown(String value) {
         return value.matches("[A-Za-z0-9_.+-]{1,60}") ? value : BadInputException.shown(value);
+    }
+
+    /** How many characters before the first difference a long value is shown from. */
+    private static final int BEFORE_DIFFERENCE = 20;
+
+    /**
+     * @return where to start showing two values that differ: 0, unless a message cut to
+     *     {@link BadInputException#SHOWN_LIMIT} characters would cut both before their first difference (a long data
+     *     source whose end changed), then a little before that difference
+     */
+    static int shownFrom(String now, String was) {
+        int d = 0;
+        while (d < now.length() && d < was.length() && now.charAt(d) == was.charAt(d)) {
+            d++;
+        }
+        int limit = BadInputException.SHOWN_LIMIT;
+        if (d < limit - BEFORE_DIFFERENCE / 2 || now.length() <= limit && was.length() <= limit) {
+            return 0;
+        }
+        int from = d - BEFORE_DIFFERENCE;
+        return Character.isLowSurrogate(now.charAt(from)) ? from - 1 : from;
+    }
+
+    /** @return {@link #shown(String)} of the value from {@code from} on, marked with a leading … when cut */
+    private static String shown(String value, int from) {
+        return from == 0 ? shown(value) : "'…" + BadInputException.shown(value.substring(from)).substring(1);
     }
 
     /** @return the shared keys of a resolved plan's text as dotted paths, each with its value as one line */

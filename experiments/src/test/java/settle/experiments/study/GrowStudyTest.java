@@ -330,4 +330,17 @@ class GrowStudyTest {
         assertEquals(1, marks.get(1).size(), "steered, now arm 2, has its nudge");
         assertEquals(0.5, marks.get(1).get(0).factor());
     }
+
+    @Test
+    void aLongSettingThatChangedNearItsEndIsShownAroundTheChange() throws Exception {
+        // values are cut to 60 characters in a message; a data source that changed in its 70th character would show
+        // the same cut text twice, so the line shows each from a little before the first difference
+        Path study = dir.resolve("study");
+        assertEquals(0, run(plan(2, CONSTANT, STEP), study).exit());
+        Run run = run(plan(2, CONSTANT, STEP).replace("separation=1.5&seed=3", "separation=1.5&seed=4"), study);
+        assertEquals(2, run.exit());
+        assertTrue(run.err().contains(": changed since this study was run: data.source:"
+                + " '…separation=1.5&seed=4' (was '…separation=1.5&seed=3'), the data (its SHA-256); "),
+                run.err());
+    }
 }
