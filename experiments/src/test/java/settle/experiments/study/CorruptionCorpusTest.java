@@ -167,6 +167,17 @@ class CorruptionCorpusTest {
                     }
                     return sealed(c);
                 }, true, "2.json", ": last: holds 3 values; expected 4"),
+                new Damage("a vector written as a matrix", "2.bin", b -> {
+                    // θ_T's 4 values, the same bytes, but the table says 2 rows of 2
+                    byte[] c = b.clone();
+                    for (int i = 0; i < ByteBuffer.wrap(b).order(ByteOrder.LITTLE_ENDIAN).getInt(12); i++) {
+                        if (new String(b, 16 + 48 * i, 32, StandardCharsets.US_ASCII).startsWith("last\0")) {
+                            ByteBuffer.wrap(c).order(ByteOrder.LITTLE_ENDIAN).putInt(16 + 48 * i + 32, 2)
+                                    .putInt(16 + 48 * i + 36, 2);
+                        }
+                    }
+                    return sealed(c);
+                }, true, "2.bin", ": last: is 2 × 2; a vector is written as 1 row"),
                 new Damage("a predicted class that is not the most probable", "2.bin", b -> {
                     // row 1's stored class moves to the other column of the two: its probability is the smaller
                     byte[] c = b.clone();

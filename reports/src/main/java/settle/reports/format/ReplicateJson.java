@@ -467,6 +467,10 @@ public final class ReplicateJson {
             int dot = block.name().indexOf('.');
             Obj into = r;
             String key = block.name();
+            if (dot < 0 && block.rows() != 1) {
+                throw BadInputException.inFile(binaryFile, block.name(), "is " + block.rows() + " × "
+                        + block.columns() + "; a vector is written as 1 row");
+            }
             if (dot > 0) {
                 into = r.object(block.name().substring(0, dot));
                 key = block.name().substring(dot + 1);
