@@ -36,6 +36,10 @@ class GrowStudyTest {
     private static final String AVERAGED = "  - name: averaged\n    schedule: {kind: constant, rate: 0.3}\n"
             + "    average: tail";
     private static final String STEP = "  - name: cosine\n    schedule: {kind: cosine, rate: 0.3, floor: 0.003}";
+    /** A manual arm. */
+    private static final String STEERED = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n"
+            + "    manual: true";
+    private static final String NUDGE_HEADER = "arm_index,arm,from_epoch,factor,rate,note,time,request";
 
     @TempDir
     Path dir;
@@ -265,16 +269,26 @@ class GrowStudyTest {
         assertTrue(run.err().contains(": changed since this study was run: seed: 8 (was 7); "), run.err());
     }
 
+    /**
+     * Runs a study of the manual arm {@code steered} then {@code constant}, 2 replicates, and writes its nudges.csv
+     * by hand: one nudge of steered (arm 1) from epoch 2 by {@code factor} (the text as the file holds it).
+     *
+     * @return the study directory
+     */
+    private Path nudgedStudy(String factor) throws Exception {
+        Path study = dir.resolve("study");
+        Run first = run(plan(2, STEERED, CONSTANT), study);
+        assertEquals(0, first.exit(), first.err());
+        Files.writeString(study.resolve("nudges.csv"), NUDGE_HEADER + "\r\n1,steered,2," + factor
+                + ",0.15,flat,2026-12-05T10:00:00Z,r1\r\n");
+        return study;
+    }
+
     @Test
     void aRefusedNudgeLogLeavesTheStudyAsItWas() throws Exception {
         // A run that refuses the study's nudges.csv must refuse before it writes plan.yaml or retires an arm, like
         // every other refusal of a study
-        String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
-        Path study = dir.resolve("study");
-        Run first = run(plan(2, steered, CONSTANT), study);
-        assertEquals(0, first.exit(), first.err());
-        Files.writeString(study.resolve("nudges.csv"), "arm_index,arm,from_epoch,factor,rate,note,time,request\n"
-                + "1,steered,2,half,0.15,flat,2026-12-05T10:00:00Z,r1\n");
+        Path study = nudgedStudy("half");
         Map<Path, byte[]> before = replicateBytes(study);
         byte[] plan = Files.readAllBytes(study.resolve("plan.yaml"));
         byte[] manifest = Files.readAllBytes(study.resolve("manifest.json"));
@@ -293,12 +307,8 @@ class GrowStudyTest {
     void aNudgedManualArmIsRetiredLikeAnyOtherAndComesBackWithItsNudges() throws Exception {
         // Removing a manual arm that was nudged grows the study like removing any arm: its directory is retired and
         // its nudges stay in nudges.csv, replayed when the arm is put back
-        String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
-        Path study = dir.resolve("study");
-        assertEquals(0, run(plan(2, steered, CONSTANT), study).exit());
-        String log = "arm_index,arm,from_epoch,factor,rate,note,time,request\r\n"
-                + "1,steered,2,0.5,0.15,flat,2026-12-05T10:00:00Z,r1\r\n";
-        Files.writeString(study.resolve("nudges.csv"), log);
+        Path study = nudgedStudy("0.5");
+        String log = Files.readString(study.resolve("nudges.csv"));
         String id = armId(study, "steered");
 
         Run removed = run(plan(3, CONSTANT, STEP), study);
@@ -306,7 +316,7 @@ class GrowStudyTest {
         assertTrue(Files.isDirectory(study.resolve("retired").resolve(id)), "steered retired");
         assertEquals(log, Files.readString(study.resolve("nudges.csv")), "its nudges kept");
 
-        Run back = run(plan(2, steered, CONSTANT, STEP), study);
+        Run back = run(plan(2, STEERED, CONSTANT, STEP), study);
         assertEquals(0, back.exit(), back.err());
         assertEquals(0, back.trainedNow(), "steered's replicates moved back, nothing trained");
         assertEquals(1, ArmNudges.of(StudyReader.read(study)).get(0).size(), "its nudge shown on it again");
@@ -316,14 +326,9 @@ class GrowStudyTest {
     void aNudgeStaysWithItsArmWhenTheArmsAreReordered() throws Exception {
         // nudges.csv records the arm's index at the time of the nudge; a plan that grew may have moved the arm, and
         // the report must mark the nudge on the arm of that name, as the runner replays it
-        String steered = "  - name: steered\n    schedule: {kind: constant, rate: 0.3}\n    manual: true";
-        Path study = dir.resolve("study");
-        Run first = run(plan(2, steered, CONSTANT), study);
-        assertEquals(0, first.exit(), first.err());
-        Files.writeString(study.resolve("nudges.csv"), "arm_index,arm,from_epoch,factor,rate,note,time,request\n"
-                + "1,steered,2,0.5,0.15,flat,2026-12-05T10:00:00Z,r1\n");
+        Path study = nudgedStudy("0.5");
 
-        Run run = run(plan(2, CONSTANT, steered), study);
+        Run run = run(plan(2, CONSTANT, STEERED), study);
         assertEquals(0, run.exit(), run.err());
         List<List<ArmNudges.Mark>> marks = ArmNudges.of(StudyReader.read(study));
         assertEquals(List.of(), marks.get(0), "constant, now arm 1, was never nudged");
