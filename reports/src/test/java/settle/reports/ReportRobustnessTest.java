@@ -109,6 +109,24 @@ class ReportRobustnessTest {
     }
 
     @Test
+    void aStudyWithNoReplicateYetIsDrawnWhole() throws Exception {
+        // a run stopped before its first replicate finished leaves a manifest and no replicate file: every section
+        // still draws (the rate chart's epochs come from the manifest's training, not from the replicates)
+        SyntheticStudy s = new SyntheticStudy();
+        s.arm("constant", false, REPLICATES);
+        s.arm("cosine", false, REPLICATES);
+        List<String> skip = new java.util.ArrayList<>();
+        for (int a = 1; a <= 2; a++) {
+            for (int k = 1; k <= REPLICATES; k++) {
+                skip.add(a + "/" + k);
+            }
+        }
+        Report.Outcome outcome = Report.write(s.write(dir.resolve("none"), skip.toArray(String[]::new)));
+        assertEquals(List.of(), outcome.failedSections(), "every section drawn");
+        assertEquals(2 * REPLICATES, outcome.missing());
+    }
+
+    @Test
     void axesIgnoreWhatCannotBeDrawnAndCapTheirSpan() {
         Axis wide = Axis.log(1e-300, 1e300, "v");
         assertTrue(wide.max() >= 0.999e300 && Math.log10(wide.max() / wide.min()) <= Axis.MAX_DECADES * 1.1,

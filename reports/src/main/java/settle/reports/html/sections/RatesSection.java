@@ -80,7 +80,8 @@ final class RatesSection implements Section {
         int perEpoch = Math.max(1, study.manifest().updatesPerEpoch());
         double lo = Double.POSITIVE_INFINITY;
         double hi = 0;
-        double xMax = 1;
+        // the planned run's last epoch, so that the axis stands before any replicate has finished
+        double xMax = 1 + (double) study.manifest().plannedUpdates() / perEpoch;
         for (int a = 0; a < study.armCount(); a++) {
             for (Replicate r : Replicates.withOwnRates(study, a)) {
                 for (double v : r.rates()) {
