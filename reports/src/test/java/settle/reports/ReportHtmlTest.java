@@ -72,6 +72,26 @@ class ReportHtmlTest {
     }
 
     @Test
+    void theExecutorNamesItsThreadsOnceAndInTheRightNumber() throws Exception {
+        SyntheticStudy local = new SyntheticStudy();
+        local.finalGap(local.arm("constant", false, 2), new double[] {1.0, 2.0});
+        local.executor = "local thread pool, 1 thread";
+        Path one = local.write(dir.resolve("one"));
+        Report.write(one);
+        String html = Files.readString(one.resolve("report.html"));
+        assertTrue(html.contains("local thread pool, 1 thread<"), "the local executor already says its threads");
+        assertFalse(html.contains("threads)") || html.contains("(1 thread"), "no second, ungrammatical count");
+
+        SyntheticStudy spark = new SyntheticStudy();
+        spark.finalGap(spark.arm("constant", false, 2), new double[] {1.0, 2.0});
+        spark.executor = "spark local[2]";
+        spark.threads = 2;
+        Path two = spark.write(dir.resolve("two"));
+        Report.write(two);
+        assertTrue(Files.readString(two.resolve("report.html")).contains("spark local[2] (2 threads)"));
+    }
+
+    @Test
     void userStringsAreShownAsTextAndNothingIsFetched() throws Exception {
         Path study = hostileStudy(dir);
         Report.write(study);

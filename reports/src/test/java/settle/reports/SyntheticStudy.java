@@ -82,6 +82,9 @@ final class SyntheticStudy {
     String boundSkipped;
     /** The format every file records. */
     int format = 4;
+    /** The manifest's executor and threads. */
+    String executor = "test";
+    int threads = 1;
     /** The plan's momentum β, as the predictions and the manifest's {@code training} record it. */
     double momentum;
     /** The plan's sampling, as the predictions and the manifest's {@code training} record it. */
@@ -214,8 +217,8 @@ final class SyntheticStudy {
         tool.put("git_commit", "");
         m.putObject("jvm").put("vendor", "test").put("name", "test").put("version", "17");
         m.putObject("cpu").put("model", "test").put("arch", "amd64").put("cores", 2);
-        m.put("executor", "test");
-        m.put("threads", 1);
+        m.put("executor", executor);
+        m.put("threads", threads);
         m.putArray("command").add("settle").add("run").add("plan.yaml");
         m.put("generator", "L64X128MixRandom");
         m.put("root_seed", 7);

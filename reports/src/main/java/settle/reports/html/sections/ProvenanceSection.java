@@ -48,7 +48,9 @@ final class ProvenanceSection implements Section {
         fact(d, "command recorded", String.join(" ", manifest.command()));
         fact(d, "JVM", manifest.jvm());
         fact(d, "CPU", manifest.cpu());
-        fact(d, "executor", manifest.executor() + " (" + manifest.threads() + " threads)");
+        String threads = manifest.threads() + (manifest.threads() == 1 ? " thread" : " threads");
+        fact(d, "executor", manifest.executor().endsWith(threads) ? manifest.executor()
+                : manifest.executor() + " (" + threads + ")");
         fact(d, "started – ended", manifest.started() + " – " + (manifest.ended().isEmpty() ? "(not ended)"
                 : manifest.ended()));
         fact(d, "random generator", manifest.generator() + ", root seed " + manifest.rootSeed());
