@@ -17,6 +17,21 @@ final class PeerFiles {
     private PeerFiles() {
     }
 
+    /**
+     * Starts the peer: {@code python peer.py}, its BLAS and OpenMP pinned to one thread, its stderr on ours.
+     *
+     * @return the running peer, which reads commands on its stdin and answers on its stdout
+     */
+    static Process start(String python, String peer) throws IOException {
+        ProcessBuilder builder = new ProcessBuilder(python, peer);
+        java.util.Map<String, String> env = builder.environment();
+        env.put("OMP_NUM_THREADS", "1");
+        env.put("OPENBLAS_NUM_THREADS", "1");
+        env.put("MKL_NUM_THREADS", "1");
+        builder.redirectError(ProcessBuilder.Redirect.INHERIT);
+        return builder.start();
+    }
+
     /** Writes {@code values} as little-endian float64. */
     static void writeDoubles(Path file, double[] values) throws IOException {
         ByteBuffer bytes = ByteBuffer.allocate(values.length * 8).order(ByteOrder.LITTLE_ENDIAN);

@@ -13,7 +13,6 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
-import java.util.Map;
 import settle.datasets.Dataset;
 import settle.engine.model.FullBatch;
 import settle.engine.model.Kernels;
@@ -69,13 +68,7 @@ public final class PeerSpeed {
                 + "CPU time): %.1f GFLOP/s%n", Peak.lanes(), peak);
 
         Path dir = Files.createTempDirectory("settle-comparison");
-        ProcessBuilder builder = new ProcessBuilder(python, peer);
-        Map<String, String> env = builder.environment();
-        env.put("OMP_NUM_THREADS", "1");
-        env.put("OPENBLAS_NUM_THREADS", "1");
-        env.put("MKL_NUM_THREADS", "1");
-        builder.redirectError(ProcessBuilder.Redirect.INHERIT);
-        Process process = builder.start();
+        Process process = PeerFiles.start(python, peer);
         List<String[][]> table = new ArrayList<>();
         try (PrintWriter to = new PrintWriter(new OutputStreamWriter(process.getOutputStream(), StandardCharsets.UTF_8), true);
                 BufferedReader from = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8))) {

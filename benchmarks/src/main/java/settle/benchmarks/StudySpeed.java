@@ -111,13 +111,7 @@ public final class StudySpeed {
                 Runtime.getRuntime().availableProcessors(), Machine.jvm());
         System.out.printf(Locale.ROOT, "settle kernels: %s%n", Kernels.describe());
         Path dir = Files.createTempDirectory("settle-study-comparison");
-        ProcessBuilder builder = new ProcessBuilder(python, peer);
-        Map<String, String> env = builder.environment();
-        env.put("OMP_NUM_THREADS", "1");
-        env.put("OPENBLAS_NUM_THREADS", "1");
-        env.put("MKL_NUM_THREADS", "1");
-        builder.redirectError(ProcessBuilder.Redirect.INHERIT);
-        Process process = builder.start();
+        Process process = PeerFiles.start(python, peer);
         List<String> table = new ArrayList<>();
         try (PrintWriter to = new PrintWriter(new OutputStreamWriter(process.getOutputStream(), StandardCharsets.UTF_8), true);
                 BufferedReader from = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8))) {
